@@ -1,0 +1,19 @@
+package dev.tend.shared;
+
+import java.util.Locale;
+
+/** What a topology event says happened to a node: {@code joined}, {@code left} or {@code changed}. */
+public enum TopologyChange {
+    JOINED, LEFT, CHANGED;
+
+    public String wireName() {
+        return name().toLowerCase(Locale.ROOT);
+    }
+
+    public static TopologyChange parse(String wire) {
+        for (TopologyChange t : values()) {
+            if (t.wireName().equals(wire)) return t;
+        }
+        throw new IllegalArgumentException("topology must be joined, left or changed, got '" + wire + "'");
+    }
+}

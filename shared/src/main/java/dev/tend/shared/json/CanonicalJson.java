@@ -1,0 +1,180 @@
+package dev.tend.shared.json;
+
+import com.fasterxml.jackson.databind.JsonNode;
+
+import java.math.BigDecimal;
+import java.math.BigInteger;
+import java.math.MathContext;
+import java.math.RoundingMode;
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The JSON Canonicalization Scheme of RFC 8785: object members sorted by the UTF-16 code
+ * units of their names, no whitespace, strings with the minimal escapes, and numbers as
+ * ECMAScript prints IEEE 754 doubles (shortest round-trip digits).
+ *
+ * <p>Accepts Java values (Map with String keys, List, String, Number, Boolean, null) or a
+ * Jackson {@link JsonNode}. NaN and infinities are rejected, as RFC 8785 requires.
+ * Stateless and thread-safe.
+ */
+public final class CanonicalJson {
+    private CanonicalJson() {
+    }
+
+    public static String serialize(Object value) {
+        StringBuilder sb = new StringBuilder(128);
+        write(sb, value);
+        return sb.toString();
+    }
+
+    private static void write(StringBuilder sb, Object v) {
+        if (v == null) {
+            sb.append("null");
+        } else if (v instanceof JsonNode n) {
+            writeNode(sb, n);
+        } else if (v instanceof String s) {
+            writeString(sb, s);
+        } else if (v instanceof Boolean b) {
+            sb.append(b.booleanValue());
+        } else if (v instanceof Number num) {
+            sb.append(number(num.doubleValue()));
+        } else if (v instanceof Map<?, ?> m) {
+            List<String> keys = new ArrayList<>();
+            for (Object k : m.keySet()) {
+                if (!(k instanceof String ks)) throw new IllegalArgumentException("JSON object keys must be strings, got " + k);
+                keys.add(ks);
+            }
+            keys.sort(null); // String.compareTo orders by UTF-16 code units, as RFC 8785 section 3.2.3 asks
+            sb.append('{');
+            boolean first = true;
+            for (String k : keys) {
+                if (!first) sb.append(',');
+                first = false;
+                writeString(sb, k);
+                sb.append(':');
+                write(sb, m.get(k));
+            }
+            sb.append('}');
+        } else if (v instanceof Iterable<?> it) {
+            sb.append('[');
+            boolean first = true;
+            for (Object o : it) {
+                if (!first) sb.append(',');
+                first = false;
+                write(sb, o);
+            }
+            sb.append(']');
+        } else if (v instanceof Enum<?> e) {
+            writeString(sb, e.toString());
+        } else {
+            throw new IllegalArgumentException("not a JSON value: " + v.getClass().getName());
+        }
+    }
+
+    private static void writeNode(StringBuilder sb, JsonNode n) {
+        switch (n.getNodeType()) {
+            case NULL, MISSING -> sb.append("null");
+            case BOOLEAN -> sb.append(n.booleanValue());
+            case NUMBER -> sb.append(number(n.doubleValue()));
+            case STRING -> writeString(sb, n.textValue());
+            case ARRAY -> {
+                sb.append('[');
+                for (int i = 0; i < n.size(); i++) {
+                    if (i > 0) sb.append(',');
+                    writeNode(sb, n.get(i));
+                }
+                sb.append(']');
+            }
+            case OBJECT -> {
+                List<String> keys = new ArrayList<>();
+                for (Iterator<String> it = n.fieldNames(); it.hasNext(); ) keys.add(it.next());
+                keys.sort(null);
+                sb.append('{');
+                for (int i = 0; i < keys.size(); i++) {
+                    if (i > 0) sb.append(',');
+                    writeString(sb, keys.get(i));
+                    sb.append(':');
+                    writeNode(sb, n.get(keys.get(i)));
+                }
+                sb.append('}');
+            }
+            default -> throw new IllegalArgumentException("cannot canonicalize a " + n.getNodeType() + " node");
+        }
+    }
+
+    /** RFC 8785 section 3.2.2.2: the minimal escapes, everything else as is. */
+    static void writeString(StringBuilder sb, String s) {
+        sb.append('"');
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            switch (c) {
+                case '"' -> sb.append("\\\"");
+                case '\\' -> sb.append("\\\\");
+                case '\b' -> sb.append("\\b");
+                case '\f' -> sb.append("\\f");
+                case '\n' -> sb.append("\\n");
+                case '\r' -> sb.append("\\r");
+                case '\t' -> sb.append("\\t");
+                default -> {
+                    if (c < 0x20) sb.append(String.format("\\u%04x", (int) c));
+                    else sb.append(c);
+                }
+            }
+        }
+        sb.append('"');
+    }
+
+    /**
+     * Formats a double as ECMAScript's Number.prototype.toString does (RFC 8785 section
+     * 3.2.2.3): the shortest digits that read back as the same double, closest to the exact
+     * value, then plain notation for exponents from -6 to 20 and {@code d.ddde+N} otherwise.
+     */
+    public static String number(double d) {
+        if (Double.isNaN(d) || Double.isInfinite(d)) {
+            throw new IllegalArgumentException("RFC 8785 has no form for " + d + "; NaN and infinities are not JSON numbers");
+        }
+        if (d == 0) return "0"; // also -0
+        StringBuilder sb = new StringBuilder(32);
+        if (d < 0) {
+            sb.append('-');
+            d = -d;
+        }
+        BigDecimal exact = new BigDecimal(d);
+        BigDecimal shortest = null;
+        for (int p = 1; p <= 17; p++) {
+            BigDecimal candidate = exact.round(new MathContext(p, RoundingMode.HALF_EVEN));
+            if (candidate.doubleValue() == d) {
+                shortest = candidate;
+                break;
+            }
+        }
+        if (shortest == null) shortest = exact.round(new MathContext(17, RoundingMode.HALF_EVEN));
+        BigInteger unscaled = shortest.unscaledValue();
+        String digits = unscaled.toString();
+        int trailing = 0;
+        while (digits.length() - trailing > 1 && digits.charAt(digits.length() - 1 - trailing) == '0') trailing++;
+        digits = digits.substring(0, digits.length() - trailing);
+        int k = digits.length();
+        // value = 0.digits * 10^n, i.e. n is the position of the decimal point
+        int n = digits.length() + trailing - shortest.scale();
+        if (k <= n && n <= 21) {
+            sb.append(digits);
+            for (int i = 0; i < n - k; i++) sb.append('0');
+        } else if (0 < n && n <= 21) {
+            sb.append(digits, 0, n).append('.').append(digits, n, k);
+        } else if (-6 < n && n <= 0) {
+            sb.append("0.");
+            for (int i = 0; i < -n; i++) sb.append('0');
+            sb.append(digits);
+        } else {
+            int e = n - 1;
+            sb.append(digits.charAt(0));
+            if (k > 1) sb.append('.').append(digits, 1, k);
+            sb.append('e').append(e < 0 ? '-' : '+').append(Math.abs(e));
+        }
+        return sb.toString();
+    }
+}
