@@ -1,0 +1,211 @@
+package dev.tend.shared.fleet;
+
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
+import dev.tend.shared.SignalKey;
+import dev.tend.shared.SignalState;
+import dev.tend.shared.TopologyChange;
+import dev.tend.shared.TopologyEvent;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.ArrayDeque;
+import java.util.Collections;
+import java.util.HashMap;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.TreeSet;
+
+/**
+ * The live fleet health view: the topology plus, per (cluster, node, signal), the latest
+ * state in event time. Events are ordered by {@code at} per key; an event older than the
+ * one applied for its key changes nothing and is counted as late. Counts of unhealthy
+ * clusters and impaired nodes are kept up to date as events arrive, so a guard asks them
+ * in constant time.
+ *
+ * <p>Not thread-safe: the engine owns one and applies events on one thread.
+ */
+public final class FleetHealthView {
+    /** How many recent state changes are kept per signal for flapping detection. */
+    private static final int CHANGE_HISTORY = 32;
+
+    private Fleet topology;
+    private final Map<SignalKey, SignalStatus> signals = new HashMap<>();
+    private final Map<SignalKey, ArrayDeque<Instant>> changes = new HashMap<>();
+    private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
+    /** Active problem signals per cluster (node and cluster level). */
+    private final Map<Id, Integer> problemsPerCluster = new HashMap<>();
+    /** Active problem signals per cluster-level target, and per node of each cluster. */
+    private final Map<Id, Map<Id, Integer>> problemsPerNode = new HashMap<>();
+    private final Map<Id, Integer> clusterLevelProblems = new HashMap<>();
+    private long lateEvents;
+    private long appliedEvents;
+
+    public FleetHealthView(Fleet topology) {
+        this.topology = topology;
+    }
+
+    public Fleet topology() {
+        return topology;
+    }
+
+    /** Applies a transition and says what it did. */
+    public ApplyOutcome apply(HealthTransition t) {
+        SignalKey key = t.key();
+        SignalStatus current = signals.get(key);
+        if (current != null && t.at().isBefore(current.lastAt())) {
+            lateEvents++;
+            return ApplyOutcome.LATE;
+        }
+        appliedEvents++;
+        if (current != null && current.state() == t.state()) {
+            signals.put(key, new SignalStatus(current.state(), current.since(), t.at()));
+            return ApplyOutcome.REPEATED;
+        }
+        if (current == null && t.state() == SignalState.CLEAR) {
+            signals.put(key, new SignalStatus(SignalState.CLEAR, t.at(), t.at()));
+            return ApplyOutcome.REPEATED;
+        }
+        boolean wasProblem = current != null && current.isProblem();
+        signals.put(key, new SignalStatus(t.state(), t.at(), t.at()));
+        ArrayDeque<Instant> history = changes.computeIfAbsent(key, k -> new ArrayDeque<>());
+        history.addLast(t.at());
+        if (history.size() > CHANGE_HISTORY) history.removeFirst();
+        if (t.state().isProblem() && !wasProblem) count(key, +1);
+        if (!t.state().isProblem() && wasProblem) count(key, -1);
+        return t.state().isProblem() ? ApplyOutcome.OPENED : ApplyOutcome.CLEARED;
+    }
+
+    /** Applies a topology event (joined, left, changed) in event-time order per node. */
+    public ApplyOutcome apply(TopologyEvent e) {
+        dev.tend.shared.Target key = dev.tend.shared.Target.node(e.cluster(), e.node());
+        Instant applied = topologyAppliedAt.get(key);
+        if (applied != null && e.at().isBefore(applied)) {
+            lateEvents++;
+            return ApplyOutcome.LATE;
+        }
+        appliedEvents++;
+        topologyAppliedAt.put(key, e.at());
+        ClusterSpec cluster = topology.cluster(e.cluster())
+                .orElse(new ClusterSpec(e.cluster(), Map.of(), null, false, java.util.List.of()));
+        if (e.change() == TopologyChange.LEFT) {
+            cluster = cluster.withoutNode(e.node());
+        } else {
+            NodeSpec node = cluster.node(e.node()).orElse(new NodeSpec(e.node(), null, Map.of()));
+            if (e.zone() != null) node = node.withZone(e.zone());
+            cluster = cluster.withNode(node);
+        }
+        topology = topology.withCluster(cluster);
+        return ApplyOutcome.TOPOLOGY;
+    }
+
+    private void count(SignalKey key, int delta) {
+        problemsPerCluster.merge(key.cluster(), delta, Integer::sum);
+        if (key.node() == null) {
+            clusterLevelProblems.merge(key.cluster(), delta, Integer::sum);
+        } else {
+            problemsPerNode.computeIfAbsent(key.cluster(), c -> new HashMap<>()).merge(key.node(), delta, Integer::sum);
+            Map<Id, Integer> nodes = problemsPerNode.get(key.cluster());
+            if (nodes.get(key.node()) == 0) nodes.remove(key.node());
+        }
+        if (problemsPerCluster.get(key.cluster()) == 0) problemsPerCluster.remove(key.cluster());
+        if (clusterLevelProblems.getOrDefault(key.cluster(), 1) == 0) clusterLevelProblems.remove(key.cluster());
+    }
+
+    public Optional<SignalStatus> status(SignalKey key) {
+        return Optional.ofNullable(signals.get(key));
+    }
+
+    /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
+    public boolean isActive(Id cluster, Id node, Id signal) {
+        SignalStatus s = signals.get(new SignalKey(cluster, node, signal));
+        return s != null && s.isProblem();
+    }
+
+    /** The signals in breach or silent on a node (or on the cluster itself when node is null), by name. */
+    public Map<Id, SignalStatus> activeSignals(Id cluster, Id node) {
+        Map<Id, SignalStatus> out = new TreeMap<>();
+        for (Map.Entry<SignalKey, SignalStatus> e : signals.entrySet()) {
+            SignalKey k = e.getKey();
+            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().isProblem()) {
+                out.put(k.signal(), e.getValue());
+            }
+        }
+        return out;
+    }
+
+    /** How many times the signal changed state at or after {@code since} (event time), up to the last 32. */
+    public int changesSince(SignalKey key, Instant since) {
+        ArrayDeque<Instant> h = changes.get(key);
+        if (h == null) return 0;
+        int n = 0;
+        for (Instant i : h) if (!i.isBefore(since)) n++;
+        return n;
+    }
+
+    public int changesWithin(SignalKey key, Instant now, Duration window) {
+        return changesSince(key, now.minus(window));
+    }
+
+    public boolean isNodeImpaired(Id cluster, Id node) {
+        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
+        return nodes != null && nodes.containsKey(node);
+    }
+
+    /** The nodes of a cluster with at least one signal in breach or silent. */
+    public Set<Id> impairedNodes(Id cluster) {
+        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
+        return nodes == null ? Set.of() : Collections.unmodifiableSet(new TreeSet<>(nodes.keySet()));
+    }
+
+    public boolean isUnhealthy(Id cluster) {
+        return problemsPerCluster.containsKey(cluster);
+    }
+
+    public ClusterHealth health(Id cluster) {
+        if (!problemsPerCluster.containsKey(cluster)) return ClusterHealth.HEALTHY;
+        if (clusterLevelProblems.containsKey(cluster)) return ClusterHealth.UNHEALTHY;
+        int impaired = impairedNodes(cluster).size();
+        int tolerated = topology.cluster(cluster).map(ClusterSpec::safeImpaired).orElse(Integer.MAX_VALUE);
+        return impaired > tolerated ? ClusterHealth.UNHEALTHY : ClusterHealth.IMPAIRED;
+    }
+
+    /** Clusters with any signal in breach or silent, on a node or the cluster itself. */
+    public int unhealthyClusterCount() {
+        return problemsPerCluster.size();
+    }
+
+    public Set<Id> unhealthyClusters() {
+        return Collections.unmodifiableSet(new TreeSet<>(problemsPerCluster.keySet()));
+    }
+
+    /** The fraction of the topology's clusters that are unhealthy (0 for an empty fleet). */
+    public double unhealthyFraction() {
+        int size = Math.max(topology.size(), problemsPerCluster.size());
+        return size == 0 ? 0 : (double) problemsPerCluster.size() / size;
+    }
+
+    /** Impaired nodes per zone across the fleet; nodes without a known zone count under "unknown". */
+    public Map<String, Integer> impairedPerZone() {
+        Map<String, Integer> out = new TreeMap<>();
+        for (Map.Entry<Id, Map<Id, Integer>> c : problemsPerNode.entrySet()) {
+            Optional<ClusterSpec> spec = topology.cluster(c.getKey());
+            for (Id node : c.getValue().keySet()) {
+                String zone = spec.flatMap(s -> s.node(node)).map(NodeSpec::zone).orElse(null);
+                out.merge(zone == null ? "unknown" : zone, 1, Integer::sum);
+            }
+        }
+        return out;
+    }
+
+    /** Events that arrived older than the one already applied for their key. */
+    public long lateEvents() {
+        return lateEvents;
+    }
+
+    public long appliedEvents() {
+        return appliedEvents;
+    }
+}
