@@ -1,6 +1,53 @@
 package dev.tend.cli;
 
-public final class TendMain {
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.TendException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+import java.io.PrintWriter;
+
+/** The {@code tend} command line. Each subcommand is one class. */
+@Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
+        description = "Remediation orchestrator with health gating.",
+        subcommands = {CheckCommand.class},
+        exitCodeListHeading = "%nExit codes:%n",
+        exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify)", "2:usage or input error"})
+public final class TendMain implements Runnable {
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
     public static void main(String[] args) {
+        System.exit(run(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+    }
+
+    /** Runs the CLI with the given streams and returns the exit code; used by tests too. */
+    public static int run(String[] args, PrintWriter out, PrintWriter err) {
+        CommandLine cli = new CommandLine(new TendMain());
+        cli.setOut(out);
+        cli.setErr(err);
+        cli.setExitCodeExceptionMapper(TendMain::exitCodeFor);
+        cli.setExecutionExceptionHandler((ex, cmd, parsed) -> {
+            if (ex instanceof InvalidInputException || ex instanceof TendException) {
+                cmd.getErr().println(ex.getMessage());
+            } else {
+                cmd.getErr().println("tend: unexpected failure: " + ex);
+                ex.printStackTrace(cmd.getErr());
+            }
+            return exitCodeFor(ex);
+        });
+        return cli.execute(args);
+    }
+
+    static int exitCodeFor(Throwable ex) {
+        if (ex instanceof CommandLine.ParameterException) return ExitCodes.USAGE;
+        if (ex instanceof InvalidInputException) return ExitCodes.USAGE;
+        if (ex instanceof TendException) return ExitCodes.USAGE;
+        return ExitCodes.USAGE;
+    }
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
     }
 }

@@ -1,0 +1,18 @@
+package dev.tend.engine;
+
+import dev.tend.shared.Target;
+
+import java.time.Instant;
+import java.util.List;
+
+/**
+ * An approval request and its answer.
+ *
+ * @param state pending, approved, rejected or lapsed
+ */
+public record ApprovalSnapshot(String runId, String playbook, Target target, String requestedBy, Instant requestedAt,
+                               Instant expiresAt, String state, String decidedBy, Instant decidedAt, List<String> reasons) {
+    public ApprovalSnapshot {
+        reasons = List.copyOf(reasons);
+    }
+}

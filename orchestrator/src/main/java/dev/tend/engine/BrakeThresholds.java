@@ -1,0 +1,25 @@
+package dev.tend.engine;
+
+/**
+ * When the fleet brake engages and releases by itself. Engages when the unhealthy clusters
+ * reach {@code engageClusters} or their share reaches {@code engageFraction} (either may be
+ * null: not used); releases automatically, if {@code autoRelease}, once both are below the
+ * release thresholds (hysteresis). {@code channel} receives the one aggregated page.
+ */
+public record BrakeThresholds(Integer engageClusters, Double engageFraction, Integer releaseClusters,
+                              Double releaseFraction, boolean autoRelease, String channel) {
+    public static BrakeThresholds never() {
+        return new BrakeThresholds(null, null, null, null, false, "oncall");
+    }
+
+    boolean shouldEngage(int unhealthy, double fraction) {
+        return (engageClusters != null && unhealthy >= engageClusters)
+                || (engageFraction != null && fraction >= engageFraction);
+    }
+
+    boolean mayRelease(int unhealthy, double fraction) {
+        boolean byCount = releaseClusters == null ? engageClusters == null || unhealthy < engageClusters : unhealthy < releaseClusters;
+        boolean byFraction = releaseFraction == null ? engageFraction == null || fraction < engageFraction : fraction < releaseFraction;
+        return byCount && byFraction;
+    }
+}

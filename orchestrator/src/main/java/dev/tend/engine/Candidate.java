@@ -1,0 +1,52 @@
+package dev.tend.engine;
+
+import dev.tend.playbooks.Playbook;
+import dev.tend.shared.Id;
+import dev.tend.shared.SignalKey;
+import dev.tend.shared.Target;
+
+import java.time.Instant;
+import java.util.Objects;
+
+/**
+ * A run that a playbook wants to start on a target because a problem opened.
+ *
+ * @param trigger      the signal whose transition matched the playbook
+ * @param problemSince event time at which the trigger entered its problem state
+ * @param firstSeen    processing time of the first verdict
+ * @param runId        the run created for an approval request, or null before that
+ * @param approved     a person approved it; the approval guard lets it through
+ */
+public record Candidate(Playbook playbook, Target target, SignalKey trigger, Instant problemSince,
+                        Instant firstSeen, String runId, boolean approved) {
+    public Candidate {
+        Objects.requireNonNull(playbook, "playbook");
+        Objects.requireNonNull(target, "target");
+        Objects.requireNonNull(trigger, "trigger");
+        Objects.requireNonNull(problemSince, "problemSince");
+    }
+
+    /** Identifies a candidate: at most one per playbook and target. */
+    public record Key(Id playbook, Target target) {
+        @Override
+        public String toString() {
+            return playbook + "@" + target;
+        }
+    }
+
+    public Key key() {
+        return new Key(playbook.id(), target);
+    }
+
+    public Candidate withRun(String id) {
+        return new Candidate(playbook, target, trigger, problemSince, firstSeen, id, approved);
+    }
+
+    public Candidate withApproved() {
+        return new Candidate(playbook, target, trigger, problemSince, firstSeen, runId, true);
+    }
+
+    public Candidate withProblemSince(Instant since) {
+        return new Candidate(playbook, target, trigger, since, firstSeen, runId, approved);
+    }
+}

@@ -1,0 +1,118 @@
+package dev.tend.engine;
+
+import dev.tend.engine.guard.Decision;
+import dev.tend.engine.guard.Wake;
+import dev.tend.shared.Id;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.TreeSet;
+
+/**
+ * Candidates that are held, denied or awaiting approval, indexed by what can change their
+ * verdict: their cluster, anything fleet-wide, a person, or an event-time instant (time-based
+ * holds use timers). Iteration orders are sorted, so the engine stays deterministic.
+ */
+final class Candidates {
+    record Entry(Candidate candidate, Decision decision) {
+    }
+
+    private final Map<Candidate.Key, Entry> entries = new HashMap<>();
+    private final Map<Id, Set<String>> byCluster = new HashMap<>();
+    private final Set<String> fleetWide = new TreeSet<>();
+    private final TreeMap<Instant, Set<String>> eventAgenda = new TreeMap<>();
+    private final Map<String, Candidate.Key> byName = new HashMap<>();
+
+    Entry get(Candidate.Key key) {
+        return entries.get(key);
+    }
+
+    Candidate.Key byName(String name) {
+        return byName.get(name);
+    }
+
+    Collection<Entry> all() {
+        List<Entry> out = new ArrayList<>(entries.values());
+        out.sort((a, b) -> a.candidate().key().toString().compareTo(b.candidate().key().toString()));
+        return out;
+    }
+
+    int size() {
+        return entries.size();
+    }
+
+    void put(Candidate c, Decision d) {
+        Candidate.Key key = c.key();
+        unindex(key);
+        entries.put(key, new Entry(c, d));
+        String name = key.toString();
+        byName.put(name, key);
+        if (d == null) return;
+        Set<Wake> wakes = d.wakes();
+        if (wakes.contains(Wake.CLUSTER) || wakes.contains(Wake.HUMAN)) {
+            byCluster.computeIfAbsent(c.target().cluster(), k -> new TreeSet<>()).add(name);
+        }
+        if (wakes.contains(Wake.FLEET)) fleetWide.add(name);
+        Instant et = d.retryAtEventTime();
+        if (et != null) eventAgenda.computeIfAbsent(et, k -> new TreeSet<>()).add(name);
+    }
+
+    void remove(Candidate.Key key) {
+        unindex(key);
+        entries.remove(key);
+        byName.remove(key.toString());
+    }
+
+    private void unindex(Candidate.Key key) {
+        Entry e = entries.get(key);
+        if (e == null || e.decision() == null) return;
+        String name = key.toString();
+        Set<String> s = byCluster.get(key.target().cluster());
+        if (s != null) {
+            s.remove(name);
+            if (s.isEmpty()) byCluster.remove(key.target().cluster());
+        }
+        fleetWide.remove(name);
+        Instant et = e.decision().retryAtEventTime();
+        if (et != null) {
+            Set<String> a = eventAgenda.get(et);
+            if (a != null) {
+                a.remove(name);
+                if (a.isEmpty()) eventAgenda.remove(et);
+            }
+        }
+    }
+
+    /** Candidates to look at again because something on the cluster changed. */
+    List<String> onCluster(Id cluster) {
+        Set<String> s = byCluster.get(cluster);
+        return s == null ? List.of() : new ArrayList<>(s);
+    }
+
+    List<String> fleetWide() {
+        return new ArrayList<>(fleetWide);
+    }
+
+    /** Candidates whose event-time objection may be gone now that event time reached {@code t}. */
+    List<String> dueByEventTime(Instant t) {
+        List<String> out = new ArrayList<>();
+        while (!eventAgenda.isEmpty() && !eventAgenda.firstKey().isAfter(t)) {
+            out.addAll(eventAgenda.pollFirstEntry().getValue());
+        }
+        return out;
+    }
+
+    /** Candidates triggered by the given signal key. */
+    List<Candidate.Key> triggeredBy(dev.tend.shared.SignalKey trigger) {
+        List<Candidate.Key> out = new ArrayList<>();
+        for (Entry e : entries.values()) if (e.candidate().trigger().equals(trigger)) out.add(e.candidate().key());
+        out.sort((a, b) -> a.toString().compareTo(b.toString()));
+        return out;
+    }
+}

@@ -1,0 +1,53 @@
+package dev.tend.engine;
+
+import dev.tend.playbooks.ActionDef;
+import dev.tend.shared.Target;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.Map;
+
+/**
+ * What the engine asks the world to do. The driver commits the ledger entries and
+ * projections of one input in one transaction, and only then performs side effects
+ * (executor calls, notifications), so an intent is always durable before its act.
+ */
+public sealed interface Effect {
+    /** Append to the audit ledger. {@code fields} are JSON values; "cluster", "playbook", "run" are indexed. */
+    record Ledger(String kind, Map<String, Object> fields) implements Effect {
+        public Ledger {
+            fields = Map.copyOf(fields);
+        }
+    }
+
+    /** Call an executor. {@code key} is the idempotency key {@code run-id/step-id/attempt}. */
+    record CallExecutor(String runId, String stepId, int attempt, String key, ActionDef action,
+                        Target target, String playbook, Duration timeout) implements Effect {
+    }
+
+    record ArmTimer(String key, Instant due) implements Effect {
+    }
+
+    record CancelTimer(String key) implements Effect {
+    }
+
+    /** Send a notification; {@code id} is unique and stable, for de-duplication downstream. */
+    record Notify(String id, String channel, String message, Map<String, Object> fields) implements Effect {
+        public Notify {
+            fields = Map.copyOf(fields);
+        }
+    }
+
+    /** A run or one of its steps changed: update the projection tables. */
+    record RunChanged(RunSnapshot run) implements Effect {
+    }
+
+    record ExclusionsChanged(Target target, Exclusion exclusionOrNull) implements Effect {
+    }
+
+    record ApprovalChanged(ApprovalSnapshot approval) implements Effect {
+    }
+
+    record BrakeChanged(BrakeState brake) implements Effect {
+    }
+}

@@ -1,0 +1,61 @@
+package dev.tend.engine;
+
+import dev.tend.shared.Target;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/** Collects the effects of handling one input, in order. Not thread-safe; one per input. */
+public final class Effects {
+    private final List<Effect> out = new ArrayList<>();
+    private final Instant now;
+
+    public Effects(Instant now) {
+        this.now = now;
+    }
+
+    public Instant now() {
+        return now;
+    }
+
+    public void add(Effect e) {
+        out.add(e);
+    }
+
+    /** A ledger entry; {@code kv} alternates keys and values; null values are left out. */
+    public void ledger(String kind, Object... kv) {
+        Map<String, Object> fields = new LinkedHashMap<>();
+        for (int i = 0; i + 1 < kv.length; i += 2) {
+            if (kv[i + 1] != null) fields.put((String) kv[i], normalise(kv[i + 1]));
+        }
+        out.add(new Effect.Ledger(kind, fields));
+    }
+
+    public static Object normalise(Object v) {
+        if (v instanceof Instant i) return i.toString();
+        if (v instanceof Target t) return t.toString();
+        if (v instanceof dev.tend.shared.Id id) return id.value();
+        if (v instanceof Enum<?> e) return e.toString();
+        if (v instanceof List<?> l) {
+            List<Object> c = new ArrayList<>();
+            for (Object o : l) c.add(normalise(o));
+            return c;
+        }
+        return v;
+    }
+
+    public void arm(String key, Instant due) {
+        out.add(new Effect.ArmTimer(key, due));
+    }
+
+    public void cancel(String key) {
+        out.add(new Effect.CancelTimer(key));
+    }
+
+    public List<Effect> list() {
+        return out;
+    }
+}

@@ -1,0 +1,399 @@
+package dev.tend.engine;
+
+import dev.tend.engine.guard.Decision;
+import dev.tend.engine.guard.GuardChain;
+import dev.tend.engine.guard.Wake;
+import dev.tend.engine.run.RunHost;
+import dev.tend.engine.run.RunMachine;
+import dev.tend.engine.run.RunProcess;
+import dev.tend.playbooks.ActionDef;
+import dev.tend.playbooks.Mode;
+import dev.tend.playbooks.Playbook;
+import dev.tend.playbooks.Scope;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
+import dev.tend.shared.Target;
+import dev.tend.shared.TendException;
+import dev.tend.shared.fleet.ApplyOutcome;
+import dev.tend.shared.fleet.FleetHealthView;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.LinkedHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.TreeMap;
+
+/**
+ * The deterministic decision engine: inputs and their processing time in, effects out, no
+ * I/O inside. The same inputs at the same times give the same effects in the same order,
+ * which is what makes a replay (and a restart, which replays the journal) trustworthy.
+ *
+ * <p>Not thread-safe: one thread feeds it, in journal order.
+ */
+public final class Engine implements RunHost {
+    /** Who automation's own requests are made by (for the two-person rule). */
+    public static final String AUTOMATION = "automation";
+
+    private final EngineSetup setup;
+    private final EngineContext ctx;
+    private final GuardChain guards = GuardChain.standard();
+    private final RunMachine machine = new RunMachine(this);
+    private final Candidates candidates = new Candidates();
+    private final Approvals approvals;
+    private final Map<String, RunProcess> runs = new LinkedHashMap<>();
+    private final Map<String, Instant> timers = new TreeMap<>();
+    private final Set<Candidate.Key> flapPaged = new java.util.HashSet<>();
+    private final LinkedHashSet<String> work = new LinkedHashSet<>();
+    private long runSeq;
+    private long inputs;
+
+    public Engine(EngineSetup setup) {
+        this.setup = setup;
+        FleetHealthView view = new FleetHealthView(setup.fleet());
+        this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake()));
+        this.approvals = new Approvals(this);
+    }
+
+    /** Handles one input at processing time {@code now} (never earlier than the last). */
+    public List<Effect> handle(Input in, Instant now) {
+        if (now.isAfter(ctx.now)) ctx.now = now;
+        inputs++;
+        Effects fx = new Effects(ctx.now);
+        if (in instanceof Input.Transition t) onTransition(t.transition(), fx);
+        else if (in instanceof Input.Topology t) {
+            if (ctx.health.apply(t.event()) != ApplyOutcome.LATE) {
+                advanceEventTime(t.event().at());
+                queueCluster(t.event().cluster());
+                fx.ledger("topology", "cluster", t.event().cluster(), "node", t.event().node(),
+                        "change", t.event().change().wireName(), "at_event", t.event().at());
+            }
+        } else if (in instanceof Input.TimerFired t) onTimer(t.key(), fx);
+        else if (in instanceof Input.ExecutorResult r) onResult(r, fx);
+        else if (in instanceof Input.OutcomeUnknown u) {
+            RunProcess r = runs.get(u.runId());
+            if (r != null) machine.onOutcomeUnknown(r, u.stepId(), u.attempt(), fx);
+        } else if (in instanceof Input.Command c) approvals.onCommand(c, fx);
+        // Tick: nothing but the clocks below
+        if (setup.eventTime().follows()) advanceEventTime(ctx.now.minus(setup.eventTime().lag()));
+        drain(fx);
+        track(fx.list());
+        return fx.list();
+    }
+
+    private void onTransition(HealthTransition t, Effects fx) {
+        ApplyOutcome outcome = ctx.health.apply(t);
+        if (outcome != ApplyOutcome.LATE) advanceEventTime(t.at());
+        if (!outcome.isStateChange()) return;
+        boolean released = ctx.brake.reconsider(ctx.health, fx);
+        if (released) onBrakeReleased(fx);
+        queueCluster(t.cluster());
+        boolean mattered = false;
+        if (outcome == ApplyOutcome.CLEARED) {
+            for (Candidate.Key k : candidates.triggeredBy(t.key())) {
+                drop(k, t.signal() + " cleared on " + k.target(), fx);
+                mattered = true;
+            }
+            for (RunProcess r : new ArrayList<>(ctx.active.values())) {
+                if (r.target().cluster().equals(t.cluster())) {
+                    machine.onHealthChange(r, fx);
+                    mattered = true;
+                }
+            }
+        } else {
+            Map<String, String> tags = ctx.health.topology().cluster(t.cluster()).map(c -> c.tags()).orElse(Map.of());
+            for (Playbook p : setup.playbooks().match(t, tags)) {
+                Target target = p.when().scope() == Scope.NODE ? Target.node(t.cluster(), t.node()) : Target.cluster(t.cluster());
+                Candidate.Key key = new Candidate.Key(p.id(), target);
+                mattered = true;
+                if (hasLiveRun(key) || candidates.get(key) != null) continue;
+                Instant since = ctx.health.status(t.key()).map(s -> s.since()).orElse(t.at());
+                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false), null);
+                work.add(key.toString());
+            }
+        }
+        if (mattered) {
+            fx.ledger("transition", "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
+                    "state", t.state().wireName(), "at_event", t.at());
+        }
+    }
+
+    private boolean hasLiveRun(Candidate.Key key) {
+        for (RunProcess r : ctx.active.values()) {
+            if (r.playbook().id().equals(key.playbook()) && r.target().equals(key.target())) return true;
+        }
+        return false;
+    }
+
+    private void onTimer(String key, Effects fx) {
+        timers.remove(key);
+        if (key.startsWith("recheck:")) {
+            work.add(key.substring("recheck:".length()));
+        } else if (key.startsWith("approval:")) {
+            approvals.expire(key.substring("approval:".length()), fx);
+        } else if (key.startsWith("step:") || key.startsWith("wait:")) {
+            String runId = key.split(":", 3)[1];
+            RunProcess r = runs.get(runId);
+            if (r != null) machine.onTimer(r, key, fx);
+        }
+    }
+
+    private void onResult(Input.ExecutorResult res, Effects fx) {
+        RunProcess r = runs.get(res.runId());
+        if (r == null) {
+            fx.ledger("executor-result-ignored", "run", res.runId(), "reason", "no such run");
+            return;
+        }
+        machine.onResult(r, res.stepId(), res.attempt(), res.success(), res.message(), res.detail(), fx);
+    }
+
+    private void advanceEventTime(Instant t) {
+        if (!t.isAfter(ctx.eventTime)) return;
+        ctx.eventTime = t;
+        work.addAll(candidates.dueByEventTime(t));
+    }
+
+    void queueCluster(Id cluster) {
+        work.addAll(candidates.onCluster(cluster));
+    }
+
+    void queueFleet() {
+        work.addAll(candidates.fleetWide());
+    }
+
+    void queue(Candidate.Key key) {
+        work.add(key.toString());
+    }
+
+    /** Evaluates every queued candidate; evaluations may queue more, until none is left. */
+    private void drain(Effects fx) {
+        int guard = 0;
+        while (!work.isEmpty()) {
+            String name = work.iterator().next();
+            work.remove(name);
+            Candidate.Key key = candidates.byName(name);
+            if (key != null) evaluate(key, fx);
+            if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
+        }
+    }
+
+    private void evaluate(Candidate.Key key, Effects fx) {
+        Candidates.Entry e = candidates.get(key);
+        Candidate c = e.candidate();
+        if (!ctx.health.isActive(c.trigger().cluster(), c.trigger().node(), c.trigger().signal())) {
+            drop(key, c.trigger().signal() + " is no longer active", fx);
+            return;
+        }
+        Decision d = guards.evaluate(c, ctx);
+        boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
+                || !e.decision().reasons().equals(d.reasons());
+        if (changed) ledgerVerdict(c, d, fx);
+        switch (d.verdict()) {
+            case START -> start(c, fx);
+            case AWAIT_APPROVAL -> {
+                Candidate withRun = c.runId() == null ? c.withRun(approvals.request(c, d, fx)) : c;
+                candidates.put(withRun, d);
+            }
+            default -> hold(c, d, fx);
+        }
+    }
+
+    private void hold(Candidate c, Decision d, Effects fx) {
+        candidates.put(c, d);
+        Instant retry = d.retryAt();
+        Instant et = d.retryAtEventTime();
+        if (et != null && setup.eventTime().follows()) {
+            Instant p = setup.eventTime().processingTimeFor(et);
+            retry = retry == null || p.isAfter(retry) ? p : retry;
+        }
+        if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
+            fx.arm("recheck:" + c.key(), retry);
+        }
+        if (d.has(dev.tend.shared.ReasonCode.FLAPPING) && flapPaged.add(c.key())) {
+            fx.add(new Effect.Notify("flapping/" + c.key() + "/" + ctx.now, "oncall", c.trigger() + " is flapping; "
+                    + c.playbook().id() + " holds until it settles", Map.of("cluster", c.target().cluster().value())));
+        }
+        if (d.has(dev.tend.shared.ReasonCode.LOOP) && ctx.loopStopped.add(c.key())) {
+            fx.ledger("loop-stopped", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
+            fx.add(new Effect.Notify("loop/" + c.key() + "/" + ctx.now, "oncall", c.playbook().id() + " keeps remediating "
+                    + c.target() + "; automation stopped there until a person clears it",
+                    Map.of("cluster", c.target().cluster().value())));
+        }
+        if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
+    }
+
+    private void start(Candidate c, Effects fx) {
+        candidates.remove(c.key());
+        flapPaged.remove(c.key());
+        ctx.consumePermits(c.playbook());
+        ctx.recordStart(c.key());
+        RunProcess r = c.runId() != null ? runs.get(c.runId())
+                : newRun(c.playbook(), c.target(), RunState.RUNNING, AUTOMATION);
+        if (c.playbook().mode() == Mode.SHADOW) {
+            fx.ledger("run-shadowed", "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
+                    "node", c.target().node(), "steps", c.playbook().steps().stream().map(s -> s.id().value()).toList());
+            machine.finish(r, RunState.SHADOWED, "shadow mode: decided and recorded, not executed", fx);
+            return;
+        }
+        ctx.active.put(r.id(), r);
+        machine.start(r, fx);
+    }
+
+    RunProcess newRun(Playbook p, Target target, RunState state, String requestedBy) {
+        String id = String.format("r%06d", ++runSeq);
+        RunProcess r = new RunProcess(id, p, target, p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
+        runs.put(id, r);
+        return r;
+    }
+
+    void drop(Candidate.Key key, String why, Effects fx) {
+        Candidates.Entry e = candidates.get(key);
+        if (e == null) return;
+        candidates.remove(key);
+        flapPaged.remove(key);
+        fx.cancel("recheck:" + key);
+        if (e.decision() != null) {
+            fx.ledger("candidate-dropped", "playbook", key.playbook(), "cluster", key.target().cluster(),
+                    "node", key.target().node(), "reason", why, "run", e.candidate().runId());
+        }
+        if (e.candidate().runId() != null) approvals.withdraw(e.candidate().runId(), why, fx);
+    }
+
+    private void ledgerVerdict(Candidate c, Decision d, Effects fx) {
+        List<String> messages = new ArrayList<>();
+        d.objections().forEach(o -> messages.add(o.code().code() + ": " + o.message()));
+        fx.ledger("verdict", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node(),
+                "verdict", d.verdict().wireName(), "reasons", d.reasonCodes(), "messages", messages,
+                "hold_until", d.retryAt(), "hold_until_event_time", d.retryAtEventTime(),
+                "signal", c.trigger().signal(), "problem_since", c.problemSince(), "run", c.runId());
+    }
+
+    void onBrakeReleased(Effects fx) {
+        queueFleet();
+        for (RunProcess r : new ArrayList<>(ctx.active.values())) machine.resume(r, fx);
+    }
+
+    private void track(List<Effect> effects) {
+        for (Effect e : effects) {
+            if (e instanceof Effect.ArmTimer a) timers.put(a.key(), a.due());
+            else if (e instanceof Effect.CancelTimer c) timers.remove(c.key());
+        }
+    }
+
+    // ---- RunHost ----
+
+    @Override
+    public ActionDef action(Id id) {
+        return setup.playbooks().actions().get(id)
+                .orElseThrow(() -> new TendException("action " + id + " is not defined; the playbook set was validated, so this is a bug"));
+    }
+
+    @Override
+    public boolean isBrakeEngaged() {
+        return ctx.brake.state().engaged();
+    }
+
+    @Override
+    public boolean allClear(Target target, List<Id> signals) {
+        for (Id s : signals) {
+            if (target.node() != null) {
+                if (ctx.health.isActive(target.cluster(), target.node(), s)) return false;
+            } else if (ctx.health.isActive(target.cluster(), null, s)) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    @Override
+    public void runEnded(RunProcess r, Effects fx) {
+        ctx.active.remove(r.id());
+        queueCluster(r.target().cluster());
+        queueFleet();
+    }
+
+    // ---- package access for Approvals ----
+
+    EngineContext context() {
+        return ctx;
+    }
+
+    RunMachine machine() {
+        return machine;
+    }
+
+    Candidates candidates() {
+        return candidates;
+    }
+
+    RunProcess runById(String id) {
+        return runs.get(id);
+    }
+
+    // ---- queries ----
+
+    public FleetHealthView health() {
+        return ctx.health;
+    }
+
+    public BrakeState brake() {
+        return ctx.brake.state();
+    }
+
+    public Instant eventTime() {
+        return ctx.eventTime;
+    }
+
+    public long inputsHandled() {
+        return inputs;
+    }
+
+    public Collection<RunSnapshot> runs() {
+        List<RunSnapshot> out = new ArrayList<>();
+        for (RunProcess r : runs.values()) out.add(r.snapshot());
+        return out;
+    }
+
+    public Optional<RunSnapshot> run(String id) {
+        return Optional.ofNullable(runs.get(id)).map(RunProcess::snapshot);
+    }
+
+    public int activeRuns() {
+        return ctx.active.size();
+    }
+
+    /** Timers the engine has armed and not seen fire or cancelled: re-armed after a restart. */
+    public Map<String, Instant> armedTimers() {
+        return Map.copyOf(timers);
+    }
+
+    /** Candidates waiting (held, denied, awaiting approval) with their last verdict. */
+    public List<HeldCandidate> heldCandidates() {
+        List<HeldCandidate> out = new ArrayList<>();
+        for (Candidates.Entry e : candidates.all()) {
+            if (e.decision() != null) out.add(new HeldCandidate(e.candidate(), e.decision()));
+        }
+        return out;
+    }
+
+    public record HeldCandidate(Candidate candidate, Decision decision) {
+    }
+
+    /** Executor calls whose result has not arrived: asked again by key, or stopped, after a restart. */
+    public List<Effect.CallExecutor> inFlightCalls() {
+        List<Effect.CallExecutor> out = new ArrayList<>();
+        for (RunProcess r : ctx.active.values()) {
+            if (!r.isCalling()) continue;
+            dev.tend.playbooks.ActionStep a = (dev.tend.playbooks.ActionStep) r.currentStep();
+            ActionDef def = action(a.action());
+            java.time.Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : RunMachine.DEFAULT_TIMEOUT;
+            out.add(new Effect.CallExecutor(r.id(), a.id().value(), r.attempt(), r.id() + "/" + a.id() + "/" + r.attempt(),
+                    def, r.target(), r.playbook().id().value(), timeout));
+        }
+        return out;
+    }
+}

@@ -1,0 +1,38 @@
+package dev.tend.engine;
+
+import java.util.Locale;
+
+/**
+ * Where a run stands. Terminal states: {@link #SUCCEEDED}, {@link #FAILED},
+ * {@link #CANCELLED}, {@link #SHADOWED}.
+ */
+public enum RunState {
+    /** Policy asked a human; the run waits for an approval (or its expiry). */
+    AWAITING_APPROVAL,
+    /** Approved, but a guard holds it; looked at again when the reason can change. */
+    HELD,
+    /** Executing steps. */
+    RUNNING,
+    /** Stopped at a step boundary while the fleet brake is engaged. */
+    PAUSED,
+    /** A step's outcome is unknown after a crash and cannot be asked again; a person must look. */
+    NEEDS_HUMAN,
+    SUCCEEDED,
+    FAILED,
+    CANCELLED,
+    /** Shadow mode: decided and recorded, never executed. */
+    SHADOWED;
+
+    public boolean isTerminal() {
+        return this == SUCCEEDED || this == FAILED || this == CANCELLED || this == SHADOWED;
+    }
+
+    /** True while the run holds its target (counts for per-cluster, zone, fleet and blast-radius limits). */
+    public boolean isActive() {
+        return this == RUNNING || this == PAUSED || this == NEEDS_HUMAN;
+    }
+
+    public String wireName() {
+        return name().toLowerCase(Locale.ROOT).replace('_', '-');
+    }
+}

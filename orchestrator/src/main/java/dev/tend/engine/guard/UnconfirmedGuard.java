@@ -1,0 +1,29 @@
+package dev.tend.engine.guard;
+
+import dev.tend.engine.Candidate;
+import dev.tend.shared.ReasonCode;
+import java.time.Duration;
+import java.time.Instant;
+import dev.tend.shared.time.Durations;
+
+import java.util.Optional;
+
+/** Holds until the problem has lasted the playbook's confirm-for, measured in event time. */
+public final class UnconfirmedGuard implements Guard {
+    @Override
+    public ReasonCode code() {
+        return ReasonCode.UNCONFIRMED;
+    }
+
+    @Override
+    public Optional<Objection> check(Candidate c, GuardContext ctx) {
+        Duration need = c.playbook().when().confirmFor();
+        if (need == null || need.isZero()) return Optional.empty();
+        Instant confirmedAt = c.problemSince().plus(need);
+        if (!ctx.eventTime().isBefore(confirmedAt)) return Optional.empty();
+        Duration lasted = Duration.between(c.problemSince(), ctx.eventTime());
+        return Optional.of(Objection.untilEventTime(code(), confirmedAt, c.trigger().signal() + " has lasted "
+                + Durations.format(lasted.isNegative() ? Duration.ZERO : lasted) + " of the "
+                + Durations.format(need) + " it must last; confirmed at " + confirmedAt + " if it holds"));
+    }
+}

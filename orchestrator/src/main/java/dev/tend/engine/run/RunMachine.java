@@ -1,0 +1,242 @@
+package dev.tend.engine.run;
+
+import dev.tend.engine.Effect;
+import dev.tend.engine.Effects;
+import dev.tend.engine.RunState;
+import dev.tend.playbooks.ActionDef;
+import dev.tend.playbooks.ActionStep;
+import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.Step;
+import dev.tend.playbooks.Template;
+import dev.tend.playbooks.WaitHealthyStep;
+import dev.tend.shared.Id;
+import dev.tend.shared.time.Durations;
+
+import java.time.Duration;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Moves runs through their steps: action (an executor call with a timeout and retries),
+ * wait-healthy (continue once the signals clear on the target, within a limit), notify;
+ * the on-failure steps when a step fails or times out. Pauses at step boundaries while the
+ * fleet brake is engaged. Deterministic: timers and calls are effects with stable keys.
+ */
+public final class RunMachine {
+    /** Used when neither the step nor its action names a timeout (lint flags such steps). */
+    public static final Duration DEFAULT_TIMEOUT = Duration.ofMinutes(10);
+
+    private final RunHost host;
+
+    public RunMachine(RunHost host) {
+        this.host = host;
+    }
+
+    public static String stepTimer(RunProcess r) {
+        return "step:" + r.id + ":" + r.currentStep().id() + ":" + r.attempt;
+    }
+
+    public static String waitTimer(RunProcess r) {
+        return "wait:" + r.id + ":" + r.currentStep().id();
+    }
+
+    /** Starts a run that passed its guards. */
+    public void start(RunProcess r, Effects fx) {
+        r.state = RunState.RUNNING;
+        r.startedAt = fx.now();
+        fx.ledger("run-started", "run", r.id, "playbook", r.playbook.id(), "version", r.playbook.version(),
+                "cluster", r.target.cluster(), "node", r.target.node());
+        advance(r, fx);
+    }
+
+    /** Moves to the next step, executing notify and already-satisfied waits inline. */
+    public void advance(RunProcess r, Effects fx) {
+        while (true) {
+            if (host.isBrakeEngaged() && !r.failing && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
+                r.state = RunState.PAUSED;
+                fx.ledger("run-paused", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                        "reason", "fleet brake engaged; paused at a step boundary");
+                changed(r, fx);
+                return;
+            }
+            List<Step> list = r.failing ? r.playbook.onFailure() : r.playbook.steps();
+            r.index++;
+            r.attempt = 0;
+            if (r.index >= list.size()) {
+                finish(r, r.failing ? RunState.FAILED : RunState.SUCCEEDED,
+                        r.failing ? "failed at " + r.failedStep : "all steps succeeded", fx);
+                return;
+            }
+            r.stepStartedAt = fx.now();
+            Step s = list.get(r.index);
+            if (s instanceof NotifyStep n) {
+                String msg = render(n.message(), r);
+                fx.add(new Effect.Notify(r.id + "/" + n.id(), n.channel().value(), msg,
+                        Map.of("run", r.id, "cluster", r.target.cluster().value())));
+                r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
+                fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                        "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);
+                continue;
+            }
+            if (s instanceof WaitHealthyStep w) {
+                if (host.allClear(r.target, w.signals())) {
+                    r.recordStep("succeeded", "signals already clear", fx.now());
+                    fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                            "step", w.id(), "state", "succeeded", "outcome", "signals already clear");
+                    continue;
+                }
+                r.recordStep("running", null, fx.now());
+                fx.arm(waitTimer(r), fx.now().plus(w.within()));
+                fx.ledger("step-started", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                        "step", w.id(), "kind", "wait-healthy", "signals", w.signals(), "within", Durations.format(w.within()));
+                changed(r, fx);
+                return;
+            }
+            call((ActionStep) s, r, fx, 1);
+            return;
+        }
+    }
+
+    private void call(ActionStep a, RunProcess r, Effects fx, int attempt) {
+        r.attempt = attempt;
+        r.stepStartedAt = fx.now();
+        ActionDef def = host.action(a.action());
+        Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : DEFAULT_TIMEOUT;
+        String key = r.id + "/" + a.id() + "/" + attempt;
+        r.recordStep("running", null, fx.now());
+        fx.ledger("executor-call", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "node", r.target.node(), "step", a.id(), "attempt", attempt, "key", key, "action", a.action(),
+                "executor", def.kind(), "timeout", Durations.format(timeout));
+        fx.arm(stepTimer(r), fx.now().plus(timeout));
+        fx.add(new Effect.CallExecutor(r.id, a.id().value(), attempt, key, def, r.target, r.playbook.id().value(), timeout));
+        changed(r, fx);
+    }
+
+    /** An executor answered; ignored unless it answers the current attempt. */
+    public void onResult(RunProcess r, String stepId, int attempt, boolean success, String message,
+                         Map<String, Object> detail, Effects fx) {
+        Step s = r.currentStep();
+        if (r.state != RunState.RUNNING || !(s instanceof ActionStep a) || !a.id().value().equals(stepId)
+                || r.attempt != attempt || !r.lastRecordState().equals("running")) {
+            fx.ledger("executor-result-ignored", "run", r.id, "step", stepId, "attempt", attempt,
+                    "reason", "the run is no longer waiting for this attempt");
+            return;
+        }
+        fx.cancel(stepTimer(r));
+        Map<String, Object> fields = new LinkedHashMap<>(detail);
+        fx.ledger("executor-result", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "step", stepId, "attempt", attempt, "success", success, "message", message, "detail", fields);
+        if (success) {
+            r.recordStep("succeeded", message, fx.now());
+            advance(r, fx);
+        } else {
+            retryOrFail(a, r, "failed: " + message, fx);
+        }
+    }
+
+    /** A step or wait timer came due. */
+    public void onTimer(RunProcess r, String key, Effects fx) {
+        Step s = r.currentStep();
+        if (r.state != RunState.RUNNING || s == null) return;
+        if (s instanceof ActionStep a && key.equals(stepTimer(r)) && r.lastRecordState().equals("running")) {
+            fx.ledger("step-timed-out", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                    "step", a.id(), "attempt", r.attempt);
+            retryOrFail(a, r, "timed out", fx);
+        } else if (s instanceof WaitHealthyStep w && key.equals(waitTimer(r))) {
+            r.recordStep("timed-out", "signals still active after " + Durations.format(w.within()), fx.now());
+            fail(r, w.id(), fx);
+        }
+    }
+
+    /** A transition cleared something on the run's target: a waiting step may be done. */
+    public void onHealthChange(RunProcess r, Effects fx) {
+        if (r.state != RunState.RUNNING || !(r.currentStep() instanceof WaitHealthyStep w)) return;
+        if (!host.allClear(r.target, w.signals())) return;
+        fx.cancel(waitTimer(r));
+        r.recordStep("succeeded", "signals cleared", fx.now());
+        fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "step", w.id(), "state", "succeeded", "outcome", "signals cleared");
+        advance(r, fx);
+    }
+
+    /** The outcome of the in-flight call cannot be learnt: stop and ask a person. */
+    public void onOutcomeUnknown(RunProcess r, String stepId, int attempt, Effects fx) {
+        if (!r.isCalling() || r.attempt != attempt) return;
+        fx.cancel(stepTimer(r));
+        r.recordStep("unknown", "outcome unknown after a restart", fx.now());
+        r.state = RunState.NEEDS_HUMAN;
+        fx.ledger("run-needs-human", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "step", stepId, "attempt", attempt,
+                "reason", "the call was in flight when tend stopped and its action cannot be asked again by key");
+        fx.add(new Effect.Notify(r.id + "/needs-human", "oncall", "run " + r.id + " on " + r.target
+                + " needs a person: the outcome of step " + stepId + " is unknown", Map.of("run", r.id)));
+        changed(r, fx);
+    }
+
+    /** Releases a run paused by the brake. */
+    public void resume(RunProcess r, Effects fx) {
+        if (r.state != RunState.PAUSED) return;
+        r.state = RunState.RUNNING;
+        fx.ledger("run-resumed", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster());
+        advance(r, fx);
+    }
+
+    /** An approved run whose guards still hold it. */
+    public void markHeld(RunProcess r, Effects fx) {
+        r.state = RunState.HELD;
+        changed(r, fx);
+    }
+
+    public void abort(RunProcess r, String reason, Effects fx) {
+        if (r.state.isTerminal()) return;
+        if (r.isCalling()) fx.cancel(stepTimer(r));
+        if (r.currentStep() instanceof WaitHealthyStep) fx.cancel(waitTimer(r));
+        finish(r, RunState.CANCELLED, reason, fx);
+    }
+
+    private void retryOrFail(ActionStep a, RunProcess r, String why, Effects fx) {
+        if (r.attempt <= a.retries()) {
+            r.recordStep("failed", why, fx.now());
+            call(a, r, fx, r.attempt + 1);
+            return;
+        }
+        r.recordStep(why.startsWith("timed") ? "timed-out" : "failed", why, fx.now());
+        fail(r, a.id(), fx);
+    }
+
+    private void fail(RunProcess r, Id step, Effects fx) {
+        fx.ledger("step-failed", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(), "step", step);
+        if (r.failing) {
+            advance(r, fx);
+            return;
+        }
+        r.failing = true;
+        r.failedStep = step.value();
+        r.index = -1;
+        advance(r, fx);
+    }
+
+    public void finish(RunProcess r, RunState end, String outcome, Effects fx) {
+        r.state = end;
+        r.endedAt = fx.now();
+        r.outcome = outcome;
+        fx.ledger("run-ended", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "node", r.target.node(), "state", end.wireName(), "outcome", outcome);
+        changed(r, fx);
+        host.runEnded(r, fx);
+    }
+
+    private static void changed(RunProcess r, Effects fx) {
+        fx.add(new Effect.RunChanged(r.snapshot()));
+    }
+
+    static String render(Template template, RunProcess r) {
+        Step s = r.currentStep();
+        return template.render(Map.of("cluster", r.target.cluster().value(),
+                "node", r.target.node() == null ? "-" : r.target.node().value(),
+                "run", r.id,
+                "playbook", r.playbook.id().value(),
+                "step", r.failedStep != null ? r.failedStep : s == null ? "-" : s.id().value()));
+    }
+}

@@ -1,0 +1,114 @@
+package dev.tend.engine.run;
+
+import dev.tend.engine.RunSnapshot;
+import dev.tend.engine.RunState;
+import dev.tend.engine.StepSnapshot;
+import dev.tend.playbooks.ActionStep;
+import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.Playbook;
+import dev.tend.playbooks.Step;
+import dev.tend.shared.Target;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * A run's mutable state inside the engine: which step it is on, which attempt, and the
+ * record of every step so far. Only the engine's thread touches it; the outside world sees
+ * {@link #snapshot()}.
+ */
+public final class RunProcess {
+    final String id;
+    final Playbook playbook;
+    final Target target;
+    final boolean shadow;
+    final Instant createdAt;
+    final String requestedBy;
+    RunState state;
+    Instant startedAt;
+    Instant endedAt;
+    String outcome;
+    /** Index into the main steps, or into on-failure steps once {@link #failing}. */
+    int index = -1;
+    boolean failing;
+    String failedStep;
+    int attempt;
+    Instant stepStartedAt;
+    final List<StepSnapshot> record = new ArrayList<>();
+
+    public RunProcess(String id, Playbook playbook, Target target, boolean shadow, Instant createdAt, String requestedBy, RunState state) {
+        this.id = id;
+        this.playbook = playbook;
+        this.target = target;
+        this.shadow = shadow;
+        this.createdAt = createdAt;
+        this.requestedBy = requestedBy;
+        this.state = state;
+    }
+
+    public String id() {
+        return id;
+    }
+
+    public Playbook playbook() {
+        return playbook;
+    }
+
+    public Target target() {
+        return target;
+    }
+
+    public RunState state() {
+        return state;
+    }
+
+    public String requestedBy() {
+        return requestedBy;
+    }
+
+    public Instant startedAt() {
+        return startedAt;
+    }
+
+    /** The step being executed, or null between steps. */
+    public Step currentStep() {
+        List<Step> list = failing ? playbook.onFailure() : playbook.steps();
+        return index >= 0 && index < list.size() ? list.get(index) : null;
+    }
+
+    public int attempt() {
+        return attempt;
+    }
+
+    /** True while the current step is an action call whose result has not come back. */
+    public boolean isCalling() {
+        return state == RunState.RUNNING && currentStep() instanceof ActionStep && attempt > 0
+                && lastRecordState().equals("running");
+    }
+
+    String lastRecordState() {
+        return record.isEmpty() ? "" : record.get(record.size() - 1).state();
+    }
+
+    void recordStep(String state, String outcome, Instant at) {
+        Step s = currentStep();
+        String kind = s instanceof ActionStep ? "action" : s instanceof NotifyStep ? "notify" : "wait-healthy";
+        StepSnapshot snap = new StepSnapshot(s.id().value(), record.size() + 1, kind, state, attempt,
+                stepStartedAt, state.equals("running") ? null : at, outcome);
+        if (!record.isEmpty() && record.get(record.size() - 1).stepId().equals(snap.stepId())
+                && record.get(record.size() - 1).state().equals("running")) {
+            snap = new StepSnapshot(snap.stepId(), record.size(), kind, state, attempt, stepStartedAt,
+                    snap.endedAt(), outcome);
+            record.set(record.size() - 1, snap);
+        } else {
+            record.add(snap);
+        }
+    }
+
+    public RunSnapshot snapshot() {
+        Step s = currentStep();
+        return new RunSnapshot(id, playbook.id().value(), playbook.version(), target, state, shadow, createdAt,
+                startedAt, endedAt, outcome, s == null ? null : s.id().value(), record);
+    }
+}
