@@ -10,10 +10,12 @@ import java.util.regex.Pattern;
  */
 public record Id(String value) implements Comparable<Id> {
     public static final Pattern PATTERN = Pattern.compile("[A-Za-z0-9][A-Za-z0-9._:-]{0,127}");
+    /** The longest id, in characters. */
+    public static final int MAX_LENGTH = 128;
 
     public Id {
         Objects.requireNonNull(value, "id");
-        if (!PATTERN.matcher(value).matches()) {
+        if (!isValid(value)) {
             throw new IllegalArgumentException(describeInvalid(value));
         }
     }
@@ -22,14 +24,26 @@ public record Id(String value) implements Comparable<Id> {
         return new Id(value);
     }
 
+    /** True when {@code value} matches {@link #PATTERN}; checked without a regex, as ids are checked on every wire line. */
     public static boolean isValid(String value) {
-        return value != null && PATTERN.matcher(value).matches();
+        if (value == null) return false;
+        int n = value.length();
+        if (n == 0 || n > MAX_LENGTH || !isAlphanumeric(value.charAt(0))) return false;
+        for (int i = 1; i < n; i++) {
+            char c = value.charAt(i);
+            if (!isAlphanumeric(c) && c != '.' && c != '_' && c != ':' && c != '-') return false;
+        }
+        return true;
+    }
+
+    private static boolean isAlphanumeric(char c) {
+        return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9');
     }
 
     /** Explains in a sentence why {@code value} is not an id. */
     public static String describeInvalid(String value) {
         if (value == null || value.isEmpty()) return "an id must not be empty";
-        if (value.length() > 128) return "an id is at most 128 characters, got " + value.length();
+        if (value.length() > MAX_LENGTH) return "an id is at most " + MAX_LENGTH + " characters, got " + value.length();
         return "'" + abbreviate(value) + "' is not an id: use letters, digits and . _ : - only, starting with a letter or digit";
     }
 

@@ -15,6 +15,7 @@ public final class JsonValues {
     }
 
     public static Map<String, Object> freeze(Map<String, ?> map) {
+        if (map.isEmpty()) return Map.of();
         Map<String, Object> copy = new LinkedHashMap<>();
         for (Map.Entry<String, ?> e : map.entrySet()) {
             copy.put(e.getKey(), freezeValue(e.getValue()));

@@ -128,6 +128,25 @@ public final class CanonicalJson {
     }
 
     /**
+     * The fewest significant digits that read back as {@code d} (positive, finite), and of
+     * those the value closest to {@code d}. At each precision only the two neighbours of the
+     * exact value can qualify; the nearer one is tried first. Both must be tried: just
+     * above a power of two the doubles below are twice as dense as those above, so the
+     * nearer neighbour can miss while the farther one, on the wide side, still reads back.
+     */
+    private static BigDecimal shortest(double d) {
+        BigDecimal exact = new BigDecimal(d);
+        for (int p = 1; p < 17; p++) {
+            BigDecimal nearest = exact.round(new MathContext(p, RoundingMode.HALF_EVEN));
+            if (nearest.doubleValue() == d) return nearest;
+            RoundingMode other = nearest.compareTo(exact) < 0 ? RoundingMode.UP : RoundingMode.DOWN;
+            BigDecimal farther = exact.round(new MathContext(p, other));
+            if (farther.doubleValue() == d) return farther;
+        }
+        return exact.round(new MathContext(17, RoundingMode.HALF_EVEN)); // 17 digits always read back
+    }
+
+    /**
      * Formats a double as ECMAScript's Number.prototype.toString does (RFC 8785 section
      * 3.2.2.3): the shortest digits that read back as the same double, closest to the exact
      * value, then plain notation for exponents from -6 to 20 and {@code d.ddde+N} otherwise.
@@ -142,16 +161,7 @@ public final class CanonicalJson {
             sb.append('-');
             d = -d;
         }
-        BigDecimal exact = new BigDecimal(d);
-        BigDecimal shortest = null;
-        for (int p = 1; p <= 17; p++) {
-            BigDecimal candidate = exact.round(new MathContext(p, RoundingMode.HALF_EVEN));
-            if (candidate.doubleValue() == d) {
-                shortest = candidate;
-                break;
-            }
-        }
-        if (shortest == null) shortest = exact.round(new MathContext(17, RoundingMode.HALF_EVEN));
+        BigDecimal shortest = shortest(d);
         BigInteger unscaled = shortest.unscaledValue();
         String digits = unscaled.toString();
         int trailing = 0;

@@ -1,0 +1,164 @@
+package dev.tend.shared.wire;
+
+import com.fasterxml.jackson.core.JsonLocation;
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.core.JsonToken;
+import com.fasterxml.jackson.core.io.JsonEOFException;
+
+import java.io.IOException;
+import java.math.BigInteger;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * One line taken apart into its top-level fields, in line order, each with the column
+ * where its value starts. Values are plain Java JSON values: Map (insertion-ordered),
+ * List, String, Integer/Long/BigInteger, Double, Boolean, null. Duplicate keys, at any
+ * depth, and numbers no 64-bit float can hold are rejected, so that every value read can
+ * be written back and canonicalized (RFC 8785) unchanged.
+ */
+final class JsonLine {
+    /** A top-level field; {@code column} is 1-based, where the value starts. */
+    record Field(String name, Object value, int column) {
+    }
+
+    private JsonLine() {
+    }
+
+    /** The fields of {@code line}, which must hold exactly one JSON object. */
+    static Map<String, Field> parse(String line) throws LineRejected {
+        try (JsonParser p = WireJson.FACTORY.createParser(line)) {
+            JsonToken t;
+            Map<String, Field> fields = new LinkedHashMap<>(16);
+            try {
+                t = p.nextToken();
+                if (t != JsonToken.START_OBJECT) {
+                    throw new LineRejected(column(p.currentTokenLocation()), "",
+                            "this line is " + rootKind(t) + ", not an object: each line holds one JSON object");
+                }
+                while ((t = p.nextToken()) == JsonToken.FIELD_NAME) {
+                    String name = p.currentName();
+                    int nameColumn = column(p.currentTokenLocation());
+                    t = p.nextToken();
+                    int valueColumn = column(p.currentTokenLocation());
+                    Object value = value(p, t, name);
+                    if (fields.putIfAbsent(name, new Field(name, value, valueColumn)) != null) {
+                        throw new LineRejected(nameColumn, name, "field '" + WireText.shown(name) + "' is given twice");
+                    }
+                }
+            } catch (JsonProcessingException e) {
+                throw notJson(e);
+            }
+            try {
+                t = p.nextToken();
+            } catch (JsonProcessingException e) {
+                t = JsonToken.NOT_AVAILABLE;
+            }
+            if (t != null) {
+                throw new LineRejected(column(p.currentLocation()), "",
+                        "this line goes on after its JSON object ends: each line holds one JSON object");
+            }
+            return fields;
+        } catch (IOException e) {
+            // a String source cannot fail to read; Jackson declares it all the same
+            throw new LineRejected(0, "", "this line is not JSON: " + e.getMessage());
+        }
+    }
+
+    private static Object value(JsonParser p, JsonToken t, String field) throws IOException, LineRejected {
+        switch (t) {
+            case START_OBJECT: {
+                Map<String, Object> map = new LinkedHashMap<>();
+                while (p.nextToken() == JsonToken.FIELD_NAME) {
+                    String key = p.currentName();
+                    int keyColumn = column(p.currentTokenLocation());
+                    Object v = value(p, p.nextToken(), field);
+                    if (map.containsKey(key)) {
+                        throw new LineRejected(keyColumn, field, "field '" + WireText.shown(field) + "': key '"
+                                + WireText.shown(key) + "' is given twice");
+                    }
+                    map.put(key, v);
+                }
+                return map;
+            }
+            case START_ARRAY: {
+                List<Object> list = new ArrayList<>();
+                JsonToken item;
+                while ((item = p.nextToken()) != JsonToken.END_ARRAY) list.add(value(p, item, field));
+                return list;
+            }
+            case VALUE_STRING:
+                return p.getText();
+            case VALUE_NUMBER_INT:
+                switch (p.getNumberType()) {
+                    case INT:
+                        return p.getIntValue();
+                    case LONG:
+                        return p.getLongValue();
+                    default: {
+                        BigInteger big = p.getBigIntegerValue();
+                        if (Double.isInfinite(big.doubleValue())) throw tooLarge(p, field);
+                        return big;
+                    }
+                }
+            case VALUE_NUMBER_FLOAT: {
+                double d = p.getDoubleValue();
+                if (Double.isInfinite(d)) throw tooLarge(p, field);
+                return d;
+            }
+            case VALUE_TRUE:
+                return Boolean.TRUE;
+            case VALUE_FALSE:
+                return Boolean.FALSE;
+            case VALUE_NULL:
+                return null;
+            default:
+                throw new LineRejected(column(p.currentTokenLocation()), field, "field '" + WireText.shown(field)
+                        + "' holds something that is not a JSON value");
+        }
+    }
+
+    private static LineRejected tooLarge(JsonParser p, String field) throws IOException {
+        return new LineRejected(column(p.currentTokenLocation()), field, "field '" + WireText.shown(field)
+                + "': the number " + WireText.shown(p.getText()) + " is too large for a 64-bit float (RFC 7493, I-JSON)");
+    }
+
+    private static LineRejected notJson(JsonProcessingException e) {
+        int col = e.getLocation() == null ? 0 : column(e.getLocation());
+        if (e instanceof JsonEOFException) {
+            return new LineRejected(col, "", "this line is not JSON: it ends before the JSON object is closed");
+        }
+        return new LineRejected(col, "", "this line is not JSON: " + plain(e.getOriginalMessage()));
+    }
+
+    /** Jackson's message without its location notes and source excerpts. */
+    private static String plain(String message) {
+        if (message == null) return "it cannot be read";
+        String m = message;
+        int nl = m.indexOf('\n');
+        if (nl >= 0) m = m.substring(0, nl);
+        int at = m.indexOf(" at [Source");
+        if (at >= 0) m = m.substring(0, at);
+        return m.strip();
+    }
+
+    private static String rootKind(JsonToken t) {
+        if (t == null) return "empty";
+        return switch (t) {
+            case START_ARRAY -> "a JSON list";
+            case VALUE_STRING -> "a JSON string";
+            case VALUE_NUMBER_INT, VALUE_NUMBER_FLOAT -> "a JSON number";
+            case VALUE_TRUE, VALUE_FALSE -> "a JSON boolean";
+            case VALUE_NULL -> "JSON null";
+            default -> "not a JSON object";
+        };
+    }
+
+    private static int column(JsonLocation loc) {
+        long c = loc.getColumnNr();
+        return c <= 0 || c > Integer.MAX_VALUE ? 0 : (int) c;
+    }
+}
