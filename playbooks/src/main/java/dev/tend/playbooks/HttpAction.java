@@ -1,0 +1,90 @@
+package dev.tend.playbooks;
+
+import dev.tend.shared.Id;
+import dev.tend.shared.JsonValues;
+
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.Set;
+
+/**
+ * Calls an HTTP endpoint with a JSON body and the idempotency key in a header.
+ *
+ * @param url     absolute http or https URL; may contain placeholders
+ * @param method  one of {@link #METHODS}; POST by default
+ * @param body    the JSON body: maps, lists, strings, numbers, booleans, null; placeholders
+ *                are allowed in string values. Unmodifiable, never null (empty: no body)
+ * @param timeout limit for one attempt, or null
+ * @param retries transport-level retries within one attempt, with the same key, 0 to 10
+ */
+public record HttpAction(Id id, Template url, String method, Map<String, Object> body, Duration timeout, int retries)
+        implements ActionDef {
+    public static final Set<String> METHODS = Set.of("POST", "PUT", "PATCH", "DELETE", "GET");
+
+    public HttpAction {
+        Objects.requireNonNull(id, "action id");
+        Objects.requireNonNull(url, "action " + id + " url");
+        if (!url.text().startsWith("http://") && !url.text().startsWith("https://")) {
+            throw new IllegalArgumentException("action " + id + " url must start with http:// or https://, got '" + url + "'");
+        }
+        method = method == null ? "POST" : method;
+        if (!METHODS.contains(method)) {
+            throw new IllegalArgumentException("action " + id + " method must be one of DELETE, GET, PATCH, POST, PUT, got '" + method + "'");
+        }
+        body = body == null ? Map.of() : JsonValues.freeze(body);
+        if (timeout != null && (timeout.isNegative() || timeout.isZero())) {
+            throw new IllegalArgumentException("action " + id + " timeout must be longer than zero, got " + timeout);
+        }
+        if (retries < 0 || retries > 10) {
+            throw new IllegalArgumentException("action " + id + " retries must be between 0 and 10, got " + retries);
+        }
+    }
+
+    @Override
+    public String kind() {
+        return "http";
+    }
+
+    @Override
+    public boolean uses(String placeholder) {
+        return url.uses(placeholder) || usesIn(body, placeholder);
+    }
+
+    /** The body with placeholders in string values filled in. */
+    public Map<String, Object> renderBody(Map<String, String> values) {
+        @SuppressWarnings("unchecked")
+        Map<String, Object> out = (Map<String, Object>) render(body, values);
+        return out;
+    }
+
+    private static Object render(Object v, Map<String, String> values) {
+        if (v instanceof String s) return new Template(s).render(values);
+        if (v instanceof Map<?, ?> m) {
+            Map<String, Object> out = new LinkedHashMap<>();
+            for (Map.Entry<?, ?> e : m.entrySet()) out.put((String) e.getKey(), render(e.getValue(), values));
+            return Collections.unmodifiableMap(out);
+        }
+        if (v instanceof List<?> l) {
+            List<Object> out = new ArrayList<>();
+            for (Object o : l) out.add(render(o, values));
+            return Collections.unmodifiableList(out);
+        }
+        return v;
+    }
+
+    private static boolean usesIn(Object v, String placeholder) {
+        if (v instanceof String s) return new Template(s).uses(placeholder);
+        if (v instanceof Map<?, ?> m) {
+            for (Object o : m.values()) if (usesIn(o, placeholder)) return true;
+        }
+        if (v instanceof List<?> l) {
+            for (Object o : l) if (usesIn(o, placeholder)) return true;
+        }
+        return false;
+    }
+}

@@ -1,0 +1,50 @@
+package dev.tend.playbooks;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.Optional;
+
+/**
+ * Fleet-wide policy ({@code tend.yaml}): default limits, the fleet brake, freezes and the
+ * fleet-wide start budget. Without a {@code tend.yaml}, {@link #builtIn()} applies:
+ * {@link EffectiveLimits#builtIn()}, {@link BrakePolicy#builtIn()}, no freezes, and a fleet
+ * rate of 50/1h.
+ *
+ * @param defaults    every limit, after laying {@code defaults:} over the built-in ones
+ * @param brake       the fleet brake
+ * @param freezes     in file order
+ * @param rate        how many runs may start in the whole fleet per period, all playbooks together
+ * @param source      the file it came from, or null for the built-in policy
+ * @param contentHash SHA-256 hex of that file, or null
+ */
+public record TendConfig(EffectiveLimits defaults, BrakePolicy brake, List<Freeze> freezes, RateLimit rate,
+                         String source, String contentHash) {
+    public static final RateLimit BUILT_IN_FLEET_RATE = new RateLimit(50, Duration.ofHours(1));
+    private static final TendConfig BUILT_IN = new TendConfig(EffectiveLimits.builtIn(), BrakePolicy.builtIn(), List.of(),
+            BUILT_IN_FLEET_RATE, null, null);
+
+    public TendConfig {
+        Objects.requireNonNull(defaults, "defaults");
+        Objects.requireNonNull(brake, "brake");
+        freezes = List.copyOf(freezes);
+        Objects.requireNonNull(rate, "rate");
+    }
+
+    public static TendConfig builtIn() {
+        return BUILT_IN;
+    }
+
+    /** The playbook's limits laid over {@link #defaults()}; no field is null. */
+    public EffectiveLimits effectiveLimits(Playbook playbook) {
+        return defaults.withOverrides(playbook.limits());
+    }
+
+    /** The first freeze (in file order) that holds at {@code t} for a cluster with these tags. */
+    public Optional<Freeze> freezeAt(Instant t, Map<String, String> clusterTags) {
+        for (Freeze f : freezes) if (f.covers(t, clusterTags)) return Optional.of(f);
+        return Optional.empty();
+    }
+}
