@@ -8,6 +8,15 @@ package dev.tend.engine;
  */
 public record BrakeThresholds(Integer engageClusters, Double engageFraction, Integer releaseClusters,
                               Double releaseFraction, boolean autoRelease, String channel) {
+    /** The thresholds of a tend.yaml brake policy. */
+    public static BrakeThresholds from(dev.tend.playbooks.BrakePolicy p) {
+        return new BrakeThresholds(p.engageAt() == null ? null : p.engageAt().clusters(),
+                p.engageAt() == null ? null : p.engageAt().fraction(),
+                p.releaseBelow() == null ? null : p.releaseBelow().clusters(),
+                p.releaseBelow() == null ? null : p.releaseBelow().fraction(),
+                p.autoRelease(), p.notifyChannel() == null ? "oncall" : p.notifyChannel().value());
+    }
+
     public static BrakeThresholds never() {
         return new BrakeThresholds(null, null, null, null, false, "oncall");
     }

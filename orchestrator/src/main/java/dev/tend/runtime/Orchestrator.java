@@ -1,0 +1,192 @@
+package dev.tend.runtime;
+
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.Input;
+import dev.tend.engine.RunSnapshot;
+import dev.tend.engine.RunState;
+import dev.tend.executor.Executor;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
+import dev.tend.shared.SignalState;
+import dev.tend.shared.TendException;
+import dev.tend.shared.time.Timers;
+import dev.tend.store.InputRow;
+import dev.tend.store.LedgerDraft;
+import dev.tend.store.Store;
+
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ArrayBlockingQueue;
+import java.util.concurrent.BlockingQueue;
+import java.util.concurrent.LinkedBlockingQueue;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.function.BooleanSupplier;
+
+/**
+ * The live driver around the engine. One thread takes inputs in order, journals each one,
+ * lets the engine decide, and commits the journal rows, ledger entries and projections of
+ * a batch in one transaction; only after the commit does it perform side effects (executor
+ * calls, timers, notifications). A crash at any moment therefore loses nothing that was
+ * acted on, and {@link #recover()} rebuilds the engine by replaying the journal.
+ */
+public final class Orchestrator {
+    private static final int BATCH = 2000;
+
+    private final Store store;
+    private final Engine engine;
+    private final Map<String, Executor> executors;
+    private final Timers timers;
+    private final Notifier notifier;
+    private final Clock clock;
+    private final BlockingQueue<Input> urgent = new LinkedBlockingQueue<>();
+    private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
+    private final AtomicInteger callsInFlight = new AtomicInteger();
+    private volatile boolean stopping;
+
+    public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
+                        Notifier notifier, Clock clock) {
+        this.store = store;
+        this.engine = new Engine(setup);
+        this.executors = Map.copyOf(executors);
+        this.timers = timers;
+        this.notifier = notifier;
+        this.clock = clock;
+    }
+
+    /** The engine; read it only from the driver thread or after {@link #runUntil} returned. */
+    public Engine engine() {
+        return engine;
+    }
+
+    /** What {@link #recover()} found. */
+    public record Recovery(long inputsReplayed, int timersArmed, int callsAskedAgain, int callsUnknown) {
+    }
+
+    /**
+     * Rebuilds the engine from the journal, arms its timers again and settles calls that were
+     * in flight: asked again by key where the executor can, else the run stops for a person.
+     */
+    public Recovery recover() {
+        long[] n = {0};
+        store.read(r -> {
+            r.forEachInput(0, row -> {
+                engine.handle(InputCodec.decode(row), row.now());
+                n[0]++;
+            });
+            return null;
+        });
+        Map<String, Instant> armed = engine.armedTimers();
+        armed.forEach(timers::arm);
+        int again = 0, unknown = 0;
+        for (Effect.CallExecutor call : engine.inFlightCalls()) {
+            Executor ex = executor(call.action().kind());
+            if (ex.canAskAgain(call)) {
+                dispatch(call);
+                again++;
+            } else {
+                urgent.add(new Input.OutcomeUnknown(call.runId(), call.stepId(), call.attempt()));
+                unknown++;
+            }
+        }
+        return new Recovery(n[0], armed.size(), again, unknown);
+    }
+
+    /** Queues a transition or topology event; blocks while the queue is full. */
+    public void submitEvent(Input in) throws InterruptedException {
+        events.put(in);
+    }
+
+    /** Queues a timer firing, executor result or operator command; never blocks. */
+    public void submit(Input in) {
+        urgent.add(in);
+    }
+
+    public void stop() {
+        stopping = true;
+    }
+
+    /** True when no run is executing and no call is in flight. */
+    public boolean isIdle() {
+        if (callsInFlight.get() > 0 || !urgent.isEmpty() || !events.isEmpty()) return false;
+        for (RunSnapshot r : engine.runs()) if (r.state() == RunState.RUNNING) return false;
+        return true;
+    }
+
+    /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
+    public void runUntil(BooleanSupplier done) throws InterruptedException {
+        List<Input> batch = new ArrayList<>(BATCH);
+        while (!stopping) {
+            batch.clear();
+            urgent.drainTo(batch, BATCH);
+            if (batch.size() < BATCH) events.drainTo(batch, BATCH - batch.size());
+            if (batch.isEmpty()) {
+                if (done.getAsBoolean() && urgent.isEmpty() && events.isEmpty()) return;
+                Input next = urgent.poll(20, TimeUnit.MILLISECONDS);
+                if (next == null) next = events.poll();
+                if (next == null) continue;
+                batch.add(next);
+            }
+            process(batch);
+        }
+    }
+
+    private void process(List<Input> batch) {
+        List<InputRow> rows = new ArrayList<>(batch.size());
+        List<Effect> all = new ArrayList<>();
+        List<LedgerDraft> ledger = new ArrayList<>();
+        List<Instant> times = new ArrayList<>(batch.size());
+        List<List<Effect>> perInput = new ArrayList<>(batch.size());
+        for (Input in : batch) {
+            Instant now = clock.instant();
+            rows.add(InputCodec.encode(in, now));
+            List<Effect> fx = engine.handle(in, now);
+            all.addAll(fx);
+            times.add(now);
+            perInput.add(fx);
+        }
+        try {
+            store.useTransaction(tx -> {
+                tx.appendInputs(rows);
+                for (int i = 0; i < perInput.size(); i++) Projections.apply(tx, times.get(i), perInput.get(i), ledger);
+                tx.appendLedger(ledger);
+            });
+        } catch (RuntimeException e) {
+            stopping = true;
+            throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
+                    + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
+        }
+        for (Effect e : all) perform(e);
+    }
+
+    private void perform(Effect e) {
+        if (e instanceof Effect.CallExecutor c) dispatch(c);
+        else if (e instanceof Effect.ArmTimer t) timers.arm(t.key(), t.due());
+        else if (e instanceof Effect.CancelTimer t) timers.cancel(t.key());
+        else if (e instanceof Effect.Notify n) notifier.send(n);
+    }
+
+    private void dispatch(Effect.CallExecutor call) {
+        callsInFlight.incrementAndGet();
+        executor(call.action().kind()).execute(call, result -> {
+            urgent.add(result);
+            for (Id s : result.clears()) {
+                // the simulated fleet reports the signals the action cleared, as a health pipeline would
+                urgent.add(new Input.Transition(new HealthTransition(engine.eventTime(), call.target().cluster(),
+                        call.target().node(), s, SignalState.CLEAR, Map.of(), Map.of("origin", "simulated"))));
+            }
+            callsInFlight.decrementAndGet();
+        });
+    }
+
+    private Executor executor(String kind) {
+        Executor ex = executors.get(kind);
+        if (ex == null) throw new TendException("no executor serves actions of kind '" + kind + "'; start tend with one");
+        return ex;
+    }
+}

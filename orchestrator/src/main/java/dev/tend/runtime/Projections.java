@@ -1,0 +1,102 @@
+package dev.tend.runtime;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.ApprovalSnapshot;
+import dev.tend.engine.BrakeState;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Exclusion;
+import dev.tend.engine.RunSnapshot;
+import dev.tend.engine.StepSnapshot;
+import dev.tend.shared.TendException;
+import dev.tend.store.ApprovalRow;
+import dev.tend.store.ExclusionRow;
+import dev.tend.store.LedgerDraft;
+import dev.tend.store.RunRow;
+import dev.tend.store.StepRow;
+import dev.tend.store.StoreTx;
+import dev.tend.store.TimerRow;
+
+import java.time.Instant;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Writes the durable part of an input's effects inside the transaction that journals the
+ * input: ledger entries (notifications included, as {@code notification} entries), the run,
+ * step, approval, exclusion and brake projections, and the timers table.
+ */
+final class Projections {
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private Projections() {
+    }
+
+    static void apply(StoreTx tx, Instant at, List<Effect> effects, List<LedgerDraft> ledger) {
+        for (Effect e : effects) {
+            if (e instanceof Effect.Ledger l) {
+                ledger.add(new LedgerDraft(at, l.kind(), l.fields()));
+            } else if (e instanceof Effect.Notify n) {
+                Map<String, Object> f = new LinkedHashMap<>(n.fields());
+                f.put("id", n.id());
+                f.put("channel", n.channel());
+                f.put("message", n.message());
+                ledger.add(new LedgerDraft(at, "notification", f));
+            } else if (e instanceof Effect.RunChanged r) {
+                run(tx, r.run());
+            } else if (e instanceof Effect.ApprovalChanged a) {
+                approval(tx, a.approval());
+            } else if (e instanceof Effect.ExclusionsChanged x) {
+                if (x.exclusionOrNull() == null) {
+                    tx.removeExclusion(x.target().cluster().value(), x.target().node() == null ? null : x.target().node().value());
+                } else {
+                    Exclusion ex = x.exclusionOrNull();
+                    tx.upsertExclusion(new ExclusionRow(ex.target().cluster().value(),
+                            ex.target().node() == null ? null : ex.target().node().value(), ex.reason(), ex.owner(),
+                            ex.createdAt(), ex.until()));
+                }
+            } else if (e instanceof Effect.BrakeChanged b) {
+                tx.putState("brake", json(brake(b.brake())));
+            } else if (e instanceof Effect.ArmTimer t) {
+                tx.armTimer(new TimerRow(t.key(), t.due(), "{}"));
+            } else if (e instanceof Effect.CancelTimer t) {
+                tx.cancelTimer(t.key());
+            }
+        }
+    }
+
+    private static void run(StoreTx tx, RunSnapshot r) {
+        tx.upsertRun(new RunRow(r.runId(), r.playbook(), r.playbookVersion(), r.target().cluster().value(),
+                r.target().node() == null ? null : r.target().node().value(), r.state().wireName(), r.shadow(),
+                r.createdAt(), r.startedAt(), r.endedAt(), r.outcome(), r.currentStep(), "{}"));
+        for (StepSnapshot s : r.steps()) {
+            tx.upsertStep(new StepRow(r.runId(), s.stepId(), s.ordinal(), s.state(), s.attempt(), s.startedAt(),
+                    s.endedAt(), s.outcome(), json(Map.of("kind", s.kind()))));
+        }
+    }
+
+    private static void approval(StoreTx tx, ApprovalSnapshot a) {
+        tx.upsertApproval(new ApprovalRow(a.runId(), a.playbook(), a.target().cluster().value(),
+                a.target().node() == null ? null : a.target().node().value(), a.requestedBy(), a.requestedAt(),
+                a.expiresAt(), a.state(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
+    }
+
+    static Map<String, Object> brake(BrakeState b) {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("engaged", b.engaged());
+        m.put("since", b.since() == null ? null : b.since().toString());
+        m.put("by", b.by());
+        m.put("reason", b.reason());
+        m.put("manual", b.manual());
+        return m;
+    }
+
+    static String json(Object o) {
+        try {
+            return JSON.writeValueAsString(o);
+        } catch (JsonProcessingException e) {
+            throw new TendException("cannot write a projection: " + e.getMessage(), e);
+        }
+    }
+}
