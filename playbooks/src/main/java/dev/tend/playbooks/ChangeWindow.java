@@ -61,8 +61,15 @@ public final class ChangeWindow {
         return new ChangeWindow(cron, zone, length, parseCron(cron));
     }
 
-    /** Parses a Quartz cron expression, explaining a rejection in a sentence. */
-    static CronExpression parseCron(String cron) {
+    /**
+     * Checks that Quartz accepts {@code cron}; throws {@link IllegalArgumentException} with
+     * Quartz's reason and a reminder of the field order otherwise.
+     */
+    public static void validateCron(String cron) {
+        parseCron(cron);
+    }
+
+    private static CronExpression parseCron(String cron) {
         CronExpression e;
         try {
             e = new CronExpression(cron);
