@@ -192,6 +192,7 @@ public final class Engine implements RunHost {
         boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
                 || !e.decision().reasons().equals(d.reasons());
         if (changed) ledgerVerdict(c, d, fx);
+        if (!d.has(dev.tend.shared.ReasonCode.FLAPPING)) flapPaged.remove(key); // calm again: a new episode pages again
         switch (d.verdict()) {
             case START -> start(c, fx);
             case AWAIT_APPROVAL -> {
@@ -254,7 +255,6 @@ public final class Engine implements RunHost {
         Candidates.Entry e = candidates.get(key);
         if (e == null) return;
         candidates.remove(key);
-        flapPaged.remove(key);
         fx.cancel("recheck:" + key);
         if (e.decision() != null) {
             fx.ledger("candidate-dropped", "playbook", key.playbook(), "cluster", key.target().cluster(),
