@@ -1,0 +1,145 @@
+package dev.tend.cli;
+
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.Input;
+import dev.tend.engine.RunSnapshot;
+import dev.tend.executor.CommandExecutor;
+import dev.tend.executor.Executor;
+import dev.tend.executor.SimulatedExecutor;
+import dev.tend.runtime.Notifier;
+import dev.tend.runtime.Orchestrator;
+import dev.tend.runtime.ScheduledTimers;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.TopologyEvent;
+import dev.tend.shared.wire.LineResult;
+import dev.tend.shared.wire.ReadSummary;
+import dev.tend.shared.wire.WireReader;
+import dev.tend.store.Store;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.io.InputStreamReader;
+import java.io.PrintWriter;
+import java.io.Reader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import java.util.concurrent.atomic.AtomicBoolean;
+
+/**
+ * {@code tend ingest FILE|-}: applies transitions as they arrive, runs the engine with the
+ * wall clock and executes runs; stops on end of input once no run is executing, or on a
+ * signal, leaving runs resumable from the store.
+ */
+@Command(name = "ingest", mixinStandardHelpOptions = true,
+        description = "Apply health transitions (wire format v1, JSON Lines) from FILE or - (standard input), "
+                + "decide and execute runs; stop at end of input once no run is executing.")
+public final class IngestCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "FILE|-")
+    String input;
+
+    @Mixin
+    PolicyOptions policy;
+
+    @Mixin
+    DbOption db;
+
+    @Option(names = "--speedup", defaultValue = "1", paramLabel = "N",
+            description = "run simulated actions N times faster than their durations (default: ${DEFAULT-VALUE})")
+    double speedup;
+
+    @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
+    long seed;
+
+    @Override
+    public Integer call() throws Exception {
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
+        Clock clock = Clock.systemUTC();
+        try (Store store = db.open();
+             Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
+             Executor simulated = new SimulatedExecutor(seed, speedup)) {
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            Orchestrator[] holder = new Orchestrator[1];
+            ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated), timers,
+                    Notifier.printingTo(System.err), clock);
+            holder[0] = orch;
+            Orchestrator.Recovery rec = orch.recover();
+            if (rec.inputsReplayed() > 0) {
+                err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
+                        + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
+                        + rec.callsUnknown() + " runs stopped for a person");
+            }
+            AtomicBoolean eof = new AtomicBoolean();
+            ReadSummary[] summary = new ReadSummary[1];
+            Thread reader = new Thread(() -> {
+                try (Reader in = open()) {
+                    summary[0] = WireReader.of(input).readAll(in, r -> {
+                        try {
+                            if (r instanceof LineResult.Event e) {
+                                orch.submitEvent(e.event() instanceof HealthTransition t ? new Input.Transition(t)
+                                        : new Input.Topology((TopologyEvent) e.event()));
+                            } else if (r instanceof LineResult.Bad b) {
+                                err.println(b.problem() + " (line skipped)");
+                            }
+                        } catch (InterruptedException ie) {
+                            Thread.currentThread().interrupt();
+                            throw new IllegalStateException(ie);
+                        }
+                    });
+                } catch (Exception e) {
+                    err.println("tend: reading " + input + " stopped: " + e.getMessage());
+                } finally {
+                    eof.set(true);
+                }
+            }, "tend-ingest-reader");
+            reader.setDaemon(true);
+            reader.start();
+            Thread hook = new Thread(orch::stop, "tend-ingest-stop");
+            Runtime.getRuntime().addShutdownHook(hook);
+            orch.runUntil(() -> eof.get() && orch.isIdle());
+            try {
+                Runtime.getRuntime().removeShutdownHook(hook);
+            } catch (IllegalStateException shuttingDown) {
+                // a signal arrived: the store is consistent, runs resume on the next start
+            }
+            timers.close();
+            report(out, orch, summary[0]);
+            return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
+        }
+    }
+
+    private Reader open() throws java.io.IOException {
+        if (input.equals("-")) return new InputStreamReader(System.in, StandardCharsets.UTF_8);
+        return Files.newBufferedReader(Path.of(input), StandardCharsets.UTF_8);
+    }
+
+    private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {
+        long started = 0, ok = 0, failed = 0, other = 0;
+        for (RunSnapshot r : orch.engine().runs()) {
+            if (r.startedAt() != null) started++;
+            switch (r.state()) {
+                case SUCCEEDED -> ok++;
+                case FAILED -> failed++;
+                default -> other++;
+            }
+        }
+        out.println("read " + (s == null ? 0 : s.events()) + " events (" + (s == null ? 0 : s.bad()) + " bad lines skipped, "
+                + orch.engine().health().lateEvents() + " late); runs: " + started + " started, " + ok + " succeeded, "
+                + failed + " failed, " + other + " waiting or held; " + orch.engine().heldCandidates().size()
+                + " candidates held or denied");
+    }
+}

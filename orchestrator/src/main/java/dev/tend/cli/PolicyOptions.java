@@ -1,0 +1,45 @@
+package dev.tend.cli;
+
+import dev.tend.engine.BrakeThresholds;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EventTimeMode;
+import dev.tend.playbooks.Playbook;
+import dev.tend.playbooks.PlaybookSet;
+import dev.tend.playbooks.load.PlaybookLoader;
+import dev.tend.shared.fleet.Fleet;
+import dev.tend.shared.fleet.FleetFile;
+import picocli.CommandLine.Option;
+
+import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/** {@code --playbooks DIR --fleet FILE [--config FILE]}: what an engine is built from. */
+final class PolicyOptions {
+    @Option(names = "--playbooks", paramLabel = "DIR", required = true,
+            description = "playbook directory with actions.yaml (and tend.yaml unless --config)")
+    Path playbooks;
+
+    @Option(names = "--fleet", paramLabel = "FILE", required = true, description = "fleet file (YAML or JSON)")
+    Path fleet;
+
+    @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
+    Path config;
+
+    EngineSetup setup(EventTimeMode mode) {
+        PlaybookSet set = config == null ? PlaybookLoader.load(playbooks) : PlaybookLoader.load(playbooks, config);
+        Fleet f = FleetFile.load(fleet);
+        return new EngineSetup(set, set.config(), f, BrakeThresholds.from(set.config().brake()), mode);
+    }
+
+    /** The ledger fields recording which policy was loaded (each playbook's content hash). */
+    static Map<String, Object> loaded(EngineSetup setup) {
+        Map<String, Object> hashes = new LinkedHashMap<>();
+        for (Playbook p : setup.playbooks().playbooks()) hashes.put(p.id().value(), "v" + p.version() + " sha256:" + p.contentHash());
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("playbooks", hashes);
+        m.put("actions", "sha256:" + setup.playbooks().actions().contentHash());
+        m.put("clusters", setup.fleet().size());
+        return m;
+    }
+}
