@@ -1,0 +1,91 @@
+package dev.tend.store;
+
+import dev.tend.shared.Id;
+
+import java.time.Instant;
+import java.time.format.DateTimeFormatter;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.Set;
+
+/**
+ * A ledger entry before it is appended: the store adds {@code seq}, {@code at} and
+ * {@code kind} to {@code fields}, writes the RFC 8785 canonical JSON and chains its hash.
+ *
+ * <p>{@code fields} may hold JSON values (null, String, Boolean, finite Number, Map with
+ * String keys, List) and, for convenience, {@link Instant} (written as RFC 3339 UTC text),
+ * {@link Id} (written as its text) and enums (their {@code toString()}). It must not hold
+ * the keys {@code seq}, {@code at} or {@code kind}. When present, {@code cluster},
+ * {@code playbook} and {@code run} must be text: they are copied to indexed columns.
+ * The map is copied (deeply) and the copy is unmodifiable.
+ */
+public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
+    /** Keys the store writes itself. */
+    public static final Set<String> RESERVED = Set.of("seq", "at", "kind");
+    /** Keys copied to indexed columns of the ledger. */
+    public static final List<String> INDEXED = List.of("cluster", "playbook", "run");
+
+    public LedgerDraft {
+        Objects.requireNonNull(at, "LedgerDraft.at must not be null");
+        Objects.requireNonNull(kind, "LedgerDraft.kind must not be null");
+        if (kind.isBlank()) throw new IllegalArgumentException("LedgerDraft.kind must not be blank");
+        Objects.requireNonNull(fields, "LedgerDraft.fields must not be null (pass an empty map)");
+        Map<String, Object> copy = new LinkedHashMap<>();
+        for (Map.Entry<?, ?> e : fields.entrySet()) {
+            if (!(e.getKey() instanceof String key)) {
+                throw new IllegalArgumentException("LedgerDraft.fields keys must be text, got " + e.getKey());
+            }
+            if (RESERVED.contains(key)) {
+                throw new IllegalArgumentException("LedgerDraft.fields must not hold '" + key + "': the store writes seq, at and kind itself");
+            }
+            Object value = normalize(e.getValue(), "LedgerDraft.fields." + key);
+            if (INDEXED.contains(key) && value != null && !(value instanceof String)) {
+                throw new IllegalArgumentException("LedgerDraft.fields." + key + " must be text (it is indexed), got " + value);
+            }
+            copy.put(key, value);
+        }
+        fields = Collections.unmodifiableMap(copy);
+    }
+
+    public static LedgerDraft of(Instant at, String kind, Map<String, Object> fields) {
+        return new LedgerDraft(at, kind, fields);
+    }
+
+    /** The text of an indexed field ({@code cluster}, {@code playbook}, {@code run}), or null. */
+    public String indexed(String key) {
+        return (String) fields.get(key);
+    }
+
+    private static Object normalize(Object v, String path) {
+        if (v == null || v instanceof String || v instanceof Boolean) return v;
+        if (v instanceof Double d && !Double.isFinite(d) || v instanceof Float f && !Float.isFinite(f)) {
+            throw new IllegalArgumentException(path + " must be a finite number (RFC 8785 has no form for " + v + ")");
+        }
+        if (v instanceof Number) return v;
+        if (v instanceof Instant i) return DateTimeFormatter.ISO_INSTANT.format(i);
+        if (v instanceof Id id) return id.value();
+        if (v instanceof Enum<?> e) return e.toString();
+        if (v instanceof Map<?, ?> m) {
+            Map<String, Object> copy = new LinkedHashMap<>();
+            for (Map.Entry<?, ?> e : m.entrySet()) {
+                if (!(e.getKey() instanceof String key)) {
+                    throw new IllegalArgumentException(path + " keys must be text, got " + e.getKey());
+                }
+                copy.put(key, normalize(e.getValue(), path + "." + key));
+            }
+            return Collections.unmodifiableMap(copy);
+        }
+        if (v instanceof Iterable<?> it) {
+            List<Object> copy = new ArrayList<>();
+            int i = 0;
+            for (Object o : it) copy.add(normalize(o, path + "[" + i++ + "]"));
+            return Collections.unmodifiableList(copy);
+        }
+        throw new IllegalArgumentException(path + " is a " + v.getClass().getName()
+                + ", which is not a JSON value; pass text, a number, a boolean, a map or a list");
+    }
+}

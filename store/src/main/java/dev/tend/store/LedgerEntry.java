@@ -1,0 +1,41 @@
+package dev.tend.store;
+
+import java.time.Instant;
+import java.util.Objects;
+import java.util.regex.Pattern;
+
+/**
+ * One entry of the audit ledger as written.
+ *
+ * @param seq      position in the ledger, from 1, without gaps
+ * @param at       the time the entry is about (also in {@code entry} as "at")
+ * @param kind     what sort of entry, e.g. verdict, run, step, approval (also in {@code entry})
+ * @param cluster  the entry's "cluster" field; null when it has none
+ * @param playbook the entry's "playbook" field; null when it has none
+ * @param run      the entry's "run" field; null when it has none
+ * @param entry    the entry: RFC 8785 canonical JSON text of its fields plus seq, at and kind
+ * @param prevHash the hash of the entry before (64 zeros for the first)
+ * @param hash     SHA-256 (hex) of {@code prevHash} followed by {@code entry}, UTF-8
+ */
+public record LedgerEntry(long seq, Instant at, String kind, String cluster, String playbook, String run,
+                          String entry, String prevHash, String hash) {
+    /** The prevHash of the first entry. */
+    public static final String GENESIS_HASH = "0".repeat(64);
+    private static final Pattern HEX64 = Pattern.compile("[0-9a-f]{64}");
+
+    public LedgerEntry {
+        if (seq < 1) throw new IllegalArgumentException("LedgerEntry.seq must be 1 or more, got " + seq);
+        Objects.requireNonNull(at, "LedgerEntry.at must not be null");
+        Objects.requireNonNull(kind, "LedgerEntry.kind must not be null");
+        Objects.requireNonNull(entry, "LedgerEntry.entry must not be null");
+        requireHash(prevHash, "LedgerEntry.prevHash");
+        requireHash(hash, "LedgerEntry.hash");
+    }
+
+    private static void requireHash(String h, String field) {
+        Objects.requireNonNull(h, field + " must not be null");
+        if (!HEX64.matcher(h).matches()) {
+            throw new IllegalArgumentException(field + " must be 64 lowercase hex digits, got '" + h + "'");
+        }
+    }
+}

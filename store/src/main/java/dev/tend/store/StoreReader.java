@@ -1,0 +1,74 @@
+package dev.tend.store;
+
+import java.time.Instant;
+import java.util.List;
+import java.util.Optional;
+import java.util.Set;
+import java.util.function.Consumer;
+
+/**
+ * Read access to the store, valid only inside the callback it was handed to (using it
+ * afterwards throws {@link StoreException}) and only on that callback's thread. All reads
+ * in one callback see one consistent snapshot; inside a transaction they also see that
+ * transaction's own writes. Lists are unmodifiable; failures throw {@link StoreException}.
+ */
+public interface StoreReader {
+    /**
+     * Streams the input journal in seq order, starting after {@code afterSeq} (0 for all).
+     * Rows are read as the consumer takes them, never all at once, so this handles a
+     * journal of millions. The consumer must not append inputs through this transaction.
+     */
+    void forEachInput(long afterSeq, Consumer<InputRow> consumer);
+
+    /** The seq of the last input in the journal; 0 when it is empty. */
+    long lastInputSeq();
+
+    /** Runs that pass {@code filter}, newest ({@code createdAt}) first. */
+    List<RunRow> runs(RunFilter filter);
+
+    Optional<RunRow> run(String runId);
+
+    /** The run's steps by ordinal; empty when the run has none or does not exist. */
+    List<StepRow> steps(String runId);
+
+    /** Every armed timer, soonest first (ties by key). */
+    List<TimerRow> timers();
+
+    /**
+     * Every exclusion, by cluster, whole-cluster ones before node ones, then by node.
+     * Lapsed ones ({@code until} in the past) are included: the store does not know the time.
+     */
+    List<ExclusionRow> exclusions();
+
+    /**
+     * Approvals in {@code stateOrNull} (one of {@link ApprovalRow#STATES}), or all when null,
+     * oldest request first.
+     */
+    List<ApprovalRow> approvals(String stateOrNull);
+
+    /** The JSON text put under {@code key}, if any. */
+    Optional<String> state(String key);
+
+    /** Streams the ledger entries that pass {@code filter} in seq order. */
+    void forEachLedger(LedgerFilter filter, Consumer<LedgerEntry> consumer);
+
+    /** The last ledger entry; empty when the ledger is empty. */
+    Optional<LedgerEntry> ledgerHead();
+
+    /**
+     * Walks the whole ledger in seq order and checks every entry's text, hash and chain
+     * link, its indexed columns and the head row. It finds an entry edited, dropped or
+     * moved after it was written, except a removal of the newest entries together with a
+     * matching rewrite of the head row: compare {@link LedgerVerification#headHash()}
+     * with a copy kept elsewhere to rule that out.
+     */
+    LedgerVerification verifyLedger();
+
+    /**
+     * Streams the inputs of kind {@value InputRow#TRANSITION} and {@value InputRow#TOPOLOGY}
+     * whose {@code eventAt} is at or after {@code from} and before {@code until}, on the
+     * given clusters (an empty set means every cluster), in journal (seq) order: the order
+     * the engine took them, late arrivals included. For exporting recordings.
+     */
+    void forEachTransitionInput(Instant from, Instant until, Set<String> clusters, Consumer<InputRow> consumer);
+}

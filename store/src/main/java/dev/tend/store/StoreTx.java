@@ -1,0 +1,63 @@
+package dev.tend.store;
+
+import java.time.Instant;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Write access inside one transaction, handed to {@link Store#inTransaction}. Everything
+ * written through it commits together when the callback returns, or not at all when it
+ * throws. Reads through it see its own writes. Valid only inside the callback and on its
+ * thread.
+ *
+ * <p>Journal and ledger appends are sent to the database in batches (when the callback
+ * returns, before the next read, or every few thousand rows), so a failing append (say, a
+ * full disk) may surface at one of those points instead of at the call; either way the
+ * whole transaction is rolled back.
+ */
+public interface StoreTx extends StoreReader {
+    /** Appends one input (its seq must be 0) and returns the seq it was given. */
+    long appendInput(InputRow row);
+
+    /**
+     * Appends inputs in list order (their seqs must be 0) and returns the seq given to the
+     * last one ({@link #lastInputSeq()} when the list is empty). Seqs are consecutive.
+     */
+    long appendInputs(List<InputRow> rows);
+
+    /** Appends one ledger entry; see {@link LedgerDraft} for what {@code fields} may hold. */
+    LedgerEntry appendLedger(Instant at, String kind, Map<String, Object> fields);
+
+    /** Appends ledger entries in list order. */
+    List<LedgerEntry> appendLedger(List<LedgerDraft> drafts);
+
+    /** Inserts the run, or replaces every column of the run with the same id. */
+    void upsertRun(RunRow run);
+
+    /** Inserts the step, or replaces the step with the same run id and step id. */
+    void upsertStep(StepRow step);
+
+    /** Arms the timer, replacing one with the same key. */
+    void armTimer(TimerRow timer);
+
+    /** Cancels the timer with this key; returns false when none was armed. */
+    boolean cancelTimer(String key);
+
+    /** Adds the exclusion, replacing one on the same cluster and node. */
+    void upsertExclusion(ExclusionRow exclusion);
+
+    /**
+     * Removes the exclusion of {@code node} on {@code cluster} ({@code node} null: the
+     * whole-cluster one); returns false when there was none.
+     */
+    boolean removeExclusion(String cluster, String node);
+
+    /** Inserts the approval, or replaces the one of the same run. */
+    void upsertApproval(ApprovalRow approval);
+
+    /** Puts {@code json} under {@code key}, replacing what was there. */
+    void putState(String key, String json);
+
+    /** Deletes what is under {@code key}; returns false when there was nothing. */
+    boolean deleteState(String key);
+}

@@ -1,0 +1,20 @@
+package dev.tend.store.internal;
+
+import java.util.Map;
+
+/** What differs between the two databases the store runs on; everything else is shared SQL. */
+public enum Dialect {
+    SQLITE(Map.of("seq_key", "INTEGER")),
+    POSTGRESQL(Map.of("seq_key", "BIGINT"));
+
+    private final Map<String, String> placeholders;
+
+    Dialect(Map<String, String> placeholders) {
+        this.placeholders = placeholders;
+    }
+
+    /** Values for the ${...} placeholders in the migration scripts. */
+    public Map<String, String> placeholders() {
+        return placeholders;
+    }
+}

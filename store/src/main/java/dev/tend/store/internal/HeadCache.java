@@ -1,0 +1,73 @@
+package dev.tend.store.internal;
+
+import dev.tend.store.LedgerEntry;
+import dev.tend.store.StoreException;
+import org.jdbi.v3.core.Handle;
+
+import java.sql.Connection;
+import java.util.concurrent.atomic.AtomicReference;
+
+/**
+ * The journal and ledger tails of one Store, kept in memory so that appends need no read.
+ * A write transaction claims them once, at its first append; it publishes its new tails
+ * when it commits and invalidates the cache when it fails, so the next claim reads them
+ * again from the database.
+ *
+ * <p>SQLite: one process writes a file (documented on Store.openSqlite), and a Store
+ * writes through one connection under its own lock, so the cache stays right unless
+ * another connection committed; PRAGMA data_version tells exactly that, at the cost of
+ * one pragma per transaction. PostgreSQL: several processes may write, so a claim locks the
+ * ledger_head row (held to commit, which serialises appenders) and reads the tails
+ * under that lock.
+ */
+public final class HeadCache {
+    private static final String READ_HEAD = "SELECT seq, hash FROM ledger_head WHERE id = 1";
+    private static final String READ_INPUT_SEQ = "SELECT COALESCE(MAX(seq), 0) FROM input_journal";
+    private static final String LOCK_HEADS = "SELECT h.seq, h.hash, (SELECT COALESCE(MAX(j.seq), 0) FROM input_journal j) "
+            + "FROM ledger_head h WHERE h.id = 1 FOR UPDATE";
+
+    private final Dialect dialect;
+    private final String location;
+    private final AtomicReference<Heads> committed = new AtomicReference<>();
+
+    public HeadCache(Dialect dialect, String location) {
+        this.dialect = dialect;
+        this.location = location;
+    }
+
+    /** The tails to continue from, inside the transaction of {@code handle}. */
+    public Heads claim(Handle handle) {
+        if (dialect == Dialect.POSTGRESQL) {
+            return handle.createQuery(LOCK_HEADS)
+                    .map((rs, ctx) -> new Heads(rs.getLong(3), rs.getLong(1), rs.getString(2), null, 0))
+                    .findOne()
+                    .orElseThrow(this::missingHead);
+        }
+        Connection connection = handle.getConnection();
+        long dataVersion = handle.createQuery("PRAGMA data_version").mapTo(Long.class).one();
+        Heads cached = committed.get();
+        if (cached != null && cached.connection() == connection && cached.dataVersion() == dataVersion) {
+            return cached;
+        }
+        Heads ledger = handle.createQuery(READ_HEAD)
+                .map((rs, ctx) -> new Heads(0, rs.getLong(1), rs.getString(2), connection, dataVersion))
+                .findOne()
+                .orElseThrow(this::missingHead);
+        return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
+    }
+
+    public void publish(Heads heads) {
+        committed.set(heads);
+    }
+
+    public void invalidate() {
+        committed.set(null);
+    }
+
+    private StoreException missingHead() {
+        return new StoreException(location, "the ledger_head row of the store at " + location
+                + " is missing, so the ledger cannot be continued; run `tend audit verify` and restore the store from a backup "
+                + "(it should hold one row, id 1, with the last seq and hash, or 0 and " + LedgerEntry.GENESIS_HASH.substring(0, 8)
+                + "... when empty)");
+    }
+}

@@ -1,0 +1,210 @@
+package dev.tend.store.internal;
+
+import dev.tend.store.ApprovalRow;
+import dev.tend.store.ExclusionRow;
+import dev.tend.store.InputRow;
+import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerFilter;
+import dev.tend.store.LedgerVerification;
+import dev.tend.store.RunFilter;
+import dev.tend.store.RunRow;
+import dev.tend.store.StepRow;
+import dev.tend.store.StoreException;
+import dev.tend.store.StoreReader;
+import dev.tend.store.TimerRow;
+import org.jdbi.v3.core.Handle;
+import org.jdbi.v3.core.statement.Query;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Objects;
+import java.util.Optional;
+import java.util.Set;
+import java.util.function.Consumer;
+
+/** {@link StoreReader} over one Jdbi handle inside a transaction; see Store for the rules. */
+public class JdbiReader implements StoreReader {
+    /** Rows fetched per round trip when streaming (PostgreSQL streams only with a fetch size). */
+    static final int FETCH_SIZE = 1000;
+
+    protected final Handle handle;
+    protected final String location;
+    private boolean ended;
+
+    public JdbiReader(Handle handle, String location) {
+        this.handle = handle;
+        this.location = location;
+    }
+
+    /** Called before every read; a transaction sends its batched writes here. */
+    protected void beforeRead() {
+        requireOpen();
+    }
+
+    protected final void requireOpen() {
+        if (ended) {
+            throw new StoreException(location, "this store callback has returned, so its reader or transaction "
+                    + "can no longer be used; do the work inside the callback");
+        }
+    }
+
+    /** Marks the callback as returned: every later call throws. */
+    public void end() {
+        ended = true;
+    }
+
+    @Override
+    public void forEachInput(long afterSeq, Consumer<InputRow> consumer) {
+        Objects.requireNonNull(consumer, "consumer");
+        beforeRead();
+        handle.createQuery("SELECT " + Rows.INPUT_COLUMNS + " FROM input_journal WHERE seq > :after ORDER BY seq")
+                .bind("after", afterSeq)
+                .setFetchSize(FETCH_SIZE)
+                .map((rs, ctx) -> Rows.input(rs))
+                .forEach(consumer);
+    }
+
+    @Override
+    public long lastInputSeq() {
+        beforeRead();
+        return handle.createQuery("SELECT COALESCE(MAX(seq), 0) FROM input_journal").mapTo(Long.class).one();
+    }
+
+    @Override
+    public List<RunRow> runs(RunFilter filter) {
+        Objects.requireNonNull(filter, "filter");
+        beforeRead();
+        StringBuilder sql = new StringBuilder("SELECT " + Rows.RUN_COLUMNS + " FROM runs WHERE 1 = 1");
+        if (filter.activeOnly()) sql.append(" AND ended_ns IS NULL");
+        if (filter.cluster() != null) sql.append(" AND cluster = :cluster");
+        if (filter.playbook() != null) sql.append(" AND playbook = :playbook");
+        if (filter.since() != null) sql.append(" AND created_ns >= :since");
+        sql.append(" ORDER BY created_ns DESC, run_id DESC");
+        if (filter.limit() > 0) sql.append(" LIMIT ").append(filter.limit());
+        Query q = handle.createQuery(sql.toString());
+        if (filter.cluster() != null) q.bind("cluster", filter.cluster());
+        if (filter.playbook() != null) q.bind("playbook", filter.playbook());
+        if (filter.since() != null) q.bind("since", Times.toNanos(filter.since(), "RunFilter.since"));
+        return List.copyOf(q.map((rs, ctx) -> Rows.run(rs)).list());
+    }
+
+    @Override
+    public Optional<RunRow> run(String runId) {
+        Objects.requireNonNull(runId, "runId");
+        beforeRead();
+        return handle.createQuery("SELECT " + Rows.RUN_COLUMNS + " FROM runs WHERE run_id = :id")
+                .bind("id", runId)
+                .map((rs, ctx) -> Rows.run(rs))
+                .findOne();
+    }
+
+    @Override
+    public List<StepRow> steps(String runId) {
+        Objects.requireNonNull(runId, "runId");
+        beforeRead();
+        return List.copyOf(handle.createQuery("SELECT " + Rows.STEP_COLUMNS + " FROM steps WHERE run_id = :id ORDER BY ordinal, step_id")
+                .bind("id", runId)
+                .map((rs, ctx) -> Rows.step(rs))
+                .list());
+    }
+
+    @Override
+    public List<TimerRow> timers() {
+        beforeRead();
+        return List.copyOf(handle.createQuery("SELECT " + Rows.TIMER_COLUMNS + " FROM timers ORDER BY due_ns, timer_key")
+                .map((rs, ctx) -> Rows.timer(rs))
+                .list());
+    }
+
+    @Override
+    public List<ExclusionRow> exclusions() {
+        beforeRead();
+        return List.copyOf(handle.createQuery("SELECT " + Rows.EXCLUSION_COLUMNS + " FROM exclusions ORDER BY cluster, node")
+                .map((rs, ctx) -> Rows.exclusion(rs))
+                .list());
+    }
+
+    @Override
+    public List<ApprovalRow> approvals(String stateOrNull) {
+        if (stateOrNull != null && !ApprovalRow.STATES.contains(stateOrNull)) {
+            throw new IllegalArgumentException("approvals(state) takes pending, approved, rejected, lapsed or null, got '"
+                    + stateOrNull + "'");
+        }
+        beforeRead();
+        String where = stateOrNull == null ? "" : " WHERE state = :state";
+        Query q = handle.createQuery("SELECT " + Rows.APPROVAL_COLUMNS + " FROM approvals" + where + " ORDER BY requested_ns, run_id");
+        if (stateOrNull != null) q.bind("state", stateOrNull);
+        return List.copyOf(q.map((rs, ctx) -> Rows.approval(rs)).list());
+    }
+
+    @Override
+    public Optional<String> state(String key) {
+        Objects.requireNonNull(key, "key");
+        beforeRead();
+        return handle.createQuery("SELECT json FROM fleet_state WHERE state_key = :key")
+                .bind("key", key)
+                .mapTo(String.class)
+                .findOne();
+    }
+
+    @Override
+    public void forEachLedger(LedgerFilter filter, Consumer<LedgerEntry> consumer) {
+        Objects.requireNonNull(filter, "filter");
+        Objects.requireNonNull(consumer, "consumer");
+        beforeRead();
+        StringBuilder sql = new StringBuilder("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE 1 = 1");
+        if (filter.since() != null) sql.append(" AND at_ns >= :since");
+        if (filter.until() != null) sql.append(" AND at_ns < :until");
+        if (filter.cluster() != null) sql.append(" AND cluster = :cluster");
+        if (filter.playbook() != null) sql.append(" AND playbook = :playbook");
+        if (filter.kind() != null) sql.append(" AND kind = :kind");
+        if (filter.run() != null) sql.append(" AND run = :run");
+        sql.append(" ORDER BY seq");
+        Query q = handle.createQuery(sql.toString()).setFetchSize(FETCH_SIZE);
+        if (filter.since() != null) q.bind("since", Times.toNanos(filter.since(), "LedgerFilter.since"));
+        if (filter.until() != null) q.bind("until", Times.toNanos(filter.until(), "LedgerFilter.until"));
+        if (filter.cluster() != null) q.bind("cluster", filter.cluster());
+        if (filter.playbook() != null) q.bind("playbook", filter.playbook());
+        if (filter.kind() != null) q.bind("kind", filter.kind());
+        if (filter.run() != null) q.bind("run", filter.run());
+        q.map((rs, ctx) -> Rows.ledger(rs)).forEach(consumer);
+    }
+
+    @Override
+    public Optional<LedgerEntry> ledgerHead() {
+        beforeRead();
+        return handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger ORDER BY seq DESC LIMIT 1")
+                .map((rs, ctx) -> Rows.ledger(rs))
+                .findOne();
+    }
+
+    @Override
+    public LedgerVerification verifyLedger() {
+        beforeRead();
+        return new LedgerVerifier(handle).verify();
+    }
+
+    @Override
+    public void forEachTransitionInput(Instant from, Instant until, Set<String> clusters, Consumer<InputRow> consumer) {
+        Objects.requireNonNull(from, "from");
+        Objects.requireNonNull(until, "until");
+        Objects.requireNonNull(clusters, "clusters (pass an empty set for every cluster)");
+        Objects.requireNonNull(consumer, "consumer");
+        if (until.isBefore(from)) {
+            throw new IllegalArgumentException("forEachTransitionInput: until must not be before from " + from + ", got " + until);
+        }
+        beforeRead();
+        List<String> names = new ArrayList<>(clusters);
+        StringBuilder sql = new StringBuilder("SELECT " + Rows.INPUT_COLUMNS + " FROM input_journal"
+                + " WHERE kind IN ('transition', 'topology') AND event_at_ns >= :from AND event_at_ns < :until");
+        if (!names.isEmpty()) sql.append(" AND cluster IN (<clusters>)");
+        sql.append(" ORDER BY seq");
+        Query q = handle.createQuery(sql.toString())
+                .bind("from", Times.toNanos(from, "from"))
+                .bind("until", Times.toNanos(until, "until"))
+                .setFetchSize(FETCH_SIZE);
+        if (!names.isEmpty()) q.bindList("clusters", names);
+        q.map((rs, ctx) -> Rows.input(rs)).forEach(consumer);
+    }
+}

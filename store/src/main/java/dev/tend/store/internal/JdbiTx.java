@@ -1,0 +1,286 @@
+package dev.tend.store.internal;
+
+import dev.tend.store.ApprovalRow;
+import dev.tend.store.ExclusionRow;
+import dev.tend.store.InputRow;
+import dev.tend.store.LedgerDraft;
+import dev.tend.store.LedgerEntry;
+import dev.tend.store.RunRow;
+import dev.tend.store.StepRow;
+import dev.tend.store.StoreTx;
+import dev.tend.store.TimerRow;
+import org.jdbi.v3.core.Handle;
+import org.jdbi.v3.core.statement.PreparedBatch;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+
+/**
+ * {@link StoreTx} over one Jdbi handle inside a transaction. Journal and ledger appends
+ * are numbered and hashed in memory at once and sent as prepared batches of up to
+ * {@link #BATCH} rows, before any read and before commit.
+ */
+public final class JdbiTx extends JdbiReader implements StoreTx {
+    static final int BATCH = 2048;
+    private static final String INSERT_INPUT = "INSERT INTO input_journal (" + Rows.INPUT_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?)";
+    private static final String INSERT_LEDGER = "INSERT INTO ledger (" + Rows.LEDGER_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)";
+
+    private final HeadCache headCache;
+    private final List<InputRow> pendingInputs = new ArrayList<>();
+    private final List<LedgerEntry> pendingLedger = new ArrayList<>();
+    private Heads heads;
+    private boolean ledgerHeadDirty;
+
+    public JdbiTx(Handle handle, String location, HeadCache headCache) {
+        super(handle, location);
+        this.headCache = headCache;
+    }
+
+    /** The tails after this transaction's appends; null when it appended nothing. */
+    public Heads heads() {
+        return heads;
+    }
+
+    @Override
+    protected void beforeRead() {
+        requireOpen();
+        flush();
+    }
+
+    /** Sends the batched appends and moves the ledger_head row. */
+    public void flush() {
+        if (!pendingInputs.isEmpty()) {
+            PreparedBatch batch = handle.prepareBatch(INSERT_INPUT);
+            for (InputRow r : pendingInputs) {
+                batch.bind(0, r.seq())
+                        .bind(1, r.kind())
+                        .bind(2, Times.toNanos(r.now(), "InputRow.now"))
+                        .bind(3, Times.toNanos(r.eventAt(), "InputRow.eventAt"))
+                        .bind(4, r.cluster())
+                        .bind(5, r.payload())
+                        .add();
+            }
+            batch.execute();
+            pendingInputs.clear();
+        }
+        if (!pendingLedger.isEmpty()) {
+            PreparedBatch batch = handle.prepareBatch(INSERT_LEDGER);
+            for (LedgerEntry e : pendingLedger) {
+                batch.bind(0, e.seq())
+                        .bind(1, Times.toNanos(e.at(), "LedgerDraft.at"))
+                        .bind(2, e.kind())
+                        .bind(3, e.cluster())
+                        .bind(4, e.playbook())
+                        .bind(5, e.run())
+                        .bind(6, e.entry())
+                        .bind(7, e.prevHash())
+                        .bind(8, e.hash())
+                        .add();
+            }
+            batch.execute();
+            pendingLedger.clear();
+        }
+        if (ledgerHeadDirty) {
+            handle.createUpdate("UPDATE ledger_head SET seq = :seq, hash = :hash WHERE id = 1")
+                    .bind("seq", heads.ledgerSeq())
+                    .bind("hash", heads.ledgerHash())
+                    .execute();
+            ledgerHeadDirty = false;
+        }
+    }
+
+    private Heads claim() {
+        if (heads == null) heads = headCache.claim(handle);
+        return heads;
+    }
+
+    @Override
+    public long appendInput(InputRow row) {
+        requireOpen();
+        Objects.requireNonNull(row, "row");
+        if (row.seq() != 0) {
+            throw new IllegalArgumentException("appendInput takes rows with seq 0 (the store numbers them), got seq " + row.seq());
+        }
+        Times.toNanos(row.now(), "InputRow.now");
+        Times.toNanos(row.eventAt(), "InputRow.eventAt");
+        long seq = claim().inputSeq() + 1;
+        pendingInputs.add(row.withSeq(seq));
+        heads = heads.withInputSeq(seq);
+        if (pendingInputs.size() >= BATCH) flush();
+        return seq;
+    }
+
+    @Override
+    public long appendInputs(List<InputRow> rows) {
+        requireOpen();
+        Objects.requireNonNull(rows, "rows");
+        long last = rows.isEmpty() ? lastInputSeq() : 0;
+        for (InputRow row : rows) last = appendInput(row);
+        return last;
+    }
+
+    @Override
+    public LedgerEntry appendLedger(Instant at, String kind, Map<String, Object> fields) {
+        return appendLedger(new LedgerDraft(at, kind, fields));
+    }
+
+    private LedgerEntry appendLedger(LedgerDraft draft) {
+        requireOpen();
+        Objects.requireNonNull(draft, "draft");
+        Times.toNanos(draft.at(), "LedgerDraft.at");
+        Heads h = claim();
+        LedgerEntry entry = LedgerChain.link(h.ledgerSeq() + 1, h.ledgerHash(), draft);
+        pendingLedger.add(entry);
+        heads = h.withLedger(entry.seq(), entry.hash());
+        ledgerHeadDirty = true;
+        if (pendingLedger.size() >= BATCH) flush();
+        return entry;
+    }
+
+    @Override
+    public List<LedgerEntry> appendLedger(List<LedgerDraft> drafts) {
+        requireOpen();
+        Objects.requireNonNull(drafts, "drafts");
+        List<LedgerEntry> out = new ArrayList<>(drafts.size());
+        for (LedgerDraft d : drafts) out.add(appendLedger(d));
+        return List.copyOf(out);
+    }
+
+    @Override
+    public void upsertRun(RunRow r) {
+        requireOpen();
+        Objects.requireNonNull(r, "run");
+        handle.createUpdate("INSERT INTO runs (" + Rows.RUN_COLUMNS + ") VALUES (:run_id, :playbook, :playbook_version, :cluster, "
+                        + ":node, :state, :shadow, :created_ns, :started_ns, :ended_ns, :outcome, :current_step, :detail) "
+                        + "ON CONFLICT (run_id) DO UPDATE SET playbook = excluded.playbook, playbook_version = excluded.playbook_version, "
+                        + "cluster = excluded.cluster, node = excluded.node, state = excluded.state, shadow = excluded.shadow, "
+                        + "created_ns = excluded.created_ns, started_ns = excluded.started_ns, ended_ns = excluded.ended_ns, "
+                        + "outcome = excluded.outcome, current_step = excluded.current_step, detail = excluded.detail")
+                .bind("run_id", r.runId())
+                .bind("playbook", r.playbook())
+                .bind("playbook_version", r.playbookVersion())
+                .bind("cluster", r.cluster())
+                .bind("node", r.node())
+                .bind("state", r.state())
+                .bind("shadow", r.shadow())
+                .bind("created_ns", Times.toNanos(r.createdAt(), "RunRow.createdAt"))
+                .bind("started_ns", Times.toNanos(r.startedAt(), "RunRow.startedAt"))
+                .bind("ended_ns", Times.toNanos(r.endedAt(), "RunRow.endedAt"))
+                .bind("outcome", r.outcome())
+                .bind("current_step", r.currentStep())
+                .bind("detail", r.detail())
+                .execute();
+    }
+
+    @Override
+    public void upsertStep(StepRow s) {
+        requireOpen();
+        Objects.requireNonNull(s, "step");
+        handle.createUpdate("INSERT INTO steps (" + Rows.STEP_COLUMNS + ") VALUES (:run_id, :step_id, :ordinal, :state, :attempt, "
+                        + ":started_ns, :ended_ns, :outcome, :detail) "
+                        + "ON CONFLICT (run_id, step_id) DO UPDATE SET ordinal = excluded.ordinal, state = excluded.state, "
+                        + "attempt = excluded.attempt, started_ns = excluded.started_ns, ended_ns = excluded.ended_ns, "
+                        + "outcome = excluded.outcome, detail = excluded.detail")
+                .bind("run_id", s.runId())
+                .bind("step_id", s.stepId())
+                .bind("ordinal", s.ordinal())
+                .bind("state", s.state())
+                .bind("attempt", s.attempt())
+                .bind("started_ns", Times.toNanos(s.startedAt(), "StepRow.startedAt"))
+                .bind("ended_ns", Times.toNanos(s.endedAt(), "StepRow.endedAt"))
+                .bind("outcome", s.outcome())
+                .bind("detail", s.detail())
+                .execute();
+    }
+
+    @Override
+    public void armTimer(TimerRow t) {
+        requireOpen();
+        Objects.requireNonNull(t, "timer");
+        handle.createUpdate("INSERT INTO timers (" + Rows.TIMER_COLUMNS + ") VALUES (:key, :due, :payload) "
+                        + "ON CONFLICT (timer_key) DO UPDATE SET due_ns = excluded.due_ns, payload = excluded.payload")
+                .bind("key", t.key())
+                .bind("due", Times.toNanos(t.due(), "TimerRow.due"))
+                .bind("payload", t.payload())
+                .execute();
+    }
+
+    @Override
+    public boolean cancelTimer(String key) {
+        requireOpen();
+        Objects.requireNonNull(key, "key");
+        return handle.createUpdate("DELETE FROM timers WHERE timer_key = :key").bind("key", key).execute() > 0;
+    }
+
+    @Override
+    public void upsertExclusion(ExclusionRow x) {
+        requireOpen();
+        Objects.requireNonNull(x, "exclusion");
+        handle.createUpdate("INSERT INTO exclusions (" + Rows.EXCLUSION_COLUMNS + ") VALUES (:cluster, :node, :reason, :owner, "
+                        + ":created_ns, :until_ns) ON CONFLICT (cluster, node) DO UPDATE SET reason = excluded.reason, "
+                        + "owner = excluded.owner, created_ns = excluded.created_ns, until_ns = excluded.until_ns")
+                .bind("cluster", x.cluster())
+                .bind("node", x.node() == null ? Rows.WHOLE_CLUSTER : x.node())
+                .bind("reason", x.reason())
+                .bind("owner", x.owner())
+                .bind("created_ns", Times.toNanos(x.createdAt(), "ExclusionRow.createdAt"))
+                .bind("until_ns", Times.toNanos(x.until(), "ExclusionRow.until"))
+                .execute();
+    }
+
+    @Override
+    public boolean removeExclusion(String cluster, String node) {
+        requireOpen();
+        Objects.requireNonNull(cluster, "cluster");
+        return handle.createUpdate("DELETE FROM exclusions WHERE cluster = :cluster AND node = :node")
+                .bind("cluster", cluster)
+                .bind("node", node == null ? Rows.WHOLE_CLUSTER : node)
+                .execute() > 0;
+    }
+
+    @Override
+    public void upsertApproval(ApprovalRow a) {
+        requireOpen();
+        Objects.requireNonNull(a, "approval");
+        handle.createUpdate("INSERT INTO approvals (" + Rows.APPROVAL_COLUMNS + ") VALUES (:run_id, :playbook, :cluster, :node, "
+                        + ":requested_by, :requested_ns, :expires_ns, :state, :decided_by, :decided_ns, :reasons) "
+                        + "ON CONFLICT (run_id) DO UPDATE SET playbook = excluded.playbook, cluster = excluded.cluster, "
+                        + "node = excluded.node, requested_by = excluded.requested_by, requested_ns = excluded.requested_ns, "
+                        + "expires_ns = excluded.expires_ns, state = excluded.state, decided_by = excluded.decided_by, "
+                        + "decided_ns = excluded.decided_ns, reasons = excluded.reasons")
+                .bind("run_id", a.runId())
+                .bind("playbook", a.playbook())
+                .bind("cluster", a.cluster())
+                .bind("node", a.node())
+                .bind("requested_by", a.requestedBy())
+                .bind("requested_ns", Times.toNanos(a.requestedAt(), "ApprovalRow.requestedAt"))
+                .bind("expires_ns", Times.toNanos(a.expiresAt(), "ApprovalRow.expiresAt"))
+                .bind("state", a.state())
+                .bind("decided_by", a.decidedBy())
+                .bind("decided_ns", Times.toNanos(a.decidedAt(), "ApprovalRow.decidedAt"))
+                .bind("reasons", a.reasons())
+                .execute();
+    }
+
+    @Override
+    public void putState(String key, String json) {
+        requireOpen();
+        Objects.requireNonNull(key, "key");
+        Objects.requireNonNull(json, "json");
+        handle.createUpdate("INSERT INTO fleet_state (state_key, json) VALUES (:key, :json) "
+                        + "ON CONFLICT (state_key) DO UPDATE SET json = excluded.json")
+                .bind("key", key)
+                .bind("json", json)
+                .execute();
+    }
+
+    @Override
+    public boolean deleteState(String key) {
+        requireOpen();
+        Objects.requireNonNull(key, "key");
+        return handle.createUpdate("DELETE FROM fleet_state WHERE state_key = :key").bind("key", key).execute() > 0;
+    }
+}

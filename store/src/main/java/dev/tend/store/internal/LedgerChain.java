@@ -1,0 +1,45 @@
+package dev.tend.store.internal;
+
+import dev.tend.shared.json.CanonicalJson;
+import dev.tend.shared.json.Sha256;
+import dev.tend.store.LedgerDraft;
+import dev.tend.store.LedgerEntry;
+
+import java.time.Instant;
+import java.time.format.DateTimeFormatter;
+import java.util.HashMap;
+import java.util.Map;
+
+/**
+ * How a ledger entry is written (DESIGN.md section 6): its text is the RFC 8785 canonical
+ * JSON of the draft's fields plus "seq", "at" (RFC 3339 UTC, fractional seconds only when
+ * not zero) and "kind"; its hash is SHA-256 of the previous hash followed by that text.
+ */
+public final class LedgerChain {
+    private LedgerChain() {
+    }
+
+    /** The entry {@code draft} becomes at {@code seq}, after an entry whose hash is {@code prevHash}. */
+    public static LedgerEntry link(long seq, String prevHash, LedgerDraft draft) {
+        String text = entryText(seq, draft.at(), draft.kind(), draft.fields());
+        return new LedgerEntry(seq, draft.at(), draft.kind(), draft.indexed("cluster"), draft.indexed("playbook"),
+                draft.indexed("run"), text, prevHash, hash(prevHash, text));
+    }
+
+    public static String entryText(long seq, Instant at, String kind, Map<String, Object> fields) {
+        Map<String, Object> m = new HashMap<>(fields);
+        m.put("seq", seq);
+        m.put("at", formatAt(at));
+        m.put("kind", kind);
+        return CanonicalJson.serialize(m);
+    }
+
+    public static String hash(String prevHash, String entryText) {
+        return Sha256.hexOf(prevHash, entryText);
+    }
+
+    /** RFC 3339 in UTC, e.g. 2027-03-14T02:17:00Z, with fractional seconds only when not zero. */
+    public static String formatAt(Instant at) {
+        return DateTimeFormatter.ISO_INSTANT.format(at);
+    }
+}

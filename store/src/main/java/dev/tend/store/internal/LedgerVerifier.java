@@ -1,0 +1,147 @@
+package dev.tend.store.internal;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.shared.json.CanonicalJson;
+import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerVerification;
+import org.jdbi.v3.core.Handle;
+import org.jdbi.v3.core.result.ResultIterator;
+
+import java.util.Objects;
+import java.util.Optional;
+
+/**
+ * Walks the ledger in seq order, one row at a time, and stops at the first entry that does
+ * not verify. Rows are read as raw columns, not as {@link LedgerEntry}, because a tampered
+ * row need not be a valid entry.
+ */
+final class LedgerVerifier {
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    private record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, String entry,
+                       String prevHash, String hash) {
+        String describe() {
+            return "entry " + seq + " (" + kind + " at " + LedgerChain.formatAt(Times.fromNanos(atNs)) + ")";
+        }
+    }
+
+    private final Handle handle;
+    private long entries;
+    private long lastSeq;
+    private String lastHash = LedgerEntry.GENESIS_HASH;
+
+    LedgerVerifier(Handle handle) {
+        this.handle = handle;
+    }
+
+    LedgerVerification verify() {
+        try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger ORDER BY seq")
+                .setFetchSize(JdbiReader.FETCH_SIZE)
+                .map((rs, ctx) -> new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5),
+                        rs.getString(6), rs.getString(7), rs.getString(8), rs.getString(9)))
+                .iterator()) {
+            while (rows.hasNext()) {
+                Raw row = rows.next();
+                LedgerVerification broken = check(row);
+                if (broken != null) return broken;
+                entries++;
+                lastSeq = row.seq();
+                lastHash = row.hash();
+            }
+        }
+        return checkHead();
+    }
+
+    private LedgerVerification check(Raw row) {
+        long expected = lastSeq + 1;
+        if (row.seq() != expected) {
+            if (row.seq() < expected) {
+                return broken(Math.max(1, row.seq()), "the ledger holds an entry numbered " + row.seq()
+                        + ", but entries are numbered from 1: the row was changed after it was written");
+            }
+            String where = expected == 1 ? "the ledger starts at entry " + row.seq()
+                    : "after entry " + lastSeq + " comes entry " + row.seq();
+            return broken(expected, "entry " + expected + " is missing: " + where + "; it was deleted after it was written");
+        }
+        String name = row.describe();
+        if (!LedgerChain.hash(row.prevHash(), row.entry()).equals(row.hash())) {
+            return broken(row.seq(), name + " was changed after it was written: its hash does not match its content");
+        }
+        JsonNode text;
+        try {
+            text = JSON.readTree(row.entry());
+        } catch (JsonProcessingException e) {
+            return broken(row.seq(), name + " was changed after it was written: its text is not JSON");
+        }
+        if (text == null || !text.isObject() || !CanonicalJson.serialize(text).equals(row.entry())) {
+            return broken(row.seq(), name + " was changed after it was written: its text is not canonical JSON (RFC 8785)");
+        }
+        JsonNode seq = text.get("seq");
+        if (seq == null || !seq.isIntegralNumber() || seq.longValue() != row.seq()) {
+            return broken(row.seq(), name + " is out of place: its text says it is entry " + seq
+                    + "; entries were reordered or renumbered after they were written");
+        }
+        if (!row.prevHash().equals(lastHash)) {
+            String link = row.seq() == 1 ? "does not start the chain: its prev_hash is not 64 zeros"
+                    : "does not follow entry " + lastSeq + ": its prev_hash is not that entry's hash";
+            return broken(row.seq(), name + " " + link + "; entries were reordered, or one was replaced");
+        }
+        String column = disagreeingColumn(row, text);
+        if (column != null) {
+            return broken(row.seq(), name + " was changed after it was written: its " + column
+                    + " column disagrees with its text");
+        }
+        return null;
+    }
+
+    /** The first indexed column whose value is not the one in the entry text, or null. */
+    private static String disagreeingColumn(Raw row, JsonNode text) {
+        if (!Objects.equals(LedgerChain.formatAt(Times.fromNanos(row.atNs())), textOf(text, "at"))) return "at";
+        if (!Objects.equals(row.kind(), textOf(text, "kind"))) return "kind";
+        if (!Objects.equals(row.cluster(), textOf(text, "cluster"))) return "cluster";
+        if (!Objects.equals(row.playbook(), textOf(text, "playbook"))) return "playbook";
+        if (!Objects.equals(row.run(), textOf(text, "run"))) return "run";
+        return null;
+    }
+
+    /** The text of a field; null when absent or null; a marker that equals no column when not text. */
+    private static String textOf(JsonNode text, String field) {
+        JsonNode v = text.get(field);
+        if (v == null || v.isNull()) return null;
+        return v.isTextual() ? v.textValue() : "\u0000not text: " + v;
+    }
+
+    private LedgerVerification checkHead() {
+        Optional<Raw> head = handle.createQuery("SELECT seq, hash FROM ledger_head WHERE id = 1")
+                .map((rs, ctx) -> new Raw(rs.getLong(1), 0, null, null, null, null, null, null, rs.getString(2)))
+                .findOne();
+        if (head.isEmpty()) {
+            return broken(Math.max(1, lastSeq), "the ledger_head row is missing, so the newest entries cannot be checked; "
+                    + "restore the store from a backup");
+        }
+        long headSeq = head.get().seq();
+        String headHash = head.get().hash();
+        if (headSeq > lastSeq) {
+            return broken(lastSeq + 1, "entry " + (lastSeq + 1) + " is missing: the ledger head records " + headSeq
+                    + " entries but the ledger ends at entry " + lastSeq + "; the newest entries were deleted after they were written");
+        }
+        if (headSeq < lastSeq) {
+            return broken(headSeq + 1, "entry " + (headSeq + 1) + " is not covered by the ledger head: the head records "
+                    + headSeq + " entries but the ledger goes on to entry " + lastSeq + "; the head row was changed or entries were added "
+                    + "behind the store's back");
+        }
+        if (!lastHash.equals(headHash)) {
+            String which = lastSeq == 0 ? "the ledger is empty but its head records hash " + headHash
+                    : "entry " + lastSeq + " has hash " + lastHash + " but the ledger head records " + headHash;
+            return broken(Math.max(1, lastSeq), which + "; the entry or the head row was changed after it was written");
+        }
+        return new LedgerVerification(true, entries, lastHash, 0,
+                entries == 0 ? "the ledger is empty" : "all " + entries + " entries verify; the head hash is " + lastHash);
+    }
+
+    private LedgerVerification broken(long seq, String reason) {
+        return new LedgerVerification(false, entries, lastHash, seq, reason);
+    }
+}

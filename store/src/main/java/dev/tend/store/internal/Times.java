@@ -1,0 +1,30 @@
+package dev.tend.store.internal;
+
+import java.time.Instant;
+
+/**
+ * Instants as BIGINT nanoseconds since the epoch, the store's one time format: exact (the
+ * journal must replay to the same state) and the same on SQLite and PostgreSQL. Covers
+ * 1677-09-21T00:12:43.145224192Z to 2262-04-11T23:47:16.854775807Z.
+ */
+public final class Times {
+    private static final long NANOS = 1_000_000_000L;
+
+    private Times() {
+    }
+
+    /** Nanoseconds of {@code t}, or null for null; {@code field} names it in the error. */
+    public static Long toNanos(Instant t, String field) {
+        if (t == null) return null;
+        try {
+            return Math.addExact(Math.multiplyExact(t.getEpochSecond(), NANOS), t.getNano());
+        } catch (ArithmeticException e) {
+            throw new IllegalArgumentException(field + " " + t + " is outside the times the store can keep "
+                    + "(1677-09-21 to 2262-04-11 UTC)");
+        }
+    }
+
+    public static Instant fromNanos(long nanos) {
+        return Instant.ofEpochSecond(Math.floorDiv(nanos, NANOS), Math.floorMod(nanos, NANOS));
+    }
+}

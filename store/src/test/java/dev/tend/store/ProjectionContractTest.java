@@ -1,0 +1,197 @@
+package dev.tend.store;
+
+import org.junit.jupiter.api.Test;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+/**
+ * What every store database must do with the journal and the projections; run against
+ * SQLite and PostgreSQL by the subclasses. Demo data is the invented Larkspur fleet.
+ */
+abstract class ProjectionContractTest extends StoreTestBase {
+
+    static InputRow transition(Instant now, Instant at, String cluster) {
+        return InputRow.of(InputRow.TRANSITION, now, at, cluster,
+                "{\"at\":\"" + at + "\",\"cluster\":\"" + cluster + "\",\"node\":\"n2\",\"signal\":\"storage-full\",\"state\":\"breach\"}");
+    }
+
+    @Test
+    void inputsRoundTripExactlyAndGetConsecutiveSeqs() {
+        Instant precise = T0.plusNanos(123_456_789);
+        InputRow command = InputRow.of("command", precise, null, null, "{\"brake\":\"engage\",\"by\":\"ops-lena\"}");
+        List<Long> seqs = store.inTransaction(tx -> List.of(
+                tx.appendInput(transition(T0, T0.minusSeconds(5), "fares-3")),
+                tx.appendInput(command),
+                tx.appendInputs(List.of(transition(T0, T0, "dispatch-1"), transition(T0, T0, "tickets-12")))));
+        assertThat(seqs).containsExactly(1L, 2L, 4L);
+
+        List<InputRow> read = new ArrayList<>();
+        store.read(r -> {
+            r.forEachInput(0, read::add);
+            return null;
+        });
+        assertThat(read).hasSize(4);
+        assertThat(read.get(1)).isEqualTo(command.withSeq(2));
+        assertThat(read.get(0)).isEqualTo(transition(T0, T0.minusSeconds(5), "fares-3").withSeq(1));
+        assertThat(lastInputSeq()).isEqualTo(4);
+
+        List<Long> after = new ArrayList<>();
+        store.read(r -> {
+            r.forEachInput(2, row -> after.add(row.seq()));
+            return null;
+        });
+        assertThat(after).containsExactly(3L, 4L);
+    }
+
+    @Test
+    void appendingARowThatAlreadyHasASeqIsRejected() {
+        InputRow numbered = transition(T0, T0, "fares-3").withSeq(7);
+        assertThatThrownBy(() -> store.useTransaction(tx -> tx.appendInput(numbered)))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("appendInput takes rows with seq 0 (the store numbers them), got seq 7");
+        assertThat(lastInputSeq()).isZero();
+    }
+
+    @Test
+    void runsRoundTripAndAreListedNewestFirstByFilter() {
+        RunRow old = new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", "succeeded", false, T0,
+                T0.plusSeconds(1), T0.plusSeconds(600), "succeeded", null, "{\"replaced\":\"n2\"}");
+        RunRow active = new RunRow("run-2", "replace-silent-node", 3, "dispatch-1", null, "running", true,
+                T0.plusSeconds(60), T0.plusSeconds(61), null, null, "drain", null);
+        RunRow other = new RunRow("run-3", "restart-broker", 1, "fares-3", "n1", "running", false,
+                T0.plusSeconds(120), null, null, null, null, null);
+        store.useTransaction(tx -> {
+            tx.upsertRun(new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", "running", false, T0,
+                    T0.plusSeconds(1), null, null, "drain", null));
+            tx.upsertRun(active);
+            tx.upsertRun(other);
+            tx.upsertRun(old);
+        });
+        assertThat(run("run-1")).contains(old);
+        assertThat(run("run-9")).isEmpty();
+        assertThat(runs(RunFilter.all())).containsExactly(other, active, old);
+        assertThat(runs(RunFilter.all().withActiveOnly(true))).containsExactly(other, active);
+        assertThat(runs(RunFilter.all().withCluster("fares-3"))).containsExactly(other, old);
+        assertThat(runs(RunFilter.all().withPlaybook("replace-silent-node"))).containsExactly(active, old);
+        assertThat(runs(RunFilter.all().withSince(T0.plusSeconds(60)))).containsExactly(other, active);
+        assertThat(runs(RunFilter.all().withLimit(1))).containsExactly(other);
+    }
+
+    @Test
+    void stepsRoundTripInOrdinalOrder() {
+        StepRow drain = new StepRow("run-1", "drain", 0, "succeeded", 1, T0, T0.plusSeconds(30), "ok", null);
+        StepRow replace = new StepRow("run-1", "replace", 1, "running", 2, T0.plusSeconds(31), null, null, "{\"executor\":\"cmd\"}");
+        store.useTransaction(tx -> {
+            tx.upsertStep(replace);
+            tx.upsertStep(new StepRow("run-1", "drain", 0, "running", 1, T0, null, null, null));
+            tx.upsertStep(drain);
+            tx.upsertStep(new StepRow("run-2", "drain", 0, "pending", 0, null, null, null, null));
+        });
+        assertThat(steps("run-1")).containsExactly(drain, replace);
+        assertThat(steps("run-9")).isEmpty();
+    }
+
+    @Test
+    void armingATimerAgainMovesItAndCancellingRemovesIt() {
+        store.useTransaction(tx -> {
+            tx.armTimer(new TimerRow("hold/fares-3/n2", T0.plusSeconds(300), "{\"look\":\"again\"}"));
+            tx.armTimer(new TimerRow("step/run-1/drain", T0.plusSeconds(600), null));
+            tx.armTimer(new TimerRow("hold/fares-3/n2", T0.plusSeconds(900), "{\"look\":\"later\"}"));
+        });
+        assertThat(timers()).containsExactly(
+                new TimerRow("step/run-1/drain", T0.plusSeconds(600), null),
+                new TimerRow("hold/fares-3/n2", T0.plusSeconds(900), "{\"look\":\"later\"}"));
+        assertThat(cancelTimer("step/run-1/drain")).isTrue();
+        assertThat(cancelTimer("step/run-1/drain")).isFalse();
+        assertThat(timers()).extracting(TimerRow::key).containsExactly("hold/fares-3/n2");
+    }
+
+    @Test
+    void exclusionsOfClustersAndNodesRoundTripAndAreRemovedSeparately() {
+        ExclusionRow cluster = new ExclusionRow("tickets-12", null, "migration to new racks", "ops-lena", T0, null);
+        ExclusionRow node = new ExclusionRow("tickets-12", "n4", "disk under vendor test", "ops-milan", T0, T0.plusSeconds(3600));
+        ExclusionRow moved = new ExclusionRow("tickets-12", "n4", "still under test", "ops-milan", T0, T0.plusSeconds(7200));
+        store.useTransaction(tx -> {
+            tx.upsertExclusion(node);
+            tx.upsertExclusion(cluster);
+            tx.upsertExclusion(moved);
+        });
+        assertThat(exclusions()).containsExactly(cluster, moved);
+        assertThat(removeExclusion("tickets-12", null)).isTrue();
+        assertThat(removeExclusion("tickets-12", null)).isFalse();
+        assertThat(exclusions()).containsExactly(moved);
+    }
+
+    @Test
+    void approvalsRoundTripAndAreListedByState() {
+        ApprovalRow pending = new ApprovalRow("run-7", "replace-silent-node", "fares-3", "n2", "engine", T0,
+                T0.plusSeconds(1800), ApprovalRow.PENDING, null, null, "[\"approval-required\"]");
+        ApprovalRow decided = new ApprovalRow("run-5", "restart-broker", "dispatch-1", null, "engine", T0.minusSeconds(60),
+                T0.plusSeconds(1740), ApprovalRow.APPROVED, "ops-lena", T0.plusSeconds(10), null);
+        store.useTransaction(tx -> {
+            tx.upsertApproval(pending);
+            tx.upsertApproval(new ApprovalRow("run-5", "restart-broker", "dispatch-1", null, "engine", T0.minusSeconds(60),
+                    T0.plusSeconds(1740), ApprovalRow.PENDING, null, null, null));
+            tx.upsertApproval(decided);
+        });
+        assertThat(approvals(null)).containsExactly(decided, pending);
+        assertThat(approvals(ApprovalRow.PENDING)).containsExactly(pending);
+        assertThat(approvals(ApprovalRow.LAPSED)).isEmpty();
+    }
+
+    @Test
+    void fleetStateIsPutReplacedAndDeleted() {
+        store.useTransaction(tx -> {
+            tx.putState("brake", "{\"engaged\":false}");
+            tx.putState("brake", "{\"engaged\":true,\"by\":\"ops-lena\"}");
+        });
+        assertThat(state("brake")).contains("{\"engaged\":true,\"by\":\"ops-lena\"}");
+        assertThat(deleteState("brake")).isTrue();
+        assertThat(deleteState("brake")).isFalse();
+        assertThat(state("brake")).isEmpty();
+    }
+
+    @Test
+    void transitionInputsAreSelectedByEventTimeKindAndClusterInJournalOrder() {
+        store.useTransaction(tx -> {
+            tx.appendInput(transition(T0, T0.plusSeconds(50), "fares-3"));                       // 1 late arrival, in range
+            tx.appendInput(transition(T0, T0.plusSeconds(10), "dispatch-1"));                    // 2 in range
+            tx.appendInput(InputRow.of(InputRow.TOPOLOGY, T0, T0.plusSeconds(20), "fares-3", "{\"topology\":\"joined\"}")); // 3
+            tx.appendInput(InputRow.of("timer", T0, T0.plusSeconds(20), "fares-3", "{}"));       // 4 wrong kind
+            tx.appendInput(transition(T0, T0.plusSeconds(100), "fares-3"));                      // 5 at until: out
+            tx.appendInput(transition(T0, T0.minusSeconds(1), "fares-3"));                       // 6 before from: out
+            tx.appendInput(transition(T0, T0, "tickets-12"));                                     // 7 at from: in
+        });
+        assertThat(transitionSeqs(Set.of())).containsExactly(1L, 2L, 3L, 7L);
+        assertThat(transitionSeqs(Set.of("fares-3", "tickets-12"))).containsExactly(1L, 3L, 7L);
+    }
+
+    private List<Long> transitionSeqs(Set<String> clusters) {
+        List<Long> seqs = new ArrayList<>();
+        store.read(r -> {
+            r.forEachTransitionInput(T0, T0.plusSeconds(100), clusters, row -> seqs.add(row.seq()));
+            return null;
+        });
+        return seqs;
+    }
+
+    @Test
+    void readsInsideATransactionSeeItsOwnWrites() {
+        store.useTransaction(tx -> {
+            tx.appendInput(transition(T0, T0, "fares-3"));
+            tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3", "verdict", "start"));
+            tx.putState("brake", "{}");
+            assertThat(tx.lastInputSeq()).isEqualTo(1);
+            assertThat(tx.ledgerHead()).map(LedgerEntry::seq).contains(1L);
+            assertThat(tx.state("brake")).contains("{}");
+            assertThat(tx.verifyLedger().ok()).isTrue();
+        });
+    }
+}
