@@ -27,7 +27,8 @@ public record ApprovalRow(String runId, String playbook, String cluster, String 
     public static final String REJECTED = "rejected";
     public static final String LAPSED = "lapsed";
     /** Every state an approval can be in. */
-    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED);
+    public static final String WITHDRAWN = "withdrawn";
+    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
 
     public ApprovalRow {
         Objects.requireNonNull(runId, "ApprovalRow.runId must not be null");
