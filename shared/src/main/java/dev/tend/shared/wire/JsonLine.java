@@ -52,14 +52,16 @@ final class JsonLine {
             } catch (JsonProcessingException e) {
                 throw notJson(e);
             }
+            int after;
             try {
                 t = p.nextToken();
+                after = column(p.currentTokenLocation());
             } catch (JsonProcessingException e) {
                 t = JsonToken.NOT_AVAILABLE;
+                after = e.getLocation() == null ? 0 : column(e.getLocation());
             }
             if (t != null) {
-                throw new LineRejected(column(p.currentLocation()), "",
-                        "this line goes on after its JSON object ends: each line holds one JSON object");
+                throw new LineRejected(after, "", "this line goes on after its JSON object ends: each line holds one JSON object");
             }
             return fields;
         } catch (IOException e) {
@@ -128,10 +130,11 @@ final class JsonLine {
 
     private static LineRejected notJson(JsonProcessingException e) {
         int col = e.getLocation() == null ? 0 : column(e.getLocation());
-        if (e instanceof JsonEOFException) {
+        String original = e.getOriginalMessage();
+        if (e instanceof JsonEOFException || (original != null && original.startsWith("Unexpected end-of-input"))) {
             return new LineRejected(col, "", "this line is not JSON: it ends before the JSON object is closed");
         }
-        return new LineRejected(col, "", "this line is not JSON: " + plain(e.getOriginalMessage()));
+        return new LineRejected(col, "", "this line is not JSON: " + plain(original));
     }
 
     /** Jackson's message without its location notes and source excerpts. */
