@@ -2,14 +2,12 @@ package dev.tend.shared.wire;
 
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
-import dev.tend.shared.wire.JsonLine.Field;
 
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.Reader;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Objects;
 import java.util.function.Consumer;
 
@@ -55,6 +53,7 @@ public final class WireReader {
     private static final char BYTE_ORDER_MARK = '\uFEFF';
 
     private final String source;
+    private final JsonLine fields = new JsonLine();
     private long headerLine;
     private long firstEventLine;
 
@@ -81,18 +80,18 @@ public final class WireReader {
     public LineResult parseLine(String line, long lineNumber) {
         if (line.isBlank()) return new LineResult.Blank(lineNumber);
         try {
-            Map<String, Field> fields = JsonLine.parse(line);
-            if (fields.containsKey("recording")) return header(fields, lineNumber);
-            boolean transition = fields.containsKey("signal");
-            boolean topology = fields.containsKey("topology");
-            if (transition && topology) {
-                throw new LineRejected(fields.get("topology").column(), "topology", "this line has both 'signal' and"
+            fields.parse(line);
+            if (fields.has("recording")) return header(lineNumber);
+            boolean transition = fields.has("signal");
+            int topology = fields.indexOf("topology");
+            if (transition && topology >= 0) {
+                throw new LineRejected(fields.column(topology), "topology", "this line has both 'signal' and"
                         + " 'topology': a line is a health transition or a topology event, not both");
             }
             LineResult result;
-            if (topology) {
+            if (topology >= 0) {
                 result = new LineResult.Event(LineDecoder.topology(fields), lineNumber);
-            } else if (transition || fields.containsKey("state")) {
+            } else if (transition || fields.has("state")) {
                 result = new LineResult.Event(LineDecoder.transition(fields), lineNumber);
             } else {
                 throw new LineRejected(0, "", "this line is neither a health transition (it needs 'signal' and 'state')"
@@ -150,14 +149,14 @@ public final class WireReader {
         }
     }
 
-    private LineResult header(Map<String, Field> fields, long lineNumber) throws LineRejected {
-        Field r = fields.get("recording");
+    private LineResult header(long lineNumber) throws LineRejected {
+        int column = fields.column(fields.indexOf("recording"));
         if (firstEventLine != 0) {
-            throw new LineRejected(r.column(), "recording", "a recording header must come before the first event (line "
+            throw new LineRejected(column, "recording", "a recording header must come before the first event (line "
                     + firstEventLine + ")");
         }
         if (headerLine != 0) {
-            throw new LineRejected(r.column(), "recording", "a recording has one header; the first is at line " + headerLine);
+            throw new LineRejected(column, "recording", "a recording has one header; the first is at line " + headerLine);
         }
         RecordingHeader header = LineDecoder.header(fields);
         headerLine = lineNumber;

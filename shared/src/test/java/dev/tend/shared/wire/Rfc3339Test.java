@@ -5,6 +5,10 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
 import java.time.Instant;
+import java.time.LocalDate;
+import java.time.ZoneOffset;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Random;
 
 import static org.assertj.core.api.Assertions.assertThat;
@@ -103,6 +107,23 @@ class Rfc3339Test {
                 .hasMessage("RFC 3339 writes years 0000 to 9999 only, got +10000-01-01T00:00:00Z");
         assertThatThrownBy(() -> Rfc3339.format(Instant.parse("-0001-12-31T23:59:59Z")))
                 .isInstanceOf(IllegalArgumentException.class);
+    }
+
+    @Test
+    void countsDaysAsJavaTimeDoesOnEveryDayOfTwoCenturiesAndAroundEveryLeapDay() {
+        List<String> wrong = new ArrayList<>();
+        for (LocalDate d = LocalDate.of(1900, 1, 1); d.getYear() < 2100; d = d.plusDays(1)) {
+            check(d, wrong);
+        }
+        for (int year = 0; year <= 9999; year++) {
+            for (int k = 0; k < 3; k++) check(LocalDate.of(year, 2, 28).plusDays(k), wrong);
+        }
+        assertThat(wrong).isEmpty();
+    }
+
+    private static void check(LocalDate d, List<String> wrong) {
+        String text = String.format("%04d-%02d-%02dT12:00:00Z", d.getYear(), d.getMonthValue(), d.getDayOfMonth());
+        if (!Rfc3339.parse(text).equals(d.atTime(12, 0).toInstant(ZoneOffset.UTC))) wrong.add(text);
     }
 
     @Test
