@@ -35,15 +35,18 @@ public final class Rfc3339 {
     public static final String EXAMPLE = "2027-03-14T02:17:00Z";
 
     private static final int MAX_FRACTION_DIGITS = 9;
+    private static final long FIRST_SECOND = -62_167_219_200L; // 0000-01-01T00:00:00Z
+    private static final long LAST_SECOND = 253_402_300_799L; // 9999-12-31T23:59:59Z
     private static final int[] POW10 = {1, 10, 100, 1_000, 10_000, 100_000, 1_000_000, 10_000_000, 100_000_000};
 
     private Rfc3339() {
     }
 
     /**
-     * Parses an RFC 3339 date-time with a zone.
+     * Parses an RFC 3339 date-time with a zone. The instant must fall within the years 0000
+     * to 9999 in UTC as well, so that {@link #format} can always write it back.
      *
-     * @throws IllegalArgumentException (never null input accepted) with a message such as
+     * @throws IllegalArgumentException for null, or with a message such as
      *         {@code '2027-03-14 02:17' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z)},
      *         followed by the specific reason where there is one
      */
@@ -88,6 +91,9 @@ public final class Rfc3339 {
         boolean leap = second == 60;
         long epochSecond = epochDay(year, month, day) * 86_400L
                 + hour * 3_600L + minute * 60L + (leap ? 59 : second) - offsetSeconds;
+        if (epochSecond < FIRST_SECOND || epochSecond > LAST_SECOND) {
+            throw invalid(text, "in UTC it falls outside the years 0000 to 9999");
+        }
         if (leap) {
             LocalDateTime utc = LocalDateTime.ofEpochSecond(epochSecond, 0, ZoneOffset.UTC);
             boolean endOfMonth = utc.getHour() == 23 && utc.getMinute() == 59

@@ -36,7 +36,7 @@ import java.util.function.Consumer;
  * <p>A rejected line becomes a {@link LineResult.Bad} whose {@link Problem} names the
  * source, line, the column where the offending value starts (0 when nothing on the line
  * is at fault, as for a missing field), the field, and a sentence such as
- * {@code events.jsonl:7:34: field 'cluster': 'fares 3' is not an id: use letters, digits and . _ : - only, starting with a letter or digit}.
+ * {@code events.jsonl:7:40: field 'cluster': 'fares 3' is not an id: use letters, digits and . _ : - only, starting with a letter or digit}.
  * A line is checked field by field in written order (at, cluster, node, signal, state,
  * detail); the first problem rejects it.
  *

@@ -71,6 +71,8 @@ class Rfc3339Test {
             "2027-03-14T02:17:00+24:00|'2027-03-14T02:17:00+24:00' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z): the offset's hours must be 00 to 23",
             "2027-03-14T02:17:00+01:60|'2027-03-14T02:17:00+01:60' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z): the offset's minutes must be 00 to 59",
             "2027-03-14T02:17:00ZZ|'2027-03-14T02:17:00ZZ' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z)",
+            "0000-01-01T00:30:00+01:00|'0000-01-01T00:30:00+01:00' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z): in UTC it falls outside the years 0000 to 9999",
+            "9999-12-31T23:30:00-01:00|'9999-12-31T23:30:00-01:00' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z): in UTC it falls outside the years 0000 to 9999",
             "2027-03-14T02:17:00UTC|'2027-03-14T02:17:00UTC' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z): the zone must be Z or an offset like +01:00 or -08:00",
     })
     void rejectsWhatIsNotAnRfc3339TimeWithAZone(String text, String message) {
@@ -98,6 +100,12 @@ class Rfc3339Test {
     })
     void formatsUtcWithZAndAFractionOnlyWhenPresent(String instant, String expected) {
         assertThat(Rfc3339.format(Instant.parse(instant))).isEqualTo(expected);
+    }
+
+    @Test
+    void knowsTheFirstAndLastSecondItCanWrite() {
+        assertThat(Rfc3339.parse("0000-01-01T00:00:00Z")).isEqualTo(Instant.parse("0000-01-01T00:00:00Z"));
+        assertThat(Rfc3339.parse("9999-12-31T23:59:59Z")).isEqualTo(Instant.parse("9999-12-31T23:59:59Z"));
     }
 
     @Test
