@@ -23,18 +23,21 @@ import java.util.Set;
  * depth, and numbers no 64-bit float can hold are rejected, so that every value read can
  * be written back and canonicalized (RFC 8785) unchanged.
  *
- * <p>One instance is reused line after line by one reader (its arrays are kept, so a
- * line costs no map of its own); not thread-safe.
+ * <p>Each line gets its own instance, confined to the thread parsing it; fields are kept in
+ * small arrays rather than a map, as a line has only a handful.
  */
 final class JsonLine {
     /** Past this many fields, duplicates are looked up in a set rather than by scanning. */
     private static final int SCAN_LIMIT = 32;
 
-    private String[] names = new String[16];
-    private Object[] values = new Object[16];
-    private int[] columns = new int[16];
+    private String[] names = new String[8];
+    private Object[] values = new Object[8];
+    private int[] columns = new int[8];
     private int size;
     private Set<String> seen;
+
+    private JsonLine() {
+    }
 
     int size() {
         return size;
@@ -68,11 +71,14 @@ final class JsonLine {
         return indexOf(name) >= 0;
     }
 
-    /** Takes {@code line} apart; it must hold exactly one JSON object. Replaces the previous line's fields. */
-    void parse(String line) throws LineRejected {
-        Arrays.fill(values, 0, size, null);
-        size = 0;
-        seen = null;
+    /** The fields of {@code line}, which must hold exactly one JSON object. */
+    static JsonLine parse(String line) throws LineRejected {
+        JsonLine fields = new JsonLine();
+        fields.read(line);
+        return fields;
+    }
+
+    private void read(String line) throws LineRejected {
         try (JsonParser p = WireJson.FACTORY.createParser(line)) {
             JsonToken t;
             try {

@@ -43,8 +43,11 @@ import java.util.function.Consumer;
  * <p>The reader does not order events: late and out-of-order lines are handed on in line
  * order, and ordering by event time is the fleet view's job.
  *
- * <p>One reader follows one input (it remembers the header and the first event); it is
- * not thread-safe. The JSON machinery behind it is shared by all readers.
+ * <p>One reader follows one input: it remembers the header and the first event, so lines
+ * must be given in order. {@link #parseLine} may also be called from several threads for
+ * independent lines (journal rows, HTTP bodies); each call keeps its work to itself, and
+ * only the header rule then depends on the order of calls. The JSON machinery behind it
+ * is shared by all readers.
  */
 public final class WireReader {
     /** How many problems {@link #readAll} keeps; later bad lines are only counted. */
@@ -53,9 +56,8 @@ public final class WireReader {
     private static final char BYTE_ORDER_MARK = '\uFEFF';
 
     private final String source;
-    private final JsonLine fields = new JsonLine();
-    private long headerLine;
-    private long firstEventLine;
+    private volatile long headerLine;
+    private volatile long firstEventLine;
 
     private WireReader(String source) {
         this.source = Objects.requireNonNull(source, "source");
@@ -80,8 +82,8 @@ public final class WireReader {
     public LineResult parseLine(String line, long lineNumber) {
         if (line.isBlank()) return new LineResult.Blank(lineNumber);
         try {
-            fields.parse(line);
-            if (fields.has("recording")) return header(lineNumber);
+            JsonLine fields = JsonLine.parse(line);
+            if (fields.has("recording")) return header(fields, lineNumber);
             boolean transition = fields.has("signal");
             int topology = fields.indexOf("topology");
             if (transition && topology >= 0) {
@@ -149,7 +151,7 @@ public final class WireReader {
         }
     }
 
-    private LineResult header(long lineNumber) throws LineRejected {
+    private LineResult header(JsonLine fields, long lineNumber) throws LineRejected {
         int column = fields.column(fields.indexOf("recording"));
         if (firstEventLine != 0) {
             throw new LineRejected(column, "recording", "a recording header must come before the first event (line "

@@ -338,6 +338,35 @@ class WireReaderTest {
     }
 
     @Test
+    void parsesIndependentLinesFromSeveralThreadsWithOneReader() throws Exception {
+        WireReader shared = WireReader.of("journal");
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(4);
+        try {
+            List<java.util.concurrent.Future<List<String>>> results = new ArrayList<>();
+            for (int t = 0; t < 4; t++) {
+                String cluster = "tickets-" + t;
+                results.add(pool.submit(() -> {
+                    List<String> wrong = new ArrayList<>();
+                    for (int i = 0; i < 5_000; i++) {
+                        String line = "{\"at\":\"2027-03-14T02:17:00Z\",\"cluster\":\"" + cluster + "\",\"node\":\"n" + i
+                                + "\",\"signal\":\"lag\",\"state\":\"breach\",\"detail\":{\"i\":" + i + "}}";
+                        LineResult r = shared.parseLine(line, i + 1);
+                        HealthTransition h = r instanceof LineResult.Event e ? (HealthTransition) e.event() : null;
+                        if (h == null || !h.cluster().value().equals(cluster) || !h.node().value().equals("n" + i)
+                                || !h.detail().get("i").equals(i)) {
+                            wrong.add(line + " -> " + r);
+                        }
+                    }
+                    return wrong;
+                }));
+            }
+            for (java.util.concurrent.Future<List<String>> f : results) assertThat(f.get()).isEmpty();
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
+    @Test
     void readsCrLfLinesAndSkipsAByteOrderMark() {
         List<LineResult> results = readAll("\uFEFF" + TRANSITION + "\r\n" + TOPOLOGY + "\r\n");
         assertThat(results).allMatch(r -> r instanceof LineResult.Event);
