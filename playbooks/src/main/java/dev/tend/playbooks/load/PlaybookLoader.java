@@ -10,7 +10,9 @@ import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
 import dev.tend.shared.json.Sha256;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
+import dev.tend.shared.yaml.YScalar;
 import dev.tend.shared.yaml.YamlDocument;
 
 import java.io.IOException;
@@ -67,22 +69,15 @@ public final class PlaybookLoader {
 
         List<Path> files = playbookFiles(dir, problems);
         List<Playbook> playbooks = new ArrayList<>();
-        Map<Id, Playbook> byId = new HashMap<>();
+        Map<Id, String> firstUse = new HashMap<>();
         for (Path file : files) {
             Playbook p = readFile(file, problems, (source, text) -> doc -> {
                 Fields f = new Fields(source);
+                checkUnique(f, doc, firstUse);
                 Playbook pb = PlaybookReader.read(f, doc, Sha256.hex(text), catalog);
                 return new Parsed<>(pb, f.problems());
             });
-            if (p == null) continue;
-            Playbook first = byId.putIfAbsent(p.id(), p);
-            if (first != null) {
-                problems.computeIfAbsent(p.source(), k -> new ArrayList<>()).add(Problem.at(p.source(), p.line(), p.column(), "playbook",
-                        "playbook id '" + p.id() + "' is already used by " + first.source() + ":" + first.line() + ":" + first.column()
-                                + "; playbook ids must be unique in a directory"));
-                continue;
-            }
-            playbooks.add(p);
+            if (p != null) playbooks.add(p);
         }
         if (files.isEmpty() && problems.isEmpty()) {
             problems.put(dir.toString(), List.of(Problem.at(dir.toString(), 0, 0, "",
@@ -137,6 +132,17 @@ public final class PlaybookLoader {
 
     private interface DocumentReader<T> {
         Function<YNode, Parsed<T>> forFile(String source, byte[] text);
+    }
+
+    /** Playbook ids are compared as written, so a duplicate is found even in a file with other problems. */
+    private static void checkUnique(Fields f, YNode doc, Map<Id, String> firstUse) {
+        if (!(doc instanceof YMap m) || !(m.get("playbook").orElse(null) instanceof YScalar s) || !Id.isValid(s.value())) return;
+        String here = f.source() + ":" + s.line() + ":" + s.column();
+        String first = firstUse.putIfAbsent(Id.of(s.value()), here);
+        if (first != null) {
+            f.add(s, "playbook", "playbook id '" + s.value() + "' is already used by " + first
+                    + "; playbook ids must be unique in a directory");
+        }
     }
 
     private static ActionCatalog readActions(Path file, Map<String, List<Problem>> problems) {
