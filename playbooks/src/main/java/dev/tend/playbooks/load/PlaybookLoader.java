@@ -79,7 +79,7 @@ public final class PlaybookLoader {
             });
             if (p != null) playbooks.add(p);
         }
-        if (files.isEmpty() && problems.isEmpty()) {
+        if (files.isEmpty() && problems.values().stream().allMatch(List::isEmpty)) {
             problems.put(dir.toString(), List.of(Problem.at(dir.toString(), 0, 0, "",
                     "holds no playbook: no .yaml or .yml file other than actions.yaml, tend.yaml and fleet.yaml")));
         }
