@@ -149,9 +149,9 @@ public final class PlaybookLoader {
         ActionCatalog c = readFile(file, problems, (source, text) -> doc -> {
             Fields f = new Fields(source);
             ActionsReader.Result r = ActionsReader.read(f, doc);
-            return new Parsed<>(new ActionCatalog(new Actions(r.actions(), source, Sha256.hex(text)), r.declared(), true), f.problems());
+            return new Parsed<>(new ActionCatalog(new Actions(r.actions(), source, Sha256.hex(text)), r.declared(), true, true), f.problems());
         });
-        return c != null ? c : new ActionCatalog(Actions.empty(), Set.of(), true);
+        return c != null ? c : ActionCatalog.unreadable();
     }
 
     private static TendConfig readConfig(Path file, Map<String, List<Problem>> problems) {
@@ -162,7 +162,10 @@ public final class PlaybookLoader {
         return c != null ? c : TendConfig.builtIn();
     }
 
-    /** Reads, parses and converts one file; null (with problems recorded) when anything is wrong. */
+    /**
+     * Reads, parses and converts one file, recording its problems. Null when the file cannot
+     * be read or parsed; otherwise what {@code reader} made of it, which may be partial.
+     */
     private static <T> T readFile(Path file, Map<String, List<Problem>> problems, DocumentReader<T> reader) {
         String source = file.toString();
         List<Problem> mine = problems.computeIfAbsent(source, k -> new ArrayList<>());
@@ -185,7 +188,7 @@ public final class PlaybookLoader {
         }
         Parsed<T> parsed = reader.forFile(source, text).apply(doc);
         mine.addAll(parsed.problems());
-        return parsed.problems().isEmpty() ? parsed.value() : null;
+        return parsed.value();
     }
 
     private static List<Path> playbookFiles(Path dir, Map<String, List<Problem>> problems) {
