@@ -76,7 +76,7 @@ public final class Lint {
 
     private static void steps(PlaybookSet set, Playbook p, Set<String> kinds, List<Finding> out) {
         Set<Id> reported = new HashSet<>();
-        for (Step s : PlaybookSet.steps(p)) {
+        for (Step s : p.allSteps()) {
             if (!(s instanceof ActionStep step)) continue;
             ActionDef def = set.actions().get(step.action()).orElseThrow();
             Position at = p.position((p.steps().contains(s) ? "steps." : "on-failure.") + s.id());

@@ -22,10 +22,10 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.HashMap;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.function.Function;
 import java.util.stream.Stream;
 
 /**
@@ -58,7 +58,7 @@ public final class PlaybookLoader {
      * when present, else {@link TendConfig#builtIn()}.
      */
     public static PlaybookSet load(Path dir, Path configFile) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         if (!Files.isDirectory(dir)) {
             throw new PlaybookInvalidException(List.of(Problem.at(dir.toString(), 0, 0, "", "is not a directory of playbooks")));
         }
@@ -68,14 +68,16 @@ public final class PlaybookLoader {
         TendConfig config = configFile != null || Files.exists(configPath) ? readConfig(configPath, problems) : TendConfig.builtIn();
 
         List<Path> files = playbookFiles(dir, problems);
+        if (configFile != null) {
+            // a policy file given explicitly may sit among the playbooks under another name
+            files = files.stream().filter(p -> !p.toAbsolutePath().normalize().equals(configFile.toAbsolutePath().normalize())).toList();
+        }
         List<Playbook> playbooks = new ArrayList<>();
         Map<Id, String> firstUse = new HashMap<>();
         for (Path file : files) {
-            Playbook p = readFile(file, problems, (source, text) -> doc -> {
-                Fields f = new Fields(source);
+            Playbook p = readFile(file, problems, (f, text, doc) -> {
                 checkUnique(f, doc, firstUse);
-                Playbook pb = PlaybookReader.read(f, doc, Sha256.hex(text), catalog);
-                return new Parsed<>(pb, f.problems());
+                return PlaybookReader.read(f, doc, Sha256.hex(text), catalog);
             });
             if (p != null) playbooks.add(p);
         }
@@ -113,7 +115,7 @@ public final class PlaybookLoader {
 
     /** Loads one tend.yaml file. */
     public static TendConfig loadConfig(Path file) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         TendConfig c = readConfig(file, problems);
         throwIfAny(problems);
         return c;
@@ -121,17 +123,15 @@ public final class PlaybookLoader {
 
     /** Loads one actions.yaml file. */
     public static Actions loadActions(Path file) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         ActionCatalog c = readActions(file, problems);
         throwIfAny(problems);
         return c.actions();
     }
 
-    private record Parsed<T>(T value, List<Problem> problems) {
-    }
-
+    /** Turns one parsed document into a value, recording its problems in {@code f}. */
     private interface DocumentReader<T> {
-        Function<YNode, Parsed<T>> forFile(String source, byte[] text);
+        T read(Fields f, byte[] text, YNode doc);
     }
 
     /** Playbook ids are compared as written, so a duplicate is found even in a file with other problems. */
@@ -146,19 +146,15 @@ public final class PlaybookLoader {
     }
 
     private static ActionCatalog readActions(Path file, Map<String, List<Problem>> problems) {
-        ActionCatalog c = readFile(file, problems, (source, text) -> doc -> {
-            Fields f = new Fields(source);
+        ActionCatalog c = readFile(file, problems, (f, text, doc) -> {
             ActionsReader.Result r = ActionsReader.read(f, doc);
-            return new Parsed<>(new ActionCatalog(new Actions(r.actions(), source, Sha256.hex(text)), r.declared(), true, true), f.problems());
+            return new ActionCatalog(new Actions(r.actions(), f.source(), Sha256.hex(text)), r.declared(), true, true);
         });
         return c != null ? c : ActionCatalog.unreadable();
     }
 
     private static TendConfig readConfig(Path file, Map<String, List<Problem>> problems) {
-        TendConfig c = readFile(file, problems, (source, text) -> doc -> {
-            Fields f = new Fields(source);
-            return new Parsed<>(ConfigReader.read(f, doc, Sha256.hex(text)), f.problems());
-        });
+        TendConfig c = readFile(file, problems, (f, text, doc) -> ConfigReader.read(f, doc, Sha256.hex(text)));
         return c != null ? c : TendConfig.builtIn();
     }
 
@@ -186,9 +182,10 @@ public final class PlaybookLoader {
             mine.addAll(e.problems());
             return null;
         }
-        Parsed<T> parsed = reader.forFile(source, text).apply(doc);
-        mine.addAll(parsed.problems());
-        return parsed.value();
+        Fields f = new Fields(source);
+        T value = reader.read(f, text, doc);
+        mine.addAll(f.problems());
+        return value;
     }
 
     private static List<Path> playbookFiles(Path dir, Map<String, List<Problem>> problems) {

@@ -132,6 +132,24 @@ class ConfigFileTest {
     }
 
     @Test
+    void explicitConfigFileInsideTheDirectoryIsNotReadAsAPlaybook(@TempDir Path tmp) {
+        TestDir dir = new TestDir(tmp);
+        dir.write("actions.yaml", TestDir.ACTIONS);
+        dir.write("p.yaml", """
+                playbook: p
+                when: { signal: heartbeat, state: silent, scope: node }
+                steps:
+                  - { id: drain, action: drain-node, timeout: 1m }
+                """);
+        Path policy = dir.write("policy.yaml", "rate: 7/1h\n");
+
+        PlaybookSet set = PlaybookLoader.load(tmp, policy);
+
+        assertThat(set.playbooks()).extracting(p -> p.id().value()).containsExactly("p");
+        assertThat(set.config().source()).isEqualTo(policy.toString());
+    }
+
+    @Test
     void releaseThresholdNotBelowEngageThresholdIsRejected() {
         String text = """
                 brake:
