@@ -11,6 +11,7 @@ import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.shared.fleet.FleetFile;
 import dev.tend.store.Store;
+import org.junit.jupiter.api.extension.AfterAllCallback;
 import org.junit.jupiter.api.extension.AfterEachCallback;
 import org.junit.jupiter.api.extension.ExtensionContext;
 import org.junit.jupiter.api.extension.TestWatcher;
@@ -34,7 +35,7 @@ import java.util.function.BooleanSupplier;
  * folder, a SQLite store there, the server on a free loopback port, and a real HTTP client.
  * Its log is printed only when a test fails. Register with {@code @RegisterExtension}.
  */
-final class ServeFixture implements AfterEachCallback, TestWatcher {
+final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWatcher {
     /** Token texts by holder; the tokens file stores only their SHA-256. */
     static final String OLGA = "tok-olga-operator", VERA = "tok-vera-viewer", ANNA = "tok-anna-approver",
             BEN = "tok-ben-approver", AUTOMATION = "tok-automation-approver", OTTO = "tok-otto-operator-approver";
@@ -66,6 +67,7 @@ final class ServeFixture implements AfterEachCallback, TestWatcher {
             """;
 
     private final StringWriter log = new StringWriter();
+    private final boolean perClass;
     private final HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1).build();
     private Path dir;
     private Duration approvalExpiry = Duration.ofMinutes(30);
@@ -74,6 +76,20 @@ final class ServeFixture implements AfterEachCallback, TestWatcher {
     private TendServer server;
 
     record Response(int status, JsonNode json, String text) {
+    }
+
+    /** A server for one test, stopped after it. */
+    ServeFixture() {
+        this(false);
+    }
+
+    private ServeFixture(boolean perClass) {
+        this.perClass = perClass;
+    }
+
+    /** One server shared by the tests of a class (with {@code @TestInstance(PER_CLASS)}), stopped after the last. */
+    static ServeFixture perClass() {
+        return new ServeFixture(true);
     }
 
     ServeFixture approvalExpiry(Duration d) {
@@ -242,6 +258,11 @@ final class ServeFixture implements AfterEachCallback, TestWatcher {
 
     @Override
     public void afterEach(ExtensionContext context) {
+        if (!perClass) stop();
+    }
+
+    @Override
+    public void afterAll(ExtensionContext context) {
         stop();
     }
 
