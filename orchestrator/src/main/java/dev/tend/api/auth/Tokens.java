@@ -53,8 +53,9 @@ public final class Tokens {
             if (names.put(e.caller().name(), e.sha256()) != null) {
                 throw new IllegalArgumentException("token name " + e.caller().name() + " is used twice; each holder needs their own");
             }
-            if (byHash.put(e.sha256(), e.caller()) != null) {
-                throw new IllegalArgumentException("tokens " + byHash.get(e.sha256()).name() + " and " + e.caller().name()
+            Caller before = byHash.putIfAbsent(e.sha256(), e.caller());
+            if (before != null) {
+                throw new IllegalArgumentException("tokens " + before.name() + " and " + e.caller().name()
                         + " have the same sha256; each holder needs their own token");
             }
         }
