@@ -26,12 +26,14 @@ import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
 import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicLong;
 
 /**
  * A running {@code tend serve}: the orchestrator recovered from the store and driven on
  * its own thread with the wall clock, Quartz timers re-armed from what the engine had armed,
  * the command, simulated and http executors, a tick that lets event time follow processing
- * time, and the HTTP API on top. The caller owns the store and closes it after this.
+ * time (sent only when nothing was committed for a tick's length, since any input moves
+ * event time), and the HTTP API on top. The caller owns the store and closes it after this.
  */
 public final class TendServer implements AutoCloseable {
     private final Orchestrator orchestrator;
@@ -43,6 +45,8 @@ public final class TendServer implements AutoCloseable {
     private final ScheduledExecutorService ticker;
     private final ApiServer api;
     private final String host;
+    /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
+    private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
     private volatile Throwable driverFailure;
     private volatile boolean closed;
 
@@ -59,6 +63,7 @@ public final class TendServer implements AutoCloseable {
         Orchestrator[] holder = new Orchestrator[1];
         timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
         CommitListener listeners = (Engine engine, List<Input> inputs, List<Effect> effects) -> {
+            lastCommitNanos.set(System.nanoTime());
             metrics.committed(engine, inputs, effects);
             health.committed(engine, inputs, effects);
         };
@@ -82,7 +87,11 @@ public final class TendServer implements AutoCloseable {
             return t;
         });
         long tickMs = s.tick().toMillis();
-        ticker.scheduleAtFixedRate(() -> orchestrator.submit(new Input.Tick()), tickMs, tickMs, TimeUnit.MILLISECONDS);
+        ticker.scheduleAtFixedRate(() -> {
+            if (System.nanoTime() - lastCommitNanos.get() >= TimeUnit.MILLISECONDS.toNanos(tickMs) * 9 / 10) {
+                orchestrator.submit(new Input.Tick());
+            }
+        }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
             api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log));

@@ -72,6 +72,8 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
     private Path dir;
     private Duration approvalExpiry = Duration.ofMinutes(30);
     private Duration stepTimeout = Duration.ofMinutes(5);
+    private Duration confirmFor = Duration.ZERO;
+    private Duration eventTimeLag = Duration.ofMinutes(2);
     private Store store;
     private TendServer server;
 
@@ -102,6 +104,18 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
         return this;
     }
 
+    /** confirm-for of the replace-standard playbook (default 0s). */
+    ServeFixture confirmFor(Duration d) {
+        confirmFor = d;
+        return this;
+    }
+
+    /** How far event time trails processing time (default 2m, as tend serve). */
+    ServeFixture eventTimeLag(Duration d) {
+        eventTimeLag = d;
+        return this;
+    }
+
     /** Writes the policy into {@code folder} and starts a server on a new store there. */
     ServeFixture start(Path folder) {
         this.dir = folder;
@@ -120,10 +134,10 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
             Files.writeString(pb.resolve("replace-standard.yaml"), """
                     playbook: replace-standard
                     version: 1
-                    when: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s, clusters: { tier: [standard] } }
+                    when: { signal: heartbeat, state: silent, scope: node, confirm-for: %s, clusters: { tier: [standard] } }
                     steps:
                       - { id: replace, action: replace-node, timeout: %s }
-                    """.formatted(seconds(stepTimeout)));
+                    """.formatted(seconds(confirmFor), seconds(stepTimeout)));
             Files.writeString(dir.resolve("fleet.yaml"), FLEET);
             Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n"
                     + entry("olga", "[operator]", OLGA) + entry("vera", "[viewer]", VERA)
@@ -139,7 +153,7 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
     ServeFixture restart() {
         PlaybookSet set = PlaybookLoader.load(dir.resolve("playbooks"));
         EngineSetup setup = new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")),
-                BrakeThresholds.from(set.config().brake()), EventTimeMode.following(Duration.ofMinutes(2)));
+                BrakeThresholds.from(set.config().brake()), EventTimeMode.following(eventTimeLag));
         Tokens tokens = TokenFile.load(dir.resolve("tokens.yaml"));
         store = Store.openSqlite(dir.resolve("tend.db"));
         server = TendServer.start(store, ServeSettings.builder(setup).listen("127.0.0.1", 0).tokens(tokens)
