@@ -61,7 +61,7 @@ public final class ApiServer implements AutoCloseable {
             cfg.startupWatcherEnabled = false;
             cfg.http.maxRequestSize = MAX_BODY;
             cfg.jsonMapper(new JavalinJackson(ApiJson.MAPPER, false));
-            if (ApiServer.class.getResource("/console") != null) {
+            if (ApiServer.class.getResource("/console/index.html") != null || ApiServer.class.getResource("/console") != null) {
                 cfg.staticFiles.add(sf -> {
                     sf.hostedPath = "/";
                     sf.directory = "/console";

@@ -28,6 +28,9 @@ import java.util.List;
  * (every line refused, or no event in the body).
  */
 final class TransitionRoutes {
+    /** Problems listed in one answer; the count of rejected lines is always complete. */
+    static final int MAX_PROBLEMS = 1000;
+
     private final Gateway gateway;
     private final TendMetrics metrics;
 
@@ -48,7 +51,7 @@ final class TransitionRoutes {
             if (r instanceof LineResult.Event e) {
                 events.add(e.event() instanceof HealthTransition t ? new Input.Transition(t)
                         : new Input.Topology((TopologyEvent) e.event()));
-            } else if (r instanceof LineResult.Bad b) {
+            } else if (r instanceof LineResult.Bad b && problems.size() < MAX_PROBLEMS) {
                 problems.add(new LineProblem(b.problem().line(), b.problem().column(), b.problem().field(), b.problem().message()));
             }
         });
