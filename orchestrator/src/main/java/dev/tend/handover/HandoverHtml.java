@@ -35,6 +35,8 @@ public final class HandoverHtml {
             svg.timeline { background: #fff; border: 1px solid #d9ddd8; max-width: 100%; height: auto; }
             svg .row { fill: #f3f4f1; }
             svg .label, svg .tick, svg .legend { font-size: 11px; fill: #3c4a52; }
+            svg .tick { text-anchor: middle; }
+            svg .tick.utc { text-anchor: start; }
             svg .grid { stroke: #e3e6e1; stroke-width: 1; }
             svg .brake { fill: #d9534f; fill-opacity: .16; }
             svg .run { stroke: #1f2a30; stroke-width: .4; }

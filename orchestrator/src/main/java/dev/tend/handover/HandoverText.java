@@ -109,7 +109,7 @@ public final class HandoverText {
                 if (!x.actions().isEmpty()) sb.append(" (").append(String.join(", ", x.actions())).append(')');
             }
             if (runs.size() > LIST_LIMIT) sb.append(", and ").append(runs.size() - LIST_LIMIT).append(" more");
-            line(out, "  %s: %d: %s", playbook, runs.size(), sb);
+            line(out, "  %s (%d): %s", playbook, runs.size(), sb);
         });
         out.append('\n');
     }
@@ -120,10 +120,10 @@ public final class HandoverText {
         List<BrakePeriod> list = r.brakePeriods();
         for (int i = 0; i < list.size() && i < LIST_LIMIT; i++) {
             BrakePeriod b = list.get(i);
-            String end = b.isStillEngaged() ? "still engaged"
-                    : TimeText.near(b.releasedAt(), b.engagedAt()) + " ("
+            String end = b.isStillEngaged() ? ", still engaged"
+                    : " to " + TimeText.near(b.releasedAt(), b.engagedAt()) + " ("
                     + TimeText.span(java.time.Duration.between(b.engagedAt(), b.releasedAt())) + ")";
-            line(out, "  %s to %s  engaged by %s%s%s", TimeText.at(b.engagedAt()), end, b.engagedBy(),
+            line(out, "  %s%s  engaged by %s%s%s", TimeText.at(b.engagedAt()), end, b.engagedBy(),
                     b.reason() == null ? "" : ": " + b.reason(),
                     b.isStillEngaged() ? "" : "; released by " + b.releasedBy() + (b.releaseReason() == null ? "" : ": " + b.releaseReason()));
         }

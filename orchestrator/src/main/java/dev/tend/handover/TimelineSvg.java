@@ -44,7 +44,7 @@ final class TimelineSvg {
         top[0] = AXIS;
         for (int i = 0; i < clusters.size(); i++) top[i + 1] = top[i] + rowHeight(lanes.get(clusters.get(i)).size());
         int plotBottom = clusters.isEmpty() ? AXIS + 24 : top[clusters.size()];
-        int height = plotBottom + 40;
+        int height = plotBottom + 56;
         StringBuilder s = new StringBuilder();
         s.append("<svg class=\"timeline\" role=\"img\" viewBox=\"0 0 ").append(WIDTH).append(' ').append(height)
                 .append("\" width=\"").append(WIDTH).append("\" height=\"").append(height)
@@ -85,7 +85,7 @@ final class TimelineSvg {
 
     /** Runs per cluster, each in the first lane where it overlaps no other run. */
     private static Map<String, List<List<RunLine>>> lanes(List<RunLine> runs, ReportPeriod p) {
-        Map<String, List<List<RunLine>>> out = new TreeMap<>();
+        Map<String, List<List<RunLine>>> out = new TreeMap<>(TimelineSvg::naturalOrder);
         for (RunLine x : runs) {
             List<List<RunLine>> rows = out.computeIfAbsent(x.cluster(), k -> new ArrayList<>());
             List<RunLine> free = null;
@@ -100,6 +100,30 @@ final class TimelineSvg {
             free.add(x);
         }
         return out;
+    }
+
+    /** fares-2 before fares-10: runs of digits compare as numbers. */
+    static int naturalOrder(String a, String b) {
+        int i = 0, j = 0;
+        while (i < a.length() && j < b.length()) {
+            char ca = a.charAt(i), cb = b.charAt(j);
+            if (Character.isDigit(ca) && Character.isDigit(cb)) {
+                int ei = i, ej = j;
+                while (ei < a.length() && Character.isDigit(a.charAt(ei))) ei++;
+                while (ej < b.length() && Character.isDigit(b.charAt(ej))) ej++;
+                String na = a.substring(i, ei).replaceFirst("^0+(?=.)", ""), nb = b.substring(j, ej).replaceFirst("^0+(?=.)", "");
+                int c = na.length() != nb.length() ? Integer.compare(na.length(), nb.length()) : na.compareTo(nb);
+                if (c != 0) return c;
+                i = ei;
+                j = ej;
+            } else {
+                if (ca != cb) return Character.compare(ca, cb);
+                i++;
+                j++;
+            }
+        }
+        int c = Integer.compare(a.length() - i, b.length() - j);
+        return c != 0 ? c : a.compareTo(b);
     }
 
     private static int rowHeight(int lanes) {
@@ -146,13 +170,7 @@ final class TimelineSvg {
         String what = "approval for " + a.run() + " " + a.playbook() + " " + a.target() + " asked " + TimeText.at(a.requestedAt())
                 + ", " + a.state() + (a.decidedAt() == null ? ", expires " + TimeText.at(a.expiresAt())
                 : " " + TimeText.at(a.decidedAt()) + (a.decidedBy() == null ? "" : " by " + a.decidedBy()));
-        if (p.contains(a.requestedAt())) {
-            double x = x(a.requestedAt(), p);
-            s.append("<polygon class=\"ask ").append(a.state()).append("\" points=\"").append(num(x)).append(',').append(cy - 6)
-                    .append(' ').append(num(x + 5)).append(',').append(cy).append(' ').append(num(x)).append(',').append(cy + 6)
-                    .append(' ').append(num(x - 5)).append(',').append(cy).append("\"><title>").append(HandoverHtml.esc(what))
-                    .append("</title></polygon>\n");
-        }
+        if (p.contains(a.requestedAt())) diamond(s, "ask " + a.state(), x(a.requestedAt(), p), cy, what);
         if (a.decidedAt() != null && p.contains(a.decidedAt())) {
             s.append("<circle class=\"settled ").append(a.state()).append("\" cx=\"").append(num(x(a.decidedAt(), p)))
                     .append("\" cy=\"").append(cy).append("\" r=\"4\"><title>").append(HandoverHtml.esc(what))
@@ -171,13 +189,36 @@ final class TimelineSvg {
                     .append(item[1]).append("</text>\n");
             x += 22 + item[1].length() * 6.2;
         }
-        s.append("<polygon class=\"ask pending\" points=\"").append(num(x + 5)).append(',').append(y - 10).append(' ')
-                .append(num(x + 10)).append(',').append(y - 4).append(' ').append(num(x + 5)).append(',').append(y + 2)
-                .append(' ').append(num(x)).append(',').append(y - 4).append("\"/>\n");
-        s.append("<text class=\"legend\" x=\"").append(num(x + 14)).append("\" y=\"").append(y).append("\">approval asked</text>\n");
+        double mx = LABEL;
+        int my = y + 16;
+        String[][] markers = {{"ask pending", "approval pending"}, {"ask", "approval asked, since settled"}};
+        for (String[] m : markers) {
+            diamond(s, m[0], mx + 5, my - 4, null);
+            s.append("<text class=\"legend\" x=\"").append(num(mx + 14)).append("\" y=\"").append(my).append("\">")
+                    .append(m[1]).append("</text>\n");
+            mx += 26 + m[1].length() * 6.2;
+        }
+        s.append("<circle class=\"settled approved\" cx=\"").append(num(mx + 4)).append("\" cy=\"").append(my - 4)
+                .append("\" r=\"4\"/>\n<text class=\"legend\" x=\"").append(num(mx + 12)).append("\" y=\"").append(my)
+                .append("\">approved</text>\n");
+        mx += 80;
+        s.append("<circle class=\"settled lapsed\" cx=\"").append(num(mx + 4)).append("\" cy=\"").append(my - 4)
+                .append("\" r=\"4\"/>\n<text class=\"legend\" x=\"").append(num(mx + 12)).append("\" y=\"").append(my)
+                .append("\">rejected, lapsed or withdrawn</text>\n");
         if (hidden > 0) {
-            s.append("<text class=\"legend\" x=\"6\" y=\"").append(y + 14).append("\">").append(hidden)
+            s.append("<text class=\"legend\" x=\"6\" y=\"").append(my + 14).append("\">").append(hidden)
                     .append(" more clusters not drawn; the run table lists them</text>\n");
+        }
+    }
+
+    private static void diamond(StringBuilder s, String cls, double x, double cy, String title) {
+        s.append("<polygon class=\"").append(cls).append("\" points=\"").append(num(x)).append(',').append(num(cy - 6))
+                .append(' ').append(num(x + 5)).append(',').append(num(cy)).append(' ').append(num(x)).append(',')
+                .append(num(cy + 6)).append(' ').append(num(x - 5)).append(',').append(num(cy)).append('"');
+        if (title == null) {
+            s.append("/>\n");
+        } else {
+            s.append("><title>").append(HandoverHtml.esc(title)).append("</title></polygon>\n");
         }
     }
 
