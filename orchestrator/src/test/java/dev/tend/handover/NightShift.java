@@ -78,14 +78,16 @@ final class NightShift implements AutoCloseable {
     private final List<Answer> answers = new ArrayList<>();
     private long order;
 
-    NightShift(Path db, Instant start) {
+    /** A fleet at {@code start} with the two playbooks above and {@code morePlaybooks} (YAML texts). */
+    NightShift(Path db, Instant start, String... morePlaybooks) {
         this.db = db;
         this.clock = VirtualClock.at(start);
         this.store = Store.openSqlite(db);
         Actions actions = PlaybookLoader.parseActions("actions.yaml", ACTIONS);
         TendConfig config = TendConfig.builtIn();
-        List<Playbook> playbooks = List.of(PlaybookLoader.parse("replace-silent-node.yaml", REPLACE, actions),
-                PlaybookLoader.parse("restart-stopped-process.yaml", RESTART, actions));
+        List<Playbook> playbooks = new ArrayList<>(List.of(PlaybookLoader.parse("replace-silent-node.yaml", REPLACE, actions),
+                PlaybookLoader.parse("restart-stopped-process.yaml", RESTART, actions)));
+        for (int i = 0; i < morePlaybooks.length; i++) playbooks.add(PlaybookLoader.parse("more-" + i + ".yaml", morePlaybooks[i], actions));
         EngineSetup setup = new EngineSetup(PlaybookSet.of(playbooks, actions, config), config,
                 FleetFile.parse("fleet.yaml", fleet()), BrakeThresholds.from(config.brake()), EventTimeMode.eventsOnly());
         Timers virtualTimers = new Timers() {
