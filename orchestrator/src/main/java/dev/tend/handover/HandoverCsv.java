@@ -18,7 +18,7 @@ import java.util.Map;
  *     {@code period_until}, {@code runs_started}, {@code runs_succeeded}, {@code runs_failed},
  *     {@code runs_cancelled}, {@code runs_shadowed}, {@code held}, {@code denied},
  *     {@code approvals_requested}, {@code approvals_pending}, {@code approvals_lapsed},
- *     {@code runs_needing_person}, {@code brake_periods}, {@code brake_engaged_at_until},
+ *     {@code runs_needing_person}, {@code loops_stopped}, {@code brake_periods}, {@code brake_engaged_at_until},
  *     {@code ledger_entries}, {@code ledger_entries_in_period}, {@code ledger_head},
  *     {@code ledger_verified}, {@code ledger_first_broken_seq}. Then the same run metrics,
  *     {@code held} and {@code denied} per playbook, and {@code held} and {@code denied} per
@@ -49,6 +49,7 @@ public final class HandoverCsv {
         fleet(out, "approvals_pending", r.pendingApprovals().size());
         fleet(out, "approvals_lapsed", r.lapsedApprovals().size());
         fleet(out, "runs_needing_person", r.runsNeedingPerson().size());
+        fleet(out, "loops_stopped", r.loopsStopped().size());
         fleet(out, "brake_periods", r.brakePeriods().size());
         fleet(out, "brake_engaged_at_until", r.brakeStillEngaged().isPresent());
         LedgerStatus l = r.ledger();

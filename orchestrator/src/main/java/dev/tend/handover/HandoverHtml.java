@@ -116,6 +116,9 @@ public final class HandoverHtml {
         }
         s.append("<ul class=\"attention\">\n");
         LedgerStatus l = r.ledger();
+        if (l.unreadable() > 0) {
+            s.append("<li><strong>").append(l.unreadable()).append(" entries of the period are not readable</strong> and were left out</li>\n");
+        }
         if (!l.verified()) {
             s.append("<li><strong>Ledger verify failed</strong> at entry ").append(l.firstBrokenSeq()).append(": ")
                     .append(esc(l.verifyMessage())).append(". The numbers here come from a ledger changed after it was written.</li>\n");
@@ -129,6 +132,11 @@ public final class HandoverHtml {
         for (RunLine x : r.runsNeedingPerson()) {
             s.append("<li><strong>Needs a person</strong>: ").append(esc(x.run())).append(' ').append(esc(x.playbook()))
                     .append(" on ").append(esc(x.target())).append(x.note() == null ? "" : ": " + esc(x.note())).append("</li>\n");
+        }
+        for (LoopStop x : r.loopsStopped()) {
+            s.append("<li><strong>Loop stopped</strong>: ").append(esc(x.playbook())).append(" on ").append(esc(x.target()))
+                    .append(" since ").append(TimeText.at(x.stoppedAt()))
+                    .append("; automation stays off this target until a person clears it</li>\n");
         }
         r.brakeStillEngaged().ifPresent(b -> s.append("<li><strong>Fleet brake engaged</strong> since ")
                 .append(TimeText.at(b.engagedAt())).append(" by ").append(esc(b.engagedBy()))

@@ -17,7 +17,8 @@ import java.util.TreeMap;
  * What automation did in a period, computed from the audit ledger alone (the record of
  * truth; the projections are not consulted): runs by playbook and by end, held and denied
  * candidates by playbook and by reason code, the nodes remediated, approvals, fleet brake
- * periods, runs that wait for a person, and whether the ledger verifies.
+ * periods, runs that wait for a person, targets stopped as loops, and whether the ledger
+ * verifies.
  *
  * <p>Counting rules. {@code started} counts run-started entries in the period; the ends
  * count run-ended entries in the period by their state, so a run started before the period
@@ -37,11 +38,12 @@ import java.util.TreeMap;
  * @param runs         every run in the period (active at some time in it), oldest first
  * @param approvals    every approval asked or settled in the period, or pending at its end, oldest first
  * @param brakePeriods every brake period overlapping the period, oldest first
+ * @param loopsStopped targets the loop guard stopped that no person cleared by {@code until}, oldest first
  * @param ledger       the ledger's size, head and verification
  */
 public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlaybook, List<ReasonCount> byReason,
                              List<RunLine> runs, List<ApprovalLine> approvals, List<BrakePeriod> brakePeriods,
-                             LedgerStatus ledger) {
+                             List<LoopStop> loopsStopped, LedgerStatus ledger) {
     public HandoverReport {
         Objects.requireNonNull(period, "HandoverReport.period must not be null");
         byPlaybook = Collections.unmodifiableMap(new TreeMap<>(Objects.requireNonNull(byPlaybook, "HandoverReport.byPlaybook must not be null")));
@@ -49,6 +51,7 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
         runs = List.copyOf(Objects.requireNonNull(runs, "HandoverReport.runs must not be null"));
         approvals = List.copyOf(Objects.requireNonNull(approvals, "HandoverReport.approvals must not be null"));
         brakePeriods = List.copyOf(Objects.requireNonNull(brakePeriods, "HandoverReport.brakePeriods must not be null"));
+        loopsStopped = List.copyOf(Objects.requireNonNull(loopsStopped, "HandoverReport.loopsStopped must not be null"));
         Objects.requireNonNull(ledger, "HandoverReport.ledger must not be null");
     }
 
@@ -99,10 +102,10 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
         return brakePeriods.stream().filter(BrakePeriod::isStillEngaged).findFirst();
     }
 
-    /** True when something waits for a person: an approval, a run, the brake, or a ledger that failed verify. */
+    /** True when something waits for a person: an approval, a run, a loop stop, the brake, or a ledger that failed verify. */
     public boolean needsAttention() {
-        return !ledger.verified() || !pendingApprovals().isEmpty() || !runsNeedingPerson().isEmpty()
-                || brakeStillEngaged().isPresent();
+        return !ledger.verified() || ledger.unreadable() > 0 || !pendingApprovals().isEmpty() || !runsNeedingPerson().isEmpty()
+                || !loopsStopped.isEmpty() || brakeStillEngaged().isPresent();
     }
 
     /** Runs that ended succeeded in the period on a node, by playbook name (see the class comment). */

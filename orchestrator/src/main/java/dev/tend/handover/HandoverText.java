@@ -6,7 +6,7 @@ import java.util.Map;
 /**
  * The handover report as plain text for one screen: the headline numbers first, then what
  * needs attention (a ledger that failed verify, pending approvals, runs waiting for a person,
- * the brake still engaged), then the breakdowns. Long lists are cut with a count of the rest;
+ * targets stopped as loops, the brake still engaged), then the breakdowns. Long lists are cut with a count of the rest;
  * the CSV and HTML renderings list everything. Times are UTC.
  */
 public final class HandoverText {
@@ -76,6 +76,13 @@ public final class HandoverText {
             line(out, "  ! needs a person    %s  %s  %s  %s", x.run(), x.playbook(), x.target(), x.note() == null ? "" : x.note());
         }
         more(out, human.size());
+        List<LoopStop> loops = r.loopsStopped();
+        for (int i = 0; i < loops.size() && i < LIST_LIMIT; i++) {
+            LoopStop x = loops.get(i);
+            line(out, "  ! loop stopped      %s  %s  since %s; automation stays off this target until a person clears it",
+                    x.playbook(), x.target(), TimeText.at(x.stoppedAt()));
+        }
+        more(out, loops.size());
         r.brakeStillEngaged().ifPresent(b -> line(out, "  ! fleet brake       engaged since %s by %s%s; automatic starts are on hold",
                 TimeText.at(b.engagedAt()), b.engagedBy(), b.reason() == null ? "" : ": " + b.reason()));
         out.append('\n');

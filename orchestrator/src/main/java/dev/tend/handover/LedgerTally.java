@@ -35,6 +35,7 @@ final class LedgerTally {
     private final Map<String, PlaybookState> playbooks = new TreeMap<>();
     private final Map<String, Candidates> reasons = new HashMap<>();
     private final List<BrakePeriod> brakes = new ArrayList<>();
+    private final Map<String, LoopStop> loops = new LinkedHashMap<>();
     private BrakePeriod openBrake;
     private long inPeriod;
     private long unreadable;
@@ -96,6 +97,12 @@ final class LedgerTally {
             case "verdict" -> {
                 if (counted) verdict(f);
             }
+            case "loop-stopped" -> {
+                LoopStop l = new LoopStop(orUnknown(text(f, "playbook")), orUnknown(text(f, "cluster")), text(f, "node"), at);
+                loops.putIfAbsent(l.playbook() + " " + l.target(), l);
+            }
+            case "loop-cleared" -> loops.remove(orUnknown(text(f, "playbook")) + " " + orUnknown(text(f, "cluster"))
+                    + (text(f, "node") == null ? "" : "/" + text(f, "node")));
             case "brake-engaged" -> engaged(f, at);
             case "brake-released" -> released(f, at);
             default -> {
@@ -217,7 +224,8 @@ final class LedgerTally {
         if (openBrake != null) brakeList.add(openBrake);
         LedgerStatus status = new LedgerStatus(v.entries(), inPeriod, v.headHash(), v.ok(), v.firstBrokenSeq(), v.reason(),
                 unreadable);
-        return new HandoverReport(period, byPlaybook, byReason, runLines, approvalLines, brakeList, status);
+        return new HandoverReport(period, byPlaybook, byReason, runLines, approvalLines, brakeList, List.copyOf(loops.values()),
+                status);
     }
 
     private static int guardOrder(String code) {

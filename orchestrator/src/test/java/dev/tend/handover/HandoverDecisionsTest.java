@@ -7,6 +7,7 @@ import org.junit.jupiter.api.io.TempDir;
 
 import java.nio.file.Path;
 import java.time.Duration;
+import java.time.Instant;
 
 import static dev.tend.handover.NightShift.SINCE;
 import static dev.tend.handover.NightShift.at;
@@ -72,6 +73,31 @@ class HandoverDecisionsTest {
                     "ana", "z-b steady again"));
             assertThat(r.runs()).singleElement().satisfies(x -> assertThat(x.startedAt()).isEqualTo(at("22:25")));
             assertThat(r.needsAttention()).isFalse();
+        }
+    }
+
+    @Test
+    void aTargetStoppedAsALoopNeedsAttentionUntilAPersonClearsIt() throws Exception {
+        try (NightShift n = new NightShift(dir.resolve("tend.db"), SINCE)) {
+            // the built-in limits allow 3 runs per target in 24h and one per hour (cooldown): the fourth is a loop
+            for (int i = 0; i < 4; i++) {
+                n.silent("fares-2", "n2");
+                n.advance(Duration.ofMinutes(90));
+            }
+            Instant stopped = SINCE.plus(Duration.ofMinutes(270));
+
+            HandoverReport r = n.report(SINCE, at("06:00"));
+
+            assertThat(r.totals()).isEqualTo(new RunCounts(3, 3, 0, 0, 0, 0, 1));
+            assertThat(r.byReason()).containsExactly(new ReasonCount("loop", 0, 1));
+            assertThat(r.loopsStopped()).containsExactly(new LoopStop("replace-silent-node", "fares-2", "n2", stopped));
+            assertThat(r.needsAttention()).isTrue();
+            assertThat(HandoverText.render(r)).contains("  ! loop stopped      replace-silent-node  fares-2/n2  since " + stopped);
+
+            n.command(new Input.ClearLoop(dev.tend.shared.Id.of("replace-silent-node"),
+                    dev.tend.shared.Target.node(dev.tend.shared.Id.of("fares-2"), dev.tend.shared.Id.of("n2")), "ana", "cli"));
+            n.advance(Duration.ofMinutes(10));
+            assertThat(n.report(SINCE, at("06:00")).loopsStopped()).isEmpty();
         }
     }
 

@@ -120,13 +120,18 @@ class HandoverValuesTest {
                 bad("report without runs", () -> report(ReportPeriod.of(EARLIER, T), Map.of(), null), NPE,
                         "HandoverReport.runs must not be null"),
                 bad("report without reasons", () -> new HandoverReport(ReportPeriod.of(EARLIER, T), Map.of(), null, List.of(),
-                        List.of(), List.of(), LEDGER), NPE, "HandoverReport.byReason must not be null"),
+                        List.of(), List.of(), List.of(), LEDGER), NPE, "HandoverReport.byReason must not be null"),
                 bad("report without approvals", () -> new HandoverReport(ReportPeriod.of(EARLIER, T), Map.of(), List.of(), List.of(),
-                        null, List.of(), LEDGER), NPE, "HandoverReport.approvals must not be null"),
+                        null, List.of(), List.of(), LEDGER), NPE, "HandoverReport.approvals must not be null"),
                 bad("report without brake periods", () -> new HandoverReport(ReportPeriod.of(EARLIER, T), Map.of(), List.of(),
-                        List.of(), List.of(), null, LEDGER), NPE, "HandoverReport.brakePeriods must not be null"),
+                        List.of(), List.of(), null, List.of(), LEDGER), NPE, "HandoverReport.brakePeriods must not be null"),
                 bad("report without ledger", () -> new HandoverReport(ReportPeriod.of(EARLIER, T), Map.of(), List.of(), List.of(),
-                        List.of(), List.of(), null), NPE, "HandoverReport.ledger must not be null"));
+                        List.of(), List.of(), List.of(), null), NPE, "HandoverReport.ledger must not be null"),
+                bad("report without loop stops", () -> new HandoverReport(ReportPeriod.of(EARLIER, T), Map.of(), List.of(),
+                        List.of(), List.of(), List.of(), null, LEDGER), NPE, "HandoverReport.loopsStopped must not be null"),
+                bad("loop stop without playbook", () -> new LoopStop(null, "fares-1", "n1", T), NPE, "LoopStop.playbook must not be null"),
+                bad("loop stop without cluster", () -> new LoopStop("p", null, "n1", T), NPE, "LoopStop.cluster must not be null"),
+                bad("loop stop without time", () -> new LoopStop("p", "fares-1", "n1", null), NPE, "LoopStop.stoppedAt must not be null"));
     }
 
     @ParameterizedTest(name = "[{index}] {0}")
@@ -185,6 +190,6 @@ class HandoverValuesTest {
     }
 
     private static HandoverReport report(ReportPeriod p, Map<String, RunCounts> byPlaybook, List<RunLine> runs) {
-        return new HandoverReport(p, byPlaybook, List.of(), runs, List.of(), List.of(), LEDGER);
+        return new HandoverReport(p, byPlaybook, List.of(), runs, List.of(), List.of(), List.of(), LEDGER);
     }
 }
