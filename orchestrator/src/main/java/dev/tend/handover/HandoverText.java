@@ -6,8 +6,8 @@ import java.util.Map;
 /**
  * The handover report as plain text for one screen: the headline numbers first, then what
  * needs attention (a ledger that failed verify, pending approvals, runs waiting for a person,
- * targets stopped as loops, the brake still engaged), then the breakdowns. Long lists are cut with a count of the rest;
- * the CSV and HTML renderings list everything. Times are UTC.
+ * targets stopped as loops, the brake still engaged), then the breakdowns. Long lists are cut
+ * with a count of the rest; the HTML rendering lists everything. Times are UTC.
  */
 public final class HandoverText {
     /** How many lines a list shows before it says how many more there are. */
@@ -152,7 +152,7 @@ public final class HandoverText {
     }
 
     private static void more(StringBuilder out, int size) {
-        if (size > LIST_LIMIT) line(out, "    and %d more (--format csv or html lists all)", size - LIST_LIMIT);
+        if (size > LIST_LIMIT) line(out, "    and %d more (--format html lists all)", size - LIST_LIMIT);
     }
 
     private static void line(StringBuilder out, String format, Object... args) {

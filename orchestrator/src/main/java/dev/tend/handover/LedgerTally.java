@@ -112,10 +112,10 @@ final class LedgerTally {
     }
 
     private RunState run(JsonNode f, Instant at) {
-        String id = text(f, "run");
+        String id = orUnknown(text(f, "run"));
         RunState r = runs.get(id);
         if (r == null) {
-            r = new RunState(id == null ? "?" : id, orUnknown(text(f, "playbook")), orUnknown(text(f, "cluster")),
+            r = new RunState(id, orUnknown(text(f, "playbook")), orUnknown(text(f, "cluster")),
                     text(f, "node"), at);
             runs.put(r.run, r);
         }
