@@ -194,4 +194,22 @@ abstract class ProjectionContractTest extends StoreTestBase {
             assertThat(tx.verifyLedger().ok()).isTrue();
         });
     }
+
+    @Test
+    void reopeningMigratesNothingAgainAndKeepsEverything() {
+        store.useTransaction(tx -> {
+            tx.appendInput(transition(T0, T0, "fares-3"));
+            tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3"));
+        });
+        store.close();
+        store = db.open();
+        store.close();
+        store = db.open();
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("1");
+        assertThat(db.queryText("SELECT version FROM flyway_schema_history")).isEqualTo("1");
+        assertThat(lastInputSeq()).isEqualTo(1);
+        LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
+        assertThat(second.seq()).isEqualTo(2);
+        assertThat(verify().ok()).isTrue();
+    }
 }
