@@ -41,6 +41,8 @@ abstract class ProjectionContractTest extends StoreTestBase {
         assertThat(read.get(1)).isEqualTo(command.withSeq(2));
         assertThat(read.get(0)).isEqualTo(transition(T0, T0.minusSeconds(5), "fares-3").withSeq(1));
         assertThat(lastInputSeq()).isEqualTo(4);
+        long unchanged = store.inTransaction(tx -> tx.appendInputs(List.of()));
+        assertThat(unchanged).isEqualTo(4);
 
         List<Long> after = new ArrayList<>();
         store.read(r -> {
