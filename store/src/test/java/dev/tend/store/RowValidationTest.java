@@ -61,7 +61,7 @@ class RowValidationTest {
                 rule(BAD, "ApprovalRow.expiresAt must not be before requestedAt 2027-03-14T02:17:00Z, got 2027-03-14T02:16:00Z",
                         () -> approval("run-1", "p", "fares-3", "engine", T, T.minusSeconds(60), "pending")),
                 rule(NULL, "ApprovalRow.state must not be null", () -> approval("run-1", "p", "fares-3", "engine", T, T, null)),
-                rule(BAD, "ApprovalRow.state must be one of pending, approved, rejected, lapsed, got 'granted'",
+                rule(BAD, "ApprovalRow.state must be one of pending, approved, rejected, lapsed, withdrawn, got 'granted'",
                         () -> approval("run-1", "p", "fares-3", "engine", T, T, "granted")),
 
                 rule(BAD, "LedgerEntry.seq must be 1 or more, got 0",
