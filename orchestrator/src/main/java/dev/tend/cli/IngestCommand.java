@@ -92,7 +92,7 @@ public final class IngestCommand implements Callable<Integer> {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e) {
-                                orch.submitEvent(e.event() instanceof HealthTransition t ? new Input.Transition(t)
+                                orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
                                         : new Input.Topology((TopologyEvent) e.event()));
                             } else if (r instanceof LineResult.Bad b) {
                                 err.println(b.problem() + " (line skipped)");

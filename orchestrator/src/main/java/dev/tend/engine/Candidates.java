@@ -28,6 +28,7 @@ final class Candidates {
     private final Set<String> fleetWide = new TreeSet<>();
     private final TreeMap<Instant, Set<String>> eventAgenda = new TreeMap<>();
     private final Map<String, Candidate.Key> byName = new HashMap<>();
+    private final Map<dev.tend.shared.SignalKey, Set<String>> byTrigger = new HashMap<>();
 
     Entry get(Candidate.Key key) {
         return entries.get(key);
@@ -53,6 +54,7 @@ final class Candidates {
         entries.put(key, new Entry(c, d));
         String name = key.toString();
         byName.put(name, key);
+        byTrigger.computeIfAbsent(c.trigger(), k -> new TreeSet<>()).add(name);
         if (d == null) return;
         Set<Wake> wakes = d.wakes();
         if (wakes.contains(Wake.CLUSTER) || wakes.contains(Wake.HUMAN)) {
@@ -65,8 +67,15 @@ final class Candidates {
 
     void remove(Candidate.Key key) {
         unindex(key);
-        entries.remove(key);
+        Entry e = entries.remove(key);
         byName.remove(key.toString());
+        if (e != null) {
+            Set<String> t = byTrigger.get(e.candidate().trigger());
+            if (t != null) {
+                t.remove(key.toString());
+                if (t.isEmpty()) byTrigger.remove(e.candidate().trigger());
+            }
+        }
     }
 
     private void unindex(Candidate.Key key) {
@@ -110,9 +119,10 @@ final class Candidates {
 
     /** Candidates triggered by the given signal key. */
     List<Candidate.Key> triggeredBy(dev.tend.shared.SignalKey trigger) {
-        List<Candidate.Key> out = new ArrayList<>();
-        for (Entry e : entries.values()) if (e.candidate().trigger().equals(trigger)) out.add(e.candidate().key());
-        out.sort((a, b) -> a.toString().compareTo(b.toString()));
+        Set<String> names = byTrigger.get(trigger);
+        if (names == null) return List.of();
+        List<Candidate.Key> out = new ArrayList<>(names.size());
+        for (String n : names) out.add(byName.get(n));
         return out;
     }
 }

@@ -38,6 +38,8 @@ import java.util.function.BooleanSupplier;
  */
 public final class Orchestrator {
     private static final int BATCH = 2000;
+    /** Group commit: a small batch waits this long for more inputs before it is committed. */
+    private static final long GATHER_NANOS = 3_000_000;
 
     private final Store store;
     private final Engine engine;
@@ -170,7 +172,28 @@ public final class Orchestrator {
                 if (next == null) continue;
                 batch.add(next);
             }
+            gather(batch);
             process(batch);
+        }
+    }
+
+    /**
+     * Lets a small batch fill up for a few milliseconds, so that a steady trickle of events
+     * is committed in groups rather than a transaction per event.
+     */
+    private void gather(List<Input> batch) throws InterruptedException {
+        long deadline = System.nanoTime() + GATHER_NANOS;
+        while (batch.size() < BATCH) {
+            long left = deadline - System.nanoTime();
+            if (left <= 0) return;
+            Input next = events.poll(left, TimeUnit.NANOSECONDS);
+            if (next == null) {
+                urgent.drainTo(batch, BATCH - batch.size());
+                return;
+            }
+            batch.add(next);
+            events.drainTo(batch, BATCH - batch.size());
+            urgent.drainTo(batch, BATCH - batch.size());
         }
     }
 

@@ -32,8 +32,13 @@ public final class FleetHealthView {
     private static final int CHANGE_HISTORY = 32;
 
     private Fleet topology;
-    private final Map<SignalKey, SignalStatus> signals = new HashMap<>();
-    private final Map<SignalKey, ArrayDeque<Instant>> changes = new HashMap<>();
+    /** One mutable slot per signal: a single map lookup per event. */
+    private static final class Slot {
+        SignalStatus status;
+        final ArrayDeque<Instant> changes = new ArrayDeque<>(4);
+    }
+
+    private final Map<SignalKey, Slot> signals = new HashMap<>(1 << 16);
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Active problem signals per cluster (node and cluster level). */
     private final Map<Id, Integer> problemsPerCluster = new HashMap<>();
@@ -54,23 +59,28 @@ public final class FleetHealthView {
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
         SignalKey key = t.key();
-        SignalStatus current = signals.get(key);
+        Slot slot = signals.get(key);
+        SignalStatus current = slot == null ? null : slot.status;
         if (current != null && t.at().isBefore(current.lastAt())) {
             lateEvents++;
             return ApplyOutcome.LATE;
         }
         appliedEvents++;
+        if (slot == null) {
+            slot = new Slot();
+            signals.put(key, slot);
+        }
         if (current != null && current.state() == t.state()) {
-            signals.put(key, new SignalStatus(current.state(), current.since(), t.at()));
+            slot.status = new SignalStatus(current.state(), current.since(), t.at());
             return ApplyOutcome.REPEATED;
         }
         if (current == null && t.state() == SignalState.CLEAR) {
-            signals.put(key, new SignalStatus(SignalState.CLEAR, t.at(), t.at()));
+            slot.status = new SignalStatus(SignalState.CLEAR, t.at(), t.at());
             return ApplyOutcome.REPEATED;
         }
         boolean wasProblem = current != null && current.isProblem();
-        signals.put(key, new SignalStatus(t.state(), t.at(), t.at()));
-        ArrayDeque<Instant> history = changes.computeIfAbsent(key, k -> new ArrayDeque<>());
+        slot.status = new SignalStatus(t.state(), t.at(), t.at());
+        ArrayDeque<Instant> history = slot.changes;
         history.addLast(t.at());
         if (history.size() > CHANGE_HISTORY) history.removeFirst();
         if (t.state().isProblem() && !wasProblem) count(key, +1);
@@ -115,22 +125,23 @@ public final class FleetHealthView {
     }
 
     public Optional<SignalStatus> status(SignalKey key) {
-        return Optional.ofNullable(signals.get(key));
+        Slot s = signals.get(key);
+        return s == null ? Optional.empty() : Optional.of(s.status);
     }
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        SignalStatus s = signals.get(new SignalKey(cluster, node, signal));
-        return s != null && s.isProblem();
+        Slot s = signals.get(new SignalKey(cluster, node, signal));
+        return s != null && s.status.isProblem();
     }
 
     /** The signals in breach or silent on a node (or on the cluster itself when node is null), by name. */
     public Map<Id, SignalStatus> activeSignals(Id cluster, Id node) {
         Map<Id, SignalStatus> out = new TreeMap<>();
-        for (Map.Entry<SignalKey, SignalStatus> e : signals.entrySet()) {
+        for (Map.Entry<SignalKey, Slot> e : signals.entrySet()) {
             SignalKey k = e.getKey();
-            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().isProblem()) {
-                out.put(k.signal(), e.getValue());
+            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().status.isProblem()) {
+                out.put(k.signal(), e.getValue().status);
             }
         }
         return out;
@@ -138,8 +149,9 @@ public final class FleetHealthView {
 
     /** How many times the signal changed state at or after {@code since} (event time), up to the last 32. */
     public int changesSince(SignalKey key, Instant since) {
-        ArrayDeque<Instant> h = changes.get(key);
-        if (h == null) return 0;
+        Slot slot = signals.get(key);
+        if (slot == null) return 0;
+        ArrayDeque<Instant> h = slot.changes;
         int n = 0;
         for (Instant i : h) if (!i.isBefore(since)) n++;
         return n;
