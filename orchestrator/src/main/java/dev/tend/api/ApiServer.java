@@ -7,6 +7,7 @@ import dev.tend.api.auth.Tokens;
 import dev.tend.api.auth.UnauthenticatedException;
 import dev.tend.api.view.FleetHealth;
 import dev.tend.metrics.TendMetrics;
+import dev.tend.playbooks.PlaybookSet;
 import dev.tend.store.Store;
 import io.javalin.Javalin;
 import io.javalin.http.Context;
@@ -41,8 +42,9 @@ public final class ApiServer implements AutoCloseable {
 
     /** The parts the routes use. */
     public record Parts(Store store, Gateway gateway, Tokens tokens, Supplier<FleetHealth> health, TendMetrics metrics,
-                        Clock clock, PrintWriter log) {
+                        Clock clock, PrintWriter log, PlaybookSet playbooks) {
         public Parts {
+            Objects.requireNonNull(playbooks, "playbooks");
             Objects.requireNonNull(store, "store");
             Objects.requireNonNull(gateway, "gateway");
             Objects.requireNonNull(tokens, "tokens");
@@ -76,6 +78,8 @@ public final class ApiServer implements AutoCloseable {
                 new ExclusionRoutes(parts.store(), parts.gateway(), parts.clock()).mount(r);
                 new BrakeRoutes(parts.store(), parts.gateway()).mount(r);
                 new LedgerRoutes(parts.store()).mount(r);
+                new HandoverRoutes(parts.store(), parts.clock()).mount(r);
+                new PlaybookRoutes(parts.playbooks()).mount(r);
                 new TransitionRoutes(parts.gateway(), parts.metrics()).mount(r);
                 new HealthRoutes(parts.health(), parts.metrics()).mount(r);
             });

@@ -21,9 +21,10 @@ import java.util.Objects;
  * @param commandTimeout how long a request waits for its command to be committed (default 30s)
  * @param workDir        working directory of command actions (default: the current directory)
  * @param log            where notifications and failures are written (default: standard error)
+ * @param timeScale      how processing time relates to the wall clock (default {@link TimeScale#real()})
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
-                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log) {
+                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -36,6 +37,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         requirePositive(commandTimeout, "commandTimeout");
         Objects.requireNonNull(workDir, "workDir");
         Objects.requireNonNull(log, "log");
+        Objects.requireNonNull(timeScale, "timeScale");
     }
 
     private static void requirePositive(Duration d, String field) {
@@ -59,6 +61,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private Duration commandTimeout = Duration.ofSeconds(30);
         private Path workDir = Path.of("").toAbsolutePath();
         private PrintWriter log = new PrintWriter(System.err, true);
+        private TimeScale timeScale = TimeScale.real();
 
         private Builder(EngineSetup setup) {
             this.setup = setup;
@@ -105,8 +108,13 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder timeScale(TimeScale value) {
+            this.timeScale = value;
+            return this;
+        }
+
         public ServeSettings build() {
-            return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log);
+            return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale);
         }
     }
 }

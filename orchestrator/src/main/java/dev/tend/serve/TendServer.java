@@ -15,6 +15,7 @@ import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.QuartzTimers;
 import dev.tend.shared.TendException;
+import dev.tend.shared.time.Timers;
 import dev.tend.store.Store;
 
 import java.io.PrintWriter;
@@ -33,7 +34,8 @@ import java.util.concurrent.atomic.AtomicLong;
  * its own thread with the wall clock, Quartz timers re-armed from what the engine had armed,
  * the command, simulated and http executors, a tick that lets event time follow processing
  * time (sent only when nothing was committed for a tick's length, since any input moves
- * event time), and the HTTP API on top. The caller owns the store and closes it after this.
+ * event time), and the HTTP API on top. Processing time is the wall clock unless the settings'
+ * {@link TimeScale} accelerates it. The caller owns the store and closes it after this.
  */
 public final class TendServer implements AutoCloseable {
     private final Orchestrator orchestrator;
@@ -51,7 +53,7 @@ public final class TendServer implements AutoCloseable {
     private volatile boolean closed;
 
     private TendServer(Store store, ServeSettings s) {
-        Clock clock = Clock.systemUTC();
+        Clock clock = s.timeScale().clock();
         PrintWriter log = s.log();
         TendMetrics metrics = new TendMetrics(store);
         FleetHealthPublisher health = new FleetHealthPublisher(clock);
@@ -62,6 +64,7 @@ public final class TendServer implements AutoCloseable {
         for (Executor e : executors) byKind.put(e.kind(), e);
         Orchestrator[] holder = new Orchestrator[1];
         timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
+        Timers engineTimers = s.timeScale().onProcessingTime(timers);
         CommitListener listeners = (Engine engine, List<Input> inputs, List<Effect> effects) -> {
             lastCommitNanos.set(System.nanoTime());
             metrics.committed(engine, inputs, effects);
@@ -73,7 +76,7 @@ public final class TendServer implements AutoCloseable {
                 log.flush();
             }
         };
-        orchestrator = new Orchestrator(store, s.setup(), byKind, timers, notifier, clock, listeners);
+        orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners);
         holder[0] = orchestrator;
         recovery = orchestrator.recover();
         // the driver thread has not started: this thread may still read the engine
@@ -94,7 +97,8 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log));
+            api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
+                    s.setup().playbooks()));
         } catch (RuntimeException e) {
             stopDriver();
             throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);

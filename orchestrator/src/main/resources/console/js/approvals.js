@@ -1,0 +1,138 @@
+// Pending approvals: what asks for a person, why the guards sent it here, and the decision.
+import { api } from "./api.js";
+import { el, replace, pill, table, time, empty, span, target } from "./dom.js";
+
+const REASONS = {
+  "approval-required": "the playbook asks a person for this cluster",
+  "excluded": "the target is excluded",
+  "masked": "an owner-caused signal explains the problem",
+  "unconfirmed": "the problem has not lasted its confirm-for yet",
+  "flapping": "the signal changes too often",
+  "fleet-brake": "the fleet brake is engaged",
+  "window-closed": "outside the change window",
+  "cooldown": "the target was remediated recently",
+  "loop": "the target was remediated too often",
+  "cluster-busy": "another run is active on the cluster",
+  "blast-radius": "too many runs at once",
+  "quorum": "the cluster would lose its quorum",
+  "replication": "partitions would fall below min-in-sync",
+  "rate-limit": "the start budget is spent",
+};
+
+function reasonList(codes) {
+  return el("ul", { class: "reasons" }, codes.map((c) => el("li", {},
+    el("code", { class: "reason", text: c }), REASONS[c] ? " " + REASONS[c] : "")));
+}
+
+function decisionControls(ctx, a, after) {
+  if (!ctx.can("approver")) {
+    return el("p", { class: "muted small", text: "Deciding needs the approver role." });
+  }
+  const reason = el("input", { type: "text", placeholder: "why not (required to reject)", class: "reject-reason" });
+  const approve = el("button", {
+    type: "button", class: "primary", text: "Approve", dataset: { action: "approve", run: a.run },
+    onclick: () => decide(ctx, a, true, null, [approve, rejectBtn], after),
+  });
+  const rejectBtn = el("button", {
+    type: "button", class: "danger", text: "Reject", dataset: { action: "reject", run: a.run },
+    onclick: () => {
+      const r = reason.value.trim();
+      if (!r) {
+        reason.focus();
+        ctx.notify("Say why the run is rejected; the reason goes into the ledger.", "wait");
+        return;
+      }
+      decide(ctx, a, false, r, [approve, rejectBtn], after);
+    },
+  });
+  return el("div", { class: "decide" }, approve, reason, rejectBtn);
+}
+
+async function decide(ctx, a, yes, reason, buttons, after) {
+  buttons.forEach((b) => { b.disabled = true; });
+  try {
+    const out = yes ? await api.approve(a.run) : await api.reject(a.run, reason);
+    if (yes) {
+      const v = out.verdict || "start";
+      const why = out.reasons && out.reasons.length ? " (" + out.reasons.join(", ") + ")" : "";
+      ctx.notify("Approved " + a.run + ": the guards, checked again, said " + v + why + "; the run is "
+        + (out.run ? out.run.state : "on its way") + ".", v === "start" ? "good" : "wait");
+    } else {
+      ctx.notify("Rejected " + a.run + "; the run is cancelled.", "good");
+    }
+  } catch (err) {
+    ctx.notify(err.message, "bad");
+  }
+  await after();
+}
+
+/** The guards' verdict that sent {@code a} to a person (a verdict names the candidate, not yet the run). */
+async function askingVerdict(a) {
+  try {
+    const page = await api.ledger({ kind: "verdict", cluster: a.cluster, playbook: a.playbook, limit: 50 });
+    const mine = page.entries.filter((e) => e.verdict === "await-approval" && (e.node || null) === (a.node || null));
+    return mine.length ? mine[mine.length - 1] : null;
+  } catch (err) {
+    return null;
+  }
+}
+
+export default {
+  id: "approvals",
+  title: "Pending approvals",
+  mount(root, ctx) {
+    const pending = el("div", { class: "approvals", id: "pending-approvals" });
+    const settled = el("section", { class: "card" });
+    root.append(pending, settled);
+    let shown = null;
+    const countdowns = new Map();
+
+    const view = {
+      async refresh() {
+        const now = ctx.now();
+        const list = await api.approvals("pending");
+        const key = list.map((a) => a.run).join(",");
+        if (key !== shown) {
+          shown = key;
+          countdowns.clear();
+          const messages = await Promise.all(list.map((a) => askingVerdict(a)));
+          replace(pending, list.length === 0 ? empty("Nothing waits for a person.") : list.map((a, i) => {
+            const left = el("span", { class: "countdown" });
+            countdowns.set(a.run, { node: left, expires: a.expires_at });
+            const verdict = messages[i];
+            return el("article", { class: "card approval", dataset: { run: a.run } },
+              el("div", { class: "card-head" },
+                el("h3", {}, el("code", { text: target(a.cluster, a.node) }), " ", el("span", { class: "muted", text: a.playbook })),
+                pill("pending")),
+              el("dl", { class: "facts" },
+                el("dt", { text: "run" }), el("dd", {}, el("code", { text: a.run })),
+                el("dt", { text: "asked by" }), el("dd", {}, a.requested_by, " at ", time(a.requested_at, now)),
+                el("dt", { text: "lapses" }), el("dd", {}, time(a.expires_at, now), " ", left)),
+              el("h4", { text: "Why a person is asked" }),
+              reasonList(a.reasons),
+              verdict && verdict.messages && verdict.messages.length
+                ? el("ul", { class: "messages" }, verdict.messages.map((m) => el("li", { text: m }))) : null,
+              decisionControls(ctx, a, () => view.refresh()));
+          }));
+        }
+        for (const { node, expires } of countdowns.values()) {
+          node.textContent = now ? "(in " + span(Date.parse(expires) - Date.parse(now)) + ")" : "";
+        }
+
+        const all = await api.approvals("all");
+        const done = all.filter((a) => a.state !== "pending")
+          .sort((x, y) => (y.decided_at || "").localeCompare(x.decided_at || "")).slice(0, 15);
+        replace(settled, el("h2", { text: "Settled recently" }),
+          done.length === 0 ? empty("No approval was settled yet.")
+            : table(["target", "playbook", "state", "by", "when", "reasons"], done.map((a) => el("tr", { dataset: { run: a.run } },
+              el("td", {}, el("code", { text: target(a.cluster, a.node) })),
+              el("td", { text: a.playbook }),
+              el("td", {}, pill(a.state)),
+              el("td", { text: a.decided_by || "—" }),
+              el("td", {}, time(a.decided_at, now)),
+              el("td", { class: "small", text: a.reasons.join(", ") })))));
+      },
+    };
+    return view;
+  },
+};

@@ -1,0 +1,92 @@
+// Fleet overview: how much of the fleet is unhealthy, where, and the fleet brake.
+import { api } from "./api.js";
+import { el, replace, pill, stat, table, time, ago, empty, target } from "./dom.js";
+
+function brakeForm(ctx, engaged, after) {
+  const reason = el("input", { id: "brake-reason", type: "text", placeholder: "reason (written to the ledger)", required: true });
+  const button = el("button", {
+    id: engaged ? "brake-release" : "brake-engage", type: "submit", class: engaged ? "primary" : "danger",
+    text: engaged ? "Release the brake" : "Engage the brake",
+  });
+  return el("form", {
+    class: "inline-form",
+    onsubmit: async (e) => {
+      e.preventDefault();
+      const r = reason.value.trim();
+      if (!r) return;
+      button.disabled = true;
+      try {
+        const b = engaged ? await api.releaseBrake(r) : await api.engageBrake(r);
+        ctx.notify(b.engaged ? "The fleet brake is engaged: no automatic starts until it is released." : "The fleet brake is released.",
+          b.engaged ? "bad" : "good");
+        await after();
+      } catch (err) {
+        ctx.notify(err.message, "bad");
+        button.disabled = false;
+      }
+    },
+  }, reason, button);
+}
+
+export default {
+  id: "fleet",
+  title: "Fleet overview",
+  mount(root, ctx) {
+    const stats = el("div", { class: "stats" });
+    const brake = el("section", { class: "card", id: "brake" });
+    const zones = el("div", { class: "zones" });
+    const clusters = el("section", { class: "card" });
+    root.append(stats, brake, el("h2", { text: "Unhealthy clusters by zone" }), zones, clusters);
+    let brakeShown = null;
+
+    const view = {
+      async refresh() {
+        const h = await api.health();
+        const now = h.at;
+        const pct = (h.unhealthy_fraction * 100).toFixed(1) + "%";
+        replace(stats,
+          stat("clusters in " + (h.fleet || "the fleet"), h.clusters),
+          stat("unhealthy (" + pct + ")", h.unhealthy, h.unhealthy > 0 ? "wait" : "good"),
+          stat("active runs", h.active_runs),
+          stat("event time", h.event_time ? h.event_time.slice(11, 19) : "—"));
+
+        const b = h.brake;
+        // the form is rebuilt only when the brake changes, so typing a reason survives a refresh
+        const key = b.engaged + "|" + b.since;
+        if (key !== brakeShown) {
+          brakeShown = key;
+          replace(brake,
+            el("div", { class: "card-head" },
+              el("h2", { text: "Fleet brake" }),
+              pill(b.engaged ? "engaged" : "released", "brake-state")),
+            b.engaged
+              ? el("p", {}, "Engaged ", time(b.since, now), " (" + ago(b.since, now) + ") by ", el("strong", { text: b.by || "?" }),
+                b.manual ? " by hand" : " automatically", b.reason ? ": " + b.reason : "",
+                ". No run starts by itself while it holds.")
+              : el("p", { class: "muted", text: "Released: automation may start runs, guards permitting." }),
+            ctx.can("operator") ? brakeForm(ctx, b.engaged, () => view.refresh())
+              : el("p", { class: "muted small", text: "Engaging or releasing the brake needs the operator role." }));
+        }
+
+        replace(zones, h.zones.length === 0 ? empty("No topology yet.") : h.zones.map((z) =>
+          el("section", { class: "zone card", dataset: { zone: z.zone } },
+            el("div", { class: "card-head" }, el("h3", { text: z.zone }),
+              el("span", { class: "muted", text: z.clusters + " clusters" })),
+            el("p", { class: "small muted", text: z.impaired_nodes + " impaired node" + (z.impaired_nodes === 1 ? "" : "s") }),
+            z.unhealthy.length === 0 ? el("p", { class: "calm", text: "all healthy" })
+              : el("ul", { class: "chips" }, z.unhealthy.map((c) => el("li", { class: "chip", text: c }))))));
+
+        const rows = h.unhealthy_clusters.map((c) => el("tr", { dataset: { cluster: c.cluster } },
+          el("td", {}, el("strong", { text: c.cluster })),
+          el("td", {}, pill(c.health)),
+          el("td", { text: c.zones.join(", ") }),
+          el("td", {}, el("ul", { class: "plain" }, c.signals.map((s) => el("li", {},
+            el("code", { text: target(c.cluster, s.node) }), " ", s.signal, " ", pill(s.state), " ",
+            el("span", { class: "muted small" }, "since ", time(s.since, now))))))));
+        replace(clusters, el("h2", { text: "Signals in breach or silent" }),
+          rows.length === 0 ? empty("Every cluster is healthy.") : table(["cluster", "health", "zones", "signals"], rows));
+      },
+    };
+    return view;
+  },
+};
