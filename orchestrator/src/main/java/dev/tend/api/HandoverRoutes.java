@@ -31,16 +31,16 @@ final class HandoverRoutes {
     }
 
     private void report(Context ctx) {
-        Instant since = Requests.time(ctx, "since");
-        if (since == null) throw Requests.invalid("since", "since is required: an RFC 3339 time like 2027-03-14T22:00:00Z");
-        Instant until = Requests.time(ctx, "until");
-        if (until == null) until = clock.instant();
-        if (!until.isAfter(since)) throw Requests.invalid("until", "until (" + until + ") must be after since (" + since + ")");
         String format = ctx.queryParam("format");
         if (format == null || format.isEmpty()) format = "json";
         if (!format.equals("json") && !format.equals("html")) {
             throw Requests.invalid("format", "format must be json or html, got '" + format + "'");
         }
+        Instant since = Requests.time(ctx, "since");
+        if (since == null) throw Requests.invalid("since", "since is required: an RFC 3339 time like 2027-03-14T22:00:00Z");
+        Instant until = Requests.time(ctx, "until");
+        if (until == null) until = clock.instant();
+        if (!until.isAfter(since)) throw Requests.invalid("until", "until (" + until + ") must be after since (" + since + ")");
         ReportPeriod period = ReportPeriod.of(since, until);
         HandoverReport report = store.read(rd -> HandoverReport.from(rd, period));
         if (format.equals("html")) {
