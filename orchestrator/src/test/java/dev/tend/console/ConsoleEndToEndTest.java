@@ -70,6 +70,10 @@ class ConsoleEndToEndTest {
 
         d.findElement(By.id("sign-out")).click();
         signIn(d, wait, server.url(), ANNA);
+        WebElement unhealthy = wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("tr[data-cluster='fares-3']")));
+        assertThat(unhealthy.getText()).contains("fares-3/n2", "heartbeat", "silent");
+        assertThat(d.findElement(By.cssSelector("#brake .brake-state")).getText()).isEqualTo("released");
+        assertThat(d.findElements(By.id("brake-engage"))).hasSize(1);
         chromium.screenshot("fleet");
         d.get(server.url() + "/#approvals");
         WebElement approve = wait.until(ExpectedConditions.elementToBeClickable(
