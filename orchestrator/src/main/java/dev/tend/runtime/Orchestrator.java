@@ -47,6 +47,7 @@ public final class Orchestrator {
     private final Timers timers;
     private final Notifier notifier;
     private final Clock clock;
+    private final CommitListener listener;
     private final BlockingQueue<Input> urgent = new LinkedBlockingQueue<>();
     private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
     private final AtomicInteger callsInFlight = new AtomicInteger();
@@ -55,6 +56,13 @@ public final class Orchestrator {
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
+        this(store, setup, executors, timers, notifier, clock, CommitListener.NONE);
+    }
+
+    /** As above, with a listener told about every committed batch on the driver thread. */
+    public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
+                        Notifier notifier, Clock clock, CommitListener listener) {
+        this.listener = java.util.Objects.requireNonNull(listener, "listener");
         this.store = store;
         this.engine = new Engine(setup);
         this.executors = Map.copyOf(executors);
@@ -104,6 +112,23 @@ public final class Orchestrator {
     /** Queues a transition or topology event; blocks while the queue is full. */
     public void submitEvent(Input in) throws InterruptedException {
         events.put(in);
+    }
+
+    /**
+     * Queues a transition or topology event behind those queued before it (blocking while the
+     * queue is full) and completes with its effects once committed. Events are committed in
+     * the order queued, so when this completes every event queued before it is committed too.
+     */
+    public CompletableFuture<List<Effect>> submitEventAndWait(Input in) throws InterruptedException {
+        CompletableFuture<List<Effect>> f = new CompletableFuture<>();
+        waiting.put(in, f);
+        try {
+            events.put(in);
+        } catch (InterruptedException e) {
+            waiting.remove(in);
+            throw e;
+        }
+        return f;
     }
 
     /** Queues a timer firing, executor result or operator command; never blocks. */
@@ -202,6 +227,7 @@ public final class Orchestrator {
                     + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
         }
         for (Effect e : all) perform(e);
+        listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {
                 CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
