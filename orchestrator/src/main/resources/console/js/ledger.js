@@ -2,7 +2,7 @@
 import { api } from "./api.js";
 import { el, replace, pill, time, empty, target } from "./dom.js";
 
-const KINDS = ["verdict", "transition", "approval-requested", "approval-granted", "approval-rejected", "approval-lapsed",
+const KINDS = ["verdict", "transition", "transitions-received", "approval-requested", "approval-granted", "approval-rejected", "approval-lapsed",
   "approval-refused", "run-started", "run-ended", "run-needs-human", "run-paused", "run-resumed", "run-shadowed",
   "step-started", "step-finished", "step-failed", "step-timed-out", "executor-call", "executor-result",
   "brake-engaged", "brake-released", "exclusion-added", "exclusion-removed", "loop-stopped", "loop-cleared",

@@ -2,6 +2,7 @@ package dev.tend.api;
 
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.JsonNode;
+import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.LineProblem;
 import dev.tend.api.view.TransitionsOutcome;
@@ -12,20 +13,25 @@ import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
 import dev.tend.shared.wire.WireReader;
+import dev.tend.store.Store;
 import io.javalin.http.Context;
 import io.javalin.router.JavalinDefaultRouting;
 
 import java.io.IOException;
 import java.io.StringReader;
+import java.time.Clock;
 import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 
 /**
  * {@code POST /api/v1/transitions}: wire format v1, one JSON object (compact or pretty) or JSON
  * Lines. Good lines are applied in order and committed before the answer; bad lines are
  * answered with their line numbers and messages. The status says which happened:
  * 200 every line applied, 207 some applied and some refused, 400 none applied
- * (every line refused, or no event in the body).
+ * (every line refused, or no event in the body). Each request that carried a line leaves one
+ * {@code transitions-received} ledger entry: the token's name, the client address and the counts.
  */
 final class TransitionRoutes {
     /** Problems listed in one answer; the count of rejected lines is always complete. */
@@ -33,10 +39,14 @@ final class TransitionRoutes {
 
     private final Gateway gateway;
     private final TendMetrics metrics;
+    private final Store store;
+    private final Clock clock;
 
-    TransitionRoutes(Gateway gateway, TendMetrics metrics) {
+    TransitionRoutes(Gateway gateway, TendMetrics metrics, Store store, Clock clock) {
         this.gateway = gateway;
         this.metrics = metrics;
+        this.store = store;
+        this.clock = clock;
     }
 
     void mount(JavalinDefaultRouting r) {
@@ -56,6 +66,16 @@ final class TransitionRoutes {
             }
         });
         if (!events.isEmpty()) gateway.events(events);
+        if (!events.isEmpty() || summary.bad() > 0) {
+            // who fed the engine, from where: one entry per request, not per line
+            Caller caller = Requests.caller(ctx);
+            Map<String, Object> fields = new LinkedHashMap<>();
+            fields.put("by", caller.name());
+            fields.put("from", Requests.from(ctx));
+            fields.put("accepted", events.size());
+            fields.put("rejected", summary.bad());
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "transitions-received", fields));
+        }
         metrics.transitionsReceived(events.size());
         metrics.linesRejected(summary.bad());
         int status = events.isEmpty() ? 400 : summary.bad() > 0 ? 207 : 200;

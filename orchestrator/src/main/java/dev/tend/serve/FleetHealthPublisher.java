@@ -88,7 +88,9 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
             zones.add(new FleetHealth.Zone(z, clustersPerZone.getOrDefault(z, new int[1])[0],
                     unhealthyPerZone.getOrDefault(z, List.of()), impaired.getOrDefault(z, 0)));
         }
-        current.set(new FleetHealth(clock.instant(), engine.eventTime(), view.topology().name(), view.topology().size(),
+        // before the first event the engine's event time is the epoch: "none yet"
+        java.time.Instant eventTime = engine.eventTime().equals(java.time.Instant.EPOCH) ? null : engine.eventTime();
+        current.set(new FleetHealth(clock.instant(), eventTime, view.topology().name(), view.topology().size(),
                 view.unhealthyClusterCount(), view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()),
                 zones, problems));
     }

@@ -57,6 +57,12 @@ class ServeApiTest {
         assertThat(health.get("unhealthy").asInt()).isEqualTo(1);
         assertThat(health.at("/unhealthy_clusters/0/cluster").asText()).isEqualTo("tickets-12");
         assertThat(health.at("/unhealthy_clusters/0/signals")).hasSize(2);
+        JsonNode received = serve.get("/api/v1/ledger?kind=transitions-received", VERA).json().get("entries");
+        assertThat(received).hasSize(1);
+        assertThat(received.get(0).get("by").asText()).isEqualTo("olga");
+        assertThat(received.get(0).get("from").asText()).isEqualTo("127.0.0.1");
+        assertThat(received.get(0).get("accepted").asInt()).isEqualTo(2);
+        assertThat(received.get(0).get("rejected").asInt()).isEqualTo(2);
     }
 
     @Test

@@ -7,7 +7,7 @@ import java.util.List;
  * The fleet's health as the engine sees it, published whole after each change.
  *
  * @param at                 processing time of the picture
- * @param eventTime          the engine's event time
+ * @param eventTime          the engine's event time; null before the first event
  * @param clusters           clusters in the topology
  * @param unhealthy          clusters with any signal in breach or silent
  * @param unhealthyClusters  those clusters, by id
