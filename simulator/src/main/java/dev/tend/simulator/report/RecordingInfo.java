@@ -7,7 +7,8 @@ import java.util.Objects;
  * What was replayed.
  *
  * @param description the header's description, or null
- * @param from        the header's from, else the first event's time; null for an empty recording
+ * @param from        where virtual time started: the header's from, or the first event's time when that is
+ *                    earlier or there is no from; null for an empty recording
  * @param until       the header's until, or null when it has none
  * @param horizon     where virtual time stopped: until, else the last event plus two hours
  * @param events      events read
