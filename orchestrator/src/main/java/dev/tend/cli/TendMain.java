@@ -10,7 +10,8 @@ import java.io.PrintWriter;
 /** The {@code tend} command line. Each subcommand is one class. */
 @Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
         description = "Remediation orchestrator with health gating.",
-        subcommands = {CheckCommand.class, IngestCommand.class, RunsCommand.class, AuditCommand.class},
+        subcommands = {CheckCommand.class, IngestCommand.class, RunsCommand.class, AuditCommand.class, ReplayCommand.class,
+                RecordCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify)", "2:usage or input error"})
 public final class TendMain implements Runnable {

@@ -39,32 +39,45 @@ final class Agenda {
             .thenComparingLong(Item::seq));
     private final Map<String, Item> timers = new HashMap<>();
     private long seq;
+    /** The earliest due time, or null when it must be looked up again: most events find nothing due. */
+    private Instant earliest;
 
     /** Arms {@code key} at {@code at}; arming an armed key moves it. */
     void arm(String key, Instant at) {
         Objects.requireNonNull(key, "key");
-        Item old = timers.remove(key);
-        if (old != null) due.remove(old);
+        cancel(key);
         Item item = new Item(at, TIMER, seq++, key, null);
         timers.put(key, item);
-        due.add(item);
+        add(item);
     }
 
     void cancel(String key) {
         Item old = timers.remove(key);
-        if (old != null) due.remove(old);
+        if (old != null) {
+            due.remove(old);
+            if (old.due().equals(earliest)) earliest = null;
+        }
     }
 
     void answer(Answer answer, Instant at) {
-        due.add(new Item(at, ANSWER, seq++, null, answer));
+        add(new Item(at, ANSWER, seq++, null, answer));
+    }
+
+    private void add(Item item) {
+        boolean wasEmpty = due.isEmpty();
+        due.add(item);
+        if (wasEmpty || earliest != null && item.due().isBefore(earliest)) earliest = item.due();
     }
 
     /** Takes the first item due at or before {@code t}, or returns null when there is none. */
     Item next(Instant t) {
         if (due.isEmpty()) return null;
+        if (earliest != null && earliest.isAfter(t)) return null;
         Item first = due.first();
+        earliest = first.due();
         if (first.due().isAfter(t)) return null;
         due.pollFirst();
+        earliest = null;
         if (first.isTimer()) timers.remove(first.timerKey());
         return first;
     }

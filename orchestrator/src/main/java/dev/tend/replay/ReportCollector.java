@@ -8,6 +8,7 @@ import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
+import dev.tend.shared.wire.Rfc3339;
 import dev.tend.simulator.report.BrakePeriod;
 import dev.tend.simulator.report.DecisionEntry;
 import dev.tend.simulator.report.HealthPoint;
@@ -40,6 +41,7 @@ final class ReportCollector {
     private final List<NotificationEntry> notifications = new ArrayList<>();
     private final Map<String, Id> ids = new HashMap<>();
     private static final Map<String, ReasonCode> CODES = codes();
+    private static final Map<String, Verdict> VERDICTS = verdicts();
     private long approvalsRequested;
     private int maxConcurrent;
     private BrakeState engaged;
@@ -99,8 +101,19 @@ final class ReportCollector {
         }
         Object until = f.get("hold_until");
         return new DecisionEntry(now, id(f.get("playbook")), id(f.get("cluster")), id(f.get("node")),
-                Verdict.parse((String) f.get("verdict")), reasons, id(f.get("signal")),
-                until == null ? null : Instant.parse((String) until));
+                verdict((String) f.get("verdict")), reasons, id(f.get("signal")),
+                until == null ? null : Rfc3339.parse((String) until));
+    }
+
+    private static Verdict verdict(String wire) {
+        Verdict v = VERDICTS.get(wire);
+        return v != null ? v : Verdict.parse(wire);
+    }
+
+    private static Map<String, Verdict> verdicts() {
+        Map<String, Verdict> m = new HashMap<>();
+        for (Verdict v : Verdict.values()) m.put(v.wireName(), v);
+        return Map.copyOf(m);
     }
 
     private static Map<String, ReasonCode> codes() {
