@@ -133,6 +133,8 @@ public final class Engine implements RunHost {
         timers.remove(key);
         if (key.startsWith("recheck:")) {
             work.add(key.substring("recheck:".length()));
+        } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
+            if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
         } else if (key.startsWith("approval:")) {
             approvals.expire(key.substring("approval:".length()), fx);
         } else if (key.startsWith("step:") || key.startsWith("wait:")) {

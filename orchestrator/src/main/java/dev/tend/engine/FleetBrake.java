@@ -17,6 +17,8 @@ final class FleetBrake {
     private BrakeState state = BrakeState.released();
     private boolean armed = true;
     private int episodes;
+    private boolean settling;
+    static final String SETTLE_TIMER = "brake:settle";
 
     FleetBrake(BrakeThresholds thresholds) {
         this.thresholds = thresholds;
@@ -42,11 +44,26 @@ final class FleetBrake {
             fx.add(new Effect.BrakeChanged(state));
             return false;
         }
-        if (state.engaged() && !state.manual() && thresholds.autoRelease() && thresholds.mayRelease(n, f)) {
-            release("automatic", String.format(Locale.ROOT, "%d clusters unhealthy, below the release threshold", n), fx);
-            return true;
+        boolean below = state.engaged() && !state.manual() && thresholds.autoRelease() && thresholds.mayRelease(n, f);
+        if (below && !settling) {
+            settling = true;
+            if (thresholds.settle().isZero()) return settled(view, fx);
+            fx.arm(SETTLE_TIMER, fx.now().plus(thresholds.settle()));
+        } else if (!below && settling) {
+            settling = false;
+            fx.cancel(SETTLE_TIMER);
         }
         return false;
+    }
+
+    /** The settle timer fired: releases when the fleet is still below the release thresholds. */
+    boolean settled(FleetHealthView view, Effects fx) {
+        settling = false;
+        int n = view.unhealthyClusterCount();
+        if (!state.engaged() || state.manual() || !thresholds.mayRelease(n, view.unhealthyFraction())) return false;
+        release("automatic", String.format(Locale.ROOT, "%d clusters unhealthy, below the release threshold for %s", n,
+                dev.tend.shared.time.Durations.format(thresholds.settle())), fx);
+        return true;
     }
 
     void engage(String by, String reason, Effects fx) {
@@ -64,6 +81,8 @@ final class FleetBrake {
     }
 
     private void release(String by, String reason, Effects fx) {
+        if (settling) fx.cancel(SETTLE_TIMER);
+        settling = false;
         fx.ledger("brake-released", "by", by, "reason", reason, "engaged_since", state.since());
         state = BrakeState.released();
         fx.add(new Effect.BrakeChanged(state));

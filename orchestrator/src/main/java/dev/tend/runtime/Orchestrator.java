@@ -23,6 +23,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.BlockingQueue;
+import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.LinkedBlockingQueue;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
@@ -48,6 +49,7 @@ public final class Orchestrator {
     private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
     private final AtomicInteger callsInFlight = new AtomicInteger();
     private volatile boolean stopping;
+    private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
@@ -107,6 +109,17 @@ public final class Orchestrator {
         urgent.add(in);
     }
 
+    /**
+     * Queues an input and completes with its effects once they are committed (for callers
+     * that answer a person, such as the HTTP API); completes exceptionally if the commit fails.
+     */
+    public CompletableFuture<List<Effect>> submitAndWait(Input in) {
+        CompletableFuture<List<Effect>> f = new CompletableFuture<>();
+        waiting.put(in, f);
+        urgent.add(in);
+        return f;
+    }
+
     public void stop() {
         stopping = true;
     }
@@ -158,10 +171,20 @@ public final class Orchestrator {
             });
         } catch (RuntimeException e) {
             stopping = true;
+            for (Input in : batch) {
+                CompletableFuture<List<Effect>> f = waiting.remove(in);
+                if (f != null) f.completeExceptionally(e);
+            }
             throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
                     + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
         }
         for (Effect e : all) perform(e);
+        if (!waiting.isEmpty()) {
+            for (int i = 0; i < batch.size(); i++) {
+                CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
+                if (f != null) f.complete(perInput.get(i));
+            }
+        }
     }
 
     private void perform(Effect e) {

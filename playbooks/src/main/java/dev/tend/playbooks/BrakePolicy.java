@@ -15,12 +15,22 @@ import java.util.Objects;
  *
  * @param releaseBelow null only when {@code autoRelease} is false
  */
-public record BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id notifyChannel) {
+public record BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id notifyChannel,
+                          java.time.Duration releaseAfter) {
+    /** How long the fleet must stay below release-below before an automatic release, unless set. */
+    public static final java.time.Duration DEFAULT_RELEASE_AFTER = java.time.Duration.ofMinutes(5);
+
     private static final BrakePolicy BUILT_IN = new BrakePolicy(new BrakeThreshold(20, null), new BrakeThreshold(10, null),
             false, Id.of("oncall"));
 
+    public BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id notifyChannel) {
+        this(engageAt, releaseBelow, autoRelease, notifyChannel, DEFAULT_RELEASE_AFTER);
+    }
+
     public BrakePolicy {
         Objects.requireNonNull(engageAt, "brake.engage-at");
+        Objects.requireNonNull(releaseAfter, "brake.release-after");
+        if (releaseAfter.isNegative()) throw new IllegalArgumentException("brake.release-after must not be negative, got " + releaseAfter);
         Objects.requireNonNull(notifyChannel, "brake.notify");
         if (autoRelease && releaseBelow == null) {
             throw new IllegalArgumentException("brake.auto-release needs brake.release-below: without it the brake would never know when to let go");

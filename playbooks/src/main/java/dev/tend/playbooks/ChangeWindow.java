@@ -161,7 +161,7 @@ public final class ChangeWindow {
 
     private LocalDateTime nextLocalAfter(LocalDateTime local) {
         Date next;
-        synchronized (expression) { // CronExpression keeps no per-call state, but does not promise thread safety
+        synchronized (expression) { // Quartz does not promise that a CronExpression may be shared between threads
             next = expression.getNextValidTimeAfter(Date.from(local.toInstant(ZoneOffset.UTC)));
         }
         return next == null ? null : LocalDateTime.ofInstant(next.toInstant(), ZoneOffset.UTC);

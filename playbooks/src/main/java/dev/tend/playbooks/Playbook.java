@@ -3,6 +3,7 @@ package dev.tend.playbooks;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 
+import java.util.ArrayList;
 import java.util.Collections;
 import java.util.HashSet;
 import java.util.List;
@@ -68,9 +69,15 @@ public record Playbook(Id id, int version, String description, Mode mode, Trigge
 
     /** The step (of steps or on-failure) with this id. */
     public Optional<Step> step(Id stepId) {
-        for (Step s : steps) if (s.id().equals(stepId)) return Optional.of(s);
-        for (Step s : onFailure) if (s.id().equals(stepId)) return Optional.of(s);
+        for (Step s : allSteps()) if (s.id().equals(stepId)) return Optional.of(s);
         return Optional.empty();
+    }
+
+    /** Steps, then on-failure steps, in order. */
+    public List<Step> allSteps() {
+        List<Step> all = new ArrayList<>(steps);
+        all.addAll(onFailure);
+        return List.copyOf(all);
     }
 
     /** Where {@code path} was written, or where the playbook starts when that is not known. */

@@ -30,7 +30,7 @@ public final class PlaybookSet {
             if (first != null) {
                 throw new IllegalArgumentException("playbook " + p.id() + " is defined in both " + first.source() + " and " + p.source());
             }
-            for (Step s : steps(p)) {
+            for (Step s : p.allSteps()) {
                 if (s instanceof ActionStep a && actions.get(a.action()).isEmpty()) {
                     throw new IllegalArgumentException("playbook " + p.id() + " step " + a.id() + " names undefined action " + a.action());
                 }
@@ -75,13 +75,6 @@ public final class PlaybookSet {
         List<Playbook> out = new ArrayList<>();
         for (Playbook p : playbooks) if (p.matches(t, clusterTags)) out.add(p);
         return List.copyOf(out);
-    }
-
-    /** Steps and on-failure steps of {@code p}, in order. */
-    public static List<Step> steps(Playbook p) {
-        List<Step> all = new ArrayList<>(p.steps());
-        all.addAll(p.onFailure());
-        return all;
     }
 
     public int size() {

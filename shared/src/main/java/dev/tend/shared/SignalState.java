@@ -6,9 +6,15 @@ import java.util.Locale;
 public enum SignalState {
     BREACH, SILENT, CLEAR;
 
+    private final String wireName;
+
+    SignalState() {
+        wireName = name().toLowerCase(Locale.ROOT);
+    }
+
     /** The wire name: {@code breach}, {@code silent}, {@code clear}. */
     public String wireName() {
-        return name().toLowerCase(Locale.ROOT);
+        return wireName;
     }
 
     /** True for breach and silent: the signal reports a problem. */

@@ -6,8 +6,14 @@ import java.util.Locale;
 public enum TopologyChange {
     JOINED, LEFT, CHANGED;
 
+    private final String wireName;
+
+    TopologyChange() {
+        wireName = name().toLowerCase(Locale.ROOT);
+    }
+
     public String wireName() {
-        return name().toLowerCase(Locale.ROOT);
+        return wireName;
     }
 
     public static TopologyChange parse(String wire) {

@@ -76,18 +76,18 @@ public final class Lint {
 
     private static void steps(PlaybookSet set, Playbook p, Set<String> kinds, List<Finding> out) {
         Set<Id> reported = new HashSet<>();
-        for (Step s : PlaybookSet.steps(p)) {
+        for (Step s : p.allSteps()) {
             if (!(s instanceof ActionStep step)) continue;
             ActionDef def = set.actions().get(step.action()).orElseThrow();
             Position at = p.position((p.steps().contains(s) ? "steps." : "on-failure.") + s.id());
             if (step.timeout() == null && def.timeout() == null) {
                 out.add(finding(Severity.ERROR, NO_TIMEOUT, p, at, "step '" + s.id() + "' has no timeout and its action '"
-                        + def.id() + "' defines none, so a hung " + def.kind() + " would hold the run forever;"
+                        + def.id() + "' defines none, so a hung " + def.kind() + " action would hold the run forever;"
                         + " set timeout on the step or on the action"));
             }
             if (!kinds.contains(def.kind()) && reported.add(def.id())) {
-                out.add(finding(Severity.ERROR, NO_EXECUTOR, p, at, "step '" + s.id() + "' runs action '" + def.id() + "', a "
-                        + def.kind() + " action, but no " + def.kind() + " executor is configured"
+                out.add(finding(Severity.ERROR, NO_EXECUTOR, p, at, "step '" + s.id() + "' runs action '" + def.id() + "' of kind "
+                        + def.kind() + ", but no " + def.kind() + " executor is configured"
                         + (kinds.isEmpty() ? "" : "; the configured executors are: " + String.join(", ", new TreeSet<>(kinds)))));
             }
         }

@@ -13,17 +13,22 @@ import java.util.TreeSet;
  * declared but had problems of their own (so a broken action is not reported a second time
  * as undefined by every step that names it).
  */
-record ActionCatalog(Actions actions, Set<Id> declared, boolean fileExists) {
+record ActionCatalog(Actions actions, Set<Id> declared, boolean fileExists, boolean readable) {
     ActionCatalog {
         declared = Set.copyOf(declared);
     }
 
     static ActionCatalog of(Actions actions) {
-        return new ActionCatalog(actions, actions.ids(), actions.source() != null || !actions.ids().isEmpty());
+        return new ActionCatalog(actions, actions.ids(), actions.source() != null || !actions.ids().isEmpty(), true);
+    }
+
+    /** For an actions.yaml that could not be parsed at all: every name counts as declared, so nothing cascades. */
+    static ActionCatalog unreadable() {
+        return new ActionCatalog(Actions.empty(), Set.of(), true, false);
     }
 
     boolean isDeclared(Id id) {
-        return declared.contains(id);
+        return !readable || declared.contains(id);
     }
 
     Optional<ActionDef> get(Id id) {

@@ -88,15 +88,20 @@ final class ActionsReader {
             return null;
         }
         int before = f.problems().size();
-        ActionDef def = switch (kinds.get(0)) {
-            case "command" -> command(id, m, where);
-            case "http" -> http(id, m, where);
-            default -> simulated(id, m, where);
-        };
-        return f.problems().size() > before ? null : def;
+        try {
+            return switch (kinds.get(0)) {
+                case "command" -> command(id, m, where, before);
+                case "http" -> http(id, m, where, before);
+                default -> simulated(id, m, where, before);
+            };
+        } catch (IllegalArgumentException e) {
+            // the readers check every rule first; this only keeps a missed rule from escaping unlocated
+            f.add(m, "", e.getMessage());
+            return null;
+        }
     }
 
-    private ActionDef command(Id id, YMap m, String where) {
+    private ActionDef command(Id id, YMap m, String where, int before) {
         Read.allowOnly(f, m, where, COMMAND_KEYS);
         YNode cmd = m.get("command").get();
         Duration timeout = Read.positiveDuration(f, m, "timeout", where, where + ".timeout", false);
@@ -125,12 +130,12 @@ final class ActionsReader {
             }
             argv.add(t);
         }
-        if (argv.size() != list.items().size()) return null;
+        if (f.problems().size() > before) return null;
         return new CommandAction(id, argv, timeout, idempotent != null && idempotent,
                 limit == null ? CommandAction.DEFAULT_OUTPUT_LIMIT : limit);
     }
 
-    private ActionDef http(Id id, YMap m, String where) {
+    private ActionDef http(Id id, YMap m, String where, int before) {
         Read.allowOnly(f, m, where, HTTP_ACTION_KEYS);
         String label = where + ".http";
         YMap h = f.asMap(m.get("http").get(), label);
@@ -149,7 +154,7 @@ final class ActionsReader {
         }).orElse(Map.of());
         Duration timeout = Read.positiveDuration(f, h, "timeout", label, label + ".timeout", false);
         Integer retries = Read.integer(f, h, "retries", label, label + ".retries", false, 0, 10);
-        if (url == null || body == null) return null;
+        if (f.problems().size() > before) return null;
         return new HttpAction(id, url, method, body, timeout, retries == null ? 0 : retries);
     }
 
@@ -200,7 +205,7 @@ final class ActionsReader {
         return t == null ? null : t.text();
     }
 
-    private ActionDef simulated(Id id, YMap m, String where) {
+    private ActionDef simulated(Id id, YMap m, String where, int before) {
         Read.allowOnly(f, m, where, SIMULATED_ACTION_KEYS);
         String label = where + ".simulated";
         YMap s = f.asMap(m.get("simulated").get(), label);
@@ -224,7 +229,7 @@ final class ActionsReader {
         }
         Double success = Read.probability(f, s, "success", label, label + ".success");
         List<Id> clears = f.values(s, "clears", label, Id::of);
-        if (min == null || max == null) return null;
+        if (f.problems().size() > before) return null;
         return new SimulatedAction(id, min, max, success == null ? 1.0 : success, clears);
     }
 }

@@ -25,7 +25,7 @@ import java.util.List;
 /** Reads {@code tend.yaml}, the fleet-wide policy. */
 final class ConfigReader {
     private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate");
-    private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "notify");
+    private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "notify", "release-after");
     private static final List<String> THRESHOLD = List.of("clusters", "fraction");
     private static final List<String> FREEZE = List.of("from", "until", "reason", "clusters");
 
@@ -62,6 +62,8 @@ final class ConfigReader {
         BrakeThreshold release = m.get("release-below").map(n -> threshold(n, "brake.release-below")).orElse(null);
         Boolean auto = Read.bool(f, m, "auto-release", "brake", "brake.auto-release");
         Id notify = Read.value(f, m, "notify", "brake", "brake.notify", false, Id::of);
+        java.time.Duration after = Read.value(f, m, "release-after", "brake", "brake.release-after", false,
+                dev.tend.shared.time.Durations::parse);
         if (engage != null && release != null) {
             try {
                 BrakePolicy.checkHysteresis(engage, release);
@@ -76,7 +78,8 @@ final class ConfigReader {
             return null;
         }
         if (engage == null || (m.has("release-below") && release == null)) return null;
-        return new BrakePolicy(engage, release, auto != null && auto, notify == null ? BrakePolicy.builtIn().notifyChannel() : notify);
+        return new BrakePolicy(engage, release, auto != null && auto, notify == null ? BrakePolicy.builtIn().notifyChannel() : notify,
+                after == null ? BrakePolicy.DEFAULT_RELEASE_AFTER : after);
     }
 
     private BrakeThreshold threshold(YNode node, String label) {

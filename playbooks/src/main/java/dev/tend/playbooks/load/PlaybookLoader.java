@@ -10,7 +10,9 @@ import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
 import dev.tend.shared.json.Sha256;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
+import dev.tend.shared.yaml.YScalar;
 import dev.tend.shared.yaml.YamlDocument;
 
 import java.io.IOException;
@@ -20,10 +22,10 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.HashMap;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.function.Function;
 import java.util.stream.Stream;
 
 /**
@@ -56,7 +58,7 @@ public final class PlaybookLoader {
      * when present, else {@link TendConfig#builtIn()}.
      */
     public static PlaybookSet load(Path dir, Path configFile) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         if (!Files.isDirectory(dir)) {
             throw new PlaybookInvalidException(List.of(Problem.at(dir.toString(), 0, 0, "", "is not a directory of playbooks")));
         }
@@ -66,25 +68,20 @@ public final class PlaybookLoader {
         TendConfig config = configFile != null || Files.exists(configPath) ? readConfig(configPath, problems) : TendConfig.builtIn();
 
         List<Path> files = playbookFiles(dir, problems);
-        List<Playbook> playbooks = new ArrayList<>();
-        Map<Id, Playbook> byId = new HashMap<>();
-        for (Path file : files) {
-            Playbook p = readFile(file, problems, (source, text) -> doc -> {
-                Fields f = new Fields(source);
-                Playbook pb = PlaybookReader.read(f, doc, Sha256.hex(text), catalog);
-                return new Parsed<>(pb, f.problems());
-            });
-            if (p == null) continue;
-            Playbook first = byId.putIfAbsent(p.id(), p);
-            if (first != null) {
-                problems.computeIfAbsent(p.source(), k -> new ArrayList<>()).add(Problem.at(p.source(), p.line(), p.column(), "playbook",
-                        "playbook id '" + p.id() + "' is already used by " + first.source() + ":" + first.line() + ":" + first.column()
-                                + "; playbook ids must be unique in a directory"));
-                continue;
-            }
-            playbooks.add(p);
+        if (configFile != null) {
+            // a policy file given explicitly may sit among the playbooks under another name
+            files = files.stream().filter(p -> !p.toAbsolutePath().normalize().equals(configFile.toAbsolutePath().normalize())).toList();
         }
-        if (files.isEmpty() && problems.isEmpty()) {
+        List<Playbook> playbooks = new ArrayList<>();
+        Map<Id, String> firstUse = new HashMap<>();
+        for (Path file : files) {
+            Playbook p = readFile(file, problems, (f, text, doc) -> {
+                checkUnique(f, doc, firstUse);
+                return PlaybookReader.read(f, doc, Sha256.hex(text), catalog);
+            });
+            if (p != null) playbooks.add(p);
+        }
+        if (files.isEmpty() && problems.values().stream().allMatch(List::isEmpty)) {
             problems.put(dir.toString(), List.of(Problem.at(dir.toString(), 0, 0, "",
                     "holds no playbook: no .yaml or .yml file other than actions.yaml, tend.yaml and fleet.yaml")));
         }
@@ -118,7 +115,7 @@ public final class PlaybookLoader {
 
     /** Loads one tend.yaml file. */
     public static TendConfig loadConfig(Path file) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         TendConfig c = readConfig(file, problems);
         throwIfAny(problems);
         return c;
@@ -126,37 +123,45 @@ public final class PlaybookLoader {
 
     /** Loads one actions.yaml file. */
     public static Actions loadActions(Path file) {
-        Map<String, List<Problem>> problems = new java.util.LinkedHashMap<>();
+        Map<String, List<Problem>> problems = new LinkedHashMap<>();
         ActionCatalog c = readActions(file, problems);
         throwIfAny(problems);
         return c.actions();
     }
 
-    private record Parsed<T>(T value, List<Problem> problems) {
+    /** Turns one parsed document into a value, recording its problems in {@code f}. */
+    private interface DocumentReader<T> {
+        T read(Fields f, byte[] text, YNode doc);
     }
 
-    private interface DocumentReader<T> {
-        Function<YNode, Parsed<T>> forFile(String source, byte[] text);
+    /** Playbook ids are compared as written, so a duplicate is found even in a file with other problems. */
+    private static void checkUnique(Fields f, YNode doc, Map<Id, String> firstUse) {
+        if (!(doc instanceof YMap m) || !(m.get("playbook").orElse(null) instanceof YScalar s) || !Id.isValid(s.value())) return;
+        String here = f.source() + ":" + s.line() + ":" + s.column();
+        String first = firstUse.putIfAbsent(Id.of(s.value()), here);
+        if (first != null) {
+            f.add(s, "playbook", "playbook id '" + s.value() + "' is already used by " + first
+                    + "; playbook ids must be unique in a directory");
+        }
     }
 
     private static ActionCatalog readActions(Path file, Map<String, List<Problem>> problems) {
-        ActionCatalog c = readFile(file, problems, (source, text) -> doc -> {
-            Fields f = new Fields(source);
+        ActionCatalog c = readFile(file, problems, (f, text, doc) -> {
             ActionsReader.Result r = ActionsReader.read(f, doc);
-            return new Parsed<>(new ActionCatalog(new Actions(r.actions(), source, Sha256.hex(text)), r.declared(), true), f.problems());
+            return new ActionCatalog(new Actions(r.actions(), f.source(), Sha256.hex(text)), r.declared(), true, true);
         });
-        return c != null ? c : new ActionCatalog(Actions.empty(), Set.of(), true);
+        return c != null ? c : ActionCatalog.unreadable();
     }
 
     private static TendConfig readConfig(Path file, Map<String, List<Problem>> problems) {
-        TendConfig c = readFile(file, problems, (source, text) -> doc -> {
-            Fields f = new Fields(source);
-            return new Parsed<>(ConfigReader.read(f, doc, Sha256.hex(text)), f.problems());
-        });
+        TendConfig c = readFile(file, problems, (f, text, doc) -> ConfigReader.read(f, doc, Sha256.hex(text)));
         return c != null ? c : TendConfig.builtIn();
     }
 
-    /** Reads, parses and converts one file; null (with problems recorded) when anything is wrong. */
+    /**
+     * Reads, parses and converts one file, recording its problems. Null when the file cannot
+     * be read or parsed; otherwise what {@code reader} made of it, which may be partial.
+     */
     private static <T> T readFile(Path file, Map<String, List<Problem>> problems, DocumentReader<T> reader) {
         String source = file.toString();
         List<Problem> mine = problems.computeIfAbsent(source, k -> new ArrayList<>());
@@ -177,9 +182,10 @@ public final class PlaybookLoader {
             mine.addAll(e.problems());
             return null;
         }
-        Parsed<T> parsed = reader.forFile(source, text).apply(doc);
-        mine.addAll(parsed.problems());
-        return parsed.problems().isEmpty() ? parsed.value() : null;
+        Fields f = new Fields(source);
+        T value = reader.read(f, text, doc);
+        mine.addAll(f.problems());
+        return value;
     }
 
     private static List<Path> playbookFiles(Path dir, Map<String, List<Problem>> problems) {

@@ -36,7 +36,7 @@ final class Read {
             String key = e.key().value();
             if (allowed.contains(key)) continue;
             String near = nearest(key, allowed);
-            f.add(e.key(), key, "unknown key '" + key + "' in " + where + (near == null ? "" : "; did you mean '" + near + "'?")
+            f.add(e.key(), key, "unknown key '" + key + "' in " + where + (near == null ? "" : " (did you mean '" + near + "'?)")
                     + "; the keys allowed here are: " + String.join(", ", new TreeSet<>(allowed)));
         }
     }

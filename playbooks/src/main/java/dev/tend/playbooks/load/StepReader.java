@@ -13,9 +13,11 @@ import dev.tend.shared.yaml.Fields;
 import dev.tend.shared.yaml.YList;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
+import dev.tend.shared.yaml.YScalar;
 
 import java.time.Duration;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 
@@ -31,7 +33,7 @@ final class StepReader {
     private final ActionCatalog actions;
     private final Scope scope;
     private final Map<String, Position> positions;
-    private final Map<Id, YNode> seen = new java.util.HashMap<>();
+    private final Map<Id, YNode> seen = new HashMap<>();
 
     /** {@code scope} is null when the playbook's own scope could not be read. */
     StepReader(Fields f, ActionCatalog actions, Scope scope, Map<String, Position> positions) {
@@ -60,8 +62,8 @@ final class StepReader {
         if (m == null) return null;
         List<String> kinds = new ArrayList<>();
         for (String k : KINDS) if (m.has(k)) kinds.add(k);
+        String label = label(m, section, n);
         Id id = stepId(m, section, n);
-        String label = section + "[" + (id != null ? id.value() : "#" + n) + "]";
         if (kinds.isEmpty()) {
             Read.allowOnly(f, m, label, ALL_KEYS);
             f.add(m, "", label + " does nothing: a step needs exactly one of 'action', 'wait-healthy' or 'notify'");
@@ -78,6 +80,12 @@ final class StepReader {
             case "wait-healthy" -> waitStep(m, id, label);
             default -> notifyStep(m, id, label);
         };
+    }
+
+    /** {@code steps[drain]} when the id is written and valid, else {@code steps[#3]} (1-based). */
+    private static String label(YMap m, String section, int n) {
+        String id = m.get("id").orElse(null) instanceof YScalar s && Id.isValid(s.value()) ? s.value() : "#" + n;
+        return section + "[" + id + "]";
     }
 
     private Id stepId(YMap m, String section, int n) {

@@ -1,6 +1,8 @@
 package dev.tend.shared.fleet;
 
 import dev.tend.shared.Id;
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
 import dev.tend.shared.yaml.Fields;
 import dev.tend.shared.yaml.YList;
 import dev.tend.shared.yaml.YMap;
@@ -10,15 +12,17 @@ import dev.tend.shared.yaml.YamlDocument;
 
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashSet;
+import java.util.Comparator;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
+import java.util.Optional;
 
 /**
  * Loads a fleet file (YAML or JSON, DESIGN.md section 3). Every problem is reported at
- * once, located, through {@link dev.tend.shared.InvalidInputException}.
+ * once, located and in reading order, through {@link InvalidInputException}; messages
+ * name the place by path, e.g. {@code clusters[0].replication.min-in-sync}.
  */
 public final class FleetFile {
     private static final List<String> TOP = List.of("fleet", "clusters");
@@ -39,49 +43,52 @@ public final class FleetFile {
 
     private static Fleet parse(String source, YNode root) {
         Fields f = new Fields(source);
-        YMap top = f.asMap(root, "fleet file");
-        if (top == null) {
-            f.throwIfAny();
-        }
+        YMap top = f.asMap(root, "a fleet file");
+        if (top == null) throw invalid(f);
         f.allowOnly(top, "the fleet file", TOP);
-        String name = f.string(top, "fleet", "the fleet file", true);
+        String name = null;
+        Optional<YNode> nameNode = f.node(top, "fleet", "the fleet file", true);
+        if (nameNode.isPresent()) name = f.parsedNode(nameNode.get(), "fleet", v -> v);
         List<ClusterSpec> clusters = new ArrayList<>();
-        Set<Id> seen = new HashSet<>();
-        YList list = top.get("clusters").map(n -> f.asList(n, "clusters")).orElse(null);
-        if (list == null && !top.has("clusters")) f.add(top, "clusters", "the fleet file needs 'clusters'");
+        Map<Id, Integer> seen = new HashMap<>();
+        Optional<YNode> listNode = f.node(top, "clusters", "the fleet file", true);
+        YList list = listNode.map(n -> f.asList(n, "clusters")).orElse(null);
         if (list != null) {
-            for (YNode item : list.items()) {
-                ClusterSpec c = cluster(f, item);
+            for (int i = 0; i < list.items().size(); i++) {
+                YNode item = list.items().get(i);
+                ClusterSpec c = cluster(f, item, "clusters[" + i + "]");
                 if (c == null) continue;
-                if (!seen.add(c.id())) {
-                    f.add(item, "id", "cluster " + c.id() + " is listed twice");
+                Integer first = seen.putIfAbsent(c.id(), i);
+                if (first != null) {
+                    f.add(item, "id", "clusters[" + i + "]: cluster " + c.id() + " is listed twice; the first is clusters[" + first + "]");
                     continue;
                 }
                 clusters.add(c);
             }
         }
-        f.throwIfAny();
+        if (f.hasProblems()) throw invalid(f);
         return Fleet.of(name, clusters);
     }
 
-    private static ClusterSpec cluster(Fields f, YNode node) {
-        YMap m = f.asMap(node, "clusters[]");
+    /** Null after recording a problem. {@code where} is the cluster's path, e.g. {@code clusters[0]}. */
+    private static ClusterSpec cluster(Fields f, YNode node, String where) {
+        YMap m = f.asMap(node, where);
         if (m == null) return null;
-        f.allowOnly(m, "a cluster", CLUSTER);
-        Id id = f.id(m, "id", "a cluster", true);
-        String where = "cluster " + (id == null ? "?" : id.value());
+        f.allowOnly(m, where, CLUSTER);
+        Id id = f.id(m, "id", where, true);
         Map<String, String> tags = tags(f, m, where);
         Replication replication = null;
         if (m.has("replication")) {
-            YMap r = f.asMap(m.get("replication").get(), "replication");
+            String rw = where + ".replication";
+            YMap r = f.asMap(m.get("replication").get(), rw);
             if (r != null) {
-                f.allowOnly(r, where + " replication", REPLICATION);
-                Integer factor = f.integer(r, "factor", where + " replication", true, 1, 100);
-                Integer min = f.integer(r, "min-in-sync", where + " replication", true, 1, 100);
+                f.allowOnly(r, rw, REPLICATION);
+                Integer factor = f.integer(r, "factor", rw, true, 1, 100);
+                Integer min = f.integer(r, "min-in-sync", rw, true, 1, 100);
                 if (factor != null && min != null) {
                     if (min > factor) {
-                        f.add(r.get("min-in-sync").get(), "min-in-sync", where + ": replication.min-in-sync (" + min
-                                + ") cannot exceed replication.factor (" + factor + ")");
+                        f.add(r.get("min-in-sync").get(), "min-in-sync", rw + ".min-in-sync (" + min
+                                + ") cannot exceed " + rw + ".factor (" + factor + "): a write could never be accepted");
                     } else {
                         replication = new Replication(factor, min);
                     }
@@ -90,19 +97,22 @@ public final class FleetFile {
         }
         Boolean quorum = f.bool(m, "quorum", where, false);
         List<NodeSpec> nodes = new ArrayList<>();
-        Set<Id> seen = new HashSet<>();
-        YList list = m.get("nodes").map(n -> f.asList(n, where + " nodes")).orElse(null);
+        Map<Id, Integer> seen = new HashMap<>();
+        YList list = m.get("nodes").map(n -> f.asList(n, where + ".nodes")).orElse(null);
         if (list != null) {
-            for (YNode item : list.items()) {
-                YMap nm = f.asMap(item, where + " nodes[]");
+            for (int i = 0; i < list.items().size(); i++) {
+                YNode item = list.items().get(i);
+                String nw = where + ".nodes[" + i + "]";
+                YMap nm = f.asMap(item, nw);
                 if (nm == null) continue;
-                f.allowOnly(nm, "a node of " + where, NODE);
-                Id nid = f.id(nm, "id", "a node of " + where, true);
-                String zone = f.parsed(nm, "zone", "a node of " + where, false, z -> Id.of(z).value());
-                Map<String, String> ntags = tags(f, nm, "node " + nid);
+                f.allowOnly(nm, nw, NODE);
+                Id nid = f.id(nm, "id", nw, true);
+                String zone = f.parsed(nm, "zone", nw, false, z -> Id.of(z).value());
+                Map<String, String> ntags = tags(f, nm, nw);
                 if (nid == null) continue;
-                if (!seen.add(nid)) {
-                    f.add(item, "id", "node " + nid + " is listed twice in " + where);
+                Integer first = seen.putIfAbsent(nid, i);
+                if (first != null) {
+                    f.add(item, "id", nw + ": node " + nid + " is listed twice; the first is " + where + ".nodes[" + first + "]");
                     continue;
                 }
                 nodes.add(new NodeSpec(nid, zone, ntags));
@@ -115,12 +125,20 @@ public final class FleetFile {
     private static Map<String, String> tags(Fields f, YMap m, String where) {
         Map<String, String> tags = new LinkedHashMap<>();
         if (!m.has("tags")) return tags;
-        YMap t = f.asMap(m.get("tags").get(), where + " tags");
+        YMap t = f.asMap(m.get("tags").get(), where + ".tags");
         if (t == null) return tags;
         for (YMap.Entry e : t.entries()) {
             if (e.value() instanceof YScalar s && !s.plainNull()) tags.put(e.key().value(), s.value());
-            else f.add(e.value(), e.key().value(), where + ": tag '" + e.key().value() + "' must be a single value");
+            else f.add(e.value(), e.key().value(), where + ".tags." + e.key().value() + " must be a single value, got "
+                    + Fields.kindOf(e.value()));
         }
         return tags;
+    }
+
+    /** Every problem recorded, in reading order (by line, then column), so a person can fix the file top to bottom. */
+    private static InvalidInputException invalid(Fields f) {
+        List<Problem> problems = new ArrayList<>(f.problems());
+        problems.sort(Comparator.comparingInt(Problem::line).thenComparingInt(Problem::column));
+        return new InvalidInputException(problems);
     }
 }

@@ -26,14 +26,18 @@ public final class Durations {
         }
         Duration d = Duration.ZERO;
         Matcher m = PART.matcher(text);
-        while (m.find()) {
-            long n = Long.parseLong(m.group(1));
-            d = d.plus(switch (m.group(2)) {
-                case "s" -> Duration.ofSeconds(n);
-                case "m" -> Duration.ofMinutes(n);
-                case "h" -> Duration.ofHours(n);
-                default -> Duration.ofDays(n);
-            });
+        try {
+            while (m.find()) {
+                long n = Long.parseLong(m.group(1));
+                d = d.plus(switch (m.group(2)) {
+                    case "s" -> Duration.ofSeconds(n);
+                    case "m" -> Duration.ofMinutes(n);
+                    case "h" -> Duration.ofHours(n);
+                    default -> Duration.ofDays(n);
+                });
+            }
+        } catch (NumberFormatException | ArithmeticException tooBig) {
+            throw new IllegalArgumentException("a duration must be shorter than 292 billion years, got '" + text + "'");
         }
         return d;
     }

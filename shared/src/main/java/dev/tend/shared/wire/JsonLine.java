@@ -9,9 +9,12 @@ import com.fasterxml.jackson.core.io.JsonEOFException;
 import java.io.IOException;
 import java.math.BigInteger;
 import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 
 /**
  * One line taken apart into its top-level fields, in line order, each with the column
@@ -19,20 +22,65 @@ import java.util.Map;
  * List, String, Integer/Long/BigInteger, Double, Boolean, null. Duplicate keys, at any
  * depth, and numbers no 64-bit float can hold are rejected, so that every value read can
  * be written back and canonicalized (RFC 8785) unchanged.
+ *
+ * <p>Each line gets its own instance, confined to the thread parsing it; fields are kept in
+ * small arrays rather than a map, as a line has only a handful.
  */
 final class JsonLine {
-    /** A top-level field; {@code column} is 1-based, where the value starts. */
-    record Field(String name, Object value, int column) {
-    }
+    /** Past this many fields, duplicates are looked up in a set rather than by scanning. */
+    private static final int SCAN_LIMIT = 32;
+
+    private String[] names = new String[8];
+    private Object[] values = new Object[8];
+    private int[] columns = new int[8];
+    private int size;
+    private Set<String> seen;
 
     private JsonLine() {
     }
 
+    int size() {
+        return size;
+    }
+
+    String name(int i) {
+        return names[i];
+    }
+
+    Object value(int i) {
+        return values[i];
+    }
+
+    /** 1-based column where field {@code i}'s value starts. */
+    int column(int i) {
+        return columns[i];
+    }
+
+    /** The index of field {@code name}, or -1 when the line does not have it. */
+    int indexOf(String name) {
+        for (int i = 0; i < size; i++) {
+            if (names[i] == name) return i; // Jackson interns field names
+        }
+        for (int i = 0; i < size; i++) {
+            if (names[i].equals(name)) return i;
+        }
+        return -1;
+    }
+
+    boolean has(String name) {
+        return indexOf(name) >= 0;
+    }
+
     /** The fields of {@code line}, which must hold exactly one JSON object. */
-    static Map<String, Field> parse(String line) throws LineRejected {
+    static JsonLine parse(String line) throws LineRejected {
+        JsonLine fields = new JsonLine();
+        fields.read(line);
+        return fields;
+    }
+
+    private void read(String line) throws LineRejected {
         try (JsonParser p = WireJson.FACTORY.createParser(line)) {
             JsonToken t;
-            Map<String, Field> fields = new LinkedHashMap<>(16);
             try {
                 t = p.nextToken();
                 if (t != JsonToken.START_OBJECT) {
@@ -42,30 +90,51 @@ final class JsonLine {
                 while ((t = p.nextToken()) == JsonToken.FIELD_NAME) {
                     String name = p.currentName();
                     int nameColumn = column(p.currentTokenLocation());
-                    t = p.nextToken();
-                    int valueColumn = column(p.currentTokenLocation());
-                    Object value = value(p, t, name);
-                    if (fields.putIfAbsent(name, new Field(name, value, valueColumn)) != null) {
+                    if (isDuplicate(name)) {
                         throw new LineRejected(nameColumn, name, "field '" + WireText.shown(name) + "' is given twice");
                     }
+                    t = p.nextToken();
+                    int valueColumn = column(p.currentTokenLocation());
+                    add(name, value(p, t, name), valueColumn);
                 }
             } catch (JsonProcessingException e) {
                 throw notJson(e);
             }
+            int after;
             try {
                 t = p.nextToken();
+                after = column(p.currentTokenLocation());
             } catch (JsonProcessingException e) {
                 t = JsonToken.NOT_AVAILABLE;
+                after = e.getLocation() == null ? 0 : column(e.getLocation());
             }
             if (t != null) {
-                throw new LineRejected(column(p.currentLocation()), "",
-                        "this line goes on after its JSON object ends: each line holds one JSON object");
+                throw new LineRejected(after, "", "this line goes on after its JSON object ends: each line holds one JSON object");
             }
-            return fields;
         } catch (IOException e) {
             // a String source cannot fail to read; Jackson declares it all the same
             throw new LineRejected(0, "", "this line is not JSON: " + e.getMessage());
         }
+    }
+
+    private boolean isDuplicate(String name) {
+        if (seen != null) return seen.contains(name);
+        if (indexOf(name) >= 0) return true;
+        if (size == SCAN_LIMIT) seen = new HashSet<>(Arrays.asList(names).subList(0, size));
+        return false;
+    }
+
+    private void add(String name, Object value, int column) {
+        if (size == names.length) {
+            names = Arrays.copyOf(names, size * 2);
+            values = Arrays.copyOf(values, size * 2);
+            columns = Arrays.copyOf(columns, size * 2);
+        }
+        names[size] = name;
+        values[size] = value;
+        columns[size] = column;
+        size++;
+        if (seen != null) seen.add(name);
     }
 
     private static Object value(JsonParser p, JsonToken t, String field) throws IOException, LineRejected {
@@ -128,10 +197,11 @@ final class JsonLine {
 
     private static LineRejected notJson(JsonProcessingException e) {
         int col = e.getLocation() == null ? 0 : column(e.getLocation());
-        if (e instanceof JsonEOFException) {
+        String original = e.getOriginalMessage();
+        if (e instanceof JsonEOFException || (original != null && original.startsWith("Unexpected end-of-input"))) {
             return new LineRejected(col, "", "this line is not JSON: it ends before the JSON object is closed");
         }
-        return new LineRejected(col, "", "this line is not JSON: " + plain(e.getOriginalMessage()));
+        return new LineRejected(col, "", "this line is not JSON: " + plain(original));
     }
 
     /** Jackson's message without its location notes and source excerpts. */

@@ -5,12 +5,10 @@ import dev.tend.shared.Id;
 import dev.tend.shared.SignalState;
 import dev.tend.shared.TopologyChange;
 import dev.tend.shared.TopologyEvent;
-import dev.tend.shared.wire.JsonLine.Field;
 
 import java.time.Instant;
 import java.util.LinkedHashMap;
 import java.util.Map;
-import java.util.Set;
 
 /**
  * Turns the fields of one line into a health transition, a topology event or a recording
@@ -18,135 +16,150 @@ import java.util.Set;
  * rejects the line. Optional fields that are null count as absent.
  */
 final class LineDecoder {
-    private static final Set<String> TRANSITION = Set.of("at", "cluster", "node", "signal", "state", "detail");
-    private static final Set<String> TOPOLOGY = Set.of("at", "cluster", "node", "topology", "attrs");
+    private static final int ABSENT = -1;
 
     private LineDecoder() {
     }
 
-    static HealthTransition transition(Map<String, Field> f) throws LineRejected {
-        Instant at = time(f, "at", true);
-        Id cluster = id(f, "cluster", "fares-3", true);
-        Id node = id(f, "node", "n2", false);
-        Id signal = id(f, "signal", "storage-full", true);
-        Field s = required(f, "state");
-        SignalState state = switch (s.value() instanceof String v ? v : "") {
+    static HealthTransition transition(JsonLine l) throws LineRejected {
+        Instant at = time(l, "at", true);
+        Id cluster = id(l, "cluster", "fares-3", true);
+        Id node = id(l, "node", "n2", false);
+        Id signal = id(l, "signal", "storage-full", true);
+        int s = required(l, "state");
+        SignalState state = switch (l.value(s) instanceof String v ? v : "") {
             case "breach" -> SignalState.BREACH;
             case "silent" -> SignalState.SILENT;
             case "clear" -> SignalState.CLEAR;
-            default -> throw rejected(s, "field 'state' must be breach, silent or clear, got " + WireText.got(s.value()));
+            default -> throw rejected(l, s, "field 'state' must be breach, silent or clear, got " + WireText.got(l.value(s)));
         };
-        Map<String, Object> detail = object(f, "detail", "{\"used_pct\":97.5}");
-        return new HealthTransition(at, cluster, node, signal, state, detail, extra(f, TRANSITION));
+        Map<String, Object> detail = object(l, "detail", "{\"used_pct\":97.5}");
+        return new HealthTransition(at, cluster, node, signal, state, detail, extra(l, LineDecoder::isTransitionField));
     }
 
-    static TopologyEvent topology(Map<String, Field> f) throws LineRejected {
-        Instant at = time(f, "at", true);
-        Id cluster = id(f, "cluster", "fares-3", true);
-        if (absent(f.get("node"))) {
+    static TopologyEvent topology(JsonLine l) throws LineRejected {
+        Instant at = time(l, "at", true);
+        Id cluster = id(l, "cluster", "fares-3", true);
+        if (absent(l, l.indexOf("node"))) {
             throw new LineRejected(0, "node", "missing field 'node': a topology event names the node that joined, left or changed");
         }
-        Id node = id(f, "node", "n4", true);
-        Field t = required(f, "topology");
-        TopologyChange change = switch (t.value() instanceof String v ? v : "") {
+        Id node = id(l, "node", "n4", true);
+        int t = required(l, "topology");
+        TopologyChange change = switch (l.value(t) instanceof String v ? v : "") {
             case "joined" -> TopologyChange.JOINED;
             case "left" -> TopologyChange.LEFT;
             case "changed" -> TopologyChange.CHANGED;
-            default -> throw rejected(t, "field 'topology' must be joined, left or changed, got " + WireText.got(t.value()));
+            default -> throw rejected(l, t, "field 'topology' must be joined, left or changed, got " + WireText.got(l.value(t)));
         };
-        Map<String, Object> attrs = object(f, "attrs", "{\"zone\":\"z-b\"}");
-        return new TopologyEvent(at, cluster, node, change, attrs, extra(f, TOPOLOGY));
+        Map<String, Object> attrs = object(l, "attrs", "{\"zone\":\"z-b\"}");
+        return new TopologyEvent(at, cluster, node, change, attrs, extra(l, LineDecoder::isTopologyField));
     }
 
-    static RecordingHeader header(Map<String, Field> f) throws LineRejected {
-        Field r = f.get("recording");
-        if (!(r.value() instanceof String name) || name.isBlank()) {
-            throw rejected(r, "field 'recording' must be the recording's name, a non-empty string, got " + WireText.got(r.value()));
+    static RecordingHeader header(JsonLine l) throws LineRejected {
+        int r = l.indexOf("recording");
+        if (!(l.value(r) instanceof String name) || name.isBlank()) {
+            throw rejected(l, r, "field 'recording' must be the recording's name, a non-empty string, got " + WireText.got(l.value(r)));
         }
         if (name.length() > RecordingHeader.MAX_NAME) {
-            throw rejected(r, "field 'recording': the name is at most " + RecordingHeader.MAX_NAME
+            throw rejected(l, r, "field 'recording': the name is at most " + RecordingHeader.MAX_NAME
                     + " characters, got " + name.length());
         }
         String path = null;
         Map<String, Object> inline = null;
-        Field fleet = f.get("fleet");
-        if (!absent(fleet)) {
-            if (fleet.value() instanceof String p && !p.isBlank()) {
+        int fleet = l.indexOf("fleet");
+        if (!absent(l, fleet)) {
+            if (l.value(fleet) instanceof String p && !p.isBlank()) {
                 path = p;
-            } else if (fleet.value() instanceof Map<?, ?>) {
-                inline = asObject(fleet.value());
+            } else if (l.value(fleet) instanceof Map<?, ?>) {
+                inline = asObject(l.value(fleet));
             } else {
-                throw rejected(fleet, "field 'fleet' must be a fleet file's path (a string) or the fleet inline (an object), got "
-                        + WireText.got(fleet.value()));
+                throw rejected(l, fleet, "field 'fleet' must be a fleet file's path (a string) or the fleet inline (an object), got "
+                        + WireText.got(l.value(fleet)));
             }
         }
-        Instant from = time(f, "from", false);
-        Instant until = time(f, "until", false);
+        Instant from = time(l, "from", false);
+        Instant until = time(l, "until", false);
         if (from != null && until != null && until.isBefore(from)) {
-            throw rejected(f.get("until"), "field 'until': " + Rfc3339.format(until) + " is before 'from' (" + Rfc3339.format(from) + ")");
+            throw rejected(l, l.indexOf("until"), "field 'until': " + Rfc3339.format(until) + " is before 'from' ("
+                    + Rfc3339.format(from) + ")");
         }
-        Field d = f.get("description");
+        int d = l.indexOf("description");
         String description = null;
-        if (!absent(d)) {
-            if (!(d.value() instanceof String text)) {
-                throw rejected(d, "field 'description' must be a string, got " + WireText.got(d.value()));
+        if (!absent(l, d)) {
+            if (!(l.value(d) instanceof String text)) {
+                throw rejected(l, d, "field 'description' must be a string, got " + WireText.got(l.value(d)));
             }
             description = text;
         }
-        return new RecordingHeader(name, path, inline, from, until, description, extra(f, RecordingHeader.FIELDS));
+        return new RecordingHeader(name, path, inline, from, until, description, extra(l, RecordingHeader.FIELDS::contains));
     }
 
-    private static Instant time(Map<String, Field> f, String name, boolean required) throws LineRejected {
-        Field x = required ? required(f, name) : f.get(name);
-        if (!required && absent(x)) return null;
-        if (!(x.value() instanceof String text)) {
-            throw rejected(x, "field '" + name + "' must be an RFC 3339 time with a zone (like " + Rfc3339.EXAMPLE
-                    + "), got " + WireText.got(x.value()));
+    private static boolean isTransitionField(String name) {
+        return switch (name) {
+            case "at", "cluster", "node", "signal", "state", "detail" -> true;
+            default -> false;
+        };
+    }
+
+    private static boolean isTopologyField(String name) {
+        return switch (name) {
+            case "at", "cluster", "node", "topology", "attrs" -> true;
+            default -> false;
+        };
+    }
+
+    private static Instant time(JsonLine l, String name, boolean required) throws LineRejected {
+        int i = required ? required(l, name) : l.indexOf(name);
+        if (!required && absent(l, i)) return null;
+        if (!(l.value(i) instanceof String text)) {
+            throw rejected(l, i, "field '" + name + "' must be an RFC 3339 time with a zone (like " + Rfc3339.EXAMPLE
+                    + "), got " + WireText.got(l.value(i)));
         }
         try {
             return Rfc3339.parse(text);
         } catch (IllegalArgumentException e) {
-            throw rejected(x, "field '" + name + "': " + e.getMessage());
+            throw rejected(l, i, "field '" + name + "': " + e.getMessage());
         }
     }
 
-    private static Id id(Map<String, Field> f, String name, String example, boolean required) throws LineRejected {
-        Field x = required ? required(f, name) : f.get(name);
-        if (!required && absent(x)) return null;
-        if (!(x.value() instanceof String text)) {
-            throw rejected(x, "field '" + name + "' must be an id (a string like " + example + "), got " + WireText.got(x.value()));
+    private static Id id(JsonLine l, String name, String example, boolean required) throws LineRejected {
+        int i = required ? required(l, name) : l.indexOf(name);
+        if (!required && absent(l, i)) return null;
+        if (!(l.value(i) instanceof String text)) {
+            throw rejected(l, i, "field '" + name + "' must be an id (a string like " + example + "), got " + WireText.got(l.value(i)));
         }
-        if (!Id.isValid(text)) throw rejected(x, "field '" + name + "': " + Id.describeInvalid(text));
+        if (!Id.isValid(text)) throw rejected(l, i, "field '" + name + "': " + Id.describeInvalid(text));
         return new Id(text);
     }
 
-    private static Map<String, Object> object(Map<String, Field> f, String name, String example) throws LineRejected {
-        Field x = f.get(name);
-        if (absent(x)) return Map.of();
-        if (!(x.value() instanceof Map<?, ?>)) {
-            throw rejected(x, "field '" + name + "' must be an object (like " + example + "), got " + WireText.got(x.value()));
+    private static Map<String, Object> object(JsonLine l, String name, String example) throws LineRejected {
+        int i = l.indexOf(name);
+        if (absent(l, i)) return Map.of();
+        if (!(l.value(i) instanceof Map<?, ?>)) {
+            throw rejected(l, i, "field '" + name + "' must be an object (like " + example + "), got " + WireText.got(l.value(i)));
         }
-        return asObject(x.value());
+        return asObject(l.value(i));
     }
 
-    /** Every field not in {@code known}, in line order. */
-    private static Map<String, Object> extra(Map<String, Field> f, Set<String> known) {
-        if (f.size() <= known.size() && known.containsAll(f.keySet())) return Map.of();
-        Map<String, Object> extra = new LinkedHashMap<>();
-        for (Field x : f.values()) {
-            if (!known.contains(x.name())) extra.put(x.name(), x.value());
+    /** Every field that {@code known} does not claim, in line order. */
+    private static Map<String, Object> extra(JsonLine l, java.util.function.Predicate<String> known) {
+        Map<String, Object> extra = null;
+        for (int i = 0; i < l.size(); i++) {
+            if (known.test(l.name(i))) continue;
+            if (extra == null) extra = new LinkedHashMap<>();
+            extra.put(l.name(i), l.value(i));
         }
-        return extra;
+        return extra == null ? Map.of() : extra;
     }
 
-    private static Field required(Map<String, Field> f, String name) throws LineRejected {
-        Field x = f.get(name);
-        if (x == null) throw new LineRejected(0, name, "missing field '" + name + "'");
-        return x;
+    private static int required(JsonLine l, String name) throws LineRejected {
+        int i = l.indexOf(name);
+        if (i == ABSENT) throw new LineRejected(0, name, "missing field '" + name + "'");
+        return i;
     }
 
-    private static boolean absent(Field x) {
-        return x == null || x.value() == null;
+    private static boolean absent(JsonLine l, int i) {
+        return i == ABSENT || l.value(i) == null;
     }
 
     @SuppressWarnings("unchecked")
@@ -155,7 +168,7 @@ final class LineDecoder {
         return (Map<String, Object>) v;
     }
 
-    private static LineRejected rejected(Field at, String message) {
-        return new LineRejected(at.column(), at.name(), message);
+    private static LineRejected rejected(JsonLine l, int i, String message) {
+        return new LineRejected(l.column(i), l.name(i), message);
     }
 }

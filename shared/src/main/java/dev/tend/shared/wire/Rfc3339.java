@@ -35,15 +35,18 @@ public final class Rfc3339 {
     public static final String EXAMPLE = "2027-03-14T02:17:00Z";
 
     private static final int MAX_FRACTION_DIGITS = 9;
+    private static final long FIRST_SECOND = -62_167_219_200L; // 0000-01-01T00:00:00Z
+    private static final long LAST_SECOND = 253_402_300_799L; // 9999-12-31T23:59:59Z
     private static final int[] POW10 = {1, 10, 100, 1_000, 10_000, 100_000, 1_000_000, 10_000_000, 100_000_000};
 
     private Rfc3339() {
     }
 
     /**
-     * Parses an RFC 3339 date-time with a zone.
+     * Parses an RFC 3339 date-time with a zone. The instant must fall within the years 0000
+     * to 9999 in UTC as well, so that {@link #format} can always write it back.
      *
-     * @throws IllegalArgumentException (never null input accepted) with a message such as
+     * @throws IllegalArgumentException for null, or with a message such as
      *         {@code '2027-03-14 02:17' is not an RFC 3339 time with a zone (like 2027-03-14T02:17:00Z)},
      *         followed by the specific reason where there is one
      */
@@ -78,7 +81,7 @@ public final class Rfc3339 {
         }
         int offsetSeconds = offset(text, i);
         if (month < 1 || month > 12) throw invalid(text, "the month must be 01 to 12");
-        int lastDay = LocalDate.of(year, month, 1).lengthOfMonth();
+        int lastDay = lengthOfMonth(year, month);
         if (day < 1 || day > lastDay) {
             throw invalid(text, "the day must be 01 to " + lastDay + " in " + text.substring(0, 7));
         }
@@ -86,8 +89,11 @@ public final class Rfc3339 {
         if (minute > 59) throw invalid(text, "the minute must be 00 to 59");
         if (second > 60) throw invalid(text, "the second must be 00 to 59 (60 only for a leap second)");
         boolean leap = second == 60;
-        long epochSecond = LocalDate.of(year, month, day).toEpochDay() * 86_400L
+        long epochSecond = epochDay(year, month, day) * 86_400L
                 + hour * 3_600L + minute * 60L + (leap ? 59 : second) - offsetSeconds;
+        if (epochSecond < FIRST_SECOND || epochSecond > LAST_SECOND) {
+            throw invalid(text, "in UTC it falls outside the years 0000 to 9999");
+        }
         if (leap) {
             LocalDateTime utc = LocalDateTime.ofEpochSecond(epochSecond, 0, ZoneOffset.UTC);
             boolean endOfMonth = utc.getHour() == 23 && utc.getMinute() == 59
@@ -137,6 +143,25 @@ public final class Rfc3339 {
         }
         out[len++] = 'Z';
         return new String(out, 0, len);
+    }
+
+    private static int lengthOfMonth(int year, int month) {
+        return switch (month) {
+            case 2 -> (year % 4 == 0 && (year % 100 != 0 || year % 400 == 0)) ? 29 : 28;
+            case 4, 6, 9, 11 -> 30;
+            default -> 31;
+        };
+    }
+
+    /** Days since 1970-01-01 of a valid proleptic Gregorian date of years 0 to 9999, without allocating. */
+    private static long epochDay(int year, int month, int day) {
+        // the classic days-from-civil computation: counting years from March puts the leap day last
+        int y = month <= 2 ? year - 1 : year;
+        int era = Math.floorDiv(y, 400);
+        int yearOfEra = y - era * 400;
+        int dayOfYear = (153 * (month + (month > 2 ? -3 : 9)) + 2) / 5 + day - 1;
+        int dayOfEra = yearOfEra * 365 + yearOfEra / 4 - yearOfEra / 100 + dayOfYear;
+        return era * 146_097L + dayOfEra - 719_468L;
     }
 
     private static int offset(String text, int i) {

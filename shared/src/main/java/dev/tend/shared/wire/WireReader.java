@@ -2,14 +2,12 @@ package dev.tend.shared.wire;
 
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
-import dev.tend.shared.wire.JsonLine.Field;
 
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.Reader;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Objects;
 import java.util.function.Consumer;
 
@@ -38,15 +36,18 @@ import java.util.function.Consumer;
  * <p>A rejected line becomes a {@link LineResult.Bad} whose {@link Problem} names the
  * source, line, the column where the offending value starts (0 when nothing on the line
  * is at fault, as for a missing field), the field, and a sentence such as
- * {@code events.jsonl:7:34: field 'cluster': 'fares 3' is not an id: use letters, digits and . _ : - only, starting with a letter or digit}.
+ * {@code events.jsonl:7:40: field 'cluster': 'fares 3' is not an id: use letters, digits and . _ : - only, starting with a letter or digit}.
  * A line is checked field by field in written order (at, cluster, node, signal, state,
  * detail); the first problem rejects it.
  *
  * <p>The reader does not order events: late and out-of-order lines are handed on in line
  * order, and ordering by event time is the fleet view's job.
  *
- * <p>One reader follows one input (it remembers the header and the first event); it is
- * not thread-safe. The JSON machinery behind it is shared by all readers.
+ * <p>One reader follows one input: it remembers the header and the first event, so lines
+ * must be given in order. {@link #parseLine} may also be called from several threads for
+ * independent lines (journal rows, HTTP bodies); each call keeps its work to itself, and
+ * only the header rule then depends on the order of calls. The JSON machinery behind it
+ * is shared by all readers.
  */
 public final class WireReader {
     /** How many problems {@link #readAll} keeps; later bad lines are only counted. */
@@ -55,8 +56,8 @@ public final class WireReader {
     private static final char BYTE_ORDER_MARK = '\uFEFF';
 
     private final String source;
-    private long headerLine;
-    private long firstEventLine;
+    private volatile long headerLine;
+    private volatile long firstEventLine;
 
     private WireReader(String source) {
         this.source = Objects.requireNonNull(source, "source");
@@ -81,18 +82,18 @@ public final class WireReader {
     public LineResult parseLine(String line, long lineNumber) {
         if (line.isBlank()) return new LineResult.Blank(lineNumber);
         try {
-            Map<String, Field> fields = JsonLine.parse(line);
-            if (fields.containsKey("recording")) return header(fields, lineNumber);
-            boolean transition = fields.containsKey("signal");
-            boolean topology = fields.containsKey("topology");
-            if (transition && topology) {
-                throw new LineRejected(fields.get("topology").column(), "topology", "this line has both 'signal' and"
+            JsonLine fields = JsonLine.parse(line);
+            if (fields.has("recording")) return header(fields, lineNumber);
+            boolean transition = fields.has("signal");
+            int topology = fields.indexOf("topology");
+            if (transition && topology >= 0) {
+                throw new LineRejected(fields.column(topology), "topology", "this line has both 'signal' and"
                         + " 'topology': a line is a health transition or a topology event, not both");
             }
             LineResult result;
-            if (topology) {
+            if (topology >= 0) {
                 result = new LineResult.Event(LineDecoder.topology(fields), lineNumber);
-            } else if (transition || fields.containsKey("state")) {
+            } else if (transition || fields.has("state")) {
                 result = new LineResult.Event(LineDecoder.transition(fields), lineNumber);
             } else {
                 throw new LineRejected(0, "", "this line is neither a health transition (it needs 'signal' and 'state')"
@@ -150,14 +151,14 @@ public final class WireReader {
         }
     }
 
-    private LineResult header(Map<String, Field> fields, long lineNumber) throws LineRejected {
-        Field r = fields.get("recording");
+    private LineResult header(JsonLine fields, long lineNumber) throws LineRejected {
+        int column = fields.column(fields.indexOf("recording"));
         if (firstEventLine != 0) {
-            throw new LineRejected(r.column(), "recording", "a recording header must come before the first event (line "
+            throw new LineRejected(column, "recording", "a recording header must come before the first event (line "
                     + firstEventLine + ")");
         }
         if (headerLine != 0) {
-            throw new LineRejected(r.column(), "recording", "a recording has one header; the first is at line " + headerLine);
+            throw new LineRejected(column, "recording", "a recording has one header; the first is at line " + headerLine);
         }
         RecordingHeader header = LineDecoder.header(fields);
         headerLine = lineNumber;

@@ -55,14 +55,14 @@ public final class Fields {
     /** {@code node} as a mapping, or null after recording a problem. */
     public YMap asMap(YNode node, String field) {
         if (node instanceof YMap m) return m;
-        add(node, field, field + " must be a mapping (key: value), got " + node.kind());
+        add(node, field, field + " must be a mapping (key: value), got " + kindOf(node));
         return null;
     }
 
     /** {@code node} as a list, or null after recording a problem. */
     public YList asList(YNode node, String field) {
         if (node instanceof YList l) return l;
-        add(node, field, field + " must be a list, got " + node.kind());
+        add(node, field, field + " must be a list, got " + kindOf(node));
         return null;
     }
 
@@ -87,7 +87,7 @@ public final class Fields {
         Optional<YNode> n = node(map, key, where, required);
         if (n.isEmpty()) return null;
         if (n.get() instanceof YScalar s && !s.plainNull()) return s.value();
-        add(n.get(), key, where + "." + key + " must be a value, got " + n.get().kind());
+        add(n.get(), key, where + "." + key + " must be a value, got " + kindOf(n.get()));
         return null;
     }
 
@@ -99,7 +99,7 @@ public final class Fields {
 
     public <T> T parsedNode(YNode node, String field, Function<String, T> parser) {
         if (!(node instanceof YScalar s) || s.plainNull()) {
-            add(node, field, field + " must be a value, got " + (node instanceof YScalar ? "nothing" : node.kind()));
+            add(node, field, field + " must be a value, got " + kindOf(node));
             return null;
         }
         try {
@@ -150,6 +150,11 @@ public final class Fields {
             case "false", "no", "off" -> Boolean.FALSE;
             default -> throw new IllegalArgumentException("must be true or false, got '" + v + "'");
         });
+    }
+
+    /** What {@code node} is, for "got ..." in messages: "nothing" for an empty or null value, else its kind. */
+    public static String kindOf(YNode node) {
+        return node instanceof YScalar s && s.plainNull() ? "nothing" : node.kind();
     }
 
     /** A list of values, each parsed; a single value is accepted as a one-item list. */

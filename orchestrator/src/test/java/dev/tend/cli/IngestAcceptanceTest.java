@@ -1,0 +1,48 @@
+package dev.tend.cli;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.Statement;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+class IngestAcceptanceTest {
+    @TempDir
+    Path dir;
+
+    @Test
+    void silentNodeStartsExactlyOneRunThatFinishesAndTheLedgerProvesIt() throws Exception {
+        Path root = CliRun.root();
+        String db = dir.resolve("tend.db").toString();
+        CliRun ingest = CliRun.of("ingest", root.resolve("examples/silent-node.jsonl").toString(),
+                "--playbooks", root.resolve("playbooks/library").toString(),
+                "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
+        assertThat(ingest.exit()).as(ingest.err()).isZero();
+        assertThat(ingest.out()).contains("1 started, 1 succeeded");
+
+        CliRun runs = CliRun.of("runs", "--db", db, "--format", "json");
+        JsonNode list = new ObjectMapper().readTree(runs.out());
+        assertThat(list).hasSize(1);
+        assertThat(list.get(0).get("cluster").asText()).isEqualTo("fares-17");
+        assertThat(list.get(0).get("node").asText()).isEqualTo("n2");
+        assertThat(list.get(0).get("state").asText()).isEqualTo("succeeded");
+
+        CliRun audit = CliRun.of("audit", "--db", db);
+        assertThat(audit.out()).contains("verdict").contains("run-started").contains("executor-call")
+                .contains("step-finished").contains("run-ended");
+        assertThat(CliRun.of("audit", "verify", "--db", db).exit()).isZero();
+
+        try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + db); Statement s = c.createStatement()) {
+            s.executeUpdate("UPDATE ledger SET entry = replace(entry, 'fares-17', 'fares-71') WHERE seq = 5");
+        }
+        CliRun verify = CliRun.of("audit", "verify", "--db", db);
+        assertThat(verify.exit()).isEqualTo(ExitCodes.FINDINGS);
+        assertThat(verify.out()).contains("entry 5 ");
+    }
+}

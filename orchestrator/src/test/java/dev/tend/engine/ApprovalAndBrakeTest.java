@@ -1,0 +1,99 @@
+package dev.tend.engine;
+
+import org.junit.jupiter.api.Test;
+
+import java.time.Duration;
+import java.util.Map;
+
+import static dev.tend.engine.EngineHarness.cluster;
+import static dev.tend.engine.EngineHarness.fleet;
+import static dev.tend.engine.EngineHarness.replacePlaybook;
+import static dev.tend.shared.SignalState.SILENT;
+import static org.assertj.core.api.Assertions.assertThat;
+
+class ApprovalAndBrakeTest {
+    private static final String FLEET = fleet(cluster("fares-1", "critical", 3, null) + cluster("fares-9", "standard", 3, null));
+    private static final String APPROVED_PLAYBOOK = replacePlaybook("0s", "keep-in-sync: false")
+            .replace("steps:", "approval: { when: { tier: [critical] }, expires-after: 30m }\nsteps:");
+
+    private static String pendingRun(EngineHarness h) {
+        return (String) h.ledger("approval-requested").get(0).get("run");
+    }
+
+    @Test
+    void criticalClusterAwaitsApprovalAndStartsOnceAPersonApproves() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-1", "n2", "heartbeat", SILENT);
+        assertThat(h.verdicts("fares-1")).containsExactly("await-approval [approval-required]");
+        assertThat(h.calls).isEmpty();
+        h.send(new Input.Approve(pendingRun(h), "ana", "cli"));
+        assertThat(h.ledger("approval-granted")).singleElement().satisfies(a -> assertThat(a).containsEntry("by", "ana"));
+        assertThat(h.ledger("run-started")).singleElement().satisfies(r -> assertThat(r).containsEntry("run", pendingRun(h)));
+    }
+
+    @Test
+    void standardClusterNeedsNoApproval() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-9", "n2", "heartbeat", SILENT);
+        assertThat(h.verdicts("fares-9")).containsExactly("start []");
+    }
+
+    @Test
+    void whoeverRequestedARunCannotApproveIt() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-1", "n2", "heartbeat", SILENT);
+        h.send(new Input.Approve(pendingRun(h), Engine.AUTOMATION, "api"));
+        assertThat(h.ledger("approval-refused")).singleElement()
+                .satisfies(a -> assertThat((String) a.get("reason")).contains("two-person rule"));
+        assertThat(h.ledger("run-started")).isEmpty();
+    }
+
+    @Test
+    void approvalNeverOverridesTheBrakeTheRunStaysHeldAndStartsWhenReleased() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-1", "n2", "heartbeat", SILENT);
+        h.send(new Input.EngageBrake("zone z-b maintenance", "ana", "cli"));
+        h.send(new Input.Approve(pendingRun(h), "ben", "cli"));
+        assertThat(h.ledger("run-started")).isEmpty();
+        assertThat(h.verdicts("fares-1")).containsExactly("await-approval [approval-required]", "hold [fleet-brake]");
+        assertThat(h.engine.run(pendingRun(h)).orElseThrow().state()).isEqualTo(RunState.HELD);
+        h.send(new Input.ReleaseBrake("maintenance over", "ana", "cli"));
+        assertThat(h.ledger("run-started")).hasSize(1);
+    }
+
+    @Test
+    void rejectedRunIsCancelled() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-1", "n2", "heartbeat", SILENT);
+        h.send(new Input.Reject(pendingRun(h), "owner is on it", "ben", "cli"));
+        assertThat(h.engine.run(pendingRun(h)).orElseThrow().state()).isEqualTo(RunState.CANCELLED);
+        assertThat(h.ledger("approval-rejected")).hasSize(1);
+    }
+
+    @Test
+    void approvalLapsesAtItsExpiryAndTheRunIsCancelled() {
+        EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
+        h.at(0, "fares-1", "n2", "heartbeat", SILENT);
+        h.advance(Duration.ofMinutes(31));
+        assertThat(h.ledger("approval-lapsed")).hasSize(1);
+        RunSnapshot r = h.engine.run(pendingRun(h)).orElseThrow();
+        assertThat(r.state()).isEqualTo(RunState.CANCELLED);
+        assertThat(r.outcome()).contains("lapsed");
+    }
+
+    @Test
+    void manualBrakeHoldsEveryStartAndIsNotReleasedAutomatically() {
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        h.send(new Input.EngageBrake("change freeze for the city marathon", "ana", "cli"));
+        h.at(0, "fares-9", "n2", "heartbeat", SILENT);
+        assertThat(h.verdicts("fares-9")).containsExactly("hold [fleet-brake]");
+        h.advance(Duration.ofHours(2));
+        assertThat(h.engine.brake().engaged()).isTrue();
+        assertThat(h.ledger("brake-engaged")).singleElement().satisfies(b -> assertThat(b).containsEntry("by", "ana"));
+        h.send(new Input.ReleaseBrake("done", "ana", "cli"));
+        assertThat(h.verdicts("fares-9")).containsExactly("hold [fleet-brake]", "start []");
+        assertThat(h.ledger("operator-command")).extracting(m -> m.get("command"))
+                .containsExactly("brake-engage", "brake-release");
+        assertThat(h.ledger("brake-released")).singleElement().satisfies(b -> assertThat((Map<String, Object>) b).containsEntry("by", "ana"));
+    }
+}

@@ -1,0 +1,95 @@
+package dev.tend.shared.yaml;
+
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.assertj.core.api.Assertions.catchThrowableOfType;
+
+class YamlDocumentTest {
+    @Test
+    void locatesEveryNodeByLineAndColumn() {
+        YMap root = (YMap) YamlDocument.parse("f.yaml", "fleet: larkspur\nclusters:\n  - id: fares-3\n    quorum: true\n");
+        assertThat(root.keys()).containsExactly("fleet", "clusters");
+        YList clusters = (YList) root.get("clusters").orElseThrow();
+        YMap first = (YMap) clusters.items().get(0);
+        YScalar quorum = (YScalar) first.get("quorum").orElseThrow();
+        assertThat(quorum.value()).isEqualTo("true");
+        assertThat(quorum.line()).isEqualTo(4);
+        assertThat(quorum.column()).isEqualTo(13);
+        assertThat(first.line()).isEqualTo(3);
+        assertThat(first.column()).isEqualTo(5);
+    }
+
+    @Test
+    void tellsAnEmptyValueFromAQuotedEmptyString() {
+        YMap root = (YMap) YamlDocument.parse("f.yaml", "a:\nb: ''\nc: ~\nd: null\ne: \"null\"\n");
+        assertThat(((YScalar) root.get("a").orElseThrow()).plainNull()).isTrue();
+        assertThat(((YScalar) root.get("b").orElseThrow()).plainNull()).isFalse();
+        assertThat(((YScalar) root.get("c").orElseThrow()).plainNull()).isTrue();
+        assertThat(((YScalar) root.get("d").orElseThrow()).plainNull()).isTrue();
+        assertThat(((YScalar) root.get("e").orElseThrow()).plainNull()).isFalse();
+    }
+
+    @Test
+    void locatesASyntaxError() {
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class,
+                () -> YamlDocument.parse("fleet.yaml", "fleet: larkspur\nclusters:\n  - id: fares-3\n    tags: { tier: critical\n  - id: x\n"));
+        assertThat(e.problems()).hasSize(1);
+        Problem p = e.problems().get(0);
+        assertThat(p.line()).isEqualTo(5);
+        assertThat(p.column()).isEqualTo(7);
+        assertThat(p.message()).startsWith("this is not valid YAML: ");
+        assertThat(p.toString()).startsWith("fleet.yaml:5:7: this is not valid YAML: ");
+    }
+
+    @Test
+    void locatesAMisplacedMappingValue() {
+        assertThatThrownBy(() -> YamlDocument.parse("f.yaml", "a: b\n c: d\n"))
+                .isInstanceOf(InvalidInputException.class)
+                .hasMessage("f.yaml:2:3: this is not valid YAML: mapping values are not allowed here");
+    }
+
+    @Test
+    void locatesEveryDuplicateKeyAndPointsToTheFirst() {
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class,
+                () -> YamlDocument.parse("f.yaml", "fleet: larkspur\nclusters:\n  - id: a\n    id: b\nfleet: other\n"));
+        assertThat(e.problems()).extracting(Problem::toString).containsExactlyInAnyOrder(
+                "f.yaml:4:5: 'id' is given twice; the first is at line 3",
+                "f.yaml:5:1: 'fleet' is given twice; the first is at line 1");
+        assertThat(e.problems()).extracting(Problem::field).containsExactlyInAnyOrder("id", "fleet");
+    }
+
+    @Test
+    void findsADuplicateKeyInJsonToo() {
+        assertThatThrownBy(() -> YamlDocument.parse("f.json", "{\"a\": 1, \"a\": 2}"))
+                .isInstanceOf(InvalidInputException.class)
+                .hasMessage("f.json:1:10: 'a' is given twice; the first is at line 1");
+    }
+
+    @Test
+    void readsAnEmptyDocumentAsAnEmptyMapping() {
+        YNode root = YamlDocument.parse("f.yaml", "");
+        assertThat(root).isEqualTo(new YMap(java.util.List.of(), 1, 1));
+    }
+
+    @Test
+    void reportsAMissingFileAsAProblem(@TempDir Path dir) {
+        Path missing = dir.resolve("nope.yaml");
+        assertThatThrownBy(() -> YamlDocument.read(missing))
+                .isInstanceOf(InvalidInputException.class)
+                .hasMessageStartingWith(missing + ": cannot read the file: ");
+    }
+
+    @Test
+    void readsAFile(@TempDir Path dir) throws Exception {
+        Path file = Files.writeString(dir.resolve("f.yaml"), "a: 1\n");
+        assertThat(((YMap) YamlDocument.read(file)).keys()).containsExactly("a");
+    }
+}
