@@ -116,7 +116,7 @@ public final class Replayer {
         for (Playbook p : policy.playbooks()) {
             ids.add(p.when().signal());
             for (MaskRule m : p.unless()) ids.add(m.signal());
-            for (Step s : PlaybookSet.steps(p)) if (s instanceof WaitHealthyStep w) ids.addAll(w.signals());
+            for (Step s : p.allSteps()) if (s instanceof WaitHealthyStep w) ids.addAll(w.signals());
         }
         for (Id a : policy.actions().ids()) {
             if (policy.actions().get(a).orElse(null) instanceof SimulatedAction s) ids.addAll(s.clears());
