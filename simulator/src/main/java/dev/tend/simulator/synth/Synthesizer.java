@@ -133,7 +133,6 @@ public final class Synthesizer {
                 for (int i = 0; i < episodes; i++) shortBreach(buf, rnd, c, spec.size(), broker, (long) day * DAY + rnd.nextInt(DAY));
                 if (rnd.nextDouble() < 0.12) flapping(buf, rnd, c, spec.size(), broker, (long) day * DAY + rnd.nextInt(DAY));
             }
-            if (rnd.nextDouble() < 0.03 * o.days() / 7.0) ownerFilledDisk(buf, rnd, c, spec.size(), rnd.nextLong(limit));
             if (rnd.nextDouble() < 0.3 / o.days()) {
                 // a node drained and put back, recorded as a topology change
                 long t = rnd.nextLong(limit);
@@ -141,6 +140,11 @@ public final class Synthesizer {
             }
         }
         SplittableRandom global = root.split();
+        int disks = (int) Math.max(2, Math.round(o.clusters() * 0.03 * o.days() / 7.0));
+        for (int i = 0; i < disks; i++) {
+            int c = global.nextInt(clusters.size());
+            ownerFilledDisk(buf, global, c, clusters.get(c).size(), global.nextLong(limit));
+        }
         int silent = (int) Math.max(2, Math.round(o.clusters() / 400.0 * o.days() / 7.0));
         for (int i = 0; i < silent; i++) {
             int c = global.nextInt(clusters.size());
