@@ -89,7 +89,7 @@ public final class RunMachine {
                 r.recordStep("running", null, fx.now());
                 fx.arm(waitTimer(r), fx.now().plus(w.within()));
                 fx.ledger("step-started", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                        "step", w.id(), "kind", "wait-healthy", "signals", w.signals(), "within", Durations.format(w.within()));
+                        "step", w.id(), "step_kind", "wait-healthy", "signals", w.signals(), "within", Durations.format(w.within()));
                 changed(r, fx);
                 return;
             }
