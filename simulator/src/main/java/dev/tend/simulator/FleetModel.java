@@ -44,6 +44,8 @@ public final class FleetModel {
     }
 
     private final Map<SignalKey, Active> active = new HashMap<>();
+    /** Clusters with an active mask, and how many: most events are on other clusters and need no key. */
+    private final Map<dev.tend.shared.Id, Integer> maskedClusters = new HashMap<>();
     private final List<Active> all = new ArrayList<>();
     private long hiddenEvents;
 
@@ -58,6 +60,7 @@ public final class FleetModel {
         if (active.containsKey(key)) return;
         Active a = new Active(key, at, run, action);
         active.put(key, a);
+        maskedClusters.merge(key.cluster(), 1, Integer::sum);
         all.add(a);
     }
 
@@ -67,12 +70,13 @@ public final class FleetModel {
      * through, as is every event of a key without a mask.
      */
     public boolean admits(HealthTransition t) {
-        if (active.isEmpty()) return true;
+        if (active.isEmpty() || !maskedClusters.containsKey(t.cluster())) return true;
         Active a = active.get(t.key());
         if (a == null) return true;
         if (t.state() == SignalState.CLEAR) {
             a.liftedAt = t.at().isBefore(a.maskedAt) ? a.maskedAt : t.at();
             active.remove(t.key());
+            if (maskedClusters.merge(t.cluster(), -1, Integer::sum) == 0) maskedClusters.remove(t.cluster());
             return true;
         }
         a.hidden++;
