@@ -148,7 +148,7 @@ public final class Replayer {
             Instant at = event.at();
             if (clock == null) startAt(header != null && header.from() != null && header.from().isBefore(at) ? header.from() : at);
             runDue(at);
-            clock.advanceTo(at);
+            advanceTo(at);
             if (lastEventAt == null || at.isAfter(lastEventAt)) lastEventAt = at;
             if (event instanceof HealthTransition t) {
                 if (model.admits(t)) feed(new Input.Transition(t));
@@ -165,6 +165,11 @@ public final class Replayer {
         @Override
         public void progress(long bytesRead) {
             listener.progress(bytesRead, recording.size());
+        }
+
+        /** Moves the clock forward (it never goes back); most events are at or before the time it shows. */
+        private void advanceTo(Instant t) {
+            if (t.isAfter(clock.instant())) clock.advanceTo(t);
         }
 
         private void startAt(Instant t) {
@@ -194,7 +199,7 @@ public final class Replayer {
                     throw new TendException("the replay did not settle before " + t + ": over ten million timers and answers"
                             + " due at once; this is a bug in the engine or the replay");
                 }
-                clock.advanceTo(item.due());
+                advanceTo(item.due());
                 if (item.isTimer()) {
                     feed(new Input.TimerFired(item.timerKey()));
                 } else {
