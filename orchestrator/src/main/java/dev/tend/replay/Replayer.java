@@ -53,7 +53,7 @@ import java.util.Objects;
  *
  * <p>The recording is fed in file order. Before each event, every timer and executor answer
  * due at or before the event's time is handled, in time order ({@link Agenda} documents the
- * order of ties), each at its own due time. The clock never goes backwards: an event older
+ * order of ties), each at its own due time (or at the clock's, for one armed in the past). The clock never goes backwards: an event older
  * than the clock is fed at the clock's time, and the engine's fleet view orders it by its
  * own {@code at}. An answer that clears signals on its target is followed by a clear
  * transition per signal at the answer's time, as the live driver does; a signal the
