@@ -76,7 +76,7 @@ public final class AuditCommand implements Callable<Integer> {
             case json -> e.entry();
             case csv -> e.seq() + "," + e.at() + "," + e.kind() + "," + nz(e.cluster()) + "," + nz(e.playbook()) + ","
                     + nz(e.run()) + "," + e.hash() + "," + csv(e.entry());
-            default -> String.format("%6d %s %-22s %s", e.seq(), e.at(), e.kind(), e.entry());
+            default -> LedgerText.line(e);
         };
     }
 

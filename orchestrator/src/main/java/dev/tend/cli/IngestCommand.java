@@ -6,6 +6,7 @@ import dev.tend.engine.Input;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
+import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
 import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
@@ -70,11 +71,12 @@ public final class IngestCommand implements Callable<Integer> {
         Clock clock = Clock.systemUTC();
         try (Store store = db.open();
              Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
-             Executor simulated = new SimulatedExecutor(seed, speedup)) {
+             Executor simulated = new SimulatedExecutor(seed, speedup);
+             Executor http = HttpExecutor.withDefaults()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
-            Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated), timers,
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
                     Notifier.printingTo(System.err), clock);
             holder[0] = orch;
             Orchestrator.Recovery rec = orch.recover();
@@ -90,7 +92,7 @@ public final class IngestCommand implements Callable<Integer> {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e) {
-                                orch.submitEvent(e.event() instanceof HealthTransition t ? new Input.Transition(t)
+                                orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
                                         : new Input.Topology((TopologyEvent) e.event()));
                             } else if (r instanceof LineResult.Bad b) {
                                 err.println(b.problem() + " (line skipped)");

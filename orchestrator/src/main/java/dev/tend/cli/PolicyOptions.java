@@ -26,8 +26,11 @@ final class PolicyOptions {
     @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
     Path config;
 
+    @Option(names = "--actions", paramLabel = "FILE", description = "action definitions (default: DIR/actions.yaml)")
+    Path actions;
+
     EngineSetup setup(EventTimeMode mode) {
-        PlaybookSet set = config == null ? PlaybookLoader.load(playbooks) : PlaybookLoader.load(playbooks, config);
+        PlaybookSet set = PlaybookLoader.load(playbooks, config, actions);
         Fleet f = FleetFile.load(fleet);
         return new EngineSetup(set, set.config(), f, BrakeThresholds.from(set.config().brake()), mode);
     }

@@ -10,10 +10,12 @@ import java.io.PrintWriter;
 /** The {@code tend} command line. Each subcommand is one class. */
 @Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
         description = "Remediation orchestrator with health gating.",
-        subcommands = {CheckCommand.class, IngestCommand.class, RunsCommand.class, AuditCommand.class, ReplayCommand.class,
-                RecordCommand.class},
+        subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
+                HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class, ExcludeCommand.class,
+                BrakeCommand.class, ReplayCommand.class, RecordCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
-        exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify)", "2:usage or input error"})
+        exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify, a command the server refused)",
+                "2:usage or input error (a bad token or request, an unreachable server)"})
 public final class TendMain implements Runnable {
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -42,6 +44,7 @@ public final class TendMain implements Runnable {
 
     static int exitCodeFor(Throwable ex) {
         if (ex instanceof CommandLine.ParameterException) return ExitCodes.USAGE;
+        if (ex instanceof dev.tend.cli.ops.OperationRefusedException r && r.isRefusal()) return ExitCodes.FINDINGS;
         if (ex instanceof InvalidInputException) return ExitCodes.USAGE;
         if (ex instanceof TendException) return ExitCodes.USAGE;
         return ExitCodes.USAGE;

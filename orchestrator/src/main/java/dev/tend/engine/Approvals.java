@@ -42,7 +42,15 @@ final class Approvals {
         else if (cmd instanceof Input.Reject r) decide(r.runId(), "rejected", r.by(), r.from(), r.reason(), fx);
         else if (cmd instanceof Input.AbortRun a) abort(a, fx);
         else if (cmd instanceof Input.Exclude e) {
-            Exclusion ex = new Exclusion(e.target(), e.reason(), e.owner(), fx.now(), e.until(), e.by());
+            Exclusion ex;
+            try {
+                ex = new Exclusion(e.target(), e.reason(), e.owner(), fx.now(), e.until(), e.by());
+            } catch (IllegalArgumentException | NullPointerException bad) {
+                // a command that cannot be carried out is refused on the record, never thrown at the driver
+                fx.ledger("command-refused", "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
+                        "by", e.by(), "from", e.from(), "reason", bad.getMessage());
+                return;
+            }
             engine.context().exclusions.put(e.target(), ex);
             fx.ledger("exclusion-added", "cluster", e.target().cluster(), "node", e.target().node(), "reason", e.reason(),
                     "owner", e.owner(), "until", e.until(), "by", e.by(), "from", e.from());

@@ -28,8 +28,7 @@ final class Candidates {
     private final Set<String> fleetWide = new TreeSet<>();
     private final TreeMap<Instant, Set<String>> eventAgenda = new TreeMap<>();
     private final Map<String, Candidate.Key> byName = new HashMap<>();
-    /** Candidates by the signal that triggered them, so a clear finds its candidates without a scan. */
-    private final Map<dev.tend.shared.SignalKey, Set<Candidate.Key>> byTrigger = new HashMap<>();
+    private final Map<dev.tend.shared.SignalKey, Set<String>> byTrigger = new HashMap<>();
 
     Entry get(Candidate.Key key) {
         return entries.get(key);
@@ -52,11 +51,10 @@ final class Candidates {
     void put(Candidate c, Decision d) {
         Candidate.Key key = c.key();
         unindex(key);
-        untrigger(key);
         entries.put(key, new Entry(c, d));
-        byTrigger.computeIfAbsent(c.trigger(), k -> new java.util.HashSet<>()).add(key);
         String name = key.toString();
         byName.put(name, key);
+        byTrigger.computeIfAbsent(c.trigger(), k -> new TreeSet<>()).add(name);
         if (d == null) return;
         Set<Wake> wakes = d.wakes();
         if (wakes.contains(Wake.CLUSTER) || wakes.contains(Wake.HUMAN)) {
@@ -69,18 +67,15 @@ final class Candidates {
 
     void remove(Candidate.Key key) {
         unindex(key);
-        untrigger(key);
-        entries.remove(key);
+        Entry e = entries.remove(key);
         byName.remove(key.toString());
-    }
-
-    private void untrigger(Candidate.Key key) {
-        Entry e = entries.get(key);
-        if (e == null) return;
-        Set<Candidate.Key> s = byTrigger.get(e.candidate().trigger());
-        if (s == null) return;
-        s.remove(key);
-        if (s.isEmpty()) byTrigger.remove(e.candidate().trigger());
+        if (e != null) {
+            Set<String> t = byTrigger.get(e.candidate().trigger());
+            if (t != null) {
+                t.remove(key.toString());
+                if (t.isEmpty()) byTrigger.remove(e.candidate().trigger());
+            }
+        }
     }
 
     private void unindex(Candidate.Key key) {
@@ -124,10 +119,10 @@ final class Candidates {
 
     /** Candidates triggered by the given signal key. */
     List<Candidate.Key> triggeredBy(dev.tend.shared.SignalKey trigger) {
-        Set<Candidate.Key> keys = byTrigger.get(trigger);
-        if (keys == null) return List.of();
-        List<Candidate.Key> out = new ArrayList<>(keys);
-        out.sort((a, b) -> a.toString().compareTo(b.toString()));
+        Set<String> names = byTrigger.get(trigger);
+        if (names == null) return List.of();
+        List<Candidate.Key> out = new ArrayList<>(names.size());
+        for (String n : names) out.add(byName.get(n));
         return out;
     }
 }

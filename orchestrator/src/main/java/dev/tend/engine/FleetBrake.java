@@ -67,6 +67,13 @@ final class FleetBrake {
     }
 
     void engage(String by, String reason, Effects fx) {
+        if (state.engaged()) {
+            // already engaged (perhaps automatically): a person now holds it, so it releases only by hand
+            state = new BrakeState(true, state.since(), by, reason, true);
+            fx.ledger("brake-engaged", "by", by, "reason", reason, "manual", true, "already_engaged_since", state.since());
+            fx.add(new Effect.BrakeChanged(state));
+            return;
+        }
         episodes++;
         state = new BrakeState(true, fx.now(), by, reason, true);
         fx.ledger("brake-engaged", "by", by, "reason", reason, "manual", true);

@@ -24,7 +24,20 @@ public sealed interface Input {
         return null;
     }
 
-    record Transition(HealthTransition transition) implements Input {
+    /**
+     * A health transition. {@code wire} is its wire format v1 line when the reader already
+     * has it (so the journal need not write it again on the engine's thread), else null.
+     */
+    record Transition(HealthTransition transition, String wire) implements Input {
+        public Transition(HealthTransition transition) {
+            this(transition, null);
+        }
+
+        /** The transition with its wire line computed now, on the calling thread. */
+        public static Transition withWire(HealthTransition t) {
+            return new Transition(t, dev.tend.shared.wire.WireWriter.line(t));
+        }
+
         public String kind() { return "transition"; }
         public Id cluster() { return transition.cluster(); }
     }

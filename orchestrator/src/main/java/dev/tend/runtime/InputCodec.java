@@ -34,7 +34,7 @@ public final class InputCodec {
         Id cluster = in.cluster();
         String c = cluster == null ? null : cluster.value();
         if (in instanceof Input.Transition t) {
-            return InputRow.of(in.kind(), now, t.transition().at(), c, WireWriter.line(t.transition()));
+            return InputRow.of(in.kind(), now, t.transition().at(), c, t.wire() != null ? t.wire() : WireWriter.line(t.transition()));
         }
         if (in instanceof Input.Topology t) {
             return InputRow.of(in.kind(), now, t.event().at(), c, WireWriter.line(t.event()));

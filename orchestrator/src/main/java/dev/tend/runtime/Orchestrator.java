@@ -38,6 +38,8 @@ import java.util.function.BooleanSupplier;
  */
 public final class Orchestrator {
     private static final int BATCH = 2000;
+    /** Group commit: a small batch waits this long for more inputs before it is committed. */
+    private static final long GATHER_NANOS = 3_000_000;
 
     private final Store store;
     private final Engine engine;
@@ -45,6 +47,7 @@ public final class Orchestrator {
     private final Timers timers;
     private final Notifier notifier;
     private final Clock clock;
+    private final CommitListener listener;
     private final BlockingQueue<Input> urgent = new LinkedBlockingQueue<>();
     private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
     private final AtomicInteger callsInFlight = new AtomicInteger();
@@ -53,6 +56,13 @@ public final class Orchestrator {
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
+        this(store, setup, executors, timers, notifier, clock, CommitListener.NONE);
+    }
+
+    /** As above, with a listener told about every committed batch on the driver thread. */
+    public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
+                        Notifier notifier, Clock clock, CommitListener listener) {
+        this.listener = java.util.Objects.requireNonNull(listener, "listener");
         this.store = store;
         this.engine = new Engine(setup);
         this.executors = Map.copyOf(executors);
@@ -104,6 +114,23 @@ public final class Orchestrator {
         events.put(in);
     }
 
+    /**
+     * Queues a transition or topology event behind those queued before it (blocking while the
+     * queue is full) and completes with its effects once committed. Events are committed in
+     * the order queued, so when this completes every event queued before it is committed too.
+     */
+    public CompletableFuture<List<Effect>> submitEventAndWait(Input in) throws InterruptedException {
+        CompletableFuture<List<Effect>> f = new CompletableFuture<>();
+        waiting.put(in, f);
+        try {
+            events.put(in);
+        } catch (InterruptedException e) {
+            waiting.remove(in);
+            throw e;
+        }
+        return f;
+    }
+
     /** Queues a timer firing, executor result or operator command; never blocks. */
     public void submit(Input in) {
         urgent.add(in);
@@ -145,7 +172,28 @@ public final class Orchestrator {
                 if (next == null) continue;
                 batch.add(next);
             }
+            gather(batch);
             process(batch);
+        }
+    }
+
+    /**
+     * Lets a small batch fill up for a few milliseconds, so that a steady trickle of events
+     * is committed in groups rather than a transaction per event.
+     */
+    private void gather(List<Input> batch) throws InterruptedException {
+        long deadline = System.nanoTime() + GATHER_NANOS;
+        while (batch.size() < BATCH) {
+            long left = deadline - System.nanoTime();
+            if (left <= 0) return;
+            Input next = events.poll(left, TimeUnit.NANOSECONDS);
+            if (next == null) {
+                urgent.drainTo(batch, BATCH - batch.size());
+                return;
+            }
+            batch.add(next);
+            events.drainTo(batch, BATCH - batch.size());
+            urgent.drainTo(batch, BATCH - batch.size());
         }
     }
 
@@ -179,6 +227,7 @@ public final class Orchestrator {
                     + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
         }
         for (Effect e : all) perform(e);
+        listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {
                 CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));

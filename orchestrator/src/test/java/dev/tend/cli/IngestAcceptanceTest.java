@@ -45,4 +45,20 @@ class IngestAcceptanceTest {
         assertThat(verify.exit()).isEqualTo(ExitCodes.FINDINGS);
         assertThat(verify.out()).contains("entry 5 ");
     }
+
+    @Test
+    void aWaitHealthyStepThatMustWaitIsCommittedAndEndsWhenTheReplacementClearsTheSignal() throws Exception {
+        Path root = CliRun.root();
+        java.util.List<String> lines = java.nio.file.Files.readAllLines(root.resolve("examples/silent-node.jsonl"));
+        Path input = dir.resolve("unrecovered.jsonl");
+        java.nio.file.Files.write(input, lines.subList(0, lines.size() - 1)); // the node never recovers by itself
+        String db = dir.resolve("wait.db").toString();
+        CliRun ingest = CliRun.of("ingest", input.toString(), "--playbooks", root.resolve("playbooks/library").toString(),
+                "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
+        assertThat(ingest.exit()).as(ingest.err()).isZero();
+        assertThat(ingest.out()).contains("1 started, 1 succeeded");
+        CliRun audit = CliRun.of("audit", "--db", db, "--kind", "step-started");
+        assertThat(audit.out()).contains("step_kind=wait-healthy");
+        assertThat(CliRun.of("audit", "--db", db, "--kind", "step-finished").out()).contains("signals cleared");
+    }
 }

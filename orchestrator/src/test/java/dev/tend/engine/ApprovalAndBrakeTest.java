@@ -96,4 +96,15 @@ class ApprovalAndBrakeTest {
                 .containsExactly("brake-engage", "brake-release");
         assertThat(h.ledger("brake-released")).singleElement().satisfies(b -> assertThat((Map<String, Object>) b).containsEntry("by", "ana"));
     }
+
+    @Test
+    void anExclusionThatWouldEndBeforeItBeginsIsRefusedOnTheRecordNotThrown() {
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        h.send(new Input.Exclude(dev.tend.shared.Target.cluster(dev.tend.shared.Id.of("fares-9")), "owner migrating", "payments",
+                EngineHarness.T0.minusSeconds(60), "ana", "cli"));
+        assertThat(h.ledger("command-refused")).singleElement()
+                .satisfies(r -> assertThat((String) r.get("reason")).contains("must be after its start"));
+        h.at(0, "fares-9", "n2", "heartbeat", SILENT);
+        assertThat(h.verdicts("fares-9")).containsExactly("start []");
+    }
 }

@@ -17,6 +17,8 @@ import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
 
+import static org.assertj.core.api.Assertions.assertThat;
+
 /**
  * Drives a real engine in virtual time for tests: feeds transitions, fires due timers in
  * time order, answers executor calls, and keeps every effect for assertions.
@@ -52,6 +54,10 @@ final class EngineHarness {
         List<Effect> fx = engine.handle(in, now);
         effects.addAll(fx);
         for (Effect e : fx) {
+            if (e instanceof Effect.Ledger l) {
+                // the store numbers, times and names each entry itself: these keys are its own
+                assertThat(l.fields()).as("ledger fields of " + l.kind()).doesNotContainKeys("seq", "at", "kind");
+            }
             if (e instanceof Effect.ArmTimer a) timers.put(a.key(), a.due());
             else if (e instanceof Effect.CancelTimer c) timers.remove(c.key());
             else if (e instanceof Effect.CallExecutor c) calls.add(c);

@@ -14,7 +14,7 @@ import java.util.Set;
  * @param requestedBy who or what asked (usually the engine)
  * @param requestedAt when it was asked
  * @param expiresAt   when it lapses unanswered
- * @param state       one of {@link #STATES}: pending, approved, rejected, lapsed
+ * @param state       one of {@link #STATES}: pending, approved, rejected, lapsed, withdrawn
  * @param decidedBy   who approved or rejected; null while pending or when lapsed
  * @param decidedAt   when it was decided or lapsed; null while pending
  * @param reasons     the guards' reasons shown to the approver, as JSON text; null if none
@@ -26,8 +26,9 @@ public record ApprovalRow(String runId, String playbook, String cluster, String 
     public static final String APPROVED = "approved";
     public static final String REJECTED = "rejected";
     public static final String LAPSED = "lapsed";
-    /** Every state an approval can be in. */
+    /** The problem went away, or the run was aborted, before anyone answered. */
     public static final String WITHDRAWN = "withdrawn";
+    /** Every state an approval can be in. */
     public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
 
     public ApprovalRow {
@@ -47,7 +48,7 @@ public record ApprovalRow(String runId, String playbook, String cluster, String 
     static void requireState(String state, String field) {
         Objects.requireNonNull(state, field + " must not be null");
         if (!STATES.contains(state)) {
-            throw new IllegalArgumentException(field + " must be one of pending, approved, rejected, lapsed, got '" + state + "'");
+            throw new IllegalArgumentException(field + " must be one of pending, approved, rejected, lapsed, withdrawn, got '" + state + "'");
         }
     }
 

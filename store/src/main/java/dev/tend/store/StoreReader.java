@@ -8,9 +8,11 @@ import java.util.function.Consumer;
 
 /**
  * Read access to the store, valid only inside the callback it was handed to (using it
- * afterwards throws {@link StoreException}) and only on that callback's thread. All reads
- * in one callback see one consistent snapshot; inside a transaction they also see that
- * transaction's own writes. Lists are unmodifiable; failures throw {@link StoreException}.
+ * afterwards throws {@link StoreException}) and only on that callback's thread. The reads
+ * of one {@link Store#read} callback see one consistent snapshot. Inside a transaction they
+ * also see that transaction's own writes (on PostgreSQL, at READ COMMITTED, each statement
+ * also sees what other transactions committed before it). Lists are unmodifiable;
+ * failures throw {@link StoreException}.
  */
 public interface StoreReader {
     /**

@@ -41,6 +41,8 @@ abstract class ProjectionContractTest extends StoreTestBase {
         assertThat(read.get(1)).isEqualTo(command.withSeq(2));
         assertThat(read.get(0)).isEqualTo(transition(T0, T0.minusSeconds(5), "fares-3").withSeq(1));
         assertThat(lastInputSeq()).isEqualTo(4);
+        long unchanged = store.inTransaction(tx -> tx.appendInputs(List.of()));
+        assertThat(unchanged).isEqualTo(4);
 
         List<Long> after = new ArrayList<>();
         store.read(r -> {
@@ -193,5 +195,23 @@ abstract class ProjectionContractTest extends StoreTestBase {
             assertThat(tx.state("brake")).contains("{}");
             assertThat(tx.verifyLedger().ok()).isTrue();
         });
+    }
+
+    @Test
+    void reopeningMigratesNothingAgainAndKeepsEverything() {
+        store.useTransaction(tx -> {
+            tx.appendInput(transition(T0, T0, "fares-3"));
+            tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3"));
+        });
+        store.close();
+        store = db.open();
+        store.close();
+        store = db.open();
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("1");
+        assertThat(db.queryText("SELECT version FROM flyway_schema_history")).isEqualTo("1");
+        assertThat(lastInputSeq()).isEqualTo(1);
+        LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
+        assertThat(second.seq()).isEqualTo(2);
+        assertThat(verify().ok()).isTrue();
     }
 }

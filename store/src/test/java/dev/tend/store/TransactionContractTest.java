@@ -6,6 +6,10 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.TimeUnit;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
@@ -132,6 +136,40 @@ abstract class TransactionContractTest extends StoreTestBase {
             assertThat(v.ok()).as(v.reason()).isTrue();
             assertThat(v.entries()).isEqualTo(5);
         }
+    }
+
+    @Test
+    void concurrentWritersThroughTwoStoresKeepOneUnbrokenChain() throws Exception {
+        int threads = 4;
+        int transactions = 25;
+        try (Store second = db.open()) {
+            ExecutorService pool = Executors.newFixedThreadPool(threads);
+            List<Future<?>> done = new ArrayList<>();
+            for (int t = 0; t < threads; t++) {
+                Store writer = t % 2 == 0 ? store : second;
+                int thread = t;
+                done.add(pool.submit(() -> {
+                    for (int i = 0; i < transactions; i++) {
+                        writer.useTransaction(tx -> {
+                            tx.appendInputs(List.of(input(1), input(2), input(3)));
+                            tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3", "by", "thread-" + thread));
+                            tx.appendLedger(T0, "run", Map.of("cluster", "fares-3", "by", "thread-" + thread));
+                        });
+                    }
+                }));
+            }
+            pool.shutdown();
+            for (Future<?> f : done) f.get(120, TimeUnit.SECONDS);
+        }
+        List<Long> seqs = new ArrayList<>();
+        store.read(r -> {
+            r.forEachInput(0, row -> seqs.add(row.seq()));
+            return null;
+        });
+        assertThat(seqs).hasSize(threads * transactions * 3).isSorted().doesNotHaveDuplicates().endsWith((long) seqs.size());
+        LedgerVerification v = verify();
+        assertThat(v.ok()).as(v.reason()).isTrue();
+        assertThat(v.entries()).isEqualTo(threads * transactions * 2L);
     }
 
     @Test

@@ -58,11 +58,22 @@ public final class PlaybookLoader {
      * when present, else {@link TendConfig#builtIn()}.
      */
     public static PlaybookSet load(Path dir, Path configFile) {
+        return load(dir, configFile, null);
+    }
+
+    /**
+     * Loads {@code dir} with the policy of {@code configFile} and the actions of
+     * {@code actionsFile}; null for either means the file of that name in {@code dir}.
+     */
+    public static PlaybookSet load(Path dir, Path configFile, Path actionsFile) {
         Map<String, List<Problem>> problems = new LinkedHashMap<>();
         if (!Files.isDirectory(dir)) {
             throw new PlaybookInvalidException(List.of(Problem.at(dir.toString(), 0, 0, "", "is not a directory of playbooks")));
         }
-        Path actionsPath = dir.resolve(ACTIONS_FILE);
+        if (actionsFile != null && !Files.isRegularFile(actionsFile)) {
+            throw new PlaybookInvalidException(List.of(Problem.at(actionsFile.toString(), 0, 0, "", "no such actions file")));
+        }
+        Path actionsPath = actionsFile != null ? actionsFile : dir.resolve(ACTIONS_FILE);
         ActionCatalog catalog = Files.exists(actionsPath) ? readActions(actionsPath, problems) : ActionCatalog.of(Actions.empty());
         Path configPath = configFile != null ? configFile : dir.resolve(CONFIG_FILE);
         TendConfig config = configFile != null || Files.exists(configPath) ? readConfig(configPath, problems) : TendConfig.builtIn();

@@ -31,36 +31,20 @@ public final class FleetHealthView {
     /** How many recent state changes are kept per signal for flapping detection. */
     private static final int CHANGE_HISTORY = 32;
 
-    /** Where one signal stands, updated in place: one map lookup per event. */
-    private static final class Entry {
-        SignalState state;
-        Instant since;
-        Instant lastAt;
-        ArrayDeque<Instant> changes;
-
-        Entry(SignalState state, Instant since, Instant lastAt) {
-            this.state = state;
-            this.since = since;
-            this.lastAt = lastAt;
-        }
-
-        SignalStatus status() {
-            return new SignalStatus(state, since, lastAt);
-        }
-    }
-
-    /** Active problem signals of one cluster: in all, at cluster level, and per node. */
-    private static final class Problems {
-        int total;
-        int clusterLevel;
-        final Map<Id, Integer> perNode = new HashMap<>(4);
-    }
-
     private Fleet topology;
-    private final Map<SignalKey, Entry> signals = new HashMap<>();
+    /** One mutable slot per signal: a single map lookup per event. */
+    private static final class Slot {
+        SignalStatus status;
+        final ArrayDeque<Instant> changes = new ArrayDeque<>(4);
+    }
+
+    private final Map<SignalKey, Slot> signals = new HashMap<>(1 << 16);
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
-    /** Clusters with at least one active problem signal, on a node or the cluster itself. */
-    private final Map<Id, Problems> problems = new HashMap<>();
+    /** Active problem signals per cluster (node and cluster level). */
+    private final Map<Id, Integer> problemsPerCluster = new HashMap<>();
+    /** Active problem signals per cluster-level target, and per node of each cluster. */
+    private final Map<Id, Map<Id, Integer>> problemsPerNode = new HashMap<>();
+    private final Map<Id, Integer> clusterLevelProblems = new HashMap<>();
     private long lateEvents;
     private long appliedEvents;
 
@@ -75,32 +59,30 @@ public final class FleetHealthView {
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
         SignalKey key = t.key();
-        Entry current = signals.get(key);
-        if (current != null && t.at().isBefore(current.lastAt)) {
+        Slot slot = signals.get(key);
+        SignalStatus current = slot == null ? null : slot.status;
+        if (current != null && t.at().isBefore(current.lastAt())) {
             lateEvents++;
             return ApplyOutcome.LATE;
         }
         appliedEvents++;
-        if (current != null && current.state == t.state()) {
-            current.lastAt = t.at();
+        if (slot == null) {
+            slot = new Slot();
+            signals.put(key, slot);
+        }
+        if (current != null && current.state() == t.state()) {
+            slot.status = new SignalStatus(current.state(), current.since(), t.at());
             return ApplyOutcome.REPEATED;
         }
         if (current == null && t.state() == SignalState.CLEAR) {
-            signals.put(key, new Entry(SignalState.CLEAR, t.at(), t.at()));
+            slot.status = new SignalStatus(SignalState.CLEAR, t.at(), t.at());
             return ApplyOutcome.REPEATED;
         }
-        boolean wasProblem = current != null && current.state.isProblem();
-        if (current == null) {
-            current = new Entry(t.state(), t.at(), t.at());
-            signals.put(key, current);
-        } else {
-            current.state = t.state();
-            current.since = t.at();
-            current.lastAt = t.at();
-        }
-        if (current.changes == null) current.changes = new ArrayDeque<>();
-        current.changes.addLast(t.at());
-        if (current.changes.size() > CHANGE_HISTORY) current.changes.removeFirst();
+        boolean wasProblem = current != null && current.isProblem();
+        slot.status = new SignalStatus(t.state(), t.at(), t.at());
+        ArrayDeque<Instant> history = slot.changes;
+        history.addLast(t.at());
+        if (history.size() > CHANGE_HISTORY) history.removeFirst();
         if (t.state().isProblem() && !wasProblem) count(key, +1);
         if (!t.state().isProblem() && wasProblem) count(key, -1);
         return t.state().isProblem() ? ApplyOutcome.OPENED : ApplyOutcome.CLEARED;
@@ -130,39 +112,36 @@ public final class FleetHealthView {
     }
 
     private void count(SignalKey key, int delta) {
-        Problems p = problems.get(key.cluster());
-        if (p == null) {
-            p = new Problems();
-            problems.put(key.cluster(), p);
-        }
-        p.total += delta;
+        problemsPerCluster.merge(key.cluster(), delta, Integer::sum);
         if (key.node() == null) {
-            p.clusterLevel += delta;
+            clusterLevelProblems.merge(key.cluster(), delta, Integer::sum);
         } else {
-            int n = p.perNode.merge(key.node(), delta, Integer::sum);
-            if (n == 0) p.perNode.remove(key.node());
+            problemsPerNode.computeIfAbsent(key.cluster(), c -> new HashMap<>()).merge(key.node(), delta, Integer::sum);
+            Map<Id, Integer> nodes = problemsPerNode.get(key.cluster());
+            if (nodes.get(key.node()) == 0) nodes.remove(key.node());
         }
-        if (p.total == 0) problems.remove(key.cluster());
+        if (problemsPerCluster.get(key.cluster()) == 0) problemsPerCluster.remove(key.cluster());
+        if (clusterLevelProblems.getOrDefault(key.cluster(), 1) == 0) clusterLevelProblems.remove(key.cluster());
     }
 
     public Optional<SignalStatus> status(SignalKey key) {
-        Entry e = signals.get(key);
-        return e == null ? Optional.empty() : Optional.of(e.status());
+        Slot s = signals.get(key);
+        return s == null ? Optional.empty() : Optional.of(s.status);
     }
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        Entry e = signals.get(new SignalKey(cluster, node, signal));
-        return e != null && e.state.isProblem();
+        Slot s = signals.get(new SignalKey(cluster, node, signal));
+        return s != null && s.status.isProblem();
     }
 
     /** The signals in breach or silent on a node (or on the cluster itself when node is null), by name. */
     public Map<Id, SignalStatus> activeSignals(Id cluster, Id node) {
         Map<Id, SignalStatus> out = new TreeMap<>();
-        for (Map.Entry<SignalKey, Entry> e : signals.entrySet()) {
+        for (Map.Entry<SignalKey, Slot> e : signals.entrySet()) {
             SignalKey k = e.getKey();
-            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().state.isProblem()) {
-                out.put(k.signal(), e.getValue().status());
+            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().status.isProblem()) {
+                out.put(k.signal(), e.getValue().status);
             }
         }
         return out;
@@ -170,10 +149,11 @@ public final class FleetHealthView {
 
     /** How many times the signal changed state at or after {@code since} (event time), up to the last 32. */
     public int changesSince(SignalKey key, Instant since) {
-        Entry e = signals.get(key);
-        if (e == null || e.changes == null) return 0;
+        Slot slot = signals.get(key);
+        if (slot == null) return 0;
+        ArrayDeque<Instant> h = slot.changes;
         int n = 0;
-        for (Instant i : e.changes) if (!i.isBefore(since)) n++;
+        for (Instant i : h) if (!i.isBefore(since)) n++;
         return n;
     }
 
@@ -182,50 +162,49 @@ public final class FleetHealthView {
     }
 
     public boolean isNodeImpaired(Id cluster, Id node) {
-        Problems p = problems.get(cluster);
-        return p != null && p.perNode.containsKey(node);
+        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
+        return nodes != null && nodes.containsKey(node);
     }
 
     /** The nodes of a cluster with at least one signal in breach or silent. */
     public Set<Id> impairedNodes(Id cluster) {
-        Problems p = problems.get(cluster);
-        return p == null || p.perNode.isEmpty() ? Set.of() : Collections.unmodifiableSet(new TreeSet<>(p.perNode.keySet()));
+        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
+        return nodes == null ? Set.of() : Collections.unmodifiableSet(new TreeSet<>(nodes.keySet()));
     }
 
     public boolean isUnhealthy(Id cluster) {
-        return problems.containsKey(cluster);
+        return problemsPerCluster.containsKey(cluster);
     }
 
     public ClusterHealth health(Id cluster) {
-        Problems p = problems.get(cluster);
-        if (p == null) return ClusterHealth.HEALTHY;
-        if (p.clusterLevel > 0) return ClusterHealth.UNHEALTHY;
-        int impaired = p.perNode.size();
+        if (!problemsPerCluster.containsKey(cluster)) return ClusterHealth.HEALTHY;
+        if (clusterLevelProblems.containsKey(cluster)) return ClusterHealth.UNHEALTHY;
+        int impaired = impairedNodes(cluster).size();
         int tolerated = topology.cluster(cluster).map(ClusterSpec::safeImpaired).orElse(Integer.MAX_VALUE);
         return impaired > tolerated ? ClusterHealth.UNHEALTHY : ClusterHealth.IMPAIRED;
     }
 
     /** Clusters with any signal in breach or silent, on a node or the cluster itself. */
     public int unhealthyClusterCount() {
-        return problems.size();
+        return problemsPerCluster.size();
     }
 
     public Set<Id> unhealthyClusters() {
-        return Collections.unmodifiableSet(new TreeSet<>(problems.keySet()));
+        return Collections.unmodifiableSet(new TreeSet<>(problemsPerCluster.keySet()));
     }
 
     /** The fraction of the topology's clusters that are unhealthy (0 for an empty fleet). */
     public double unhealthyFraction() {
-        int size = Math.max(topology.size(), problems.size());
-        return size == 0 ? 0 : (double) problems.size() / size;
+        int size = Math.max(topology.size(), problemsPerCluster.size());
+        return size == 0 ? 0 : (double) problemsPerCluster.size() / size;
     }
 
     /** Impaired nodes per zone across the fleet; nodes without a known zone count under "unknown". */
     public Map<String, Integer> impairedPerZone() {
         Map<String, Integer> out = new TreeMap<>();
-        for (Map.Entry<Id, Problems> c : problems.entrySet()) {
+        for (Map.Entry<Id, Map<Id, Integer>> c : problemsPerNode.entrySet()) {
             Optional<ClusterSpec> spec = topology.cluster(c.getKey());
-            for (Id node : c.getValue().perNode.keySet()) {
+            for (Id node : c.getValue().keySet()) {
                 String zone = spec.flatMap(s -> s.node(node)).map(NodeSpec::zone).orElse(null);
                 out.merge(zone == null ? "unknown" : zone, 1, Integer::sum);
             }

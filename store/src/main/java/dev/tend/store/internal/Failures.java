@@ -21,16 +21,16 @@ public final class Failures {
         if (e instanceof StoreException) return e;
         if (!(e instanceof JdbiException)) return e;
         SQLException sql = sqlCause(e);
-        return new StoreException(location, "a transaction on the store at " + location + " failed and was rolled back, "
-                + "so nothing of it was written: " + explain(location, sql == null ? e : sql), e);
+        return new StoreException(location, redact("a transaction on the store at " + location + " failed and was rolled "
+                + "back, so nothing of it was written: " + explain(location, sql == null ? e : sql)), e);
     }
 
     /** The exception to throw when the store at {@code location} cannot be opened. */
     public static StoreException ofOpening(String location, Throwable e) {
         if (e instanceof StoreException s) return s;
         SQLException sql = sqlCause(e);
-        return new StoreException(location, "cannot open the store at " + location + ": "
-                + explain(location, sql == null ? e : sql), e);
+        return new StoreException(location, redact("cannot open the store at " + location + ": "
+                + explain(location, sql == null ? e : sql)), e);
     }
 
     /** A sentence on what went wrong and what to do; names SQLite and PostgreSQL causes. */
@@ -66,7 +66,7 @@ public final class Failures {
         return String.valueOf(cause.getMessage());
     }
 
-    private static SQLException sqlCause(Throwable e) {
+    static SQLException sqlCause(Throwable e) {
         for (Throwable t = e; t != null; t = t.getCause()) {
             if (t instanceof SQLException s) return s;
         }

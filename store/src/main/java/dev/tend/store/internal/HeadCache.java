@@ -17,14 +17,13 @@ import java.util.concurrent.atomic.AtomicReference;
  * writes through one connection under its own lock, so the cache stays right unless
  * another connection committed; PRAGMA data_version tells exactly that, at the cost of
  * one pragma per transaction. PostgreSQL: several processes may write, so a claim locks the
- * ledger_head row (held to commit, which serialises appenders) and reads the tails
- * under that lock.
+ * ledger_head row (held to commit, which serialises appenders) and then reads the tails,
+ * two statements per appending transaction.
  */
 public final class HeadCache {
     private static final String READ_HEAD = "SELECT seq, hash FROM ledger_head WHERE id = 1";
     private static final String READ_INPUT_SEQ = "SELECT COALESCE(MAX(seq), 0) FROM input_journal";
-    private static final String LOCK_HEADS = "SELECT h.seq, h.hash, (SELECT COALESCE(MAX(j.seq), 0) FROM input_journal j) "
-            + "FROM ledger_head h WHERE h.id = 1 FOR UPDATE";
+    private static final String LOCK_HEAD = READ_HEAD + " FOR UPDATE";
 
     private final Dialect dialect;
     private final String location;
@@ -38,10 +37,14 @@ public final class HeadCache {
     /** The tails to continue from, inside the transaction of {@code handle}. */
     public Heads claim(Handle handle) {
         if (dialect == Dialect.POSTGRESQL) {
-            return handle.createQuery(LOCK_HEADS)
-                    .map((rs, ctx) -> new Heads(rs.getLong(3), rs.getLong(1), rs.getString(2), null, 0))
+            Heads ledger = handle.createQuery(LOCK_HEAD)
+                    .map((rs, ctx) -> new Heads(0, rs.getLong(1), rs.getString(2), null, 0))
                     .findOne()
                     .orElseThrow(this::missingHead);
+            // A statement of its own: at READ COMMITTED it sees what the lock holder before us
+            // committed, which a subquery of the locking statement (its snapshot taken before
+            // the wait) would not.
+            return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
         }
         Connection connection = handle.getConnection();
         long dataVersion = handle.createQuery("PRAGMA data_version").mapTo(Long.class).one();

@@ -128,7 +128,7 @@ public class JdbiReader implements StoreReader {
     @Override
     public List<ApprovalRow> approvals(String stateOrNull) {
         if (stateOrNull != null && !ApprovalRow.STATES.contains(stateOrNull)) {
-            throw new IllegalArgumentException("approvals(state) takes pending, approved, rejected, lapsed or null, got '"
+            throw new IllegalArgumentException("approvals(state) takes pending, approved, rejected, lapsed, withdrawn or null, got '"
                     + stateOrNull + "'");
         }
         beforeRead();

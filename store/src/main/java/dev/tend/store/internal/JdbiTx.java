@@ -53,17 +53,24 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     /** Sends the batched appends and moves the ledger_head row. */
     public void flush() {
         if (!pendingInputs.isEmpty()) {
-            PreparedBatch batch = handle.prepareBatch(INSERT_INPUT);
-            for (InputRow r : pendingInputs) {
-                batch.bind(0, r.seq())
-                        .bind(1, r.kind())
-                        .bind(2, Times.toNanos(r.now(), "InputRow.now"))
-                        .bind(3, Times.toNanos(r.eventAt(), "InputRow.eventAt"))
-                        .bind(4, r.cluster())
-                        .bind(5, r.payload())
-                        .add();
+            // the hot path of ingest: a plain JDBC batch on the transaction's connection, no per-argument mapping
+            try (java.sql.PreparedStatement ps = handle.getConnection().prepareStatement(INSERT_INPUT)) {
+                for (InputRow r : pendingInputs) {
+                    ps.setLong(1, r.seq());
+                    ps.setString(2, r.kind());
+                    ps.setLong(3, Times.toNanos(r.now(), "InputRow.now"));
+                    Long at = Times.toNanos(r.eventAt(), "InputRow.eventAt");
+                    if (at == null) ps.setNull(4, java.sql.Types.BIGINT);
+                    else ps.setLong(4, at);
+                    if (r.cluster() == null) ps.setNull(5, java.sql.Types.VARCHAR);
+                    else ps.setString(5, r.cluster());
+                    ps.setString(6, r.payload());
+                    ps.addBatch();
+                }
+                ps.executeBatch();
+            } catch (java.sql.SQLException e) {
+                throw new org.jdbi.v3.core.ConnectionException(e);
             }
-            batch.execute();
             pendingInputs.clear();
         }
         if (!pendingLedger.isEmpty()) {

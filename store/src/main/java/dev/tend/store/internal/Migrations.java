@@ -25,10 +25,15 @@ public final class Migrations {
                     .locations(LOCATION)
                     .failOnMissingLocations(true)
                     .placeholders(dialect.placeholders())
+                    // Flyway ignores versions it does not know ("*:future") by default; a store migrated by a
+                    // newer tend may mean things this one does not understand, so refuse it instead.
+                    .ignoreMigrationPatterns(new String[0])
                     .load()
                     .migrate()
                     .migrationsExecuted;
         } catch (FlywayException e) {
+            // A failure to reach or read the database is not a schema problem: say what it is.
+            if (Failures.sqlCause(e) != null) throw Failures.ofOpening(location, e);
             throw new StoreException(location, "cannot bring the store at " + location + " to this tend's schema: "
                     + e.getMessage() + " If the store was written by a newer tend, run that version; if it is not a tend "
                     + "store, point tend at another file or database.", e);

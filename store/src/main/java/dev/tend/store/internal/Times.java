@@ -16,8 +16,12 @@ public final class Times {
     /** Nanoseconds of {@code t}, or null for null; {@code field} names it in the error. */
     public static Long toNanos(Instant t, String field) {
         if (t == null) return null;
+        long seconds = t.getEpochSecond();
+        int nanos = t.getNano();
         try {
-            return Math.addExact(Math.multiplyExact(t.getEpochSecond(), NANOS), t.getNano());
+            // Before 1970 with a fraction, count from the next second down, so the earliest nanos do not overflow.
+            if (seconds < 0 && nanos > 0) return Math.addExact(Math.multiplyExact(seconds + 1, NANOS), nanos - NANOS);
+            return Math.addExact(Math.multiplyExact(seconds, NANOS), nanos);
         } catch (ArithmeticException e) {
             throw new IllegalArgumentException(field + " " + t + " is outside the times the store can keep "
                     + "(1677-09-21 to 2262-04-11 UTC)");

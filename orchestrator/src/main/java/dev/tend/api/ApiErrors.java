@@ -1,0 +1,70 @@
+package dev.tend.api;
+
+import dev.tend.api.auth.ForbiddenException;
+import dev.tend.api.auth.UnauthenticatedException;
+import dev.tend.api.view.ErrorBody;
+import dev.tend.api.view.LineProblem;
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
+import dev.tend.store.StoreException;
+import io.javalin.router.JavalinDefaultRouting;
+import io.javalin.http.Context;
+import io.javalin.http.HttpResponseException;
+
+import java.io.PrintWriter;
+import java.util.List;
+
+/**
+ * The one place where failures become HTTP answers: every error is a JSON {@link ErrorBody}.
+ * <pre>
+ * UnauthenticatedException   401 unauthenticated (with WWW-Authenticate: Bearer)
+ * ForbiddenException         403 forbidden, naming the role needed
+ * NotFoundException          404 not-found
+ * InvalidInputException,
+ * IllegalArgumentException   400 invalid-input, each problem listed
+ * RefusedException           409 refused, with the engine's reason
+ * DriverUnavailableException,
+ * StoreException             503 unavailable
+ * Javalin's own (no route, wrong method, body too large): their status
+ * anything else              500 failed (and the stack trace to the server's log)
+ * </pre>
+ */
+final class ApiErrors {
+    private ApiErrors() {
+    }
+
+    static void install(JavalinDefaultRouting app, PrintWriter log) {
+        app.exception(UnauthenticatedException.class, (e, ctx) -> {
+            ctx.header("WWW-Authenticate", "Bearer realm=\"tend\"");
+            answer(ctx, 401, ErrorBody.of("unauthenticated", e.getMessage()));
+        });
+        app.exception(ForbiddenException.class, (e, ctx) ->
+                answer(ctx, 403, new ErrorBody("forbidden", e.getMessage(), e.needed().wireName(), null)));
+        app.exception(NotFoundException.class, (e, ctx) -> answer(ctx, 404, ErrorBody.of("not-found", e.getMessage())));
+        app.exception(InvalidInputException.class, (e, ctx) -> answer(ctx, 400, new ErrorBody("invalid-input",
+                e.problems().size() == 1 ? e.problems().get(0).message() : e.problems().size() + " problems in the request",
+                null, problems(e.problems()))));
+        app.exception(IllegalArgumentException.class, (e, ctx) -> answer(ctx, 400, ErrorBody.of("invalid-input", e.getMessage())));
+        app.exception(RefusedException.class, (e, ctx) -> answer(ctx, 409, ErrorBody.of("refused", e.getMessage())));
+        app.exception(DriverUnavailableException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
+        app.exception(StoreException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
+        app.exception(HttpResponseException.class, (e, ctx) -> answer(ctx, e.getStatus(),
+                ErrorBody.of(e.getStatus() == 404 ? "not-found" : "invalid-input", e.getMessage())));
+        app.exception(Exception.class, (e, ctx) -> {
+            synchronized (log) {
+                log.println("tend: " + ctx.method() + " " + ctx.path() + " failed:");
+                e.printStackTrace(log);
+                log.flush();
+            }
+            answer(ctx, 500, ErrorBody.of("failed", "the server failed: " + e));
+        });
+    }
+
+    static List<LineProblem> problems(List<Problem> problems) {
+        return problems.stream().map(p -> new LineProblem(p.line(), p.column(), p.field(), p.message())).toList();
+    }
+
+    private static void answer(Context ctx, int status, ErrorBody body) {
+        ctx.status(status).json(body);
+    }
+}

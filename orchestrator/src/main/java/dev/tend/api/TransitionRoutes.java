@@ -1,0 +1,103 @@
+package dev.tend.api;
+
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.databind.JsonNode;
+import dev.tend.api.auth.Caller;
+import dev.tend.api.auth.Role;
+import dev.tend.api.view.LineProblem;
+import dev.tend.api.view.TransitionsOutcome;
+import dev.tend.engine.Input;
+import dev.tend.metrics.TendMetrics;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.TopologyEvent;
+import dev.tend.shared.wire.LineResult;
+import dev.tend.shared.wire.ReadSummary;
+import dev.tend.shared.wire.WireReader;
+import dev.tend.store.Store;
+import io.javalin.http.Context;
+import io.javalin.router.JavalinDefaultRouting;
+
+import java.io.IOException;
+import java.io.StringReader;
+import java.time.Clock;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * {@code POST /api/v1/transitions}: wire format v1, one JSON object (compact or pretty) or JSON
+ * Lines. Good lines are applied in order and committed before the answer; bad lines are
+ * answered with their line numbers and messages. The status says which happened:
+ * 200 every line applied, 207 some applied and some refused, 400 none applied
+ * (every line refused, or no event in the body). Each request that carried a line leaves one
+ * {@code transitions-received} ledger entry: the token's name, the client address and the counts.
+ */
+final class TransitionRoutes {
+    /** Problems listed in one answer; the count of rejected lines is always complete. */
+    static final int MAX_PROBLEMS = 1000;
+
+    private final Gateway gateway;
+    private final TendMetrics metrics;
+    private final Store store;
+    private final Clock clock;
+
+    TransitionRoutes(Gateway gateway, TendMetrics metrics, Store store, Clock clock) {
+        this.gateway = gateway;
+        this.metrics = metrics;
+        this.store = store;
+        this.clock = clock;
+    }
+
+    void mount(JavalinDefaultRouting r) {
+        r.post("/api/v1/transitions", this::post, Role.OPERATOR);
+    }
+
+    private void post(Context ctx) {
+        String body = singleObjectOnOneLine(ctx.body());
+        List<Input> events = new ArrayList<>();
+        List<LineProblem> problems = new ArrayList<>();
+        ReadSummary summary = WireReader.of("request").readAll(new StringReader(body), r -> {
+            if (r instanceof LineResult.Event e) {
+                events.add(e.event() instanceof HealthTransition t ? new Input.Transition(t)
+                        : new Input.Topology((TopologyEvent) e.event()));
+            } else if (r instanceof LineResult.Bad b && problems.size() < MAX_PROBLEMS) {
+                problems.add(new LineProblem(b.problem().line(), b.problem().column(), b.problem().field(), b.problem().message()));
+            }
+        });
+        if (!events.isEmpty()) gateway.events(events);
+        if (!events.isEmpty() || summary.bad() > 0) {
+            // who fed the engine, from where: one entry per request, not per line
+            Caller caller = Requests.caller(ctx);
+            Map<String, Object> fields = new LinkedHashMap<>();
+            fields.put("by", caller.name());
+            fields.put("from", Requests.from(ctx));
+            fields.put("accepted", events.size());
+            fields.put("rejected", summary.bad());
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "transitions-received", fields));
+        }
+        metrics.transitionsReceived(events.size());
+        metrics.linesRejected(summary.bad());
+        int status = events.isEmpty() ? 400 : summary.bad() > 0 ? 207 : 200;
+        if (events.isEmpty() && problems.isEmpty()) {
+            problems.add(new LineProblem(0, 0, "", "the body holds no transition or topology event"));
+        }
+        ctx.status(status).json(new TransitionsOutcome(events.size(), summary.bad(), problems));
+    }
+
+    /**
+     * A body that is one pretty-printed JSON object becomes that object on one line, so that
+     * it reads as one line of wire format; anything else is left as it is.
+     */
+    private static String singleObjectOnOneLine(String body) {
+        String trimmed = body.strip();
+        if (!trimmed.startsWith("{") || trimmed.indexOf('\n') < 0) return body;
+        try (JsonParser p = ApiJson.MAPPER.createParser(trimmed)) {
+            JsonNode n = ApiJson.MAPPER.readTree(p);
+            if (n == null || !n.isObject() || p.nextToken() != null) return body;
+            return ApiJson.MAPPER.writeValueAsString(n);
+        } catch (IOException notOneObject) {
+            return body; // JSON Lines, or broken: the wire reader reports each line
+        }
+    }
+}

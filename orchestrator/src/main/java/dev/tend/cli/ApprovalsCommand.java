@@ -1,0 +1,36 @@
+package dev.tend.cli;
+
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.util.concurrent.Callable;
+
+/** {@code tend approvals}: the approvals of a running server, pending ones by default. */
+@Command(name = "approvals", mixinStandardHelpOptions = true, description = "List approvals (pending by default) of a running tend serve.")
+public final class ApprovalsCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Mixin
+    ServerOptions server;
+
+    @Option(names = "--state", defaultValue = "pending", paramLabel = "S",
+            description = "pending, approved, rejected, lapsed, withdrawn or all (default: ${DEFAULT-VALUE})")
+    String state;
+
+    @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
+    Format format;
+
+    enum Format { text, json }
+
+    @Override
+    public Integer call() {
+        var list = server.operations().approvals(state);
+        if (format == Format.json) Render.json(spec.commandLine().getOut(), list);
+        else Render.approvals(spec.commandLine().getOut(), list);
+        return ExitCodes.OK;
+    }
+}

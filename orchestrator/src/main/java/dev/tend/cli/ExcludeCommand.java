@@ -1,0 +1,121 @@
+package dev.tend.cli;
+
+import dev.tend.api.view.ExclusionRequest;
+import dev.tend.api.view.ExclusionView;
+import dev.tend.shared.time.Durations;
+import dev.tend.shared.wire.Rfc3339;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.time.Clock;
+import java.time.Instant;
+import java.util.concurrent.Callable;
+
+/** {@code tend exclude add|remove|list}: the clusters and nodes automation must not touch. */
+@Command(name = "exclude", mixinStandardHelpOptions = true,
+        subcommands = {ExcludeCommand.Add.class, ExcludeCommand.Remove.class, ExcludeCommand.ListAll.class},
+        description = "Manage exclusions on a running tend serve: automation denies every run on an excluded cluster or node.")
+public final class ExcludeCommand implements Runnable {
+    @Spec
+    CommandSpec spec;
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
+    }
+
+    /** {@code tend exclude add CLUSTER [NODE] --reason R --owner O [--until T]}. */
+    @Command(name = "add", mixinStandardHelpOptions = true, description = "Exclude a cluster, or one node of it.")
+    public static final class Add implements Callable<Integer> {
+        @Spec
+        CommandSpec spec;
+
+        @Mixin
+        ServerOptions server;
+
+        @Parameters(index = "0", paramLabel = "CLUSTER")
+        String cluster;
+
+        @Parameters(index = "1", paramLabel = "NODE", arity = "0..1")
+        String node;
+
+        @Option(names = "--reason", required = true, paramLabel = "R", description = "why, in your words")
+        String reason;
+
+        @Option(names = "--owner", required = true, paramLabel = "O", description = "whose the cluster is, or who to ask")
+        String owner;
+
+        @Option(names = "--until", paramLabel = "T",
+                description = "RFC 3339 time, or a duration from now (4h); default: until removed")
+        String until;
+
+        @Override
+        public Integer call() {
+            Instant end = until == null ? null : until(until, Clock.systemUTC());
+            ExclusionView x = server.operations().exclude(new ExclusionRequest(cluster, node, reason, owner, end));
+            spec.commandLine().getOut().println("excluded " + Render.target(x.cluster(), x.node())
+                    + (x.until() == null ? " until removed" : " until " + x.until()) + " (owner " + x.owner() + "): " + x.reason());
+            return ExitCodes.OK;
+        }
+    }
+
+    /** {@code tend exclude remove CLUSTER [NODE]}. */
+    @Command(name = "remove", mixinStandardHelpOptions = true, description = "Remove the exclusion of a cluster or a node.")
+    public static final class Remove implements Callable<Integer> {
+        @Spec
+        CommandSpec spec;
+
+        @Mixin
+        ServerOptions server;
+
+        @Parameters(index = "0", paramLabel = "CLUSTER")
+        String cluster;
+
+        @Parameters(index = "1", paramLabel = "NODE", arity = "0..1")
+        String node;
+
+        @Override
+        public Integer call() {
+            ExclusionView x = server.operations().unexclude(cluster, node);
+            spec.commandLine().getOut().println("removed the exclusion of " + Render.target(x.cluster(), x.node()));
+            return ExitCodes.OK;
+        }
+    }
+
+    /** {@code tend exclude list}. */
+    @Command(name = "list", mixinStandardHelpOptions = true, description = "List exclusions, lapsed ones marked.")
+    public static final class ListAll implements Callable<Integer> {
+        @Spec
+        CommandSpec spec;
+
+        @Mixin
+        ServerOptions server;
+
+        @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
+        ApprovalsCommand.Format format;
+
+        @Override
+        public Integer call() {
+            var list = server.operations().exclusions();
+            if (format == ApprovalsCommand.Format.json) Render.json(spec.commandLine().getOut(), list);
+            else Render.exclusions(spec.commandLine().getOut(), list);
+            return ExitCodes.OK;
+        }
+    }
+
+    /** An RFC 3339 time, or a duration from now. */
+    static Instant until(String text, Clock clock) {
+        if (text.matches("(\\d+[smhd])+")) return clock.instant().plus(Durations.parse(text));
+        try {
+            return Rfc3339.parse(text);
+        } catch (IllegalArgumentException e) {
+            throw new CommandLine.TypeConversionException("--until '" + text
+                    + "' is not a time: use an RFC 3339 time like 2027-03-15T06:00:00Z or a duration from now like 4h");
+        }
+    }
+}

@@ -1,0 +1,88 @@
+package dev.tend.cli;
+
+import dev.tend.handover.HandoverCsv;
+import dev.tend.handover.HandoverHtml;
+import dev.tend.handover.HandoverReport;
+import dev.tend.handover.HandoverText;
+import dev.tend.handover.ReportPeriod;
+import dev.tend.store.Store;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.concurrent.Callable;
+
+/**
+ * {@code tend handover}: what automation did in a period, from the ledger. Exit 0, or 1 when
+ * the ledger fails verify (the report is still written, and says so first).
+ */
+@Command(name = "handover", mixinStandardHelpOptions = true,
+        description = "What automation did from --since until --until (default: now), computed from the ledger: runs started,"
+                + " succeeded, failed, held and denied by playbook and reason code, nodes remediated, approvals pending and"
+                + " lapsed, fleet brake periods, runs that need a person, and whether the ledger verifies (exit 1 if not).")
+public final class HandoverCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Mixin
+    DbOption db;
+
+    @Option(names = "--since", required = true, paramLabel = "T",
+            description = "RFC 3339 time, clock time (22:00: its latest past occurrence, local zone) or duration ago (8h)")
+    String since;
+
+    @Option(names = "--until", paramLabel = "T", description = "end of the period, not included (default: now)")
+    String until;
+
+    @Option(names = "--format", defaultValue = "text",
+            description = "text (one screen), csv (runs table, then summary table) or html (one self-contained page with a timeline); default: ${DEFAULT-VALUE}")
+    Format format;
+
+    @Option(names = "--out", paramLabel = "FILE", description = "write the report to FILE instead of standard output")
+    Path out;
+
+    enum Format { text, csv, html }
+
+    @Override
+    public Integer call() throws Exception {
+        Clock clock = Clock.systemDefaultZone();
+        Instant from = TimeArg.parse(since, clock);
+        Instant to = until == null ? clock.instant() : TimeArg.parse(until, clock);
+        if (!to.isAfter(from)) {
+            throw new CommandLine.ParameterException(spec.commandLine(),
+                    "--until (" + to + ") must be after --since (" + from + ")");
+        }
+        ReportPeriod period = ReportPeriod.of(from, to);
+        HandoverReport report;
+        try (Store store = db.openExisting()) {
+            report = store.read(r -> HandoverReport.from(r, period));
+        }
+        String text = switch (format) {
+            case csv -> HandoverCsv.render(report);
+            case html -> HandoverHtml.render(report);
+            default -> HandoverText.render(report);
+        };
+        if (out == null) {
+            spec.commandLine().getOut().print(text);
+            spec.commandLine().getOut().flush();
+        } else {
+            Path parent = out.toAbsolutePath().getParent();
+            if (parent != null) Files.createDirectories(parent);
+            Files.writeString(out, text, StandardCharsets.UTF_8);
+        }
+        if (!report.ledger().verified()) {
+            spec.commandLine().getErr().println("tend: the ledger failed verify at entry " + report.ledger().firstBrokenSeq()
+                    + ": " + report.ledger().verifyMessage());
+            return ExitCodes.FINDINGS;
+        }
+        return ExitCodes.OK;
+    }
+}

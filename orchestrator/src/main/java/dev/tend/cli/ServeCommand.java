@@ -1,0 +1,97 @@
+package dev.tend.cli;
+
+import dev.tend.api.auth.TokenFile;
+import dev.tend.api.auth.Tokens;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EventTimeMode;
+import dev.tend.serve.ServeSettings;
+import dev.tend.serve.TendServer;
+import dev.tend.store.Store;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Duration;
+import java.util.concurrent.Callable;
+
+/**
+ * {@code tend serve}: the long-running orchestrator with the HTTP API, until a signal stops it.
+ * Event time follows processing time, two minutes behind, so a problem is confirmed even when
+ * no further transition arrives (see DEVELOPERS.md, "Two clocks").
+ */
+@Command(name = "serve", mixinStandardHelpOptions = true,
+        description = "Run the orchestrator with the HTTP API (/api/v1), /metrics and the web console; "
+                + "resume from the store; stop on SIGINT or SIGTERM.")
+public final class ServeCommand implements Callable<Integer> {
+    /** How far event time may trail processing time when transitions pause. */
+    static final Duration EVENT_TIME_LAG = Duration.ofMinutes(2);
+
+    @Spec
+    CommandSpec spec;
+
+    @Mixin
+    PolicyOptions policy;
+
+    @Mixin
+    DbOption db;
+
+    @Option(names = "--listen", paramLabel = "HOST:PORT", defaultValue = "127.0.0.1:7420", converter = ListenConverter.class,
+            description = "address to listen on (default: ${DEFAULT-VALUE})")
+    Listen listen;
+
+    @Option(names = "--tokens", paramLabel = "FILE",
+            description = "bearer tokens (YAML: name, roles, sha256 of the token); without it every API request is refused")
+    Path tokensFile;
+
+    @Option(names = "--speedup", defaultValue = "1", paramLabel = "N",
+            description = "run simulated actions N times faster than their durations (default: ${DEFAULT-VALUE})")
+    double speedup;
+
+    @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
+    long seed;
+
+    static final class ListenConverter implements picocli.CommandLine.ITypeConverter<Listen> {
+        @Override
+        public Listen convert(String value) {
+            return Listen.parse(value);
+        }
+    }
+
+    @Override
+    public Integer call() throws Exception {
+        PrintWriter err = spec.commandLine().getErr();
+        EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
+        Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
+        if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
+        Clock clock = Clock.systemUTC();
+        ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
+                .speedup(speedup).seed(seed).log(err).build();
+        try (Store store = db.open()) {
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            try (TendServer server = TendServer.start(store, settings)) {
+                var rec = server.recovery();
+                if (rec.inputsReplayed() > 0) {
+                    err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
+                            + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
+                            + rec.callsUnknown() + " runs stopped for a person");
+                }
+                err.println("tend: serving " + server.url() + "/api/v1 (tokens: " + String.join(", ", tokens.names()) + ")");
+                err.flush();
+                Thread hook = new Thread(server::close, "tend-serve-stop");
+                Runtime.getRuntime().addShutdownHook(hook);
+                server.awaitStop();
+                try {
+                    Runtime.getRuntime().removeShutdownHook(hook);
+                } catch (IllegalStateException shuttingDown) {
+                    // a signal stopped us: the store is consistent, everything resumes on the next start
+                }
+            }
+        }
+        return ExitCodes.OK;
+    }
+}

@@ -1,0 +1,66 @@
+package dev.tend.handover;
+
+import java.time.Instant;
+import java.util.Objects;
+import java.util.Set;
+
+/**
+ * One approval as the ledger shows it at the end of a report's period.
+ *
+ * @param run         the run that asks
+ * @param playbook    its playbook
+ * @param cluster     its cluster
+ * @param node        its node; null for a cluster-scoped run
+ * @param requestedAt when a person was asked
+ * @param expiresAt   when it lapses unanswered; not before {@code requestedAt}
+ * @param state       one of {@link #STATES}: still pending at the period's end, or how it was settled
+ *                    ({@code withdrawn}: the run ended, e.g. the problem went away, before anyone answered)
+ * @param decidedBy   who approved or rejected; null otherwise
+ * @param decidedAt   when it was settled; null while pending
+ */
+public record ApprovalLine(String run, String playbook, String cluster, String node, Instant requestedAt, Instant expiresAt,
+                           String state, String decidedBy, Instant decidedAt) {
+    public static final String PENDING = "pending";
+    public static final String APPROVED = "approved";
+    public static final String REJECTED = "rejected";
+    public static final String LAPSED = "lapsed";
+    public static final String WITHDRAWN = "withdrawn";
+    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
+
+    public ApprovalLine {
+        Objects.requireNonNull(run, "ApprovalLine.run must not be null");
+        Objects.requireNonNull(playbook, "ApprovalLine.playbook must not be null");
+        Objects.requireNonNull(cluster, "ApprovalLine.cluster must not be null");
+        Objects.requireNonNull(requestedAt, "ApprovalLine.requestedAt must not be null");
+        Objects.requireNonNull(expiresAt, "ApprovalLine.expiresAt must not be null");
+        if (expiresAt.isBefore(requestedAt)) {
+            throw new IllegalArgumentException("ApprovalLine.expiresAt must not be before requestedAt " + requestedAt + ", got " + expiresAt);
+        }
+        Objects.requireNonNull(state, "ApprovalLine.state must not be null");
+        if (!STATES.contains(state)) {
+            throw new IllegalArgumentException("ApprovalLine.state must be one of pending, approved, rejected, lapsed, withdrawn, got '"
+                    + state + "'");
+        }
+        if (PENDING.equals(state) != (decidedAt == null)) {
+            throw new IllegalArgumentException("ApprovalLine.decidedAt must be null exactly while pending; state '" + state
+                    + "', decidedAt " + decidedAt);
+        }
+        if (decidedAt != null && decidedAt.isBefore(requestedAt)) {
+            throw new IllegalArgumentException("ApprovalLine.decidedAt must not be before requestedAt " + requestedAt + ", got " + decidedAt);
+        }
+    }
+
+    public boolean isPending() {
+        return PENDING.equals(state);
+    }
+
+    /** Pending although its expiry passed before {@code t}: no lapse was recorded (tend was not running then). */
+    public boolean isOverdueAt(Instant t) {
+        return isPending() && !expiresAt.isAfter(t);
+    }
+
+    /** "cluster/node", or the cluster for a cluster-scoped run. */
+    public String target() {
+        return node == null ? cluster : cluster + "/" + node;
+    }
+}

@@ -1,0 +1,127 @@
+package dev.tend.metrics;
+
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.Input;
+import dev.tend.runtime.CommitListener;
+import dev.tend.store.Store;
+import io.prometheus.metrics.core.metrics.Counter;
+import io.prometheus.metrics.core.metrics.Gauge;
+import io.prometheus.metrics.core.metrics.GaugeWithCallback;
+import io.prometheus.metrics.core.metrics.Histogram;
+import io.prometheus.metrics.expositionformats.PrometheusTextFormatWriter;
+import io.prometheus.metrics.model.registry.PrometheusRegistry;
+
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.time.Duration;
+import java.util.List;
+
+/**
+ * The metrics of one {@code tend serve}, in a registry of their own (several servers may
+ * share a JVM in tests). Counters count from this process's start, as Prometheus expects:
+ * <pre>
+ * tend_transitions_received_total           transitions and topology events accepted over HTTP
+ * tend_transition_lines_rejected_total      lines of transition requests refused
+ * tend_verdicts_total{verdict,reason}       verdicts written to the ledger, once per reason code ("none" for a clean start)
+ * tend_runs_started_total{playbook}
+ * tend_runs_ended_total{playbook,state}     succeeded, failed, cancelled, shadowed
+ * tend_runs_active                          runs executing, paused or waiting for a person
+ * tend_fleet_brake_engaged                  1 while the fleet brake is engaged
+ * tend_unhealthy_clusters
+ * tend_approvals_pending                    read from the store at scrape time
+ * tend_ledger_entries                       the ledger's length, read from the store at scrape time
+ * tend_executor_duration_seconds{kind,success}  from call to result
+ * </pre>
+ * Thread-safe. {@link #committed} runs on the driver thread.
+ */
+public final class TendMetrics implements CommitListener {
+    private final PrometheusRegistry registry = new PrometheusRegistry();
+    private final Counter transitions = Counter.builder().name("tend_transitions_received_total")
+            .help("Transitions and topology events accepted over HTTP").register(registry);
+    private final Counter rejectedLines = Counter.builder().name("tend_transition_lines_rejected_total")
+            .help("Lines of transition requests refused").register(registry);
+    private final Counter verdicts = Counter.builder().name("tend_verdicts_total")
+            .help("Verdicts written to the ledger, once per reason code").labelNames("verdict", "reason").register(registry);
+    private final Counter runsStarted = Counter.builder().name("tend_runs_started_total")
+            .help("Runs started").labelNames("playbook").register(registry);
+    private final Counter runsEnded = Counter.builder().name("tend_runs_ended_total")
+            .help("Runs ended, by final state").labelNames("playbook", "state").register(registry);
+    private final Gauge activeRuns = Gauge.builder().name("tend_runs_active")
+            .help("Runs executing, paused or waiting for a person").register(registry);
+    private final Gauge brake = Gauge.builder().name("tend_fleet_brake_engaged")
+            .help("1 while the fleet brake is engaged, else 0").register(registry);
+    private final Gauge unhealthy = Gauge.builder().name("tend_unhealthy_clusters")
+            .help("Clusters with a signal in breach or silent").register(registry);
+    private final Histogram executorSeconds = Histogram.builder().name("tend_executor_duration_seconds")
+            .help("Time from an executor call to its result").labelNames("kind", "success")
+            .classicUpperBounds(0.01, 0.05, 0.1, 0.5, 1, 5, 10, 30, 60, 300, 900, 1800).classicOnly().register(registry);
+
+    public TendMetrics(Store store) {
+        GaugeWithCallback.builder().name("tend_ledger_entries").help("Entries in the audit ledger")
+                .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
+                .register(registry);
+        GaugeWithCallback.builder().name("tend_approvals_pending").help("Approvals waiting for a person")
+                .callback(cb -> cb.call(store.read(r -> r.approvals("pending").size())))
+                .register(registry);
+    }
+
+    public void transitionsReceived(long n) {
+        if (n > 0) transitions.inc(n);
+    }
+
+    public void linesRejected(long n) {
+        if (n > 0) rejectedLines.inc(n);
+    }
+
+    public void executorAnswered(String kind, boolean success, Duration took) {
+        executorSeconds.labelValues(kind, Boolean.toString(success)).observe(took.toNanos() / 1e9);
+    }
+
+    /** Sets the gauges from the engine; on the driver thread (or before it starts). */
+    public void observe(Engine engine) {
+        activeRuns.set(engine.activeRuns());
+        brake.set(engine.brake().engaged() ? 1 : 0);
+        unhealthy.set(engine.health().unhealthyClusterCount());
+    }
+
+    @Override
+    public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+        for (Effect e : effects) {
+            if (!(e instanceof Effect.Ledger l)) continue;
+            switch (l.kind()) {
+                case "verdict" -> {
+                    String verdict = String.valueOf(l.fields().get("verdict"));
+                    Object reasons = l.fields().get("reasons");
+                    if (reasons instanceof List<?> list && !list.isEmpty()) {
+                        for (Object r : list) verdicts.labelValues(verdict, String.valueOf(r)).inc();
+                    } else {
+                        verdicts.labelValues(verdict, "none").inc();
+                    }
+                }
+                case "run-started" -> runsStarted.labelValues(String.valueOf(l.fields().get("playbook"))).inc();
+                case "run-ended" -> runsEnded.labelValues(String.valueOf(l.fields().get("playbook")),
+                        String.valueOf(l.fields().get("state"))).inc();
+                default -> { }
+            }
+        }
+        observe(engine);
+    }
+
+    /** The Prometheus text exposition format (version 0.0.4). */
+    public String scrape() {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        try {
+            PrometheusTextFormatWriter.create().write(out, registry.scrape());
+        } catch (IOException e) {
+            throw new UncheckedIOException("writing to memory failed", e);
+        }
+        return out.toString(StandardCharsets.UTF_8);
+    }
+
+    public static String contentType() {
+        return PrometheusTextFormatWriter.CONTENT_TYPE;
+    }
+}

@@ -1,0 +1,124 @@
+package dev.tend.runtime;
+
+import dev.tend.shared.TendException;
+import dev.tend.shared.time.Timers;
+import org.quartz.Job;
+import org.quartz.JobBuilder;
+import org.quartz.JobExecutionContext;
+import org.quartz.JobExecutionException;
+import org.quartz.JobKey;
+import org.quartz.Scheduler;
+import org.quartz.SchedulerException;
+import org.quartz.SimpleScheduleBuilder;
+import org.quartz.Trigger;
+import org.quartz.TriggerBuilder;
+import org.quartz.impl.StdSchedulerFactory;
+import org.quartz.impl.matchers.GroupMatcher;
+import org.quartz.simpl.RAMJobStore;
+
+import java.time.Instant;
+import java.util.Date;
+import java.util.Objects;
+import java.util.Properties;
+import java.util.Set;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.function.Consumer;
+
+/**
+ * The {@link Timers} port on a Quartz scheduler with the in-memory job store (DESIGN.md
+ * section 9): one job per timer key, whose trigger hands the key to {@code fire} at its due
+ * time (at once when the time has passed, as after a restart). Nothing is kept across
+ * processes here: the engine knows its armed timers, and {@link Orchestrator#recover()} arms
+ * them again on start. Thread-safe; {@code fire} is called on Quartz's thread and must not block.
+ */
+public final class QuartzTimers implements Timers, AutoCloseable {
+    private static final String GROUP = "tend";
+    private static final String FIRE = "tend.fire";
+    private static final String KEY = "key";
+    private static final AtomicInteger INSTANCES = new AtomicInteger();
+
+    private final Scheduler scheduler;
+
+    public QuartzTimers(Consumer<String> fire) {
+        Objects.requireNonNull(fire, "fire");
+        Properties p = new Properties();
+        // scheduler names are global to the JVM; several servers may live in one (tests)
+        p.setProperty(StdSchedulerFactory.PROP_SCHED_INSTANCE_NAME, "tend-timers-" + INSTANCES.incrementAndGet());
+        p.setProperty(StdSchedulerFactory.PROP_JOB_STORE_CLASS, RAMJobStore.class.getName());
+        p.setProperty("org.quartz.threadPool.threadCount", "1");
+        p.setProperty("org.quartz.threadPool.makeThreadsDaemons", "true");
+        p.setProperty("org.quartz.scheduler.makeSchedulerThreadDaemon", "true");
+        p.setProperty("org.quartz.jobStore.misfireThreshold", "1000");
+        try {
+            scheduler = new StdSchedulerFactory(p).getScheduler();
+            scheduler.getContext().put(FIRE, fire);
+            scheduler.start();
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not start the timer scheduler: " + e.getMessage(), e);
+        }
+    }
+
+    @Override
+    public void arm(String key, Instant due) {
+        Objects.requireNonNull(key, "key");
+        Objects.requireNonNull(due, "due");
+        var job = JobBuilder.newJob(FireJob.class).withIdentity(key, GROUP).usingJobData(KEY, key).build();
+        Trigger trigger = TriggerBuilder.newTrigger().withIdentity(key, GROUP).startAt(Date.from(due))
+                .withSchedule(SimpleScheduleBuilder.simpleSchedule().withMisfireHandlingInstructionFireNow())
+                .build();
+        try {
+            scheduler.scheduleJob(job, Set.of(trigger), true);
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not arm timer " + key + " for " + due + ": " + e.getMessage(), e);
+        }
+    }
+
+    @Override
+    public void cancel(String key) {
+        try {
+            scheduler.deleteJob(JobKey.jobKey(key, GROUP));
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not cancel timer " + key + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** How many timers are armed and have not fired yet. */
+    public int armedCount() {
+        try {
+            return scheduler.getJobKeys(GroupMatcher.jobGroupEquals(GROUP)).size();
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not count armed timers: " + e.getMessage(), e);
+        }
+    }
+
+    /** Stops the scheduler without waiting for a firing in progress; timers not fired are dropped. */
+    @Override
+    public void close() {
+        try {
+            scheduler.shutdown(false);
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not stop the timer scheduler: " + e.getMessage(), e);
+        }
+    }
+
+    /** The Quartz job of one timer: hands its key to the consumer in the scheduler's context. */
+    public static final class FireJob implements Job {
+        @Override
+        public void execute(JobExecutionContext context) throws JobExecutionException {
+            try {
+                @SuppressWarnings("unchecked")
+                Consumer<String> fire = (Consumer<String>) context.getScheduler().getContext().get(FIRE);
+                fire.accept(context.getMergedJobDataMap().getString(KEY));
+            } catch (SchedulerException e) {
+                throw new JobExecutionException(e);
+            }
+        }
+    }
+
+    /** The timer scheduler failed: it could not start, arm, cancel or stop. */
+    public static final class TimersFailedException extends TendException {
+        TimersFailedException(String message, Throwable cause) {
+            super(message, cause);
+        }
+    }
+}

@@ -1,0 +1,173 @@
+package dev.tend.serve;
+
+import dev.tend.api.ApiServer;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.Input;
+import dev.tend.executor.CommandExecutor;
+import dev.tend.executor.Executor;
+import dev.tend.executor.HttpExecutor;
+import dev.tend.executor.SimulatedExecutor;
+import dev.tend.metrics.TendMetrics;
+import dev.tend.metrics.TimedExecutor;
+import dev.tend.runtime.CommitListener;
+import dev.tend.runtime.Notifier;
+import dev.tend.runtime.Orchestrator;
+import dev.tend.runtime.QuartzTimers;
+import dev.tend.shared.TendException;
+import dev.tend.store.Store;
+
+import java.io.PrintWriter;
+import java.time.Clock;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.Executors;
+import java.util.concurrent.ScheduledExecutorService;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicLong;
+
+/**
+ * A running {@code tend serve}: the orchestrator recovered from the store and driven on
+ * its own thread with the wall clock, Quartz timers re-armed from what the engine had armed,
+ * the command, simulated and http executors, a tick that lets event time follow processing
+ * time (sent only when nothing was committed for a tick's length, since any input moves
+ * event time), and the HTTP API on top. The caller owns the store and closes it after this.
+ */
+public final class TendServer implements AutoCloseable {
+    private final Orchestrator orchestrator;
+    private final Orchestrator.Recovery recovery;
+    private final QuartzTimers timers;
+    private final List<Executor> executors;
+    private final Thread driver;
+    private final CountDownLatch driverDone = new CountDownLatch(1);
+    private final ScheduledExecutorService ticker;
+    private final ApiServer api;
+    private final String host;
+    /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
+    private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
+    private volatile Throwable driverFailure;
+    private volatile boolean closed;
+
+    private TendServer(Store store, ServeSettings s) {
+        Clock clock = Clock.systemUTC();
+        PrintWriter log = s.log();
+        TendMetrics metrics = new TendMetrics(store);
+        FleetHealthPublisher health = new FleetHealthPublisher(clock);
+        executors = List.of(new TimedExecutor(new CommandExecutor(s.workDir()), metrics),
+                new TimedExecutor(new SimulatedExecutor(s.seed(), s.speedup()), metrics),
+                new TimedExecutor(HttpExecutor.withDefaults(), metrics));
+        Map<String, Executor> byKind = new LinkedHashMap<>();
+        for (Executor e : executors) byKind.put(e.kind(), e);
+        Orchestrator[] holder = new Orchestrator[1];
+        timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
+        CommitListener listeners = (Engine engine, List<Input> inputs, List<Effect> effects) -> {
+            lastCommitNanos.set(System.nanoTime());
+            metrics.committed(engine, inputs, effects);
+            health.committed(engine, inputs, effects);
+        };
+        Notifier notifier = n -> {
+            synchronized (log) {
+                log.println("tend: notify " + n.channel() + ": " + n.message());
+                log.flush();
+            }
+        };
+        orchestrator = new Orchestrator(store, s.setup(), byKind, timers, notifier, clock, listeners);
+        holder[0] = orchestrator;
+        recovery = orchestrator.recover();
+        // the driver thread has not started: this thread may still read the engine
+        health.publish(orchestrator.engine());
+        metrics.observe(orchestrator.engine());
+        driver = new Thread(this::drive, "tend-driver");
+        driver.start();
+        ticker = Executors.newSingleThreadScheduledExecutor(r -> {
+            Thread t = new Thread(r, "tend-tick");
+            t.setDaemon(true);
+            return t;
+        });
+        long tickMs = s.tick().toMillis();
+        ticker.scheduleAtFixedRate(() -> {
+            if (System.nanoTime() - lastCommitNanos.get() >= TimeUnit.MILLISECONDS.toNanos(tickMs) * 9 / 10) {
+                orchestrator.submit(new Input.Tick());
+            }
+        }, tickMs, tickMs, TimeUnit.MILLISECONDS);
+        OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
+        try {
+            api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log));
+        } catch (RuntimeException e) {
+            stopDriver();
+            throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);
+        }
+        host = s.host();
+    }
+
+    /**
+     * Recovers the engine from {@code store} and starts serving. Throws {@link TendException}
+     * when the port cannot be bound (nothing keeps running then).
+     */
+    public static TendServer start(Store store, ServeSettings settings) {
+        return new TendServer(store, settings);
+    }
+
+    private void drive() {
+        try {
+            orchestrator.runUntil(() -> false);
+        } catch (Throwable t) {
+            driverFailure = t;
+        } finally {
+            driverDone.countDown();
+        }
+    }
+
+    public int port() {
+        return api.port();
+    }
+
+    /** The base URL, e.g. {@code http://127.0.0.1:7420}. */
+    public String url() {
+        String h = host.contains(":") ? "[" + host + "]" : host;
+        return "http://" + h + ":" + port();
+    }
+
+    /** What the start found in the store. */
+    public Orchestrator.Recovery recovery() {
+        return recovery;
+    }
+
+    /**
+     * Blocks until the driver stops: after {@link #close()}, or when a commit failed, in which
+     * case the failure is thrown here (as the {@link TendException} the driver stopped with).
+     */
+    public void awaitStop() throws InterruptedException {
+        driverDone.await();
+        Throwable t = driverFailure;
+        if (t instanceof RuntimeException r) throw r;
+        if (t instanceof Error e) throw e;
+        if (t != null) throw new TendException("the orchestrator stopped: " + t, t);
+    }
+
+    /** Stops serving: the API, the tick, the driver (after its current batch), timers and executors. Idempotent. */
+    @Override
+    public void close() {
+        if (closed) return;
+        closed = true;
+        api.close();
+        stopDriver();
+    }
+
+    private void stopDriver() {
+        ticker.shutdownNow();
+        orchestrator.stop();
+        try {
+            if (!driverDone.await(30, TimeUnit.SECONDS)) {
+                throw new TendException("the orchestrator did not stop within 30s");
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        } finally {
+            timers.close();
+            for (Executor e : executors) e.close();
+        }
+    }
+}

@@ -1,0 +1,72 @@
+package dev.tend.store;
+
+import dev.tend.shared.Id;
+import org.assertj.core.api.ThrowableAssert.ThrowingCallable;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.stream.Stream;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+import static org.junit.jupiter.params.provider.Arguments.arguments;
+
+class LedgerDraftTest {
+    static final Instant T = Instant.parse("2027-03-14T02:17:00Z");
+
+    static Stream<Arguments> rules() {
+        Map<Object, Object> numberKey = new HashMap<>();
+        numberKey.put(7, "x");
+        return Stream.of(
+                arguments(NullPointerException.class, "LedgerDraft.at must not be null",
+                        (ThrowingCallable) () -> LedgerDraft.of(null, "verdict", Map.of())),
+                arguments(NullPointerException.class, "LedgerDraft.kind must not be null",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, null, Map.of())),
+                arguments(IllegalArgumentException.class, "LedgerDraft.kind must not be blank",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "", Map.of())),
+                arguments(NullPointerException.class, "LedgerDraft.fields must not be null (pass an empty map)",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", null)),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields must not hold 'seq': the store writes seq, at and kind itself",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("seq", 4))),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields must not hold 'kind': the store writes seq, at and kind itself",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("kind", "run"))),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields.cluster must be text (it is indexed), got 3",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("cluster", 3))),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields.limits.cooldown is a java.time.Duration, which is not a "
+                                + "JSON value; pass text, a number, a boolean, a map or a list",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("limits", Map.of("cooldown", Duration.ofHours(6))))),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields.detail keys must be text, got 7",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("detail", numberKey))),
+                arguments(IllegalArgumentException.class, "LedgerDraft.fields.load[1] must be a finite number (RFC 8785 has no form for NaN)",
+                        (ThrowingCallable) () -> LedgerDraft.of(T, "verdict", Map.of("load", List.of(0.5, Double.NaN)))));
+    }
+
+    @ParameterizedTest(name = "{1}")
+    @MethodSource("rules")
+    void rejectsFieldsTheLedgerCannotWrite(Class<? extends Throwable> type, String message, ThrowingCallable make) {
+        assertThatThrownBy(make).isExactlyInstanceOf(type).hasMessage(message);
+    }
+
+    @Test
+    void instantsAndIdsBecomeTextAndTheCopyCannotBeChanged() {
+        Map<String, Object> fields = new HashMap<>();
+        fields.put("cluster", Id.of("fares-3"));
+        fields.put("until", Instant.parse("2027-03-14T02:17:00.5Z"));
+        fields.put("nodes", List.of(Id.of("n1"), Id.of("n2")));
+        LedgerDraft d = LedgerDraft.of(T, "exclusion", fields);
+        fields.put("cluster", "changed-later");
+        assertThat(d.fields()).containsEntry("cluster", "fares-3")
+                .containsEntry("until", "2027-03-14T02:17:00.500Z")
+                .containsEntry("nodes", List.of("n1", "n2"));
+        assertThat(d.indexed("cluster")).isEqualTo("fares-3");
+        assertThat(d.indexed("run")).isNull();
+        assertThatThrownBy(() -> d.fields().put("x", 1)).isInstanceOf(UnsupportedOperationException.class);
+    }
+}
