@@ -28,6 +28,18 @@ public record Candidate(Playbook playbook, Target target, SignalKey trigger, Ins
 
     /** Identifies a candidate: at most one per playbook and target. */
     public record Key(Id playbook, Target target) {
+        // written out rather than generated: keys are looked up on every evaluation
+        @Override
+        public boolean equals(Object o) {
+            if (this == o) return true;
+            return o instanceof Key k && playbook.equals(k.playbook) && target.equals(k.target);
+        }
+
+        @Override
+        public int hashCode() {
+            return 31 * playbook.hashCode() + target.hashCode();
+        }
+
         @Override
         public String toString() {
             return playbook + "@" + target;

@@ -35,7 +35,7 @@ public final class Effects {
     }
 
     public static Object normalise(Object v) {
-        if (v instanceof Instant i) return i.toString();
+        if (v instanceof Instant i) return InstantText.of(i);
         if (v instanceof Target t) return t.toString();
         if (v instanceof dev.tend.shared.Id id) return id.value();
         if (v instanceof Enum<?> e) return e.toString();

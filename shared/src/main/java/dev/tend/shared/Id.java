@@ -57,6 +57,17 @@ public record Id(String value) implements Comparable<Id> {
         return sb.toString();
     }
 
+    // written out rather than generated: ids are map keys on every event
+    @Override
+    public boolean equals(Object o) {
+        return this == o || o instanceof Id other && value.equals(other.value);
+    }
+
+    @Override
+    public int hashCode() {
+        return value.hashCode();
+    }
+
     @Override
     public int compareTo(Id o) {
         return value.compareTo(o.value);

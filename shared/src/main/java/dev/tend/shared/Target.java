@@ -20,6 +20,18 @@ public record Target(Id cluster, Id node) implements Comparable<Target> {
         return node == null;
     }
 
+    // written out rather than generated: targets are map keys on every evaluation
+    @Override
+    public boolean equals(Object o) {
+        if (this == o) return true;
+        return o instanceof Target t && cluster.equals(t.cluster) && java.util.Objects.equals(node, t.node);
+    }
+
+    @Override
+    public int hashCode() {
+        return 31 * cluster.hashCode() + (node == null ? 0 : node.hashCode());
+    }
+
     @Override
     public int compareTo(Target o) {
         int c = cluster.compareTo(o.cluster);

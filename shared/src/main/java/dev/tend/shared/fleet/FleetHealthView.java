@@ -40,11 +40,8 @@ public final class FleetHealthView {
 
     private final Map<SignalKey, Slot> signals = new HashMap<>(1 << 16);
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
-    /** Active problem signals per cluster (node and cluster level). */
-    private final Map<Id, Integer> problemsPerCluster = new HashMap<>();
-    /** Active problem signals per cluster-level target, and per node of each cluster. */
-    private final Map<Id, Map<Id, Integer>> problemsPerNode = new HashMap<>();
-    private final Map<Id, Integer> clusterLevelProblems = new HashMap<>();
+    /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
+    private final Map<Id, Problems> problems = new HashMap<>();
     private long lateEvents;
     private long appliedEvents;
 
@@ -111,17 +108,27 @@ public final class FleetHealthView {
         return ApplyOutcome.TOPOLOGY;
     }
 
+    /** Active problem signals of one cluster: in all, at cluster level, and per node. */
+    private static final class Problems {
+        int total;
+        int clusterLevel;
+        final Map<Id, Integer> perNode = new HashMap<>(4);
+    }
+
+    // one lookup per change instead of seven: every state change of every signal comes here
     private void count(SignalKey key, int delta) {
-        problemsPerCluster.merge(key.cluster(), delta, Integer::sum);
-        if (key.node() == null) {
-            clusterLevelProblems.merge(key.cluster(), delta, Integer::sum);
-        } else {
-            problemsPerNode.computeIfAbsent(key.cluster(), c -> new HashMap<>()).merge(key.node(), delta, Integer::sum);
-            Map<Id, Integer> nodes = problemsPerNode.get(key.cluster());
-            if (nodes.get(key.node()) == 0) nodes.remove(key.node());
+        Problems p = problems.get(key.cluster());
+        if (p == null) {
+            p = new Problems();
+            problems.put(key.cluster(), p);
         }
-        if (problemsPerCluster.get(key.cluster()) == 0) problemsPerCluster.remove(key.cluster());
-        if (clusterLevelProblems.getOrDefault(key.cluster(), 1) == 0) clusterLevelProblems.remove(key.cluster());
+        p.total += delta;
+        if (key.node() == null) {
+            p.clusterLevel += delta;
+        } else if (p.perNode.merge(key.node(), delta, Integer::sum) == 0) {
+            p.perNode.remove(key.node());
+        }
+        if (p.total == 0) problems.remove(key.cluster());
     }
 
     public Optional<SignalStatus> status(SignalKey key) {
@@ -162,49 +169,50 @@ public final class FleetHealthView {
     }
 
     public boolean isNodeImpaired(Id cluster, Id node) {
-        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
-        return nodes != null && nodes.containsKey(node);
+        Problems p = problems.get(cluster);
+        return p != null && p.perNode.containsKey(node);
     }
 
     /** The nodes of a cluster with at least one signal in breach or silent. */
     public Set<Id> impairedNodes(Id cluster) {
-        Map<Id, Integer> nodes = problemsPerNode.get(cluster);
-        return nodes == null ? Set.of() : Collections.unmodifiableSet(new TreeSet<>(nodes.keySet()));
+        Problems p = problems.get(cluster);
+        return p == null ? Set.of() : Collections.unmodifiableSet(new TreeSet<>(p.perNode.keySet()));
     }
 
     public boolean isUnhealthy(Id cluster) {
-        return problemsPerCluster.containsKey(cluster);
+        return problems.containsKey(cluster);
     }
 
     public ClusterHealth health(Id cluster) {
-        if (!problemsPerCluster.containsKey(cluster)) return ClusterHealth.HEALTHY;
-        if (clusterLevelProblems.containsKey(cluster)) return ClusterHealth.UNHEALTHY;
-        int impaired = impairedNodes(cluster).size();
+        Problems p = problems.get(cluster);
+        if (p == null) return ClusterHealth.HEALTHY;
+        if (p.clusterLevel > 0) return ClusterHealth.UNHEALTHY;
+        int impaired = p.perNode.size();
         int tolerated = topology.cluster(cluster).map(ClusterSpec::safeImpaired).orElse(Integer.MAX_VALUE);
         return impaired > tolerated ? ClusterHealth.UNHEALTHY : ClusterHealth.IMPAIRED;
     }
 
     /** Clusters with any signal in breach or silent, on a node or the cluster itself. */
     public int unhealthyClusterCount() {
-        return problemsPerCluster.size();
+        return problems.size();
     }
 
     public Set<Id> unhealthyClusters() {
-        return Collections.unmodifiableSet(new TreeSet<>(problemsPerCluster.keySet()));
+        return Collections.unmodifiableSet(new TreeSet<>(problems.keySet()));
     }
 
     /** The fraction of the topology's clusters that are unhealthy (0 for an empty fleet). */
     public double unhealthyFraction() {
-        int size = Math.max(topology.size(), problemsPerCluster.size());
-        return size == 0 ? 0 : (double) problemsPerCluster.size() / size;
+        int size = Math.max(topology.size(), problems.size());
+        return size == 0 ? 0 : (double) problems.size() / size;
     }
 
     /** Impaired nodes per zone across the fleet; nodes without a known zone count under "unknown". */
     public Map<String, Integer> impairedPerZone() {
         Map<String, Integer> out = new TreeMap<>();
-        for (Map.Entry<Id, Map<Id, Integer>> c : problemsPerNode.entrySet()) {
+        for (Map.Entry<Id, Problems> c : problems.entrySet()) {
             Optional<ClusterSpec> spec = topology.cluster(c.getKey());
-            for (Id node : c.getValue().keySet()) {
+            for (Id node : c.getValue().perNode.keySet()) {
                 String zone = spec.flatMap(s -> s.node(node)).map(NodeSpec::zone).orElse(null);
                 out.merge(zone == null ? "unknown" : zone, 1, Integer::sum);
             }

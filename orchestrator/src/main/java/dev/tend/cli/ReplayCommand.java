@@ -1,0 +1,136 @@
+package dev.tend.cli;
+
+import dev.tend.playbooks.PlaybookSet;
+import dev.tend.playbooks.load.PlaybookLoader;
+import dev.tend.replay.ActionOverrides;
+import dev.tend.replay.Replayer;
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
+import dev.tend.shared.TendException;
+import dev.tend.shared.fleet.Fleet;
+import dev.tend.shared.fleet.FleetFile;
+import dev.tend.simulator.Recording;
+import dev.tend.simulator.report.ComparisonHtml;
+import dev.tend.simulator.report.ComparisonJson;
+import dev.tend.simulator.report.ComparisonText;
+import dev.tend.simulator.report.ReplayReport;
+import dev.tend.simulator.report.ReportComparison;
+import dev.tend.simulator.report.ReportHtml;
+import dev.tend.simulator.report.ReportJson;
+import dev.tend.simulator.report.ReportText;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.Writer;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+
+/**
+ * {@code tend replay RECORDING}: runs a recording through the engine in virtual time with
+ * simulated executors and reports what would have happened; with {@code --against}, runs a
+ * second playbook set on the same recording and seed and reports the differences.
+ */
+@Command(name = "replay", mixinStandardHelpOptions = true,
+        description = "Replay a recording through the decision engine in virtual time, against a fleet model, and report"
+                + " what would have happened: runs, verdicts with reasons, holds, the fleet brake, hidden events.%n"
+                + "Exit 0 ok; 1 when lines of the recording were skipped, or with --against when the two sets differ;"
+                + " 2 usage or input error.")
+public final class ReplayCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "RECORDING", description = "a recording: JSON Lines of wire format v1, optionally with a header line")
+    Path recording;
+
+    @Option(names = "--playbooks", paramLabel = "DIR", required = true,
+            description = "playbook directory with actions.yaml (and tend.yaml unless --config)")
+    Path playbooks;
+
+    @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy for both sets (default: each DIR's tend.yaml if present)")
+    Path config;
+
+    @Option(names = "--fleet", paramLabel = "FILE", description = "fleet file (default: the one the recording's header names, relative to the recording)")
+    Path fleet;
+
+    @Option(names = "--actions", paramLabel = "FILE", description = "an actions.yaml whose actions replace those of the same id, for this replay")
+    Path actions;
+
+    @Option(names = "--against", paramLabel = "DIR", description = "a second playbook directory to replay on the same recording and seed, and compare")
+    Path against;
+
+    @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
+    long seed;
+
+    @Option(names = "--format", defaultValue = "text", description = "text, json or html (default: ${DEFAULT-VALUE})")
+    Format format;
+
+    @Option(names = "--out", paramLabel = "FILE", description = "write the report here instead of standard output")
+    Path out;
+
+    enum Format { text, json, html }
+
+    @Override
+    public Integer call() throws IOException {
+        PrintWriter err = spec.commandLine().getErr();
+        Recording rec = Recording.open(recording);
+        Fleet topology = fleet != null ? FleetFile.load(fleet) : rec.headerFleet().orElseThrow(() -> new InvalidInputException(
+                Problem.at(recording.toString(), 0, 0, "fleet", "the recording's header names no fleet file, and no --fleet"
+                        + " was given: pass --fleet FILE (for the bundled library: playbooks/library/fleet.yaml)")));
+        PlaybookSet a = policy(playbooks);
+        PlaybookSet b = against == null ? null : policy(against);
+
+        ProgressBar bar = ProgressBar.forStderr(err, "replaying " + recording.getFileName());
+        ReplayReport first = Replayer.of(a, topology, seed).replay(rec, bar);
+        boolean skipped = first.recording().badLines() > 0;
+        if (b == null) {
+            write(switch (format) {
+                case json -> ReportJson.toJson(first);
+                case html -> ReportHtml.render(first);
+                default -> ReportText.render(first);
+            });
+            return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
+        }
+        ReplayReport second = Replayer.of(b, topology, seed).replay(rec, ProgressBar.forStderr(err, "replaying against " + against.getFileName()));
+        ReportComparison c = ReportComparison.of(playbooks.toString(), first, against.toString(), second);
+        write(switch (format) {
+            case json -> ComparisonJson.toJson(c);
+            case html -> ComparisonHtml.render(c);
+            default -> ComparisonText.render(c);
+        });
+        return skipped || !c.isSame() ? ExitCodes.FINDINGS : ExitCodes.OK;
+    }
+
+    private PlaybookSet policy(Path dir) {
+        if (!Files.isDirectory(dir)) {
+            throw new InvalidInputException(Problem.at(dir.toString(), 0, 0, "", "not a directory of playbooks"));
+        }
+        PlaybookSet set = config == null ? PlaybookLoader.load(dir) : PlaybookLoader.load(dir, config);
+        return actions == null ? set : ActionOverrides.apply(set, PlaybookLoader.loadActions(actions));
+    }
+
+    private void write(String text) {
+        if (out == null) {
+            PrintWriter o = spec.commandLine().getOut();
+            o.print(text);
+            o.flush();
+            return;
+        }
+        try {
+            Path dir = out.toAbsolutePath().getParent();
+            if (dir != null) Files.createDirectories(dir);
+            try (Writer w = Files.newBufferedWriter(out, StandardCharsets.UTF_8)) {
+                w.write(text);
+            }
+        } catch (IOException e) {
+            throw new TendException("cannot write the report to " + out + ": " + e.getMessage(), e);
+        }
+        spec.commandLine().getErr().println("tend: report written to " + out);
+    }
+}

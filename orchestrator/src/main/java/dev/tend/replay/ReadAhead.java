@@ -1,0 +1,170 @@
+package dev.tend.replay;
+
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
+import dev.tend.shared.Problem;
+import dev.tend.shared.TendException;
+import dev.tend.shared.TopologyEvent;
+import dev.tend.shared.WireEvent;
+import dev.tend.shared.wire.ReadSummary;
+import dev.tend.simulator.Recording;
+
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ArrayBlockingQueue;
+import java.util.concurrent.BlockingQueue;
+
+/**
+ * Reads a recording on a second thread while the calling thread replays it: parsing lines
+ * and running the engine then take two cores instead of adding up on one. Events reach the
+ * sink on the calling thread in file order, a batch at a time, so the replay is exactly what
+ * reading on one thread would give. Ids are made canonical on the way (one instance per
+ * distinct id), so the engine's maps compare them by identity rather than character by
+ * character.
+ */
+final class ReadAhead {
+    private static final int BATCH = 2048;
+    private static final int BATCHES_AHEAD = 16;
+
+    private static final class Batch {
+        final WireEvent[] events = new WireEvent[BATCH];
+        final long[] lines = new long[BATCH];
+        int size;
+        final List<Problem> problems = new ArrayList<>(0);
+        long bytesRead = -1;
+        ReadSummary summary;
+        Throwable failure;
+
+        boolean isFull() {
+            return size == BATCH;
+        }
+    }
+
+    /** Thrown inside the reader to stop it when the replaying side gave up. */
+    private static final class Stopped extends RuntimeException {
+        Stopped() {
+            super(null, null, false, false);
+        }
+    }
+
+    private ReadAhead() {
+    }
+
+    /**
+     * Reads {@code recording} into {@code sink} as {@link Recording#read} does, parsing on a
+     * second thread. Ids equal to one of {@code known} (the fleet's clusters and nodes, the
+     * playbooks' signals) are replaced by that instance, so that looking them up in the
+     * engine's fleet and playbooks finds them by identity.
+     */
+    static ReadSummary read(Recording recording, Recording.Sink sink, Collection<Id> known) {
+        BlockingQueue<Batch> queue = new ArrayBlockingQueue<>(BATCHES_AHEAD);
+        Reader reader = new Reader(recording, queue);
+        for (Id id : known) reader.ids.putIfAbsent(id.value(), id);
+        Thread thread = new Thread(reader, "tend-replay-reader");
+        thread.setDaemon(true);
+        thread.start();
+        boolean done = false;
+        try {
+            while (true) {
+                Batch b = queue.take();
+                for (int i = 0; i < b.size; i++) sink.event(b.events[i], b.lines[i]);
+                for (Problem p : b.problems) sink.problem(p);
+                if (b.bytesRead >= 0) sink.progress(b.bytesRead);
+                if (b.failure != null) {
+                    done = true;
+                    if (b.failure instanceof RuntimeException e) throw e;
+                    if (b.failure instanceof Error e) throw e;
+                    throw new TendException("reading " + recording.file() + " failed: " + b.failure, b.failure);
+                }
+                if (b.summary != null) {
+                    done = true;
+                    return b.summary;
+                }
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new TendException("the replay of " + recording.file() + " was interrupted", e);
+        } finally {
+            if (!done) {
+                reader.stop = true;
+                thread.interrupt();
+            }
+        }
+    }
+
+    private static final class Reader implements Runnable, Recording.Sink {
+        private final Recording recording;
+        private final BlockingQueue<Batch> queue;
+        final Map<String, Id> ids = new HashMap<>();
+        private Batch batch = new Batch();
+        volatile boolean stop;
+
+        Reader(Recording recording, BlockingQueue<Batch> queue) {
+            this.recording = recording;
+            this.queue = queue;
+        }
+
+        @Override
+        public void run() {
+            try {
+                ReadSummary summary = recording.read(this);
+                batch.summary = summary;
+                hand();
+            } catch (Stopped s) {
+                // the replaying side stopped first; nobody waits for the rest
+            } catch (Throwable t) {
+                batch.failure = t;
+                try {
+                    hand();
+                } catch (Stopped s) {
+                    // nobody waits
+                }
+            }
+        }
+
+        @Override
+        public void event(WireEvent event, long line) {
+            batch.events[batch.size] = canonical(event);
+            batch.lines[batch.size] = line;
+            batch.size++;
+            if (batch.isFull()) hand();
+        }
+
+        @Override
+        public void problem(Problem problem) {
+            batch.problems.add(problem);
+        }
+
+        @Override
+        public void progress(long bytesRead) {
+            batch.bytesRead = bytesRead;
+        }
+
+        private void hand() {
+            if (stop) throw new Stopped();
+            try {
+                queue.put(batch);
+            } catch (InterruptedException e) {
+                throw new Stopped();
+            }
+            batch = new Batch();
+        }
+
+        private WireEvent canonical(WireEvent e) {
+            if (e instanceof HealthTransition t) {
+                return new HealthTransition(t.at(), id(t.cluster()), id(t.node()), id(t.signal()), t.state(), t.detail(), t.extra());
+            }
+            TopologyEvent o = (TopologyEvent) e;
+            return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
+        }
+
+        private Id id(Id id) {
+            if (id == null) return null;
+            Id known = ids.putIfAbsent(id.value(), id);
+            return known == null ? id : known;
+        }
+    }
+}

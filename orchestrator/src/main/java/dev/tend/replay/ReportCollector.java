@@ -1,0 +1,208 @@
+package dev.tend.replay;
+
+import dev.tend.engine.BrakeState;
+import dev.tend.engine.Effect;
+import dev.tend.engine.RunSnapshot;
+import dev.tend.engine.RunState;
+import dev.tend.engine.StepSnapshot;
+import dev.tend.shared.Id;
+import dev.tend.shared.ReasonCode;
+import dev.tend.shared.Verdict;
+import dev.tend.shared.wire.Rfc3339;
+import dev.tend.simulator.report.BrakePeriod;
+import dev.tend.simulator.report.DecisionEntry;
+import dev.tend.simulator.report.HealthPoint;
+import dev.tend.simulator.report.NotificationEntry;
+import dev.tend.simulator.report.RunEntry;
+import dev.tend.simulator.report.StepEntry;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Collection;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Turns what the engine does during a replay into report entries: every verdict it ledgers
+ * (a decision), approval requests, brake changes, notifications, the most runs active at
+ * once, and the unhealthy-cluster count minute by minute (reported at a coarser interval
+ * for long recordings, {@link #healthInterval}).
+ */
+final class ReportCollector {
+    /** Reports keep at most this many points of the unhealthy-cluster count. */
+    static final int MAX_HEALTH_POINTS = 720;
+    private static final long[] INTERVALS_MINUTES = {1, 2, 5, 10, 15, 30, 60, 120, 180, 360, 720, 1440};
+
+    private final List<DecisionEntry> decisions = new ArrayList<>();
+    private final List<BrakePeriod> brakePeriods = new ArrayList<>();
+    private final List<NotificationEntry> notifications = new ArrayList<>();
+    private final Map<String, Id> ids = new HashMap<>();
+    private static final Map<String, ReasonCode> CODES = codes();
+    private static final Map<String, Verdict> VERDICTS = verdicts();
+    private long approvalsRequested;
+    private int maxConcurrent;
+    private BrakeState engaged;
+    private Instant start;
+    private int[] perMinute = new int[1024];
+    private int lastMinute = -1;
+    private int lastCount;
+
+    void start(Instant at) {
+        start = at;
+    }
+
+    /** Where virtual time started, or null before it did. */
+    Instant startTime() {
+        return start;
+    }
+
+    /** Takes the effects of one input handled at {@code now}. */
+    void observe(List<Effect> effects, Instant now) {
+        for (Effect e : effects) {
+            if (e instanceof Effect.Ledger l) {
+                if (l.kind().equals("verdict")) decisions.add(decision(l.fields(), now));
+                else if (l.kind().equals("approval-requested")) approvalsRequested++;
+            } else if (e instanceof Effect.BrakeChanged b) {
+                brake(b.brake(), now);
+            } else if (e instanceof Effect.Notify n) {
+                notifications.add(new NotificationEntry(now, n.channel(), n.message()));
+            }
+        }
+    }
+
+    /** After each input: how many runs are active and clusters unhealthy. */
+    void afterInput(Instant now, int activeRuns, int unhealthyClusters) {
+        if (activeRuns > maxConcurrent) maxConcurrent = activeRuns;
+        int m = minute(now);
+        fillTo(m);
+        if (unhealthyClusters > perMinute[m]) perMinute[m] = unhealthyClusters;
+        lastCount = unhealthyClusters;
+    }
+
+    private void brake(BrakeState b, Instant now) {
+        if (b.engaged()) {
+            if (engaged == null) engaged = b;
+        } else if (engaged != null) {
+            brakePeriods.add(new BrakePeriod(engaged.since(), now, engaged.by(), engaged.reason()));
+            engaged = null;
+        }
+    }
+
+    private DecisionEntry decision(Map<String, Object> f, Instant now) {
+        List<ReasonCode> reasons = new ArrayList<>();
+        if (f.get("reasons") instanceof List<?> codes) {
+            for (Object c : codes) {
+                ReasonCode code = CODES.get(c);
+                reasons.add(code != null ? code : ReasonCode.parse((String) c));
+            }
+        }
+        Object until = f.get("hold_until");
+        return new DecisionEntry(now, id(f.get("playbook")), id(f.get("cluster")), id(f.get("node")),
+                verdict((String) f.get("verdict")), reasons, id(f.get("signal")),
+                until == null ? null : Rfc3339.parse((String) until));
+    }
+
+    private static Verdict verdict(String wire) {
+        Verdict v = VERDICTS.get(wire);
+        return v != null ? v : Verdict.parse(wire);
+    }
+
+    private static Map<String, Verdict> verdicts() {
+        Map<String, Verdict> m = new HashMap<>();
+        for (Verdict v : Verdict.values()) m.put(v.wireName(), v);
+        return Map.copyOf(m);
+    }
+
+    private static Map<String, ReasonCode> codes() {
+        Map<String, ReasonCode> m = new HashMap<>();
+        for (ReasonCode c : ReasonCode.values()) m.put(c.code(), c);
+        return Map.copyOf(m);
+    }
+
+    /** Ledger fields hold ids as strings; the few distinct ones are made into ids once. */
+    private Id id(Object value) {
+        if (value == null) return null;
+        return ids.computeIfAbsent((String) value, Id::of);
+    }
+
+    private int minute(Instant now) {
+        long m = Duration.between(start, now).toMinutes();
+        if (m < 0) return 0;
+        if (m > Integer.MAX_VALUE - 1) throw new IllegalStateException("a replay longer than 4000 years");
+        return (int) m;
+    }
+
+    /** Minutes without an input held the count the last input left. */
+    private void fillTo(int m) {
+        if (m >= perMinute.length) perMinute = Arrays.copyOf(perMinute, Math.max(perMinute.length * 2, m + 1));
+        for (int i = lastMinute + 1; i <= m; i++) perMinute[i] = lastCount;
+        if (m > lastMinute) lastMinute = m;
+    }
+
+    List<DecisionEntry> decisions() {
+        return decisions;
+    }
+
+    long approvalsRequested() {
+        return approvalsRequested;
+    }
+
+    int maxConcurrent() {
+        return maxConcurrent;
+    }
+
+    /** The brake periods; one still engaged at {@code horizon} is reported without a release. */
+    List<BrakePeriod> brakePeriods() {
+        List<BrakePeriod> out = new ArrayList<>(brakePeriods);
+        if (engaged != null) out.add(new BrakePeriod(engaged.since(), null, engaged.by(), engaged.reason()));
+        return out;
+    }
+
+    List<NotificationEntry> notifications() {
+        return notifications;
+    }
+
+    /** The interval of the unhealthy-cluster points for a replay ending at {@code horizon}. */
+    Duration healthInterval(Instant horizon) {
+        long minutes = start == null ? 1 : Math.max(1, Duration.between(start, horizon).toMinutes() + 1);
+        for (long i : INTERVALS_MINUTES) {
+            if ((minutes + i - 1) / i <= MAX_HEALTH_POINTS) return Duration.ofMinutes(i);
+        }
+        return Duration.ofMinutes((minutes + MAX_HEALTH_POINTS - 1) / MAX_HEALTH_POINTS);
+    }
+
+    /** The most clusters unhealthy at once per interval, from the start to {@code horizon}. */
+    List<HealthPoint> unhealthy(Instant horizon) {
+        if (start == null) return List.of();
+        int last = minute(horizon);
+        fillTo(last);
+        long step = healthInterval(horizon).toMinutes();
+        List<HealthPoint> out = new ArrayList<>();
+        for (long m = 0; m <= last; m += step) {
+            int max = 0;
+            for (long i = m; i < Math.min(m + step, last + 1L); i++) max = Math.max(max, perMinute[(int) i]);
+            out.add(new HealthPoint(start.plus(Duration.ofMinutes(m)), max));
+        }
+        return out;
+    }
+
+    /** Runs that began executing (or were decided in shadow mode), in run-id order. */
+    static List<RunEntry> runs(Collection<RunSnapshot> snapshots) {
+        List<RunEntry> out = new ArrayList<>();
+        for (RunSnapshot r : snapshots) {
+            boolean shadowed = r.state() == RunState.SHADOWED;
+            if (r.startedAt() == null && !shadowed) continue;
+            List<StepEntry> steps = new ArrayList<>();
+            for (StepSnapshot s : r.steps()) {
+                steps.add(new StepEntry(s.stepId(), s.kind(), s.state(), s.attempt(), s.startedAt(), s.endedAt(), s.outcome()));
+            }
+            out.add(new RunEntry(r.runId(), Id.of(r.playbook()), r.target().cluster(), r.target().node(),
+                    r.startedAt() != null ? r.startedAt() : r.createdAt(), r.endedAt(), r.state().wireName(), r.outcome(), steps));
+        }
+        out.sort((a, b) -> a.run().compareTo(b.run()));
+        return out;
+    }
+}

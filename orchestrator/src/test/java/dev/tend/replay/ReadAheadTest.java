@@ -1,0 +1,76 @@
+package dev.tend.replay;
+
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
+import dev.tend.shared.Problem;
+import dev.tend.shared.WireEvent;
+import dev.tend.shared.wire.ReadSummary;
+import dev.tend.simulator.Recording;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+class ReadAheadTest {
+    @TempDir
+    Path dir;
+
+    private Path recording(int events, int badEvery) throws Exception {
+        StringBuilder sb = new StringBuilder();
+        for (int i = 0; i < events; i++) {
+            if (badEvery > 0 && i % badEvery == badEvery - 1) sb.append("{\"at\":\"nope\"}\n");
+            else sb.append("{\"at\":\"2027-03-16T01:00:00Z\",\"cluster\":\"tickets-").append(i % 7).append("\",\"node\":\"n").append(i)
+                    .append("\",\"signal\":\"cpu-high\",\"state\":\"breach\"}\n");
+        }
+        Path f = dir.resolve("r.jsonl");
+        Files.writeString(f, sb.toString());
+        return f;
+    }
+
+    @Test
+    void handsEveryEventOverInFileOrderAcrossBatchesWithTheProblems() throws Exception {
+        Path f = recording(10_000, 1000);
+        List<Long> lines = new ArrayList<>();
+        List<Problem> problems = new ArrayList<>();
+        ReadSummary s = ReadAhead.read(Recording.open(f), new Recording.Sink() {
+            @Override
+            public void event(WireEvent event, long line) {
+                lines.add(line);
+            }
+
+            @Override
+            public void problem(Problem problem) {
+                problems.add(problem);
+            }
+        }, List.of());
+        assertThat(s.events()).isEqualTo(9_990);
+        assertThat(lines).hasSize(9_990).isSorted();
+        assertThat(problems).hasSize(10).extracting(Problem::line).startsWith(1000, 2000);
+    }
+
+    @Test
+    void idsEqualToAKnownOneAreThatInstance() throws Exception {
+        Path f = recording(20, 0);
+        Id known = Id.of("tickets-3");
+        List<Id> clusters = new ArrayList<>();
+        ReadAhead.read(Recording.open(f), (e, line) -> clusters.add(((HealthTransition) e).cluster()), List.of(known));
+        assertThat(clusters).filteredOn(c -> c.value().equals("tickets-3")).isNotEmpty().allSatisfy(c -> assertThat(c).isSameAs(known));
+        assertThat(clusters.get(0)).isSameAs(clusters.get(7));
+    }
+
+    @Test
+    void whatTheSinkThrowsStopsTheReadingAndPassesThrough() throws Exception {
+        Path f = recording(50_000, 0);
+        int[] seen = {0};
+        assertThatThrownBy(() -> ReadAhead.read(Recording.open(f), (e, line) -> {
+            if (++seen[0] == 3000) throw new IllegalStateException("stop here");
+        }, List.of())).isInstanceOf(IllegalStateException.class).hasMessage("stop here");
+        assertThat(seen[0]).isEqualTo(3000);
+    }
+}

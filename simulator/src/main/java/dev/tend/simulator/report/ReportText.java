@@ -1,0 +1,107 @@
+package dev.tend.simulator.report;
+
+import dev.tend.shared.ReasonCode;
+import dev.tend.shared.Verdict;
+import dev.tend.shared.time.Durations;
+import dev.tend.shared.wire.Rfc3339;
+
+import java.time.Duration;
+import java.time.Instant;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+
+/**
+ * The text form of a replay report: what an operator needs to know about what would have
+ * happened, in about one screenful. Totals first, then runs by playbook, holds and denials
+ * by reason, brake periods, notifications, hidden events, and the first runs; long lists
+ * are cut with a count of what was left out (the JSON form has everything).
+ */
+public final class ReportText {
+    static final int LISTED = 8;
+
+    private ReportText() {
+    }
+
+    public static String render(ReplayReport r) {
+        StringBuilder sb = new StringBuilder();
+        RecordingInfo rec = r.recording();
+        Summary s = r.summary();
+        sb.append("replay of ").append(rec.name());
+        if (rec.description() != null) sb.append(": ").append(rec.description());
+        sb.append('\n');
+        sb.append("  ").append(time(rec.from())).append(" to ").append(time(rec.horizon())).append(", ")
+                .append(rec.events()).append(" events (").append(rec.badLines()).append(" bad lines skipped, ")
+                .append(rec.lateEvents()).append(" late), seed ").append(r.replay().seed()).append(", fleet ")
+                .append(r.replay().fleet()).append(" (").append(r.replay().clusters()).append(" clusters)\n\n");
+
+        sb.append("what would have happened\n");
+        sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished)\n", s.runsStarted(),
+                s.runsSucceeded(), s.runsFailed(), s.runsUnfinished()));
+        sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested (none arrive in a replay)\n",
+                s.held(), s.denied(), s.approvalsRequested()));
+        sb.append(String.format(Locale.ROOT, "  most runs at once  %d\n", s.maxConcurrentRuns()));
+        sb.append(String.format(Locale.ROOT, "  fleet brake        %s\n", s.brakeEngaged()
+                ? "engaged " + r.brakePeriods().size() + (r.brakePeriods().size() == 1 ? " time" : " times") : "never engaged"));
+        sb.append(String.format(Locale.ROOT, "  hidden events      %d\n", s.hiddenEvents()));
+
+        Map<String, Tallies.RunCounts> byPlaybook = Tallies.runsByPlaybook(r.runs());
+        if (!byPlaybook.isEmpty()) {
+            sb.append("\nruns by playbook\n");
+            byPlaybook.forEach((p, c) -> sb.append(String.format(Locale.ROOT, "  %-34s %4d runs: %d succeeded, %d failed, %d other\n",
+                    p, c.runs(), c.succeeded(), c.failed(), c.other())));
+        }
+        reasons(sb, r.decisions(), Verdict.HOLD, "holds by reason (decisions naming it)");
+        reasons(sb, r.decisions(), Verdict.DENY, "denials by reason");
+
+        if (!r.brakePeriods().isEmpty()) {
+            sb.append("\nfleet brake\n");
+            for (BrakePeriod b : r.brakePeriods()) {
+                sb.append("  ").append(time(b.engagedAt())).append(" to ")
+                        .append(b.releasedAt() == null ? "the end (still engaged)" : time(b.releasedAt()));
+                if (b.releasedAt() != null) sb.append(" (").append(Durations.format(Duration.between(b.engagedAt(), b.releasedAt()))).append(')');
+                sb.append(", ").append(b.by()).append(": ").append(b.reason()).append('\n');
+            }
+        }
+        if (!r.notifications().isEmpty()) {
+            Map<String, Integer> byChannel = Tallies.notificationsByChannel(r.notifications());
+            sb.append("\nnotifications: ").append(r.notifications().size()).append(" (");
+            StringBuilder ch = new StringBuilder();
+            byChannel.forEach((c, n) -> ch.append(ch.length() > 0 ? ", " : "").append(c).append(' ').append(n));
+            sb.append(ch).append(")\n");
+            list(sb, r.notifications(), n -> time(n.at()) + " " + n.channel() + ": " + n.message());
+        }
+        if (!r.masks().isEmpty()) {
+            sb.append("\nhidden events: ").append(s.hiddenEvents()).append(" recorded events hidden by ")
+                    .append(r.masks().size()).append(r.masks().size() == 1 ? " mask\n" : " masks\n");
+            list(sb, r.masks(), m -> m.hiddenEvents() + " hidden: " + m.reason());
+        }
+        if (!r.runs().isEmpty()) {
+            sb.append("\nruns\n");
+            list(sb, r.runs(), run -> String.format(Locale.ROOT, "%s %-28s %-20s %s to %s %s", run.run(), run.playbook(), run.target(),
+                    time(run.startedAt()), run.endedAt() == null ? "(not ended)" : time(run.endedAt()), run.outcome()));
+        }
+        if (!r.assumptions().isEmpty()) {
+            sb.append("\nassumptions\n");
+            for (String a : r.assumptions()) sb.append("  - ").append(a).append('\n');
+        }
+        return sb.toString();
+    }
+
+    private static void reasons(StringBuilder sb, List<DecisionEntry> decisions, Verdict verdict, String title) {
+        Map<ReasonCode, Long> counts = Tallies.reasons(decisions, verdict);
+        if (counts.isEmpty()) return;
+        sb.append('\n').append(title).append('\n');
+        counts.forEach((c, n) -> sb.append(String.format(Locale.ROOT, "  %-18s %d\n", c.code(), n)));
+    }
+
+    static <T> void list(StringBuilder sb, List<T> items, java.util.function.Function<T, String> line) {
+        int n = Math.min(items.size(), LISTED);
+        for (int i = 0; i < n; i++) sb.append("  ").append(line.apply(items.get(i))).append('\n');
+        if (items.size() > n) sb.append("  ... and ").append(items.size() - n).append(" more (see --format json)\n");
+    }
+
+    static String time(Instant t) {
+        return t == null ? "-" : Rfc3339.format(t);
+    }
+}
