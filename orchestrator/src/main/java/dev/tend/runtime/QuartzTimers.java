@@ -63,7 +63,7 @@ public final class QuartzTimers implements Timers, AutoCloseable {
         Objects.requireNonNull(key, "key");
         Objects.requireNonNull(due, "due");
         var job = JobBuilder.newJob(FireJob.class).withIdentity(key, GROUP).usingJobData(KEY, key).build();
-        Trigger trigger = TriggerBuilder.newTrigger().withIdentity(key, GROUP).startAt(Date.from(due))
+        Trigger trigger = TriggerBuilder.newTrigger().withIdentity(key, GROUP).startAt(notBefore(due))
                 .withSchedule(SimpleScheduleBuilder.simpleSchedule().withMisfireHandlingInstructionFireNow())
                 .build();
         try {
@@ -71,6 +71,17 @@ public final class QuartzTimers implements Timers, AutoCloseable {
         } catch (SchedulerException e) {
             throw new TimersFailedException("could not arm timer " + key + " for " + due + ": " + e.getMessage(), e);
         }
+    }
+
+    /**
+     * Quartz keeps whole milliseconds and its scheduler thread fires a trigger once less than
+     * about 2 ms remain; rounding up and adding that margin means a timer never fires before
+     * its due time.
+     */
+    static Date notBefore(Instant due) {
+        Instant ms = due.truncatedTo(java.time.temporal.ChronoUnit.MILLIS);
+        if (ms.isBefore(due)) ms = ms.plusMillis(1);
+        return Date.from(ms.plusMillis(2));
     }
 
     @Override

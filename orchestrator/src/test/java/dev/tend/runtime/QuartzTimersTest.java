@@ -33,7 +33,13 @@ class QuartzTimersTest {
         assertThat(f).isNotNull();
         assertThat(f.key()).isEqualTo("step:r000001:drain:1");
         assertThat(f.at()).isAfterOrEqualTo(due).isBefore(due.plusMillis(1500));
-        assertThat(timers.armedCount()).isZero();
+        assertThat(armedAfterCleanup()).isZero();
+    }
+
+    /** Quartz drops a fired job just after it ran, on its own thread: wait for that, boundedly. */
+    private int armedAfterCleanup() throws InterruptedException {
+        for (int i = 0; i < 100 && timers.armedCount() > 0; i++) Thread.sleep(10);
+        return timers.armedCount();
     }
 
     @Test
@@ -52,7 +58,7 @@ class QuartzTimersTest {
         Fired f = fired.poll(5, TimeUnit.SECONDS);
         assertThat(f).isNotNull();
         assertThat(f.at()).isAfterOrEqualTo(sooner);
-        assertThat(timers.armedCount()).as("the key was moved, not armed twice").isZero();
+        assertThat(armedAfterCleanup()).as("the key was moved, not armed twice").isZero();
     }
 
     @Test
