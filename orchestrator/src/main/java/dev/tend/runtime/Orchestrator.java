@@ -39,7 +39,7 @@ import java.util.function.BooleanSupplier;
 public final class Orchestrator {
     private static final int BATCH = 2000;
     /** Group commit: a small batch waits this long for more inputs before it is committed. */
-    private static final long GATHER_NANOS = 3_000_000;
+    private static final long GATHER_NANOS = 10_000_000;
 
     private final Store store;
     private final Engine engine;
