@@ -60,7 +60,7 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of the simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
-    @Option(names = "--for", paramLabel = "D", hidden = true, description = "stop by itself after D (e.g. 20s; tests)")
+    @Option(names = "--for", paramLabel = "D", description = "stop by itself after D (e.g. 5m); without it, run until Ctrl-C")
     String runFor;
 
     @Override
