@@ -45,9 +45,9 @@ public final class Engine implements RunHost {
     private final RunMachine machine = new RunMachine(this);
     private final Candidates candidates = new Candidates();
     private final Approvals approvals;
+    private final Escalations escalations;
     private final Map<String, RunProcess> runs = new LinkedHashMap<>();
     private final Map<String, Instant> timers = new TreeMap<>();
-    private final Set<Candidate.Key> flapPaged = new java.util.HashSet<>();
     private final LinkedHashSet<String> work = new LinkedHashSet<>();
     private long runSeq;
     private long inputs;
@@ -57,6 +57,7 @@ public final class Engine implements RunHost {
         FleetHealthView view = new FleetHealthView(setup.fleet());
         this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake()));
         this.approvals = new Approvals(this);
+        this.escalations = new Escalations(ctx);
     }
 
     /** Handles one input at processing time {@code now} (never earlier than the last). */
@@ -194,7 +195,7 @@ public final class Engine implements RunHost {
         boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
                 || !e.decision().reasons().equals(d.reasons());
         if (changed) ledgerVerdict(c, d, fx);
-        if (!d.has(dev.tend.shared.ReasonCode.FLAPPING)) flapPaged.remove(key); // calm again: a new episode pages again
+        escalations.evaluated(c, d);
         switch (d.verdict()) {
             case START -> start(c, fx);
             case AWAIT_APPROVAL -> {
@@ -216,22 +217,13 @@ public final class Engine implements RunHost {
         if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
             fx.arm("recheck:" + c.key(), retry);
         }
-        if (d.has(dev.tend.shared.ReasonCode.FLAPPING) && flapPaged.add(c.key())) {
-            fx.add(new Effect.Notify("flapping/" + c.key() + "/" + ctx.now, "oncall", c.trigger() + " is flapping; "
-                    + c.playbook().id() + " holds until it settles", Map.of("cluster", c.target().cluster().value())));
-        }
-        if (d.has(dev.tend.shared.ReasonCode.LOOP) && ctx.loopStopped.add(c.key())) {
-            fx.ledger("loop-stopped", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
-            fx.add(new Effect.Notify("loop/" + c.key() + "/" + ctx.now, "oncall", c.playbook().id() + " keeps remediating "
-                    + c.target() + "; automation stopped there until a person clears it",
-                    Map.of("cluster", c.target().cluster().value())));
-        }
+        escalations.held(c, d, fx);
         if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
     }
 
     private void start(Candidate c, Effects fx) {
         candidates.remove(c.key());
-        flapPaged.remove(c.key());
+        escalations.started(c);
         ctx.consumePermits(c.playbook());
         ctx.recordStart(c.key());
         RunProcess r = c.runId() != null ? runs.get(c.runId())

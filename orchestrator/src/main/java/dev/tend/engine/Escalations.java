@@ -1,0 +1,45 @@
+package dev.tend.engine;
+
+import dev.tend.engine.guard.Decision;
+import dev.tend.shared.ReasonCode;
+
+import java.util.HashSet;
+import java.util.Map;
+import java.util.Set;
+
+/**
+ * The pages that go out once, not at every look: a flapping signal pages once per episode
+ * (until it is calm again), and a loop stops automation on its target and escalates once
+ * (until a person clears it).
+ */
+final class Escalations {
+    private final EngineContext ctx;
+    private final Set<Candidate.Key> flapPaged = new HashSet<>();
+
+    Escalations(EngineContext ctx) {
+        this.ctx = ctx;
+    }
+
+    /** After every evaluation: a candidate whose signal is calm again may page again later. */
+    void evaluated(Candidate c, Decision d) {
+        if (!d.has(ReasonCode.FLAPPING)) flapPaged.remove(c.key());
+    }
+
+    void started(Candidate c) {
+        flapPaged.remove(c.key());
+    }
+
+    /** For a hold or deny: pages what has not been paged yet. */
+    void held(Candidate c, Decision d, Effects fx) {
+        if (d.has(ReasonCode.FLAPPING) && flapPaged.add(c.key())) {
+            fx.add(new Effect.Notify("flapping/" + c.key() + "/" + ctx.now, "oncall", c.trigger() + " is flapping; "
+                    + c.playbook().id() + " holds until it settles", Map.of("cluster", c.target().cluster().value())));
+        }
+        if (d.has(ReasonCode.LOOP) && ctx.loopStopped.add(c.key())) {
+            fx.ledger("loop-stopped", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
+            fx.add(new Effect.Notify("loop/" + c.key() + "/" + ctx.now, "oncall", c.playbook().id() + " keeps remediating "
+                    + c.target() + "; automation stopped there until a person clears it",
+                    Map.of("cluster", c.target().cluster().value())));
+        }
+    }
+}
