@@ -360,6 +360,12 @@ public final class Engine implements RunHost {
         return ctx.active.size();
     }
 
+    /** True while some run is executing steps (not paused, not waiting for a person). */
+    public boolean isExecuting() {
+        for (RunProcess r : ctx.active.values()) if (r.state() == RunState.RUNNING) return true;
+        return false;
+    }
+
     /** Timers the engine has armed and not seen fire or cancelled: re-armed after a restart. */
     public Map<String, Instant> armedTimers() {
         return Map.copyOf(timers);

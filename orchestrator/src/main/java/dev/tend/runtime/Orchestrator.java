@@ -4,8 +4,6 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.Input;
-import dev.tend.engine.RunSnapshot;
-import dev.tend.engine.RunState;
 import dev.tend.executor.Executor;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
@@ -154,8 +152,7 @@ public final class Orchestrator {
     /** True when no run is executing and no call is in flight. */
     public boolean isIdle() {
         if (callsInFlight.get() > 0 || !urgent.isEmpty() || !events.isEmpty()) return false;
-        for (RunSnapshot r : engine.runs()) if (r.state() == RunState.RUNNING) return false;
-        return true;
+        return !engine.isExecuting();
     }
 
     /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
