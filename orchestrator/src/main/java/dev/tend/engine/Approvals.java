@@ -180,6 +180,11 @@ final class Approvals {
         return new Candidate.Key(dev.tend.shared.Id.of(s.playbook()), s.target());
     }
 
+    /** Puts back an approval of a snapshot, in the order {@link #all()} gave it. */
+    void restore(ApprovalSnapshot a) {
+        byRun.put(a.runId(), a);
+    }
+
     List<ApprovalSnapshot> all() {
         return List.copyOf(byRun.values());
     }

@@ -98,6 +98,23 @@ final class Candidates {
         }
     }
 
+    /** The event-time agenda as it stands, soonest first: for a snapshot. */
+    List<EngineState.AgendaSlot> agenda() {
+        List<EngineState.AgendaSlot> out = new ArrayList<>(eventAgenda.size());
+        eventAgenda.forEach((at, names) -> out.add(new EngineState.AgendaSlot(at, List.copyOf(names))));
+        return out;
+    }
+
+    /**
+     * Replaces the event-time agenda (after every entry was {@link #put} back): an entry's
+     * slot is gone from the agenda once event time passed it, although its decision still
+     * names the instant, so the agenda cannot be rebuilt from the entries.
+     */
+    void restoreAgenda(List<EngineState.AgendaSlot> slots) {
+        eventAgenda.clear();
+        for (EngineState.AgendaSlot s : slots) eventAgenda.put(s.at(), new TreeSet<>(s.candidates()));
+    }
+
     /** Candidates to look at again because something on the cluster changed. */
     List<String> onCluster(Id cluster) {
         Set<String> s = byCluster.get(cluster);

@@ -53,8 +53,11 @@ public final class Engine implements RunHost {
     private long inputs;
 
     public Engine(EngineSetup setup) {
+        this(setup, new FleetHealthView(setup.fleet()));
+    }
+
+    private Engine(EngineSetup setup, FleetHealthView view) {
         this.setup = setup;
-        FleetHealthView view = new FleetHealthView(setup.fleet());
         this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake()));
         this.approvals = new Approvals(this);
         this.escalations = new Escalations(ctx);
@@ -326,6 +329,83 @@ public final class Engine implements RunHost {
 
     RunProcess runById(String id) {
         return runs.get(id);
+    }
+
+    // ---- snapshots ----
+
+    /**
+     * The engine's whole state as plain values (see {@link EngineState}); call it between
+     * inputs. Together with the same {@link EngineSetup}, {@link #restore} rebuilds an engine
+     * that answers the next inputs exactly as this one would.
+     */
+    public EngineState state() {
+        if (!work.isEmpty()) throw new IllegalStateException("the engine's state is taken between inputs only");
+        List<EngineState.Timer> armed = new ArrayList<>(timers.size());
+        timers.forEach((k, due) -> armed.add(new EngineState.Timer(k, due)));
+        List<dev.tend.engine.run.RunMemo> runMemos = new ArrayList<>(runs.size());
+        for (RunProcess r : runs.values()) runMemos.add(r.memo());
+        List<EngineState.CandidateMemo> cands = new ArrayList<>();
+        for (Candidates.Entry e : candidates.all()) {
+            Candidate c = e.candidate();
+            cands.add(new EngineState.CandidateMemo(c.playbook().id().value(), c.target(), c.trigger(), c.problemSince(),
+                    c.firstSeen(), c.runId(), c.approved(), e.decision()));
+        }
+        List<EngineState.Starts> starts = new ArrayList<>();
+        ctx.starts.forEach((k, at) -> starts.add(new EngineState.Starts(k, at)));
+        starts.sort(java.util.Comparator.comparing(st -> st.key().toString()));
+        List<Candidate.Key> loops = new ArrayList<>(ctx.loopStopped);
+        loops.sort(java.util.Comparator.comparing(Candidate.Key::toString));
+        List<ApprovalSnapshot> asked = new ArrayList<>(approvals.all());
+        asked.sort(java.util.Comparator.comparing(ApprovalSnapshot::runId));
+        return new EngineState(ctx.now, ctx.eventTime, inputs, runSeq, armed, runMemos, List.copyOf(ctx.active.keySet()), cands,
+                candidates.agenda(), starts, loops, escalations.flapPaged(), List.copyOf(ctx.exclusions.values()),
+                ctx.brake.memo(), ctx.budgets.memo(), asked, ctx.health.memo());
+    }
+
+    /**
+     * An engine in the state {@code s}, taken by {@link #state()} from an engine built on the
+     * same setup. Throws {@link TendException} when {@code s} names a playbook that the setup
+     * lacks, or a run that the state lacks.
+     */
+    public static Engine restore(EngineSetup setup, EngineState s) {
+        Engine e = new Engine(setup, FleetHealthView.restore(setup.fleet(), s.health()));
+        EngineContext ctx = e.ctx;
+        ctx.now = s.now();
+        ctx.eventTime = s.eventTime();
+        e.inputs = s.inputs();
+        e.runSeq = s.runSeq();
+        for (EngineState.Timer t : s.timers()) e.timers.put(t.key(), t.due());
+        for (dev.tend.engine.run.RunMemo m : s.runs()) {
+            e.runs.put(m.id(), RunProcess.fromMemo(m, e.playbook(m.playbook())));
+        }
+        for (String id : s.activeRuns()) {
+            RunProcess r = e.runs.get(id);
+            if (r == null) throw new TendException("the snapshot lists run " + id + " as active but holds no such run");
+            ctx.active.put(id, r);
+        }
+        for (EngineState.CandidateMemo c : s.candidates()) {
+            Playbook p = e.playbook(c.playbook());
+            e.candidates.put(new Candidate(p, c.target(), c.trigger(), c.problemSince(), c.firstSeen(), c.runId(), c.approved()),
+                    c.decision());
+        }
+        e.candidates.restoreAgenda(s.eventAgenda());
+        for (EngineState.Starts st : s.starts()) ctx.starts.put(st.key(), new ArrayList<>(st.at()));
+        ctx.loopStopped.addAll(s.loopStopped());
+        e.escalations.restoreFlapPaged(s.flapPaged());
+        for (Exclusion x : s.exclusions()) ctx.exclusions.put(x.target(), x);
+        ctx.brake.restore(s.brake());
+        ctx.budgets.restore(s.budgets());
+        for (ApprovalSnapshot a : s.approvals()) e.approvals.restore(a);
+        return e;
+    }
+
+    /**
+     * The setup's playbook {@code id}. A run keeps going on the version loaded now, as it
+     * would after a full replay of the journal with this setup.
+     */
+    private Playbook playbook(String id) {
+        return setup.playbooks().playbook(Id.of(id)).orElseThrow(() -> new TendException("the snapshot holds runs or "
+                + "candidates of playbook " + id + ", which is not loaded now; load it again to start from this snapshot"));
     }
 
     // ---- queries ----

@@ -20,6 +20,17 @@ final class Escalations {
         this.ctx = ctx;
     }
 
+    java.util.List<Candidate.Key> flapPaged() {
+        java.util.List<Candidate.Key> out = new java.util.ArrayList<>(flapPaged);
+        out.sort(java.util.Comparator.comparing(Candidate.Key::toString));
+        return out;
+    }
+
+    void restoreFlapPaged(java.util.List<Candidate.Key> keys) {
+        flapPaged.clear();
+        flapPaged.addAll(keys);
+    }
+
     /** After every evaluation: a candidate whose signal is calm again may page again later. */
     void evaluated(Candidate c, Decision d) {
         if (!d.has(ReasonCode.FLAPPING)) flapPaged.remove(c.key());

@@ -28,6 +28,17 @@ final class FleetBrake {
         return state;
     }
 
+    EngineState.BrakeMemo memo() {
+        return new EngineState.BrakeMemo(state, armed, episodes, settling);
+    }
+
+    void restore(EngineState.BrakeMemo m) {
+        state = m.state();
+        armed = m.armed();
+        episodes = m.episodes();
+        settling = m.settling();
+    }
+
     /** Looks at the fleet after a change; returns true when the brake was released. */
     boolean reconsider(FleetHealthView view, Effects fx) {
         int n = view.unhealthyClusterCount();

@@ -6,7 +6,9 @@ import io.github.resilience4j.ratelimiter.internal.AtomicRateLimiter;
 
 import java.time.Duration;
 import java.time.Instant;
-import java.util.HashMap;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.function.Supplier;
 
@@ -16,32 +18,70 @@ import java.util.function.Supplier;
  * system clock. Because the engine's state is rebuilt by replaying the journal, every
  * recorded start is replayed through these limiters at its recorded time: a restart never
  * grants a fresh burst.
+ *
+ * <p>For snapshots each budget also remembers when its limiter was made and the starts of
+ * its current refresh period: a limiter refills whole at each period's start and never
+ * above its limit, so those starts, taken again at their times on a limiter made at the
+ * same instant, give back the same limiter.
  */
 final class RateBudgets {
     private final Supplier<Instant> now;
-    private final Map<String, AtomicRateLimiter> limiters = new HashMap<>();
+    private final Map<String, Budget> budgets = new LinkedHashMap<>();
+    /** Set while a snapshot's budgets are rebuilt: the time their limiters see. */
+    private Instant rebuildingAt;
+
+    private final class Budget {
+        final String name;
+        final RateLimit rate;
+        final Instant created;
+        final AtomicRateLimiter limiter;
+        final List<Instant> thisPeriod = new ArrayList<>();
+
+        Budget(String name, RateLimit rate, Instant created) {
+            this.name = name;
+            this.rate = rate;
+            this.created = created;
+            this.limiter = new AtomicRateLimiter(name, RateLimiterConfig.custom()
+                    .limitForPeriod(rate.count())
+                    .limitRefreshPeriod(rate.period())
+                    .timeoutDuration(Duration.ZERO)
+                    .build(), RateBudgets.this::nanos);
+        }
+
+        long period(Instant t) {
+            return Duration.between(created, t).toNanos() / rate.period().toNanos();
+        }
+
+        boolean acquire(Instant t) {
+            boolean ok = limiter.acquirePermission(1);
+            if (ok) {
+                if (!thisPeriod.isEmpty() && period(thisPeriod.get(thisPeriod.size() - 1)) != period(t)) thisPeriod.clear();
+                thisPeriod.add(t);
+            }
+            return ok;
+        }
+    }
 
     RateBudgets(Supplier<Instant> now) {
         this.now = now;
     }
 
+    private Instant time() {
+        return rebuildingAt != null ? rebuildingAt : now.get();
+    }
+
     private long nanos() {
-        Instant t = now.get();
+        Instant t = time();
         return t.getEpochSecond() * 1_000_000_000L + t.getNano();
     }
 
-    private AtomicRateLimiter limiter(String name, RateLimit rate) {
-        String key = name + "|" + rate;
-        return limiters.computeIfAbsent(key, k -> new AtomicRateLimiter(name, RateLimiterConfig.custom()
-                .limitForPeriod(rate.count())
-                .limitRefreshPeriod(rate.period())
-                .timeoutDuration(Duration.ZERO)
-                .build(), this::nanos));
+    private Budget budget(String name, RateLimit rate) {
+        return budgets.computeIfAbsent(name + "|" + rate, k -> new Budget(name, rate, time()));
     }
 
     /** The instant a permit is available (now when one is). */
     Instant nextPermit(String name, RateLimit rate) {
-        AtomicRateLimiter l = limiter(name, rate);
+        AtomicRateLimiter l = budget(name, rate).limiter;
         if (l.getDetailedMetrics().getAvailablePermissions() > 0) return now.get();
         long wait = l.getDetailedMetrics().getNanosToWait();
         if (wait <= 0) wait = 1;
@@ -49,6 +89,34 @@ final class RateBudgets {
     }
 
     boolean acquire(String name, RateLimit rate) {
-        return limiter(name, rate).acquirePermission(1);
+        return budget(name, rate).acquire(now.get());
+    }
+
+    /** Every budget, in the order first used. */
+    List<EngineState.Budget> memo() {
+        List<EngineState.Budget> out = new ArrayList<>(budgets.size());
+        for (Budget b : budgets.values()) {
+            out.add(new EngineState.Budget(b.name, b.rate.count(), b.rate.period(), b.created, b.thisPeriod));
+        }
+        return out;
+    }
+
+    /** Rebuilds the budgets of a snapshot: each limiter made at its instant and given its starts again at theirs. */
+    void restore(List<EngineState.Budget> memo) {
+        budgets.clear();
+        try {
+            for (EngineState.Budget m : memo) {
+                RateLimit rate = new RateLimit(m.count(), m.period());
+                rebuildingAt = m.created();
+                Budget b = budget(m.name(), rate);
+                for (Instant t : m.starts()) {
+                    rebuildingAt = t;
+                    if (!b.acquire(t)) throw new IllegalStateException("the start budget " + m.name() + " refused a start at " + t
+                            + " that it had granted; the snapshot does not match this engine");
+                }
+            }
+        } finally {
+            rebuildingAt = null;
+        }
     }
 }

@@ -73,4 +73,10 @@ public interface StoreReader {
      * the engine took them, late arrivals included. For exporting recordings.
      */
     void forEachTransitionInput(Instant from, Instant until, Set<String> clusters, Consumer<InputRow> consumer);
+
+    /** The newest snapshot (highest seq), if any. */
+    Optional<SnapshotRow> latestSnapshot();
+
+    /** The seq of the first input the journal still holds; 0 when it is empty (rows before it were archived). */
+    long firstInputSeq();
 }

@@ -60,4 +60,17 @@ public interface StoreTx extends StoreReader {
 
     /** Deletes what is under {@code key}; returns false when there was nothing. */
     boolean deleteState(String key);
+
+    /**
+     * Keeps a snapshot, replacing one at the same seq, and deletes all but the newest
+     * {@code keep} snapshots (at least 1).
+     */
+    void putSnapshot(SnapshotRow snapshot, int keep);
+
+    /**
+     * Deletes the journal rows with seq at most {@code throughSeq} taken before
+     * {@code before}, except the newest row of the journal (whose seq the next append counts
+     * from); returns how many were deleted. The ledger is not touched.
+     */
+    long deleteInputs(long throughSeq, Instant before);
 }

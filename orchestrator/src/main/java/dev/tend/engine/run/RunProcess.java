@@ -106,6 +106,27 @@ public final class RunProcess {
         }
     }
 
+    /** This run as plain values, for an engine snapshot. */
+    public RunMemo memo() {
+        return new RunMemo(id, playbook.id().value(), playbook.version(), target, shadow, createdAt, requestedBy, state,
+                startedAt, endedAt, outcome, index, failing, failedStep, attempt, stepStartedAt, record);
+    }
+
+    /** The run of {@code m}, on {@code playbook} (the one {@code m} names, at its version). */
+    public static RunProcess fromMemo(RunMemo m, Playbook playbook) {
+        RunProcess r = new RunProcess(m.id(), playbook, m.target(), m.shadow(), m.createdAt(), m.requestedBy(), m.state());
+        r.startedAt = m.startedAt();
+        r.endedAt = m.endedAt();
+        r.outcome = m.outcome();
+        r.index = m.index();
+        r.failing = m.failing();
+        r.failedStep = m.failedStep();
+        r.attempt = m.attempt();
+        r.stepStartedAt = m.stepStartedAt();
+        r.record.addAll(m.steps());
+        return r;
+    }
+
     public RunSnapshot snapshot() {
         Step s = currentStep();
         return new RunSnapshot(id, playbook.id().value(), playbook.version(), target, state, shadow, createdAt,

@@ -220,6 +220,45 @@ public final class FleetHealthView {
         return out;
     }
 
+    /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
+    public HealthMemo memo() {
+        java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
+        for (Map.Entry<SignalKey, Slot> e : signals.entrySet()) {
+            SignalStatus st = e.getValue().status;
+            out.add(new HealthMemo.Signal(e.getKey(), st.state(), st.since(), st.lastAt(), java.util.List.copyOf(e.getValue().changes)));
+        }
+        java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
+        java.util.Set<Id> touched = new java.util.HashSet<>();
+        for (Map.Entry<dev.tend.shared.Target, Instant> e : topologyAppliedAt.entrySet()) {
+            marks.add(new HealthMemo.TopologyMark(e.getKey(), e.getValue()));
+            touched.add(e.getKey().cluster());
+        }
+        java.util.List<ClusterSpec> changed = new java.util.ArrayList<>();
+        for (ClusterSpec c : topology.clusters()) if (touched.contains(c.id())) changed.add(c);
+        return new HealthMemo(out, marks, changed, lateEvents, appliedEvents);
+    }
+
+    /**
+     * The view of {@code memo} over {@code start}, the topology it began from (the fleet
+     * file): topology events' changes are laid over it again, in fleet order.
+     */
+    public static FleetHealthView restore(Fleet start, HealthMemo memo) {
+        Fleet topology = start;
+        for (ClusterSpec c : memo.changedClusters()) topology = topology.withCluster(c);
+        FleetHealthView v = new FleetHealthView(topology);
+        for (HealthMemo.Signal s : memo.signals()) {
+            Slot slot = new Slot();
+            slot.status = new SignalStatus(s.state(), s.since(), s.lastAt());
+            slot.changes.addAll(s.changes());
+            v.signals.put(s.key(), slot);
+            if (s.state().isProblem()) v.count(s.key(), +1);
+        }
+        for (HealthMemo.TopologyMark m : memo.topologyApplied()) v.topologyAppliedAt.put(m.node(), m.at());
+        v.lateEvents = memo.lateEvents();
+        v.appliedEvents = memo.appliedEvents();
+        return v;
+    }
+
     /** Events that arrived older than the one already applied for their key. */
     public long lateEvents() {
         return lateEvents;

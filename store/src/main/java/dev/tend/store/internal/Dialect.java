@@ -4,8 +4,8 @@ import java.util.Map;
 
 /** What differs between the two databases the store runs on; everything else is shared SQL. */
 public enum Dialect {
-    SQLITE(Map.of("seq_key", "INTEGER")),
-    POSTGRESQL(Map.of("seq_key", "BIGINT"));
+    SQLITE(Map.of("seq_key", "INTEGER", "blob_type", "BLOB")),
+    POSTGRESQL(Map.of("seq_key", "BIGINT", "blob_type", "BYTEA"));
 
     private final Map<String, String> placeholders;
 

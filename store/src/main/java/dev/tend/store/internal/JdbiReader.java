@@ -72,6 +72,21 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
+    public long firstInputSeq() {
+        beforeRead();
+        return handle.createQuery("SELECT COALESCE(MIN(seq), 0) FROM input_journal").mapTo(Long.class).one();
+    }
+
+    @Override
+    public Optional<dev.tend.store.SnapshotRow> latestSnapshot() {
+        beforeRead();
+        return handle.createQuery("SELECT seq, taken_ns, format, setup, body FROM snapshots ORDER BY seq DESC LIMIT 1")
+                .map((rs, ctx) -> new dev.tend.store.SnapshotRow(rs.getLong(1), Times.fromNanos(rs.getLong(2)), rs.getInt(3),
+                        rs.getString(4), rs.getBytes(5)))
+                .findOne();
+    }
+
+    @Override
     public List<RunRow> runs(RunFilter filter) {
         Objects.requireNonNull(filter, "filter");
         beforeRead();

@@ -290,4 +290,35 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         Objects.requireNonNull(key, "key");
         return handle.createUpdate("DELETE FROM fleet_state WHERE state_key = :key").bind("key", key).execute() > 0;
     }
+
+    @Override
+    public void putSnapshot(dev.tend.store.SnapshotRow snap, int keep) {
+        requireOpen();
+        Objects.requireNonNull(snap, "snapshot");
+        if (keep < 1) throw new IllegalArgumentException("keep must be at least 1, got " + keep);
+        flush();
+        handle.createUpdate("DELETE FROM snapshots WHERE seq = :seq").bind("seq", snap.seq()).execute();
+        handle.createUpdate("INSERT INTO snapshots (seq, taken_ns, format, setup, body) VALUES (:seq, :taken, :format, :setup, :body)")
+                .bind("seq", snap.seq())
+                .bind("taken", Times.toNanos(snap.takenAt(), "SnapshotRow.takenAt"))
+                .bind("format", snap.format())
+                .bind("setup", snap.setup())
+                .bind("body", snap.body())
+                .execute();
+        handle.createUpdate("DELETE FROM snapshots WHERE seq NOT IN (SELECT seq FROM snapshots ORDER BY seq DESC LIMIT :keep)")
+                .bind("keep", keep)
+                .execute();
+    }
+
+    @Override
+    public long deleteInputs(long throughSeq, Instant before) {
+        requireOpen();
+        Objects.requireNonNull(before, "before");
+        flush();
+        return handle.createUpdate("DELETE FROM input_journal WHERE seq <= :through AND now_ns < :before "
+                        + "AND seq < (SELECT MAX(seq) FROM input_journal)")
+                .bind("through", throughSeq)
+                .bind("before", Times.toNanos(before, "before"))
+                .execute();
+    }
 }

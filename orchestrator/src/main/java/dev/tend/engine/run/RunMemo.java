@@ -1,0 +1,21 @@
+package dev.tend.engine.run;
+
+import dev.tend.engine.RunState;
+import dev.tend.engine.StepSnapshot;
+import dev.tend.shared.Target;
+
+import java.time.Instant;
+import java.util.List;
+
+/**
+ * A {@link RunProcess} as plain values, for a snapshot: its playbook by id and version,
+ * where it stands (step index, attempt, whether it is on its failure steps) and the record
+ * of its steps.
+ */
+public record RunMemo(String id, String playbook, int version, Target target, boolean shadow, Instant createdAt,
+                      String requestedBy, RunState state, Instant startedAt, Instant endedAt, String outcome, int index,
+                      boolean failing, String failedStep, int attempt, Instant stepStartedAt, List<StepSnapshot> steps) {
+    public RunMemo {
+        steps = List.copyOf(steps);
+    }
+}

@@ -1,0 +1,58 @@
+package dev.tend.store;
+
+import org.junit.jupiter.api.Test;
+
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+/** Snapshots kept beside the journal, and journal rows archived once a snapshot covers them. */
+abstract class SnapshotContractTest extends StoreTestBase {
+    private static SnapshotRow snapshot(long seq) {
+        return new SnapshotRow(seq, T0.plusSeconds(seq), 1, "setup-a", ("{\"seq\":" + seq + "}").getBytes(StandardCharsets.UTF_8));
+    }
+
+    @Test
+    void theNewestSnapshotIsReadBackByteForByteAndOnlyTheNewestAreKept() {
+        assertThat(store.read(StoreReader::latestSnapshot)).isEmpty();
+        for (long seq = 1; seq <= 4; seq++) {
+            long s = seq;
+            store.useTransaction(tx -> tx.putSnapshot(snapshot(s), 2));
+        }
+        SnapshotRow latest = store.read(StoreReader::latestSnapshot).orElseThrow();
+        assertThat(latest.seq()).isEqualTo(4);
+        assertThat(latest.takenAt()).isEqualTo(T0.plusSeconds(4));
+        assertThat(latest.setup()).isEqualTo("setup-a");
+        assertThat(new String(latest.body(), StandardCharsets.UTF_8)).isEqualTo("{\"seq\":4}");
+        store.useTransaction(tx -> tx.putSnapshot(snapshot(4), 1));
+        assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(4L);
+    }
+
+    @Test
+    void deletingInputsKeepsTheNewestRowSoSeqsGoOnAndNeverTouchesTheLedger() {
+        store.useTransaction(tx -> {
+            List<InputRow> rows = new ArrayList<>();
+            for (int i = 1; i <= 10; i++) rows.add(TransactionContractTest.input(i));
+            tx.appendInputs(rows);
+            tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3"));
+        });
+        // rows 1..10 were taken at T0+1s .. T0+10s: before T0+6s means rows 1..5; through seq 8 does not limit them
+        long deleted = store.inTransaction(tx -> tx.deleteInputs(8, T0.plusSeconds(6)));
+        assertThat(deleted).isEqualTo(5);
+        long first = store.read(StoreReader::firstInputSeq);
+        assertThat(first).isEqualTo(6);
+        // everything before the end of time, through seq 10: the newest row stays
+        long more = store.inTransaction(tx -> tx.deleteInputs(10, T0.plusSeconds(3600)));
+        assertThat(more).isEqualTo(4);
+        long firstAfter = store.read(StoreReader::firstInputSeq);
+        assertThat(firstAfter).isEqualTo(10);
+        long next = store.inTransaction(tx -> tx.appendInput(TransactionContractTest.input(11)));
+        assertThat(next).isEqualTo(11);
+        assertThat(store.read(StoreReader::verifyLedger).ok()).isTrue();
+        long head = store.read(r -> r.ledgerHead().orElseThrow().seq());
+        assertThat(head).isEqualTo(1);
+    }
+}
