@@ -1,0 +1,161 @@
+package dev.tend.runtime;
+
+import com.fasterxml.jackson.annotation.JsonAutoDetect;
+import com.fasterxml.jackson.annotation.PropertyAccessor;
+import com.fasterxml.jackson.core.JsonGenerator;
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.databind.DeserializationContext;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.JsonDeserializer;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.JsonSerializer;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.SerializerProvider;
+import com.fasterxml.jackson.databind.module.SimpleModule;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EngineState;
+import dev.tend.playbooks.Playbook;
+import dev.tend.shared.Id;
+import dev.tend.shared.TendException;
+import dev.tend.shared.json.Sha256;
+import dev.tend.store.SnapshotRow;
+
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.OutputStream;
+import java.io.UncheckedIOException;
+import java.time.Instant;
+import java.util.zip.GZIPInputStream;
+import java.util.zip.GZIPOutputStream;
+
+/**
+ * Writes an {@link EngineState} as a snapshot row and reads it back. The body is
+ * gzip-compressed JSON: {@code {"format":1,"seq":N,"state":{...}}}, the state's records as
+ * objects of their components, instants as RFC 3339 text with every digit of the fraction,
+ * durations as ISO 8601, ids as strings.
+ *
+ * <p>{@value #FORMAT} is this tend's format. A snapshot of a newer format is refused with
+ * {@link SnapshotFormatException}: a newer tend may keep state this one does not know, and
+ * starting from part of it would be wrong. When the layout changes, raise {@link #FORMAT}.
+ */
+public final class SnapshotCodec {
+    /** The snapshot format this tend writes and reads. */
+    public static final int FORMAT = 1;
+
+    private static final ObjectMapper JSON = mapper();
+
+    private SnapshotCodec() {
+    }
+
+    private static ObjectMapper mapper() {
+        SimpleModule ids = new SimpleModule("tend-ids");
+        ids.addSerializer(Id.class, new JsonSerializer<>() {
+            @Override
+            public void serialize(Id id, JsonGenerator g, SerializerProvider p) throws IOException {
+                g.writeString(id.value());
+            }
+        });
+        ids.addDeserializer(Id.class, new JsonDeserializer<>() {
+            @Override
+            public Id deserialize(JsonParser p, DeserializationContext c) throws IOException {
+                return Id.of(p.getValueAsString());
+            }
+        });
+        ObjectMapper m = new ObjectMapper();
+        m.registerModule(new JavaTimeModule());
+        m.registerModule(ids);
+        // Records as their components only: no derived getters (isCluster, isProblem, ...) in the file.
+        m.setVisibility(PropertyAccessor.ALL, JsonAutoDetect.Visibility.NONE);
+        m.setVisibility(PropertyAccessor.FIELD, JsonAutoDetect.Visibility.ANY);
+        m.disable(SerializationFeature.WRITE_DATES_AS_TIMESTAMPS);
+        m.disable(SerializationFeature.WRITE_DURATIONS_AS_TIMESTAMPS);
+        // Maps made by Map.copyOf iterate in an order that changes from one JVM to the next.
+        m.enable(SerializationFeature.ORDER_MAP_ENTRIES_BY_KEYS);
+        m.enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
+        return m;
+    }
+
+    /** The snapshot row of {@code state}, the engine's state after journal seq {@code seq}. */
+    public static SnapshotRow encode(long seq, Instant takenAt, String setupFingerprint, EngineState state) {
+        ObjectNode root = JSON.createObjectNode();
+        root.put("format", FORMAT);
+        root.put("seq", seq);
+        root.set("state", JSON.valueToTree(state));
+        ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16)) {
+            JSON.writeValue(out, root);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        return new SnapshotRow(seq, takenAt, FORMAT, setupFingerprint, bytes.toByteArray());
+    }
+
+    /** {@code state} as the JSON text a snapshot holds (uncompressed): equal states give equal text. */
+    static String json(EngineState state) {
+        try {
+            return JSON.writeValueAsString(state);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The state in {@code row}; throws {@link SnapshotFormatException} for a format this tend does not read. */
+    public static EngineState decode(SnapshotRow row) {
+        if (row.format() > FORMAT) {
+            throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " is in format " + row.format()
+                    + ", written by a newer tend; this tend reads format " + FORMAT + " and will not start from part of a "
+                    + "state it does not understand: run the newer tend on this store");
+        }
+        try (InputStream in = new GZIPInputStream(new ByteArrayInputStream(row.body()), 1 << 16)) {
+            JsonNode root = JSON.readTree(in);
+            int format = root.path("format").asInt(-1);
+            if (format != row.format()) {
+                throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " says format " + format
+                        + " inside but " + row.format() + " in its row; the store was changed by hand");
+            }
+            return JSON.treeToValue(root.get("state"), EngineState.class);
+        } catch (IOException e) {
+            throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " cannot be read (" + e.getMessage()
+                    + "); start from the journal instead by deleting the snapshots table's rows", e);
+        }
+    }
+
+    /**
+     * A fingerprint of what an engine is built from: every playbook's content hash, the
+     * actions, the fleet-wide policy, the brake, the event-time mode and the starting
+     * topology. A snapshot taken under another setup is not the state a full replay would
+     * build under this one.
+     */
+    public static String fingerprint(EngineSetup setup) {
+        StringBuilder sb = new StringBuilder("tend-setup/").append(FORMAT).append('\n');
+        for (Playbook p : setup.playbooks().playbooks()) {
+            sb.append(p.id()).append(' ').append(p.version()).append(' ').append(p.contentHash()).append('\n');
+        }
+        sb.append("actions ").append(setup.playbooks().actions().contentHash()).append('\n');
+        sb.append("brake ").append(setup.brake()).append('\n');
+        sb.append("event-time ").append(setup.eventTime()).append('\n');
+        try {
+            sb.append("config ").append(JSON.writeValueAsString(setup.config())).append('\n');
+            sb.append("fleet ").append(JSON.writeValueAsString(setup.fleet().clusters()));
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        return Sha256.hexOf(sb.toString());
+    }
+
+    /** A snapshot this tend cannot start from. */
+    public static final class SnapshotFormatException extends TendException {
+        SnapshotFormatException(String message) {
+            super(message);
+        }
+
+        SnapshotFormatException(String message, Throwable cause) {
+            super(message, cause);
+        }
+    }
+}
