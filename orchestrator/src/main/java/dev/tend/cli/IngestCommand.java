@@ -56,6 +56,9 @@ public final class IngestCommand implements Callable<Integer> {
     @Mixin
     DbOption db;
 
+    @Mixin
+    SnapshotOption snapshots;
+
     @Option(names = "--speedup", defaultValue = "1", paramLabel = "N",
             description = "run simulated actions N times faster than their durations (default: ${DEFAULT-VALUE})")
     double speedup;
@@ -77,13 +80,11 @@ public final class IngestCommand implements Callable<Integer> {
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock);
+                    Notifier.printingTo(System.err), clock, dev.tend.runtime.CommitListener.NONE, snapshots.every());
             holder[0] = orch;
             Orchestrator.Recovery rec = orch.recover();
-            if (rec.inputsReplayed() > 0) {
-                err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
-                        + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
-                        + rec.callsUnknown() + " runs stopped for a person");
+            if (rec.inputsReplayed() > 0 || rec.snapshotSeq() > 0) {
+                err.println("tend: resumed from " + db.describe() + ": " + rec.describe());
             }
             AtomicBoolean eof = new AtomicBoolean();
             ReadSummary[] summary = new ReadSummary[1];

@@ -40,6 +40,9 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     DbOption db;
 
+    @Mixin
+    SnapshotOption snapshots;
+
     @Option(names = "--listen", paramLabel = "HOST:PORT", defaultValue = "127.0.0.1:7420", converter = ListenConverter.class,
             description = "address to listen on (default: ${DEFAULT-VALUE})")
     Listen listen;
@@ -70,15 +73,13 @@ public final class ServeCommand implements Callable<Integer> {
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(speedup).seed(seed).log(err).build();
+                .speedup(speedup).seed(seed).log(err).snapshotEvery(snapshots.every()).build();
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {
                 var rec = server.recovery();
-                if (rec.inputsReplayed() > 0) {
-                    err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
-                            + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
-                            + rec.callsUnknown() + " runs stopped for a person");
+                if (rec.inputsReplayed() > 0 || rec.snapshotSeq() > 0) {
+                    err.println("tend: resumed from " + db.describe() + ": " + rec.describe());
                 }
                 err.println("tend: serving " + server.url() + "/api/v1 (tokens: " + String.join(", ", tokens.names()) + ")");
                 err.flush();

@@ -3,6 +3,9 @@ package dev.tend.runtime;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EngineState;
+import dev.tend.store.SnapshotRow;
+import dev.tend.store.StoreReader;
 import dev.tend.engine.Input;
 import dev.tend.executor.Executor;
 import dev.tend.shared.HealthTransition;
@@ -39,8 +42,18 @@ public final class Orchestrator {
     /** Group commit: a small batch waits this long for more inputs before it is committed. */
     private static final long GATHER_NANOS = 10_000_000;
 
+    /** Inputs between two snapshots unless told otherwise. */
+    public static final int DEFAULT_SNAPSHOT_EVERY = 10_000;
+    /** Snapshots kept in the store: the newest, and one before it. */
+    private static final int SNAPSHOTS_KEPT = 2;
+
     private final Store store;
-    private final Engine engine;
+    private final EngineSetup setup;
+    private final int snapshotEvery;
+    private volatile Engine engine;
+    private String fingerprint;
+    private long lastSeq;
+    private long sinceSnapshot;
     private final Map<String, Executor> executors;
     private final Timers timers;
     private final Notifier notifier;
@@ -60,8 +73,20 @@ public final class Orchestrator {
     /** As above, with a listener told about every committed batch on the driver thread. */
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock, CommitListener listener) {
+        this(store, setup, executors, timers, notifier, clock, listener, DEFAULT_SNAPSHOT_EVERY);
+    }
+
+    /**
+     * As above, writing a snapshot of the engine every {@code snapshotEvery} inputs and at a
+     * clean stop ({@code 0}: never).
+     */
+    public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
+                        Notifier notifier, Clock clock, CommitListener listener, int snapshotEvery) {
+        if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
         this.listener = java.util.Objects.requireNonNull(listener, "listener");
         this.store = store;
+        this.setup = setup;
+        this.snapshotEvery = snapshotEvery;
         this.engine = new Engine(setup);
         this.executors = Map.copyOf(executors);
         this.timers = timers;
@@ -74,23 +99,60 @@ public final class Orchestrator {
         return engine;
     }
 
-    /** What {@link #recover()} found. */
-    public record Recovery(long inputsReplayed, int timersArmed, int callsAskedAgain, int callsUnknown) {
+    /**
+     * What {@link #recover()} found.
+     *
+     * @param snapshotSeq    the journal seq of the snapshot started from; 0 when the whole journal was replayed
+     * @param inputsReplayed journaled inputs replayed (after the snapshot, if any)
+     */
+    public record Recovery(long snapshotSeq, long inputsReplayed, int timersArmed, int callsAskedAgain, int callsUnknown) {
+        /** One line for a person: where the engine came from. */
+        public String describe() {
+            return (snapshotSeq > 0 ? "snapshot at journal seq " + snapshotSeq + " loaded, " : "") + inputsReplayed
+                    + " journaled inputs replayed, " + timersArmed + " timers armed, " + callsAskedAgain
+                    + " calls asked again by key, " + callsUnknown + " runs stopped for a person";
+        }
     }
 
     /**
-     * Rebuilds the engine from the journal, arms its timers again and settles calls that were
-     * in flight: asked again by key where the executor can, else the run stops for a person.
+     * Rebuilds the engine: from the newest snapshot and the journal after it, or from the
+     * whole journal (when there is no snapshot, or the snapshot was taken under another
+     * policy or fleet and the whole journal is still there to replay under this one). Then
+     * arms the engine's timers again and settles calls that were in flight: asked again by
+     * key where the executor can, else the run stops for a person. Throws
+     * {@link TendException} for a snapshot of a newer format, or a journal whose start was
+     * archived with no snapshot to cover it.
      */
     public Recovery recover() {
+        fingerprint = SnapshotCodec.fingerprint(setup);
+        long[] span = store.read(r -> new long[]{r.firstInputSeq(), r.lastInputSeq()});
+        java.util.Optional<SnapshotRow> snapshot = store.read(StoreReader::latestSnapshot);
+        boolean wholeJournal = span[0] <= 1;
+        long after = 0;
+        if (snapshot.isPresent()) {
+            SnapshotRow row = snapshot.get();
+            EngineState state = SnapshotCodec.decode(row);
+            if (row.setup().equals(fingerprint) || !wholeJournal) {
+                engine = Engine.restore(setup, state);
+                after = row.seq();
+            }
+        }
+        if (!wholeJournal && after + 1 < span[0]) {
+            throw new TendException("the journal of " + store.location() + " starts at input " + span[0] + " (older inputs were "
+                    + "archived) but no snapshot covers the inputs before it" + (after > 0 ? " (the newest ends at " + after + ")" : "")
+                    + "; restore the archived inputs or a store backup");
+        }
+        long from = after;
         long[] n = {0};
         store.read(r -> {
-            r.forEachInput(0, row -> {
+            r.forEachInput(from, row -> {
                 engine.handle(InputCodec.decode(row), row.now());
                 n[0]++;
             });
             return null;
         });
+        lastSeq = Math.max(span[1], after);
+        sinceSnapshot = n[0];
         Map<String, Instant> armed = engine.armedTimers();
         armed.forEach(timers::arm);
         int again = 0, unknown = 0;
@@ -104,7 +166,7 @@ public final class Orchestrator {
                 unknown++;
             }
         }
-        return new Recovery(n[0], armed.size(), again, unknown);
+        return new Recovery(after, n[0], armed.size(), again, unknown);
     }
 
     /** Queues a transition or topology event; blocks while the queue is full. */
@@ -157,6 +219,20 @@ public final class Orchestrator {
 
     /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
     public void runUntil(BooleanSupplier done) throws InterruptedException {
+        drive(done);
+        // a clean stop: the next start loads this state and replays nothing
+        if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+    }
+
+    /** Writes the engine's state as the snapshot after the last committed input. */
+    private void writeSnapshot() {
+        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
+        SnapshotRow row = SnapshotCodec.encode(lastSeq, clock.instant(), fingerprint, engine.state());
+        store.useTransaction(tx -> tx.putSnapshot(row, SNAPSHOTS_KEPT));
+        sinceSnapshot = 0;
+    }
+
+    private void drive(BooleanSupplier done) throws InterruptedException {
         List<Input> batch = new ArrayList<>(BATCH);
         while (!stopping) {
             batch.clear();
@@ -208,9 +284,10 @@ public final class Orchestrator {
             times.add(now);
             perInput.add(fx);
         }
+        long[] seq = {0};
         try {
             store.useTransaction(tx -> {
-                tx.appendInputs(rows);
+                seq[0] = tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) Projections.apply(tx, times.get(i), perInput.get(i), ledger);
                 tx.appendLedger(ledger);
             });
@@ -223,7 +300,10 @@ public final class Orchestrator {
             throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
                     + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
         }
+        lastSeq = seq[0];
+        sinceSnapshot += batch.size();
         for (Effect e : all) perform(e);
+        if (snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {

@@ -22,9 +22,11 @@ import java.util.Objects;
  * @param workDir        working directory of command actions (default: the current directory)
  * @param log            where notifications and failures are written (default: standard error)
  * @param timeScale      how processing time relates to the wall clock (default {@link TimeScale#real()})
+ * @param snapshotEvery  inputs between two snapshots of the engine, 0 for none (default
+ *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOT_EVERY})
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
-                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale) {
+                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale, int snapshotEvery) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -38,6 +40,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         Objects.requireNonNull(workDir, "workDir");
         Objects.requireNonNull(log, "log");
         Objects.requireNonNull(timeScale, "timeScale");
+        if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
     }
 
     private static void requirePositive(Duration d, String field) {
@@ -57,6 +60,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private Tokens tokens = Tokens.none();
         private double speedup = 1;
         private long seed = 1;
+        private int snapshotEvery = dev.tend.runtime.Orchestrator.DEFAULT_SNAPSHOT_EVERY;
         private Duration tick = Duration.ofSeconds(5);
         private Duration commandTimeout = Duration.ofSeconds(30);
         private Path workDir = Path.of("").toAbsolutePath();
@@ -113,8 +117,14 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder snapshotEvery(int value) {
+            this.snapshotEvery = value;
+            return this;
+        }
+
         public ServeSettings build() {
-            return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale);
+            return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
+                    snapshotEvery);
         }
     }
 }

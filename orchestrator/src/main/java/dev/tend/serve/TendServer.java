@@ -76,7 +76,7 @@ public final class TendServer implements AutoCloseable {
                 log.flush();
             }
         };
-        orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners);
+        orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners, s.snapshotEvery());
         holder[0] = orchestrator;
         recovery = orchestrator.recover();
         // the driver thread has not started: this thread may still read the engine
