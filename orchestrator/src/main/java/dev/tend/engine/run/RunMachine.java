@@ -5,7 +5,7 @@ import dev.tend.engine.Effects;
 import dev.tend.engine.RunState;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Step;
 import dev.tend.playbooks.Template;
 import dev.tend.playbooks.WaitHealthyStep;
@@ -70,7 +70,7 @@ public final class RunMachine {
             }
             r.stepStartedAt = fx.now();
             Step s = list.get(r.index);
-            if (s instanceof NotifyStep n) {
+            if (s instanceof PageStep n) {
                 String msg = render(n.message(), r);
                 fx.add(new Effect.Notify(r.id + "/" + n.id(), n.channel().value(), msg,
                         Map.of("run", r.id, "cluster", r.target.cluster().value())));
