@@ -19,7 +19,7 @@ import java.util.Map;
 
 /**
  * Moves runs through their steps: action (an executor call with a timeout and retries),
- * wait-healthy (continue once the signals clear on the target, within a limit), notify;
+ * wait-healthy (continue once the signals clear on the target, within a limit), page;
  * the on-failure steps when a step fails or times out. Pauses at step boundaries while the
  * fleet brake is engaged. Deterministic: timers and calls are effects with stable keys.
  */
@@ -50,7 +50,7 @@ public final class RunMachine {
         advance(r, fx);
     }
 
-    /** Moves to the next step, executing notify and already-satisfied waits inline. */
+    /** Moves to the next step, executing pages and already-satisfied waits inline. */
     public void advance(RunProcess r, Effects fx) {
         while (true) {
             if (host.isBrakeEngaged() && !r.failing && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
