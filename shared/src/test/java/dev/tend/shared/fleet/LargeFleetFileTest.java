@@ -35,7 +35,7 @@ class LargeFleetFileTest {
             w.write("fleet: larkspur\nclusters:\n");
             for (int c = 0; c < CLUSTERS; c++) {
                 w.write("  - id: fares-" + c + "\n    tags: { tier: standard, team: fares }\n"
-                        + "    replication: { factor: 3, min-in-sync: 2 }\n    nodes:\n");
+                        + "    replication: { factor: 3, min-healthy: 2 }\n    nodes:\n");
                 for (int n = 0; n < NODES_PER_CLUSTER; n++) {
                     w.write("      - { id: n" + n + ", zone: " + ZONES[(c + n) % 3] + " }\n");
                 }
@@ -52,7 +52,7 @@ class LargeFleetFileTest {
             w.write("{\"fleet\": \"larkspur\", \"clusters\": [\n");
             for (int c = 0; c < CLUSTERS; c++) {
                 w.write((c == 0 ? "" : ",\n") + "{\"id\": \"fares-" + c + "\", \"tags\": {\"tier\": \"standard\", \"team\": \"fares\"}, "
-                        + "\"replication\": {\"factor\": 3, \"min-in-sync\": 2}, \"nodes\": [");
+                        + "\"replication\": {\"factor\": 3, \"min-healthy\": 2}, \"nodes\": [");
                 for (int n = 0; n < NODES_PER_CLUSTER; n++) {
                     w.write((n == 0 ? "" : ", ") + "{\"id\": \"n" + n + "\", \"zone\": \"" + ZONES[(c + n) % 3] + "\"}");
                 }
