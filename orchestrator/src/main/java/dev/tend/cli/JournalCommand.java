@@ -55,14 +55,15 @@ public final class JournalCommand implements Runnable {
                 description = "archive inputs taken before T (RFC 3339, a clock time like 22:00, or a duration ago like 30d)")
         String before;
 
-        @Option(names = "--to", required = true, paramLabel = "FILE", description = "the archive file to write (must not exist)")
+        @Option(names = "--to", required = true, paramLabel = "FILE",
+                description = "the archive file (JSON Lines); created, or appended to when it exists")
         Path to;
 
         @Override
         public Integer call() {
             Clock clock = Clock.systemUTC();
             Instant until = TimeArg.parse(before, clock);
-            if (Files.exists(to)) throw new TendException("--to " + to + ": the file exists; choose a new name");
+            long keptBytes = sizeOf(to);
             try (Store store = db.openExisting()) {
                 SnapshotRow snapshot = store.read(StoreReader::latestSnapshot).orElseThrow(() -> new TendException("the store at "
                         + store.location() + " has no snapshot yet, so every input is still needed to start: run `tend serve` or "
@@ -71,7 +72,8 @@ public final class JournalCommand implements Runnable {
                 try {
                     store.useTransaction(tx -> {
                         long last = tx.lastInputSeq();
-                        try (FileChannel ch = FileChannel.open(to, StandardOpenOption.CREATE_NEW, StandardOpenOption.WRITE);
+                        try (FileChannel ch = FileChannel.open(to, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
+                                StandardOpenOption.APPEND);
                              OutputStream out = Channels.newOutputStream(ch)) {
                             tx.forEachInput(0, row -> {
                                 if (row.seq() > snapshot.seq() || row.seq() >= last || !row.now().isBefore(until)) return;
@@ -102,7 +104,7 @@ public final class JournalCommand implements Runnable {
                         tx.appendLedger(clock.instant(), "journal-archived", fields);
                     });
                 } catch (RuntimeException e) {
-                    deleteQuietly(to);
+                    truncateQuietly(to, keptBytes);
                     if (e instanceof UncheckedIOException io) {
                         throw new TendException("--to " + to + ": cannot write the archive (" + io.getCause().getMessage()
                                 + "); nothing was deleted", io);
@@ -132,9 +134,24 @@ public final class JournalCommand implements Runnable {
             }
         }
 
-        private static void deleteQuietly(Path file) {
+        private static long sizeOf(Path file) {
             try {
-                Files.deleteIfExists(file);
+                return Files.exists(file) ? Files.size(file) : -1;
+            } catch (IOException e) {
+                throw new TendException("--to " + file + ": cannot read it (" + e.getMessage() + ")");
+            }
+        }
+
+        /** Takes back what a failed archive appended: the file as it was, or no file when there was none. */
+        private static void truncateQuietly(Path file, long size) {
+            try {
+                if (size < 0) {
+                    Files.deleteIfExists(file);
+                } else {
+                    try (FileChannel ch = FileChannel.open(file, StandardOpenOption.WRITE)) {
+                        ch.truncate(size);
+                    }
+                }
             } catch (IOException ignored) {
                 // the archive was not complete; a person sees the error above either way
             }

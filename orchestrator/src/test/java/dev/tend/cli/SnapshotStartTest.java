@@ -101,17 +101,21 @@ class SnapshotStartTest {
     }
 
     @Test
-    void archivingNeedsASnapshotAndANewFile() throws Exception {
+    void archivingNeedsASnapshotAndAppendsToAnArchiveThatExists() throws Exception {
         String db = dir.resolve("tend.db").toString();
         assertThat(ingest(db, "--snapshot-every", "0").exit()).isZero();
         CliRun none = CliRun.of("journal", "archive", "--db", db, "--before", "1h", "--to", dir.resolve("a.jsonl").toString());
         assertThat(none.exit()).isEqualTo(ExitCodes.USAGE);
         assertThat(none.err()).contains("has no snapshot yet");
         assertThat(dir.resolve("a.jsonl")).doesNotExist();
-        Path existing = Files.writeString(dir.resolve("b.jsonl"), "keep me\n");
-        CliRun exists = CliRun.of("journal", "archive", "--db", db, "--before", "1h", "--to", existing.toString());
-        assertThat(exists.err()).contains("the file exists");
-        assertThat(Files.readString(existing)).isEqualTo("keep me\n");
+
+        assertThat(ingest(db).exit()).isZero(); // stops cleanly: a snapshot
+        Path existing = Files.writeString(dir.resolve("b.jsonl"), "{\"seq\":0}\n");
+        CliRun appended = CliRun.of("journal", "archive", "--db", db, "--before", "2200-01-01T00:00:00Z", "--to", existing.toString());
+        assertThat(appended.exit()).as(appended.err()).isZero();
+        List<String> lines = Files.readAllLines(existing);
+        assertThat(lines.get(0)).isEqualTo("{\"seq\":0}");
+        assertThat(lines).hasSizeGreaterThan(1);
     }
 
     @Test
