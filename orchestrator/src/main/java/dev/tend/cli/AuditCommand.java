@@ -53,8 +53,8 @@ public final class AuditCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         Clock clock = Clock.systemDefaultZone();
         LedgerFilter f = LedgerFilter.all();
-        if (since != null) f = f.withSince(TimeArg.parse(since, clock));
-        if (until != null) f = f.withUntil(TimeArg.parse(until, clock));
+        if (since != null) f = f.withSince(TimeArg.parse("--since", since, clock));
+        if (until != null) f = f.withUntil(TimeArg.parse("--until", until, clock));
         if (cluster != null) f = f.withCluster(cluster);
         if (playbook != null) f = f.withPlaybook(playbook);
         if (kind != null) f = f.withKind(kind);
