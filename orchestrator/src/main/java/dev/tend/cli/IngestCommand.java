@@ -12,6 +12,8 @@ import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
 import dev.tend.shared.HealthTransition;
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
@@ -24,11 +26,11 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import picocli.CommandLine.Model.CommandSpec;
 
-import java.io.InputStreamReader;
+import java.io.IOException;
+import java.io.InputStream;
 import java.io.PrintWriter;
-import java.io.Reader;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.util.Map;
@@ -67,6 +69,7 @@ public final class IngestCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        InputStream source = open();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
         try (Store store = db.open();
@@ -86,9 +89,10 @@ public final class IngestCommand implements Callable<Integer> {
                         + rec.callsUnknown() + " runs stopped for a person");
             }
             AtomicBoolean eof = new AtomicBoolean();
+            java.util.concurrent.atomic.AtomicReference<String> readFailure = new java.util.concurrent.atomic.AtomicReference<>();
             ReadSummary[] summary = new ReadSummary[1];
             Thread reader = new Thread(() -> {
-                try (Reader in = open()) {
+                try (InputStream in = source) {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e) {
@@ -102,7 +106,8 @@ public final class IngestCommand implements Callable<Integer> {
                             throw new IllegalStateException(ie);
                         }
                     });
-                } catch (Exception e) {
+                } catch (RuntimeException | IOException e) {
+                    readFailure.set(e.getMessage());
                     err.println("tend: reading " + input + " stopped: " + e.getMessage());
                 } finally {
                     eof.set(true);
@@ -120,13 +125,23 @@ public final class IngestCommand implements Callable<Integer> {
             }
             timers.close();
             report(out, orch, summary[0]);
+            if (readFailure.get() != null) return ExitCodes.USAGE;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }
 
-    private Reader open() throws java.io.IOException {
-        if (input.equals("-")) return new InputStreamReader(System.in, StandardCharsets.UTF_8);
-        return Files.newBufferedReader(Path.of(input), StandardCharsets.UTF_8);
+    /** Standard input or the file, opened before anything else so that a missing file is exit 2 with its path. */
+    private InputStream open() {
+        if (input.equals("-")) return System.in;
+        Path file = Path.of(input);
+        try {
+            if (Files.isDirectory(file)) throw new IOException("it is a directory");
+            return Files.newInputStream(file);
+        } catch (NoSuchFileException e) {
+            throw new InvalidInputException(Problem.at(input, 0, 0, "", "no such file"));
+        } catch (IOException e) {
+            throw new InvalidInputException(Problem.at(input, 0, 0, "", "cannot read the file: " + e.getMessage()));
+        }
     }
 
     private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {
