@@ -8,9 +8,13 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
+import dev.tend.runtime.SourceProgress;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
@@ -33,6 +37,7 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.atomic.AtomicBoolean;
@@ -77,10 +82,22 @@ public final class IngestCommand implements Callable<Integer> {
              Executor simulated = new SimulatedExecutor(seed, speedup);
              Executor http = HttpExecutor.withDefaults()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock);
+                    Notifier.printingTo(System.err), clock, new CommitListener() {
+                        @Override
+                        public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+                        }
+
+                        @Override
+                        public void refused(Input in, String reason) {
+                            refused.incrementAndGet();
+                            err.println("tend: refused a " + in.kind() + " input" + (in.cluster() == null ? "" : " of " + in.cluster())
+                                    + " (a ledger entry input-refused names it): " + reason);
+                        }
+                    });
             holder[0] = orch;
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {
@@ -88,6 +105,12 @@ public final class IngestCommand implements Callable<Integer> {
                         + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                         + rec.callsUnknown() + " runs stopped for a person");
             }
+            long skip = input.equals("-") ? 0 : orch.readingFrom(SourceProgress.identity(Path.of(input)));
+            if (skip > 0) {
+                err.println("tend: the first " + skip + " events of " + input + " are already journaled in " + db.db
+                        + "; reading on after them");
+            }
+            long[] seen = {0};
             AtomicBoolean eof = new AtomicBoolean();
             java.util.concurrent.atomic.AtomicReference<String> readFailure = new java.util.concurrent.atomic.AtomicReference<>();
             ReadSummary[] summary = new ReadSummary[1];
@@ -95,10 +118,10 @@ public final class IngestCommand implements Callable<Integer> {
                 try (InputStream in = source) {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
-                            if (r instanceof LineResult.Event e) {
+                            if (r instanceof LineResult.Event e && ++seen[0] > skip) {
                                 orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
                                         : new Input.Topology((TopologyEvent) e.event()));
-                            } else if (r instanceof LineResult.Bad b) {
+                            } else if (r instanceof LineResult.Bad b && seen[0] >= skip) {
                                 err.println(b.problem() + " (line skipped)");
                             }
                         } catch (InterruptedException ie) {
@@ -126,6 +149,7 @@ public final class IngestCommand implements Callable<Integer> {
             timers.close();
             report(out, orch, summary[0]);
             if (readFailure.get() != null) return ExitCodes.USAGE;
+            if (refused.get() > 0) return ExitCodes.FINDINGS;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }

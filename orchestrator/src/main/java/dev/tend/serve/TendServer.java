@@ -65,10 +65,22 @@ public final class TendServer implements AutoCloseable {
         Orchestrator[] holder = new Orchestrator[1];
         timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
         Timers engineTimers = s.timeScale().onProcessingTime(timers);
-        CommitListener listeners = (Engine engine, List<Input> inputs, List<Effect> effects) -> {
-            lastCommitNanos.set(System.nanoTime());
-            metrics.committed(engine, inputs, effects);
-            health.committed(engine, inputs, effects);
+        CommitListener listeners = new CommitListener() {
+            @Override
+            public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+                lastCommitNanos.set(System.nanoTime());
+                metrics.committed(engine, inputs, effects);
+                health.committed(engine, inputs, effects);
+            }
+
+            @Override
+            public void refused(Input input, String reason) {
+                metrics.refused(input, reason);
+                synchronized (log) {
+                    log.println("tend: refused a " + input.kind() + " input: " + reason);
+                    log.flush();
+                }
+            }
         };
         Notifier notifier = n -> {
             synchronized (log) {
