@@ -1,5 +1,7 @@
 package dev.tend.cli;
 
+import dev.tend.audit.CheckpointWriter;
+import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
@@ -70,11 +72,15 @@ public final class IngestCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
+    @Mixin
+    LedgerKeyOption ledgerKey;
+
     @Override
     public Integer call() throws Exception {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         InputStream source = open();
+        LedgerKey ledger = ledgerKey.load();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
         try (Store store = db.open();
@@ -99,6 +105,7 @@ public final class IngestCommand implements Callable<Integer> {
                         }
                     });
             holder[0] = orch;
+            if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {
                 err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "

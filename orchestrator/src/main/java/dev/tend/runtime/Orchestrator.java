@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
@@ -57,6 +58,8 @@ public final class Orchestrator {
     /** Events of {@link #source} journaled (or refused) so far, from the journal's progress rows on. */
     private long sourceDone;
     private final Map<String, Long> progressFound = new java.util.HashMap<>();
+    /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
+    private volatile CheckpointWriter checkpoints;
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
@@ -140,6 +143,15 @@ public final class Orchestrator {
         return sourceDone;
     }
 
+    /**
+     * Writes keyed checkpoints into the ledger from now on: at least every
+     * {@link CheckpointWriter#EVERY} of processing time while the ledger grows, and when
+     * {@link #runUntil} ends.
+     */
+    public void checkpointWith(CheckpointWriter writer) {
+        this.checkpoints = writer;
+    }
+
     /** Queues a transition or topology event; blocks while the queue is full. */
     public void submitEvent(Input in) throws InterruptedException {
         events.put(in);
@@ -190,6 +202,17 @@ public final class Orchestrator {
 
     /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
     public void runUntil(BooleanSupplier done) throws InterruptedException {
+        boolean failed = true;
+        try {
+            loop(done);
+            failed = false;
+        } finally {
+            CheckpointWriter w = checkpoints;
+            if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
+        }
+    }
+
+    private void loop(BooleanSupplier done) throws InterruptedException {
         List<Input> batch = new ArrayList<>(BATCH);
         java.util.BitSet queued = new java.util.BitSet(BATCH);
         while (!stopping) {
@@ -199,6 +222,8 @@ public final class Orchestrator {
             if (batch.size() < BATCH) fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
             if (batch.isEmpty()) {
                 if (done.getAsBoolean() && urgent.isEmpty() && events.isEmpty()) return;
+                CheckpointWriter w = checkpoints;
+                if (w != null) w.maybeWrite(clock.instant());
                 Input next = urgent.poll(20, TimeUnit.MILLISECONDS);
                 boolean event = false;
                 if (next == null) {
@@ -211,6 +236,8 @@ public final class Orchestrator {
             }
             gather(batch, queued);
             process(batch, queued);
+            CheckpointWriter w = checkpoints;
+            if (w != null) w.maybeWrite(clock.instant());
         }
     }
 

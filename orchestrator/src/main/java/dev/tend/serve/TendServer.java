@@ -146,6 +146,14 @@ public final class TendServer implements AutoCloseable {
         return "http://" + h + ":" + port();
     }
 
+    /**
+     * Keys the ledger from now on (DESIGN.md section 6): a checkpoint entry at least once a
+     * minute while it grows, and one when the server stops.
+     */
+    public void checkpointWith(Store store, dev.tend.audit.LedgerKey key) {
+        orchestrator.checkpointWith(new dev.tend.audit.CheckpointWriter(store, key, dev.tend.audit.CheckpointWriter.EVERY));
+    }
+
     /** What the start found in the store. */
     public Orchestrator.Recovery recovery() {
         return recovery;
