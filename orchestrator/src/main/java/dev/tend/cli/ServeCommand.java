@@ -82,7 +82,7 @@ public final class ServeCommand implements Callable<Integer> {
                 if (key != null) server.checkpointWith(store, key);
                 var rec = server.recovery();
                 if (rec.inputsReplayed() > 0) {
-                    err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
+                    err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
                             + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                             + rec.callsUnknown() + " runs stopped for a person");
                 }
