@@ -62,7 +62,7 @@ public final class JournalCommand implements Runnable {
         @Override
         public Integer call() {
             Clock clock = Clock.systemUTC();
-            Instant until = TimeArg.parse(before, clock);
+            Instant until = TimeArg.parse("--before", before, clock);
             long keptBytes = sizeOf(to);
             try (Store store = db.openExisting()) {
                 SnapshotRow snapshot = store.read(StoreReader::latestSnapshot).orElseThrow(() -> new TendException("the store at "

@@ -1,9 +1,9 @@
 package dev.tend.runtime;
 
+import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
-import dev.tend.engine.EngineState;
 import dev.tend.store.SnapshotRow;
 import dev.tend.store.StoreReader;
 import dev.tend.engine.Input;
@@ -50,9 +50,12 @@ public final class Orchestrator {
     private final Store store;
     private final EngineSetup setup;
     private final int snapshotEvery;
+    /**
+     * Replaced at {@link #recover} and by a rebuilt one when a batch must be taken apart (see
+     * {@link #retryOneByOne}); read by other threads only through {@link #engine()}.
+     */
     private volatile Engine engine;
     private String fingerprint;
-    private long lastSeq;
     private long sinceSnapshot;
     private final Map<String, Executor> executors;
     private final Timers timers;
@@ -63,6 +66,13 @@ public final class Orchestrator {
     private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
     private final AtomicInteger callsInFlight = new AtomicInteger();
     private volatile boolean stopping;
+    /** The input the events queue is fed from (see {@link #readingFrom}); null when it has no identity. */
+    private volatile String source;
+    /** Events of {@link #source} journaled (or refused) so far, from the journal's progress rows on. */
+    private long sourceDone;
+    private final Map<String, Long> progressFound = new java.util.HashMap<>();
+    /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
+    private volatile CheckpointWriter checkpoints;
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
@@ -115,44 +125,15 @@ public final class Orchestrator {
     }
 
     /**
-     * Rebuilds the engine: from the newest snapshot and the journal after it, or from the
-     * whole journal (when there is no snapshot, or the snapshot was taken under another
-     * policy or fleet and the whole journal is still there to replay under this one). Then
-     * arms the engine's timers again and settles calls that were in flight: asked again by
-     * key where the executor can, else the run stops for a person. Throws
-     * {@link TendException} for a snapshot of a newer format, or a journal whose start was
-     * archived with no snapshot to cover it.
+     * Rebuilds the engine (see {@link #loadState}), arms its timers again and settles calls
+     * that were in flight: asked again by key where the executor can, else the run stops for
+     * a person. Throws {@link TendException} for a snapshot of a newer format, or a journal
+     * whose start was archived with no snapshot to cover it.
      */
     public Recovery recover() {
-        fingerprint = SnapshotCodec.fingerprint(setup);
-        long[] span = store.read(r -> new long[]{r.firstInputSeq(), r.lastInputSeq()});
-        java.util.Optional<SnapshotRow> snapshot = store.read(StoreReader::latestSnapshot);
-        boolean wholeJournal = span[0] <= 1;
-        long after = 0;
-        if (snapshot.isPresent()) {
-            SnapshotRow row = snapshot.get();
-            EngineState state = SnapshotCodec.decode(row);
-            if (row.setup().equals(fingerprint) || !wholeJournal) {
-                engine = Engine.restore(setup, state);
-                after = row.seq();
-            }
-        }
-        if (!wholeJournal && after + 1 < span[0]) {
-            throw new TendException("the journal of " + store.location() + " starts at input " + span[0] + " (older inputs were "
-                    + "archived) but no snapshot covers the inputs before it" + (after > 0 ? " (the newest ends at " + after + ")" : "")
-                    + "; restore the archived inputs or a store backup");
-        }
-        long from = after;
-        long[] n = {0};
-        store.read(r -> {
-            r.forEachInput(from, row -> {
-                engine.handle(InputCodec.decode(row), row.now());
-                n[0]++;
-            });
-            return null;
-        });
-        lastSeq = Math.max(span[1], after);
-        sinceSnapshot = n[0];
+        long[] loaded = loadState();
+        long n = loaded[1];
+        sinceSnapshot = n;
         Map<String, Instant> armed = engine.armedTimers();
         armed.forEach(timers::arm);
         int again = 0, unknown = 0;
@@ -166,7 +147,76 @@ public final class Orchestrator {
                 unknown++;
             }
         }
-        return new Recovery(after, n[0], armed.size(), again, unknown);
+        return new Recovery(loaded[0], n, armed.size(), again, unknown);
+    }
+
+    /**
+     * Builds the engine from the newest snapshot and the journal after it, or from the whole
+     * journal (when there is no snapshot, or it was taken under another policy or fleet and
+     * the whole journal is still there to replay under this one). Journaled inputs are fed
+     * to the engine with their effects discarded (they are already in the store). Returns
+     * the snapshot's seq (0: none used) and how many inputs were replayed.
+     */
+    private long[] loadState() {
+        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
+        long first = store.read(StoreReader::firstInputSeq);
+        java.util.Optional<SnapshotRow> snapshot = store.read(StoreReader::latestSnapshot);
+        boolean wholeJournal = first <= 1;
+        engine = new Engine(setup);
+        progressFound.clear();
+        long after = 0;
+        if (snapshot.isPresent()) {
+            SnapshotRow row = snapshot.get();
+            SnapshotCodec.Decoded d = SnapshotCodec.decode(row);
+            if (row.setup().equals(fingerprint) || !wholeJournal) {
+                engine = Engine.restore(setup, d.state());
+                progressFound.putAll(d.sources());
+                after = row.seq();
+            }
+        }
+        if (!wholeJournal && after + 1 < first) {
+            throw new TendException("the journal of " + store.location() + " starts at input " + first + " (older inputs were "
+                    + "archived) but no snapshot covers the inputs before it" + (after > 0 ? " (the newest ends at " + after + ")" : "")
+                    + "; restore the archived inputs or a store backup");
+        }
+        long from = after;
+        long[] n = {0};
+        store.read(r -> {
+            r.forEachInput(from, row -> {
+                if (row.kind().equals(SourceProgress.KIND)) {
+                    SourceProgress p = SourceProgress.decode(row);
+                    progressFound.put(p.source(), p.events());
+                    return;
+                }
+                engine.handle(InputCodec.decode(row), row.now());
+                n[0]++;
+            });
+            return null;
+        });
+        return new long[]{after, n[0]};
+    }
+
+    /**
+     * Names the input that {@link #submitEvent} is fed from (a file's identity, see
+     * {@link SourceProgress#identity}); from then on each commit also journals how many of its
+     * events are done, in the same transaction, so that a reader started again after a crash
+     * skips exactly those. Call after {@link #recover()} and before {@link #runUntil}.
+     *
+     * @return how many events of this source the journal already holds (0 for a new source)
+     */
+    public long readingFrom(String sourceIdentity) {
+        this.source = java.util.Objects.requireNonNull(sourceIdentity, "sourceIdentity");
+        sourceDone = progressFound.getOrDefault(sourceIdentity, 0L);
+        return sourceDone;
+    }
+
+    /**
+     * Writes keyed checkpoints into the ledger from now on: at least every
+     * {@link CheckpointWriter#EVERY} of processing time while the ledger grows, and when
+     * {@link #runUntil} ends.
+     */
+    public void checkpointWith(CheckpointWriter writer) {
+        this.checkpoints = writer;
     }
 
     /** Queues a transition or topology event; blocks while the queue is full. */
@@ -219,42 +269,73 @@ public final class Orchestrator {
 
     /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
     public void runUntil(BooleanSupplier done) throws InterruptedException {
-        drive(done);
-        // a clean stop: the next start loads this state and replays nothing
-        if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+        boolean failed = true;
+        try {
+            loop(done);
+            failed = false;
+            // a clean stop: the next start loads this state and replays nothing
+            if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+        } finally {
+            CheckpointWriter w = checkpoints;
+            if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
+        }
     }
 
-    /** Writes the engine's state as the snapshot after the last committed input. */
+    /**
+     * Writes the engine's state, with the progress of the inputs read from files, as the
+     * snapshot after the newest journal row (everything committed: the driver calls it
+     * between batches).
+     */
     private void writeSnapshot() {
         if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
-        SnapshotRow row = SnapshotCodec.encode(lastSeq, clock.instant(), fingerprint, engine.state());
+        Map<String, Long> sources = new java.util.TreeMap<>(progressFound);
+        if (source != null) sources.put(source, sourceDone);
+        long seq = store.read(StoreReader::lastInputSeq);
+        if (seq == 0) return;
+        SnapshotRow row = SnapshotCodec.encode(seq, clock.instant(), fingerprint, engine.state(), sources);
         store.useTransaction(tx -> tx.putSnapshot(row, SNAPSHOTS_KEPT));
         sinceSnapshot = 0;
     }
 
-    private void drive(BooleanSupplier done) throws InterruptedException {
+    private void loop(BooleanSupplier done) throws InterruptedException {
         List<Input> batch = new ArrayList<>(BATCH);
+        java.util.BitSet queued = new java.util.BitSet(BATCH);
         while (!stopping) {
             batch.clear();
+            queued.clear();
             urgent.drainTo(batch, BATCH);
-            if (batch.size() < BATCH) events.drainTo(batch, BATCH - batch.size());
+            if (batch.size() < BATCH) fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
             if (batch.isEmpty()) {
                 if (done.getAsBoolean() && urgent.isEmpty() && events.isEmpty()) return;
+                CheckpointWriter w = checkpoints;
+                if (w != null) w.maybeWrite(clock.instant());
                 Input next = urgent.poll(20, TimeUnit.MILLISECONDS);
-                if (next == null) next = events.poll();
+                boolean event = false;
+                if (next == null) {
+                    next = events.poll();
+                    event = true;
+                }
                 if (next == null) continue;
                 batch.add(next);
+                if (event) queued.set(0);
             }
-            gather(batch);
-            process(batch);
+            gather(batch, queued);
+            process(batch, queued);
+            CheckpointWriter w = checkpoints;
+            if (w != null) w.maybeWrite(clock.instant());
         }
+    }
+
+    /** Marks the last {@code n} inputs of {@code batch} as taken from the events queue. */
+    private static void fromEvents(List<Input> batch, java.util.BitSet queued, int n) {
+        if (n > 0) queued.set(batch.size() - n, batch.size());
     }
 
     /**
      * Lets a small batch fill up for a few milliseconds, so that a steady trickle of events
      * is committed in groups rather than a transaction per event.
      */
-    private void gather(List<Input> batch) throws InterruptedException {
+    private void gather(List<Input> batch, java.util.BitSet queued) throws InterruptedException {
         long deadline = System.nanoTime() + GATHER_NANOS;
         while (batch.size() < BATCH) {
             long left = deadline - System.nanoTime();
@@ -265,43 +346,42 @@ public final class Orchestrator {
                 return;
             }
             batch.add(next);
-            events.drainTo(batch, BATCH - batch.size());
+            queued.set(batch.size() - 1);
+            fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
             urgent.drainTo(batch, BATCH - batch.size());
         }
     }
 
-    private void process(List<Input> batch) {
+    private void process(List<Input> batch, java.util.BitSet queued) {
         List<InputRow> rows = new ArrayList<>(batch.size());
         List<Effect> all = new ArrayList<>();
         List<LedgerDraft> ledger = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
-        for (Input in : batch) {
-            Instant now = clock.instant();
-            rows.add(InputCodec.encode(in, now));
-            List<Effect> fx = engine.handle(in, now);
-            all.addAll(fx);
-            times.add(now);
-            perInput.add(fx);
-        }
-        long[] seq = {0};
         try {
+            for (Input in : batch) {
+                Instant now = clock.instant();
+                rows.add(InputCodec.encode(in, now));
+                List<Effect> fx = engine.handle(in, now);
+                all.addAll(fx);
+                times.add(now);
+                perInput.add(fx);
+            }
+            long done = sourceDone + queued.cardinality();
+            if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
             store.useTransaction(tx -> {
-                seq[0] = tx.appendInputs(rows);
+                tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) Projections.apply(tx, times.get(i), perInput.get(i), ledger);
                 tx.appendLedger(ledger);
             });
+            sourceDone = done;
+            sinceSnapshot += batch.size();
         } catch (RuntimeException e) {
-            stopping = true;
-            for (Input in : batch) {
-                CompletableFuture<List<Effect>> f = waiting.remove(in);
-                if (f != null) f.completeExceptionally(e);
-            }
-            throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
-                    + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
+            if (InputRefusal.isDatabaseFailure(e)) stopOn(batch, e);
+            // what one input carries cannot be decided or kept: nothing of the batch was written or done
+            retryOneByOne(batch, queued);
+            return;
         }
-        lastSeq = seq[0];
-        sinceSnapshot += batch.size();
         for (Effect e : all) perform(e);
         if (snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
@@ -311,6 +391,77 @@ public final class Orchestrator {
                 if (f != null) f.complete(perInput.get(i));
             }
         }
+    }
+
+    /**
+     * Takes a batch apart after an input in it could not be decided or committed: the engine
+     * is rebuilt from the journal (which holds exactly what was committed, so the rebuilt
+     * engine is the one before the batch, and no effect of the batch has been performed),
+     * then each input is decided and committed on its own. The input at fault is refused on
+     * the record (a ledger entry naming it, and the listener is told) and the others go on.
+     */
+    private void retryOneByOne(List<Input> batch, java.util.BitSet queued) {
+        rebuild();
+        for (int i = 0; i < batch.size(); i++) {
+            Input in = batch.get(i);
+            Instant now = clock.instant();
+            List<InputRow> rows = new ArrayList<>(2);
+            if (source != null && queued.get(i)) rows.add(SourceProgress.row(source, sourceDone + 1, now));
+            List<Effect> fx;
+            try {
+                rows.add(0, InputCodec.encode(in, now));
+                fx = engine.handle(in, now);
+                List<LedgerDraft> ledger = new ArrayList<>();
+                store.useTransaction(tx -> {
+                    tx.appendInputs(rows);
+                    Projections.apply(tx, now, fx, ledger);
+                    tx.appendLedger(ledger);
+                });
+            } catch (RuntimeException e) {
+                if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
+                rebuild();
+                refuse(batch.subList(i, batch.size()), in, now, e, source != null && queued.get(i));
+                continue;
+            }
+            if (source != null && queued.get(i)) sourceDone++;
+            sinceSnapshot++;
+            for (Effect e : fx) perform(e);
+            listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
+            CompletableFuture<List<Effect>> f = waiting.remove(in);
+            if (f != null) f.complete(fx);
+        }
+    }
+
+    /** The engine of what the journal holds: the newest snapshot and the inputs after it. */
+    private void rebuild() {
+        loadState();
+    }
+
+    private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
+        String reason = InputRefusal.reason(cause);
+        try {
+            store.useTransaction(tx -> {
+                if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
+                tx.appendLedger(now, "input-refused", InputRefusal.fields(in, reason));
+            });
+        } catch (RuntimeException e) {
+            stopOn(rest, e);
+        }
+        if (ofSource) sourceDone++;
+        listener.refused(in, reason);
+        CompletableFuture<List<Effect>> f = waiting.remove(in);
+        if (f != null) f.completeExceptionally(InputRefusal.asInvalidInput(in, reason));
+    }
+
+    /** A failure of the database itself: tend stops safely and resumes from the journal when started again. */
+    private void stopOn(List<Input> batch, RuntimeException e) {
+        stopping = true;
+        for (Input in : batch) {
+            CompletableFuture<List<Effect>> f = waiting.remove(in);
+            if (f != null) f.completeExceptionally(e);
+        }
+        throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
+                + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
     }
 
     private void perform(Effect e) {

@@ -30,12 +30,14 @@ import java.io.InputStream;
 import java.io.OutputStream;
 import java.io.UncheckedIOException;
 import java.time.Instant;
+import java.util.Map;
 import java.util.zip.GZIPInputStream;
 import java.util.zip.GZIPOutputStream;
 
 /**
- * Writes an {@link EngineState} as a snapshot row and reads it back. The body is
- * gzip-compressed JSON: {@code {"format":1,"seq":N,"state":{...}}}, the state's records as
+ * Writes an {@link EngineState} as a snapshot row and reads it back, with how far the
+ * driver had read each input file ({@code sources}, see {@link SourceProgress}). The body is
+ * gzip-compressed JSON: {@code {"format":1,"seq":N,"sources":{...},"state":{...}}}, the state's records as
  * objects of their components, instants as RFC 3339 text with every digit of the fraction,
  * durations as ISO 8601, ids as strings.
  *
@@ -80,11 +82,21 @@ public final class SnapshotCodec {
         return m;
     }
 
+    /** What a snapshot holds: the engine's state, and the events done of each input file by its identity. */
+    public record Decoded(EngineState state, Map<String, Long> sources) {
+        public Decoded {
+            sources = Map.copyOf(sources);
+        }
+    }
+
     /** The snapshot row of {@code state}, the engine's state after journal seq {@code seq}. */
-    public static SnapshotRow encode(long seq, Instant takenAt, String setupFingerprint, EngineState state) {
+    public static SnapshotRow encode(long seq, Instant takenAt, String setupFingerprint, EngineState state,
+                                     Map<String, Long> sources) {
         ObjectNode root = JSON.createObjectNode();
         root.put("format", FORMAT);
         root.put("seq", seq);
+        ObjectNode done = root.putObject("sources");
+        new java.util.TreeMap<>(sources).forEach(done::put);
         root.set("state", JSON.valueToTree(state));
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
         try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16)) {
@@ -104,8 +116,8 @@ public final class SnapshotCodec {
         }
     }
 
-    /** The state in {@code row}; throws {@link SnapshotFormatException} for a format this tend does not read. */
-    public static EngineState decode(SnapshotRow row) {
+    /** What {@code row} holds; throws {@link SnapshotFormatException} for a format this tend does not read. */
+    public static Decoded decode(SnapshotRow row) {
         if (row.format() > FORMAT) {
             throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " is in format " + row.format()
                     + ", written by a newer tend; this tend reads format " + FORMAT + " and will not start from part of a "
@@ -118,7 +130,9 @@ public final class SnapshotCodec {
                 throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " says format " + format
                         + " inside but " + row.format() + " in its row; the store was changed by hand");
             }
-            return JSON.treeToValue(root.get("state"), EngineState.class);
+            Map<String, Long> sources = new java.util.LinkedHashMap<>();
+            root.path("sources").fields().forEachRemaining(e -> sources.put(e.getKey(), e.getValue().asLong()));
+            return new Decoded(JSON.treeToValue(root.get("state"), EngineState.class), sources);
         } catch (IOException e) {
             throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " cannot be read (" + e.getMessage()
                     + "); start from the journal instead by deleting the snapshots table's rows", e);

@@ -55,8 +55,10 @@ class SnapshotEquivalenceTest {
                 if (restored != null) {
                     assertThat(json(restored.state())).as("state after input %d, seed %d", i, seed).isEqualTo(json(full.state()));
                 }
-                SnapshotRow row = SnapshotCodec.encode(i, step.now(), fingerprint, full.state());
-                EngineState back = SnapshotCodec.decode(row);
+                SnapshotRow row = SnapshotCodec.encode(i, step.now(), fingerprint, full.state(), java.util.Map.of("ingest:" + seed, (long) i));
+                SnapshotCodec.Decoded decoded = SnapshotCodec.decode(row);
+                assertThat(decoded.sources()).containsEntry("ingest:" + seed, (long) i);
+                EngineState back = decoded.state();
                 assertThat(json(back)).as("the stored form gives back the state").isEqualTo(json(full.state()));
                 restored = Engine.restore(setup, back);
             }

@@ -30,14 +30,16 @@ public final class StreamedDocument {
         void accept(int index, YNode item);
     }
 
-    /** Aliases of collections allowed in one document, as {@link YamlDocument} allows. */
-    private static final int MAX_COLLECTION_ALIASES = 50;
 
     private final String source;
     private final NodeEvents events;
     private final List<Problem> problems = new ArrayList<>();
     private final Map<String, YNode> anchors = new HashMap<>();
-    private int collectionAliases;
+    /** Anchors whose node is still being read: an alias to one of them would never end. */
+    private final Map<String, NodeEvent> open = new HashMap<>();
+    /** Values repeated by aliases so far, bounded as {@link YamlDocument} bounds them. */
+    private int aliased;
+    private int depth;
 
     private StreamedDocument(String source, NodeEvents events) {
         this.source = source;
@@ -72,6 +74,7 @@ public final class StreamedDocument {
         if (first.type() == NodeEvent.Type.END) return new YMap(List.of(), 1, 1);
         YNode root;
         if (first.type() == NodeEvent.Type.MAP_START) {
+            enter(first);
             root = mapping(first, listKey, sink);
         } else {
             root = node(first);
@@ -126,21 +129,32 @@ public final class StreamedDocument {
             case SCALAR:
                 return remember(e, new YScalar(e.value(), e.plainNull(), e.quoted(), e.line(), e.column()));
             case MAP_START:
+                enter(e);
                 return mapping(e, null, null);
             case LIST_START: {
+                enter(e);
                 List<YNode> items = new ArrayList<>();
                 for (NodeEvent ie = events.next(); ie.type() != NodeEvent.Type.LIST_END; ie = events.next()) items.add(node(ie));
                 return remember(e, new YList(items, e.line(), e.column()));
             }
             case ALIAS: {
+                NodeEvent anchor = open.get(e.value());
+                if (anchor != null) {
+                    throw new InvalidInputException(Problem.at(source, anchor.line(), anchor.column(), "",
+                            "the anchor here is used by an alias inside its own value, which would never end; write the values out"));
+                }
                 YNode target = anchors.get(e.value());
                 if (target == null) {
                     throw new InvalidInputException(Problem.at(source, e.line(), e.column(), "",
                             "this is not valid YAML: found undefined alias " + e.value()));
                 }
-                if (!(target instanceof YScalar) && ++collectionAliases > MAX_COLLECTION_ALIASES) {
-                    throw new InvalidInputException(Problem.at(source, e.line(), e.column(), "", "this is not valid YAML: "
-                            + "Number of aliases for non-scalar nodes exceeds the specified max=" + MAX_COLLECTION_ALIASES));
+                if (!(target instanceof YScalar)) {
+                    aliased += size(target, YamlDocument.MAX_ALIASED_VALUES + 1);
+                    if (aliased > YamlDocument.MAX_ALIASED_VALUES) {
+                        throw new InvalidInputException(Problem.at(source, e.line(), e.column(), "", "aliases (*name) in this "
+                                + "document repeat more than " + YamlDocument.MAX_ALIASED_VALUES
+                                + " values; write the values out or use fewer aliases"));
+                    }
                 }
                 return target;
             }
@@ -149,8 +163,38 @@ public final class StreamedDocument {
         }
     }
 
+    /** A mapping or list begins: one level deeper, and its anchor open until it ends. */
+    private void enter(NodeEvent start) {
+        if (++depth > YamlDocument.MAX_DEPTH) {
+            throw new InvalidInputException(Problem.at(source, start.line(), start.column(), "",
+                    "mappings and lists nest more than " + YamlDocument.MAX_DEPTH + " deep here; tend files are far flatter"));
+        }
+        if (start.anchor() != null) open.put(start.anchor(), start);
+    }
+
     private <T extends YNode> T remember(NodeEvent start, T node) {
-        if (start.anchor() != null) anchors.put(start.anchor(), node);
+        if (!(node instanceof YScalar)) depth--;
+        if (start.anchor() != null) {
+            open.remove(start.anchor());
+            anchors.put(start.anchor(), node);
+        }
         return node;
+    }
+
+    /** The values in {@code node} (itself included), counted up to {@code limit}. */
+    private static int size(YNode node, int limit) {
+        int n = 1;
+        if (node instanceof YMap m) {
+            for (YMap.Entry e : m.entries()) {
+                if (n >= limit) break;
+                n += size(e.value(), limit - n);
+            }
+        } else if (node instanceof YList l) {
+            for (YNode i : l.items()) {
+                if (n >= limit) break;
+                n += size(i, limit - n);
+            }
+        }
+        return n;
     }
 }

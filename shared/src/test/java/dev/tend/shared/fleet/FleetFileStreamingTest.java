@@ -37,7 +37,9 @@ class FleetFileStreamingTest {
             // the top level is a list
             "- fares-1\n",
             // empty
-            ""})
+            "",
+            // an alias inside its own anchor's value
+            "fleet: larkspur\nclusters:\n  - &c\n    id: fares-1\n    nodes: [*c]\n"})
     void streamedYamlAgreesWithTheWholeText(String text) throws Exception {
         Path file = Files.writeString(dir.resolve("fleet.yaml"), text);
         assertThat(outcome(() -> FleetFile.load(file))).isEqualTo(outcome(() -> FleetFile.parse(file.toString(), text)));
@@ -51,6 +53,18 @@ class FleetFileStreamingTest {
         assertThat(e.problems()).extracting(Problem::toString).containsExactly(
                 file + ":3:31: clusters[0].quorum: must be true or false, got 'maybe'",
                 file + ":4:3: clusters[1]: cluster fares-1 is listed twice; the first is clusters[0]");
+    }
+
+    @Test
+    void aliasesThatWouldRepeatTooManyValuesAreRefusedLikeTheWholeTextParserRefusesThem() throws Exception {
+        String text = "fleet: larkspur\nclusters:\n  - id: fares-1\n    tags: &a {" + java.util.stream.IntStream.range(0, 3000).mapToObj(i -> "k" + i + ": v, ").collect(java.util.stream.Collectors.joining()) + "z: v}\n"
+                + "  - { id: fares-2, tags: *a }\n  - { id: fares-3, tags: *a }\n  - { id: fares-4, tags: *a }\n"
+                + "  - { id: fares-5, tags: *a }\n";
+        Path file = Files.writeString(dir.resolve("fleet.yaml"), text);
+        String expected = "aliases (*name) in this document repeat more than " + dev.tend.shared.yaml.YamlDocument.MAX_ALIASED_VALUES;
+        assertThat(catchThrowableOfType(InvalidInputException.class, () -> FleetFile.load(file)).getMessage()).contains(expected);
+        assertThat(catchThrowableOfType(InvalidInputException.class, () -> FleetFile.parse("fleet.yaml", text)).getMessage())
+                .contains(expected);
     }
 
     @Test
