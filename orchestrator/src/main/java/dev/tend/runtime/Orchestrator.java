@@ -157,7 +157,7 @@ public final class Orchestrator {
      * to the engine with their effects discarded (they are already in the store). Returns
      * the snapshot's seq (0: none used) and how many inputs were replayed.
      */
-    private long[] loadState() {
+    long[] loadState() {
         if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
         long first = store.read(StoreReader::firstInputSeq);
         java.util.Optional<SnapshotRow> snapshot = store.read(StoreReader::latestSnapshot);
