@@ -40,9 +40,8 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     DbOption db;
 
-    @Option(names = "--listen", paramLabel = "HOST:PORT", defaultValue = "127.0.0.1:7420", converter = ListenConverter.class,
-            description = "address to listen on (default: ${DEFAULT-VALUE})")
-    Listen listen;
+    @Mixin
+    ListenOptions listenOptions;
 
     @Option(names = "--tokens", paramLabel = "FILE",
             description = "bearer tokens (YAML: name, roles, sha256 of the token); without it every API request is refused")
@@ -55,13 +54,6 @@ public final class ServeCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
-    static final class ListenConverter implements picocli.CommandLine.ITypeConverter<Listen> {
-        @Override
-        public Listen convert(String value) {
-            return Listen.parse(value);
-        }
-    }
-
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
@@ -69,6 +61,7 @@ public final class ServeCommand implements Callable<Integer> {
         Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
+        Listen listen = listenOptions.resolve();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
                 .speedup(speedup).seed(seed).log(err).build();
         try (Store store = db.open()) {
@@ -80,9 +73,14 @@ public final class ServeCommand implements Callable<Integer> {
                             + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                             + rec.callsUnknown() + " runs stopped for a person");
                 }
-                err.println("tend: serving " + server.url() + "/api/v1 (tokens: " + String.join(", ", tokens.names()) + ")");
+                err.println("tend: serving the API on " + server.url() + "/api/v1 and the console on " + server.url() + "/"
+                        + " (tokens: " + String.join(", ", tokens.names()) + "); stop with Ctrl-C or SIGTERM");
                 err.flush();
-                Thread hook = new Thread(server::close, "tend-serve-stop");
+                StopLine stopped = new StopLine(err, "tend: stopped; everything resumes from " + db.db + " on the next start");
+                Thread hook = new Thread(() -> {
+                    server.close();
+                    stopped.print();
+                }, "tend-serve-stop");
                 Runtime.getRuntime().addShutdownHook(hook);
                 server.awaitStop();
                 try {
@@ -90,6 +88,7 @@ public final class ServeCommand implements Callable<Integer> {
                 } catch (IllegalStateException shuttingDown) {
                     // a signal stopped us: the store is consistent, everything resumes on the next start
                 }
+                stopped.print();
             }
         }
         return ExitCodes.OK;
