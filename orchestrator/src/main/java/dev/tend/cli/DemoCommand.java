@@ -134,8 +134,11 @@ public final class DemoCommand implements Callable<Integer> {
 
     private void awaitEnd(TendServer server, Duration limit, StopLine stopped) throws InterruptedException {
         Thread hook = new Thread(() -> {
-            server.close();
-            stopped.print();
+            try {
+                server.close();
+            } finally {
+                stopped.print();
+            }
         }, "tend-demo-stop");
         Runtime.getRuntime().addShutdownHook(hook);
         if (limit != null) {

@@ -57,11 +57,11 @@ public final class ServeCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
+        Listen listen = listenOptions.resolve();
         EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
         Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
-        Listen listen = listenOptions.resolve();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
                 .speedup(speedup).seed(seed).log(err).build();
         try (Store store = db.open()) {
@@ -73,15 +73,18 @@ public final class ServeCommand implements Callable<Integer> {
                             + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                             + rec.callsUnknown() + " runs stopped for a person");
                 }
-                err.println("tend: serving the API on " + server.url() + "/api/v1 and the console on " + server.url() + "/"
-                        + " (tokens: " + String.join(", ", tokens.names()) + "); stop with Ctrl-C or SIGTERM");
-                err.flush();
                 StopLine stopped = new StopLine(err, "tend: stopped; everything resumes from " + db.db + " on the next start");
                 Thread hook = new Thread(() -> {
-                    server.close();
-                    stopped.print();
+                    try {
+                        server.close();
+                    } finally {
+                        stopped.print();
+                    }
                 }, "tend-serve-stop");
                 Runtime.getRuntime().addShutdownHook(hook);
+                err.println("tend: serving " + server.url() + "/api/v1, the console on " + server.url() + "/"
+                        + " (tokens: " + String.join(", ", tokens.names()) + "); stop with Ctrl-C or SIGTERM");
+                err.flush();
                 server.awaitStop();
                 try {
                     Runtime.getRuntime().removeShutdownHook(hook);
