@@ -119,8 +119,8 @@ public final class DemoCommand implements Callable<Integer> {
     static Duration firstApprovalAfter(PlaybookSet set, TimeScale scale) {
         Duration beat = DemoScript.larkspur().stream().filter(i -> i.name().equals("silent-critical-node"))
                 .flatMap(i -> i.beats().stream()).map(DemoScript.Beat::after).min(Duration::compareTo).orElse(Duration.ZERO);
-        Duration confirm = set.playbooks().stream().filter(p -> p.when().signal().value().equals("heartbeat"))
-                .map(p -> p.when().confirmFor()).max(Duration::compareTo).orElse(Duration.ZERO);
+        Duration confirm = set.playbooks().stream().filter(p -> p.trigger().signal().value().equals("heartbeat"))
+                .map(p -> p.trigger().confirmFor()).max(Duration::compareTo).orElse(Duration.ZERO);
         Duration demo = Duration.ofSeconds(30).plus(beat).plus(confirm).plus(ServeCommand.EVENT_TIME_LAG);
         return Duration.ofMillis((long) (demo.toMillis() / scale.factor()));
     }
