@@ -65,10 +65,10 @@ public final class HandoverCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         Clock clock = Clock.systemDefaultZone();
-        Instant from = TimeArg.parse(since, clock);
+        Instant from = TimeArg.parse("--since", since, clock);
         HandoverReport report;
         try (Store store = db.openExisting()) {
-            Instant to = until != null ? TimeArg.parse(until, clock) : store.read(r -> endOfNow(r, clock));
+            Instant to = until != null ? TimeArg.parse("--until", until, clock) : store.read(r -> endOfNow(r, clock));
             if (!to.isAfter(from)) {
                 throw new CommandLine.ParameterException(spec.commandLine(),
                         "--until (" + to + ") must be after --since (" + from + ")");
