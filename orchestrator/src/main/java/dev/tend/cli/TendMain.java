@@ -11,7 +11,7 @@ import java.io.PrintWriter;
 @Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
         description = "Remediation orchestrator with health gating.",
         subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
-                HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class,
+                HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class, AbortCommand.class,
                 ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {ExitCodes.OK_TEXT, ExitCodes.FINDINGS_TEXT, ExitCodes.USAGE_TEXT})
@@ -32,9 +32,13 @@ public final class TendMain implements Runnable {
         cli.setExecutionExceptionHandler((ex, cmd, parsed) -> {
             if (ex instanceof InvalidInputException || ex instanceof TendException) {
                 cmd.getErr().println(ex.getMessage());
+            } else if (ex instanceof CommandLine.ParameterException || ex instanceof CommandLine.TypeConversionException) {
+                cmd.getErr().println("tend " + cmd.getCommandName() + ": " + ex.getMessage());
+                return ExitCodes.USAGE;
             } else {
-                cmd.getErr().println("tend: unexpected failure: " + ex);
-                ex.printStackTrace(cmd.getErr());
+                cmd.getErr().println("tend: internal failure (" + ex.getClass().getSimpleName() + "); "
+                        + FailureTrace.write(ex, args));
+                return ExitCodes.USAGE; // DESIGN.md section 8 knows 0, 1 and 2 only
             }
             return ExitCodes.forFailure(ex);
         });
