@@ -27,38 +27,30 @@ import java.util.function.Supplier;
 final class RateBudgets {
     private final Supplier<Instant> now;
     private final Map<String, Budget> budgets = new LinkedHashMap<>();
+    private final Map<String, AtomicRateLimiter> limiters = new LinkedHashMap<>();
     /** Set while a snapshot's budgets are rebuilt: the time their limiters see. */
     private Instant rebuildingAt;
 
-    private final class Budget {
+    /** What a snapshot keeps of one limiter: when it was made and the starts of its current period. */
+    private static final class Budget {
         final String name;
         final RateLimit rate;
         final Instant created;
-        final AtomicRateLimiter limiter;
         final List<Instant> thisPeriod = new ArrayList<>();
 
         Budget(String name, RateLimit rate, Instant created) {
             this.name = name;
             this.rate = rate;
             this.created = created;
-            this.limiter = new AtomicRateLimiter(name, RateLimiterConfig.custom()
-                    .limitForPeriod(rate.count())
-                    .limitRefreshPeriod(rate.period())
-                    .timeoutDuration(Duration.ZERO)
-                    .build(), RateBudgets.this::nanos);
         }
 
         long period(Instant t) {
             return Duration.between(created, t).toNanos() / rate.period().toNanos();
         }
 
-        boolean acquire(Instant t) {
-            boolean ok = limiter.acquirePermission(1);
-            if (ok) {
-                if (!thisPeriod.isEmpty() && period(thisPeriod.get(thisPeriod.size() - 1)) != period(t)) thisPeriod.clear();
-                thisPeriod.add(t);
-            }
-            return ok;
+        void started(Instant t) {
+            if (!thisPeriod.isEmpty() && period(thisPeriod.get(thisPeriod.size() - 1)) != period(t)) thisPeriod.clear();
+            thisPeriod.add(t);
         }
     }
 
@@ -75,13 +67,27 @@ final class RateBudgets {
         return t.getEpochSecond() * 1_000_000_000L + t.getNano();
     }
 
-    private Budget budget(String name, RateLimit rate) {
-        return budgets.computeIfAbsent(name + "|" + rate, k -> new Budget(name, rate, time()));
+    private AtomicRateLimiter limiter(String name, RateLimit rate) {
+        String key = name + "|" + rate;
+        return limiters.computeIfAbsent(key, k -> {
+            budgets.put(k, new Budget(name, rate, time()));
+            return new AtomicRateLimiter(name, RateLimiterConfig.custom()
+                    .limitForPeriod(rate.count())
+                    .limitRefreshPeriod(rate.period())
+                    .timeoutDuration(Duration.ZERO)
+                    .build(), this::nanos);
+        });
+    }
+
+    private boolean acquireAt(String name, RateLimit rate, Instant t) {
+        boolean ok = limiter(name, rate).acquirePermission(1);
+        if (ok) budgets.get(name + "|" + rate).started(t);
+        return ok;
     }
 
     /** The instant a permit is available (now when one is). */
     Instant nextPermit(String name, RateLimit rate) {
-        AtomicRateLimiter l = budget(name, rate).limiter;
+        AtomicRateLimiter l = limiter(name, rate);
         if (l.getDetailedMetrics().getAvailablePermissions() > 0) return now.get();
         long wait = l.getDetailedMetrics().getNanosToWait();
         if (wait <= 0) wait = 1;
@@ -89,7 +95,7 @@ final class RateBudgets {
     }
 
     boolean acquire(String name, RateLimit rate) {
-        return budget(name, rate).acquire(now.get());
+        return acquireAt(name, rate, now.get());
     }
 
     /** Every budget, in the order first used. */
@@ -104,14 +110,15 @@ final class RateBudgets {
     /** Rebuilds the budgets of a snapshot: each limiter made at its instant and given its starts again at theirs. */
     void restore(List<EngineState.Budget> memo) {
         budgets.clear();
+        limiters.clear();
         try {
             for (EngineState.Budget m : memo) {
                 RateLimit rate = new RateLimit(m.count(), m.period());
                 rebuildingAt = m.created();
-                Budget b = budget(m.name(), rate);
+                limiter(m.name(), rate);
                 for (Instant t : m.starts()) {
                     rebuildingAt = t;
-                    if (!b.acquire(t)) throw new IllegalStateException("the start budget " + m.name() + " refused a start at " + t
+                    if (!acquireAt(m.name(), rate, t)) throw new IllegalStateException("the start budget " + m.name() + " refused a start at " + t
                             + " that it had granted; the snapshot does not match this engine");
                 }
             }
