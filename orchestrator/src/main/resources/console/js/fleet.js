@@ -81,7 +81,8 @@ export default {
           el("td", {}, pill(c.health)),
           el("td", { text: c.zones.join(", ") }),
           el("td", {}, el("ul", { class: "plain" }, c.signals.map((s) => el("li", {},
-            el("code", { text: target(c.cluster, s.node) }), " ", s.signal, " ", pill(s.state), " ",
+            el("code", { text: target(c.cluster, s.node) }), s.unknown_target ? el("span", { class: "muted small", text: " (not in the topology: never remediated)" }) : null,
+            " ", s.signal, " ", pill(s.state), " ",
             el("span", { class: "muted small" }, "since ", time(s.since, now))))))));
         replace(clusters, el("h2", { text: "Signals in breach or silent" }),
           rows.length === 0 ? empty("Every cluster is healthy.") : table(["cluster", "health", "zones", "signals"], rows));

@@ -87,9 +87,11 @@ public final class IngestCommand implements Callable<Integer> {
             }
             AtomicBoolean eof = new AtomicBoolean();
             ReadSummary[] summary = new ReadSummary[1];
+            WireReader wire = WireReader.of(input).withLiveClock(clock::instant, setup.config().maxSkew())
+                    .withSignals(setup.config().signals());
             Thread reader = new Thread(() -> {
                 try (Reader in = open()) {
-                    summary[0] = WireReader.of(input).readAll(in, r -> {
+                    summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e) {
                                 orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
@@ -120,6 +122,7 @@ public final class IngestCommand implements Callable<Integer> {
             }
             timers.close();
             report(out, orch, summary[0]);
+            reportTimeRefusals(out, wire);
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }
@@ -127,6 +130,14 @@ public final class IngestCommand implements Callable<Integer> {
     private Reader open() throws java.io.IOException {
         if (input.equals("-")) return new InputStreamReader(System.in, StandardCharsets.UTF_8);
         return Files.newBufferedReader(Path.of(input), StandardCharsets.UTF_8);
+    }
+
+    private static void reportTimeRefusals(PrintWriter out, WireReader wire) {
+        StringBuilder sb = new StringBuilder();
+        wire.timeRefusals().forEach((why, n) -> {
+            if (n > 0) sb.append(sb.length() == 0 ? "" : ", ").append(n).append(' ').append(why.wireName());
+        });
+        if (sb.length() > 0) out.println("lines refused for their time: " + sb);
     }
 
     private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {

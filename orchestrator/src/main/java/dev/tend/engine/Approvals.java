@@ -1,5 +1,7 @@
 package dev.tend.engine;
 
+import dev.tend.shared.ReasonCode;
+
 import dev.tend.engine.guard.Decision;
 import dev.tend.engine.run.RunProcess;
 import dev.tend.shared.Verdict;
@@ -42,6 +44,13 @@ final class Approvals {
         else if (cmd instanceof Input.Reject r) decide(r.runId(), "rejected", r.by(), r.from(), r.reason(), fx);
         else if (cmd instanceof Input.AbortRun a) abort(a, fx);
         else if (cmd instanceof Input.Exclude e) {
+            java.util.Optional<String> unknown = UnknownTargets.describe(engine.context().health.topology(), e.target());
+            if (unknown.isPresent()) {
+                fx.ledger("command-refused", "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
+                        "by", e.by(), "from", e.from(), "code", ReasonCode.UNKNOWN_TARGET.code(),
+                        "reason", unknown.get() + "; only a cluster or node in the topology can be excluded");
+                return;
+            }
             Exclusion ex;
             try {
                 ex = new Exclusion(e.target(), e.reason(), e.owner(), fx.now(), e.until(), e.by());

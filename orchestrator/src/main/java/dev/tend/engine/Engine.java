@@ -117,10 +117,16 @@ public final class Engine implements RunHost {
                 work.add(key.toString());
             }
         }
-        if (mattered) {
+        boolean unknown = !isKnown(t.cluster(), t.node());
+        if (mattered || unknown) {
             fx.ledger("transition", "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
-                    "state", t.state().wireName(), "at_event", t.at());
+                    "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
+    }
+
+    /** True when the cluster (and the node, if any) is in the topology: the fleet file plus topology events. */
+    private boolean isKnown(Id cluster, Id node) {
+        return UnknownTargets.describe(ctx.health.topology(), cluster, node).isEmpty();
     }
 
     private boolean hasLiveRun(Candidate.Key key) {

@@ -4,6 +4,7 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
 import dev.tend.runtime.CommitListener;
+import dev.tend.shared.wire.TimeRefusal;
 import dev.tend.store.Store;
 import io.prometheus.metrics.core.metrics.Counter;
 import io.prometheus.metrics.core.metrics.Gauge;
@@ -18,6 +19,7 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.List;
+import java.util.Map;
 
 /**
  * The metrics of one {@code tend serve}, in a registry of their own (several servers may
@@ -25,6 +27,7 @@ import java.util.List;
  * <pre>
  * tend_transitions_received_total           transitions and topology events accepted over HTTP
  * tend_transition_lines_rejected_total      lines of transition requests refused
+ * tend_event_time_refused_total{reason}     of those, refused for their time: before-1970, after-2200, ahead-of-clock, outside-recording
  * tend_verdicts_total{verdict,reason}       verdicts written to the ledger, once per reason code ("none" for a clean start)
  * tend_runs_started_total{playbook}
  * tend_runs_ended_total{playbook,state}     succeeded, failed, cancelled, shadowed
@@ -43,6 +46,9 @@ public final class TendMetrics implements CommitListener {
             .help("Transitions and topology events accepted over HTTP").register(registry);
     private final Counter rejectedLines = Counter.builder().name("tend_transition_lines_rejected_total")
             .help("Lines of transition requests refused").register(registry);
+    private final Counter timeRefused = Counter.builder().name("tend_event_time_refused_total")
+            .help("Lines refused for their time (before 1970, after 2200, ahead of the clock by more than max-skew)")
+            .labelNames("reason").register(registry);
     private final Counter verdicts = Counter.builder().name("tend_verdicts_total")
             .help("Verdicts written to the ledger, once per reason code").labelNames("verdict", "reason").register(registry);
     private final Counter runsStarted = Counter.builder().name("tend_runs_started_total")
@@ -74,6 +80,11 @@ public final class TendMetrics implements CommitListener {
 
     public void linesRejected(long n) {
         if (n > 0) rejectedLines.inc(n);
+    }
+
+    /** Counts lines refused for their time, by reason; every reason is shown, at 0 until one happens. */
+    public void timeRefused(Map<TimeRefusal, Long> byReason) {
+        byReason.forEach((why, n) -> timeRefused.labelValues(why.wireName()).inc(n));
     }
 
     public void executorAnswered(String kind, boolean success, Duration took) {

@@ -100,7 +100,7 @@ public final class Replayer {
      */
     public ReplayReport replay(Recording recording, ReplayListener listener) {
         Run run = new Run(recording, listener);
-        ReadSummary read = ReadAhead.read(recording, run, knownIds());
+        ReadSummary read = ReadAhead.read(recording.withDeclaredSignals(policy.config().signals()), run, knownIds());
         listener.done();
         Instant horizon = run.finish();
         return run.report(read, horizon);

@@ -20,11 +20,13 @@ import java.time.OffsetDateTime;
 import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.HashMap;
+import java.util.LinkedHashSet;
 import java.util.List;
+import java.util.Set;
 
 /** Reads {@code tend.yaml}, the fleet-wide policy. */
 final class ConfigReader {
-    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate");
+    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate", "max-skew", "signals");
     private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "notify", "release-after");
     private static final List<String> THRESHOLD = List.of("clusters", "fraction");
     private static final List<String> FREEZE = List.of("from", "until", "reason", "clusters");
@@ -49,9 +51,31 @@ final class ConfigReader {
         BrakePolicy brake = m.get("brake").map(this::brake).orElse(BrakePolicy.builtIn());
         List<Freeze> freezes = m.get("freezes").map(this::freezes).orElse(List.of());
         RateLimit rate = Read.value(f, m, "rate", "tend.yaml", "rate", false, RateLimit::parse);
+        java.time.Duration maxSkew = Read.duration(f, m, "max-skew", "tend.yaml", "max-skew", false);
+        Set<Id> signals = m.get("signals").map(this::signals).orElse(Set.of());
         if (f.hasProblems()) return null;
         EffectiveLimits merged = EffectiveLimits.builtIn().withOverrides(defaults);
-        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate, f.source(), contentHash);
+        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate,
+                maxSkew == null ? TendConfig.DEFAULT_MAX_SKEW : maxSkew, signals, f.source(), contentHash);
+    }
+
+    /** {@code signals: [heartbeat, ...]}: the declared vocabulary; at least one, each an id, none twice. */
+    private Set<Id> signals(YNode node) {
+        Set<Id> out = new LinkedHashSet<>();
+        YList list = f.asList(node, "signals");
+        if (list == null) return out;
+        if (list.items().isEmpty()) {
+            f.add(node, "signals", "signals is empty; list the signals this fleet sends (like [heartbeat, storage-full]),"
+                    + " or leave the key out to accept any signal");
+            return out;
+        }
+        int n = 0;
+        for (YNode item : list.items()) {
+            n++;
+            Id id = f.parsedNode(item, "signals[" + n + "]", Id::of);
+            if (id != null && !out.add(id)) f.add(item, "signals", "signal '" + id + "' is listed twice in signals");
+        }
+        return out;
     }
 
     private BrakePolicy brake(YNode node) {
