@@ -139,6 +139,7 @@ public final class Engine implements RunHost {
     private void onTimer(String key, Effects fx) {
         timers.remove(key);
         if (key.startsWith("recheck:")) {
+            work.addAll(candidates.dueByTime(ctx.now));
             work.add(key.substring("recheck:".length()));
         } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
             if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
@@ -178,17 +179,32 @@ public final class Engine implements RunHost {
         work.add(key.toString());
     }
 
-    /** Evaluates every queued candidate; evaluations may queue more, until none is left. */
+    /**
+     * Evaluates every queued candidate, oldest problem first (DESIGN.md section 4: held
+     * candidates that become startable together start in the order their problems began);
+     * evaluations may queue more, until none is left.
+     */
     private void drain(Effects fx) {
         int guard = 0;
+        List<Candidates.Entry> batch = new ArrayList<>();
         while (!work.isEmpty()) {
-            String name = work.iterator().next();
-            work.remove(name);
-            Candidate.Key key = candidates.byName(name);
-            if (key != null) evaluate(key, fx);
-            if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
+            batch.clear();
+            for (String name : work) {
+                Candidate.Key key = candidates.byName(name);
+                if (key != null) batch.add(candidates.get(key));
+            }
+            work.clear();
+            if (batch.size() > 1) batch.sort(OLDEST_PROBLEM_FIRST);
+            for (Candidates.Entry e : batch) {
+                if (candidates.get(e.candidate().key()) != null) evaluate(e.candidate().key(), fx);
+                if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
+            }
         }
     }
+
+    private static final java.util.Comparator<Candidates.Entry> OLDEST_PROBLEM_FIRST = java.util.Comparator
+            .comparing((Candidates.Entry e) -> e.candidate().problemSince())
+            .thenComparing(e -> e.candidate().key().toString());
 
     private void evaluate(Candidate.Key key, Effects fx) {
         Candidates.Entry e = candidates.get(key);
