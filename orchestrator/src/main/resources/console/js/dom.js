@@ -38,6 +38,7 @@ export function tone(state) {
     case "succeeded": case "clear": case "released": case "approved": case "start": case "verified":
       return "good";
     case "running": case "pending": case "awaiting-approval": case "impaired": case "hold": case "paused": case "approval":
+    case "stood-down": case "unknown-target":
       return "wait";
     case "failed": case "timed-out": case "needs-human": case "unhealthy": case "deny": case "engaged": case "silent":
     case "breach": case "rejected": case "lapsed": case "broken":

@@ -141,18 +141,20 @@ public final class IngestCommand implements Callable<Integer> {
     }
 
     private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {
-        long started = 0, ok = 0, failed = 0, other = 0;
+        long started = 0, ok = 0, failed = 0, stoodDown = 0, other = 0;
         for (RunSnapshot r : orch.engine().runs()) {
             if (r.startedAt() != null) started++;
             switch (r.state()) {
                 case SUCCEEDED -> ok++;
                 case FAILED -> failed++;
+                case STOOD_DOWN -> stoodDown++;
                 default -> other++;
             }
         }
         out.println("read " + (s == null ? 0 : s.events()) + " events (" + (s == null ? 0 : s.bad()) + " bad lines skipped, "
                 + orch.engine().health().lateEvents() + " late); runs: " + started + " started, " + ok + " succeeded, "
-                + failed + " failed, " + other + " waiting or held; " + orch.engine().heldCandidates().size()
+                + failed + " failed, " + stoodDown + " stood down, " + other + " waiting or held; "
+                + orch.engine().heldCandidates().size()
                 + " candidates held or denied");
     }
 }

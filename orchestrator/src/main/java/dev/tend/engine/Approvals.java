@@ -26,7 +26,7 @@ final class Approvals {
 
     /** Creates the run that waits for a person; returns its id. */
     String request(Candidate c, Decision d, Effects fx) {
-        RunProcess r = engine.newRun(c.playbook(), c.target(), RunState.AWAITING_APPROVAL, Engine.AUTOMATION);
+        RunProcess r = engine.newRun(c, RunState.AWAITING_APPROVAL, Engine.AUTOMATION);
         Instant expires = fx.now().plus(c.playbook().approval().expiresAfter());
         ApprovalSnapshot a = new ApprovalSnapshot(r.id(), c.playbook().id().value(), c.target(), Engine.AUTOMATION,
                 fx.now(), expires, "pending", null, null, d.reasonCodes());

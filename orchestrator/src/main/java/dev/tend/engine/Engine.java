@@ -6,12 +6,14 @@ import dev.tend.engine.guard.Wake;
 import dev.tend.engine.run.RunHost;
 import dev.tend.engine.run.RunMachine;
 import dev.tend.engine.run.RunProcess;
+import dev.tend.engine.run.StandDown;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.Mode;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Scope;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
+import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Target;
 import dev.tend.shared.TendException;
 import dev.tend.shared.fleet.ApplyOutcome;
@@ -113,7 +115,7 @@ public final class Engine implements RunHost {
                 mattered = true;
                 if (hasLiveRun(key) || candidates.get(key) != null) continue;
                 Instant since = ctx.health.status(t.key()).map(s -> s.since()).orElse(t.at());
-                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false), null);
+                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false, null), null);
                 work.add(key.toString());
             }
         }
@@ -214,6 +216,12 @@ public final class Engine implements RunHost {
             return;
         }
         Decision d = guards.evaluate(c, ctx);
+        if (e.decision() != null && isMaskedOrExcluded(e.decision()) && !isMaskedOrExcluded(d)) {
+            // the last mask or exclusion just lifted: confirmation starts again (DESIGN.md section 4)
+            c = c.withLiftedAt(ctx.eventTime);
+            candidates.put(c, e.decision());
+            d = guards.evaluate(c, ctx);
+        }
         boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
                 || !e.decision().reasons().equals(d.reasons());
         if (changed) ledgerVerdict(c, d, fx);
@@ -226,6 +234,10 @@ public final class Engine implements RunHost {
             }
             default -> hold(c, d, fx);
         }
+    }
+
+    private static boolean isMaskedOrExcluded(Decision d) {
+        return d.has(ReasonCode.MASKED) || d.has(ReasonCode.EXCLUDED);
     }
 
     private void hold(Candidate c, Decision d, Effects fx) {
@@ -249,7 +261,7 @@ public final class Engine implements RunHost {
         ctx.consumePermits(c.playbook());
         ctx.recordStart(c.key());
         RunProcess r = c.runId() != null ? runs.get(c.runId())
-                : newRun(c.playbook(), c.target(), RunState.RUNNING, AUTOMATION);
+                : newRun(c, RunState.RUNNING, AUTOMATION);
         if (c.playbook().mode() == Mode.SHADOW) {
             fx.ledger("run-shadowed", "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
                     "node", c.target().node(), "steps", c.playbook().steps().stream().map(s -> s.id().value()).toList());
@@ -260,9 +272,10 @@ public final class Engine implements RunHost {
         machine.start(r, fx);
     }
 
-    RunProcess newRun(Playbook p, Target target, RunState state, String requestedBy) {
+    RunProcess newRun(Candidate c, RunState state, String requestedBy) {
         String id = String.format("r%06d", ++runSeq);
-        RunProcess r = new RunProcess(id, p, target, p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
+        Playbook p = c.playbook();
+        RunProcess r = new RunProcess(id, p, c.target(), c.trigger(), p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
         runs.put(id, r);
         return r;
     }
@@ -314,6 +327,11 @@ public final class Engine implements RunHost {
     }
 
     @Override
+    public Optional<StandDown> gate(RunProcess r, boolean ignoreCleared) {
+        return RunGate.check(r, ctx, ignoreCleared);
+    }
+
+    @Override
     public boolean allClear(Target target, List<Id> signals) {
         for (Id s : signals) {
             if (target.node() != null) {
@@ -328,6 +346,17 @@ public final class Engine implements RunHost {
     @Override
     public void runEnded(RunProcess r, Effects fx) {
         ctx.active.remove(r.id());
+        StandDown sd = r.standDown();
+        if (r.state() == RunState.STOOD_DOWN && sd.reason() != StandDown.Reason.CLEARED && r.trigger() != null) {
+            // the problem is still there, only hands-off for now: wait (denied) for the mask or exclusion to lift,
+            // and then for confirm-for again
+            Candidate.Key key = new Candidate.Key(r.playbook().id(), r.target());
+            var status = ctx.health.status(r.trigger());
+            if (status.isPresent() && status.get().isProblem() && candidates.get(key) == null) {
+                candidates.put(new Candidate(r.playbook(), r.target(), r.trigger(), status.get().since(), ctx.now, null, false, null), null);
+                queue(key);
+            }
+        }
         queueCluster(r.target().cluster());
         queueFleet();
     }

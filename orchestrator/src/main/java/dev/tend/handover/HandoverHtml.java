@@ -44,6 +44,7 @@ public final class HandoverHtml {
             svg .failed { fill: #c0392b; }
             svg .cancelled { fill: #9aa3a8; }
             svg .shadowed { fill: #fff; stroke: #7d6aa8; stroke-dasharray: 3 2; }
+            svg .stood-down { fill: #c9b458; }
             svg .running, svg .approved { fill: #3f78b5; }
             svg .paused { fill: #d8b13a; }
             svg .needs-human { fill: #e07b24; }
@@ -91,6 +92,7 @@ public final class HandoverHtml {
         card(s, "failed", t.failed(), t.failed() > 0);
         card(s, "cancelled", t.cancelled(), false);
         card(s, "shadowed", t.shadowed(), false);
+        card(s, "stood down", t.stoodDown(), false);
         card(s, "held", t.held(), false);
         card(s, "denied", t.denied(), false);
         card(s, "approvals pending", r.pendingApprovals().size(), !r.pendingApprovals().isEmpty());
@@ -151,10 +153,11 @@ public final class HandoverHtml {
             return;
         }
         s.append("<table>\n<tr><th>playbook</th><th>started</th><th>succeeded</th><th>failed</th><th>cancelled</th>")
-                .append("<th>shadowed</th><th>held</th><th>denied</th></tr>\n");
+                .append("<th>shadowed</th><th>stood down</th><th>held</th><th>denied</th></tr>\n");
         byPlaybook.forEach((name, c) -> {
             s.append("<tr><td>").append(esc(name)).append("</td>");
-            for (int n : new int[]{c.started(), c.succeeded(), c.failed(), c.cancelled(), c.shadowed(), c.held(), c.denied()}) {
+            for (int n : new int[]{c.started(), c.succeeded(), c.failed(), c.cancelled(), c.shadowed(), c.stoodDown(), c.held(),
+                    c.denied()}) {
                 s.append("<td class=\"n\">").append(n).append("</td>");
             }
             s.append("</tr>\n");

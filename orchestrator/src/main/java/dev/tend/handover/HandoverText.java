@@ -22,8 +22,8 @@ public final class HandoverText {
         RunCounts t = r.totals();
         line(out, "Handover %s to %s (%s)", TimeText.at(p.since()), TimeText.at(p.until()), TimeText.span(p.length()));
         out.append('\n');
-        line(out, "Runs       %d started, %d succeeded, %d failed, %d cancelled, %d shadowed",
-                t.started(), t.succeeded(), t.failed(), t.cancelled(), t.shadowed());
+        line(out, "Runs       %d started, %d succeeded, %d failed, %d cancelled, %d shadowed, %d stood down",
+                t.started(), t.succeeded(), t.failed(), t.cancelled(), t.shadowed(), t.stoodDown());
         line(out, "Held       %d held, %d denied (distinct candidates)", t.held(), t.denied());
         line(out, "Approvals  %d asked, %d pending, %d lapsed", r.approvalsRequested(), r.pendingApprovals().size(),
                 r.lapsedApprovals().size());
@@ -91,9 +91,9 @@ public final class HandoverText {
     private static void byPlaybook(StringBuilder out, Map<String, RunCounts> byPlaybook) {
         if (byPlaybook.isEmpty()) return;
         int w = Math.max(20, byPlaybook.keySet().stream().mapToInt(String::length).max().orElse(0));
-        line(out, "By playbook%s  started succeeded failed cancelled shadowed held denied", " ".repeat(w - 9));
-        byPlaybook.forEach((name, c) -> line(out, "  %-" + w + "s %8d %9d %6d %9d %8d %4d %6d", name, c.started(), c.succeeded(),
-                c.failed(), c.cancelled(), c.shadowed(), c.held(), c.denied()));
+        line(out, "By playbook%s  started succeeded failed cancelled shadowed stood-down held denied", " ".repeat(w - 9));
+        byPlaybook.forEach((name, c) -> line(out, "  %-" + w + "s %8d %9d %6d %9d %8d %10d %4d %6d", name, c.started(), c.succeeded(),
+                c.failed(), c.cancelled(), c.shadowed(), c.stoodDown(), c.held(), c.denied()));
         out.append('\n');
     }
 

@@ -146,6 +146,7 @@ final class LedgerTally {
                 case RunLine.SUCCEEDED -> p.succeeded++;
                 case RunLine.FAILED -> p.failed++;
                 case RunLine.SHADOWED -> p.shadowed++;
+                case RunLine.STOOD_DOWN -> p.stoodDown++;
                 default -> p.cancelled++;
             }
         } else {
@@ -317,9 +318,10 @@ final class LedgerTally {
         int failed;
         int cancelled;
         int shadowed;
+        int stoodDown;
 
         RunCounts counts() {
-            return new RunCounts(started, succeeded, failed, cancelled, shadowed, held.size(), denied.size());
+            return new RunCounts(started, succeeded, failed, cancelled, shadowed, held.size(), denied.size(), stoodDown);
         }
     }
 }

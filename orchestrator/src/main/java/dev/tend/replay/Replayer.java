@@ -234,12 +234,13 @@ public final class Replayer {
 
         ReplayReport report(ReadSummary read, Instant horizon) {
             List<RunEntry> runs = ReportCollector.runs(engine.runs());
-            long started = 0, succeeded = 0, failed = 0, unfinished = 0;
+            long started = 0, succeeded = 0, failed = 0, unfinished = 0, stoodDown = 0;
             for (RunEntry r : runs) {
                 if (r.outcome().equals("shadowed")) continue;
                 started++;
                 if (r.outcome().equals("succeeded")) succeeded++;
                 else if (r.outcome().equals("failed")) failed++;
+                else if (r.outcome().equals("stood-down")) stoodDown++;
                 else if (r.endedAt() == null) unfinished++;
             }
             long held = 0, denied = 0;
@@ -248,7 +249,7 @@ public final class Replayer {
                 else if (d.verdict() == Verdict.DENY) denied++;
             }
             Summary summary = new Summary(started, succeeded, failed, held, denied, collector.approvalsRequested(),
-                    collector.maxConcurrent(), !collector.brakePeriods().isEmpty(), unfinished, model.hiddenEvents());
+                    collector.maxConcurrent(), !collector.brakePeriods().isEmpty(), unfinished, model.hiddenEvents(), stoodDown);
             Instant from = collector.startTime();
             RecordingInfo info = new RecordingInfo(recording.name(), header == null ? null : header.description(), from,
                     header == null ? null : header.until(), horizon, read.events(), read.bad(), engine.health().lateEvents());

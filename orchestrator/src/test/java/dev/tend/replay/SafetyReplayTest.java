@@ -84,4 +84,49 @@ class SafetyReplayTest {
             assertThat(Duration.between(starts.get(i), starts.get(i + 3))).as("starts %s", starts).isGreaterThanOrEqualTo(Duration.ofHours(1));
         }
     }
+
+    @Test
+    void aTriggerThatClearsDuringTheFirstStepStandsTheRunDownBeforeTheSecondAndRunsOnStandDownInAReplay() {
+        ReplayFiles files = new ReplayFiles(dir);
+        String actions = ReplayFiles.ACTIONS + "  undrain-node: { simulated: { duration: 1m, success: 1.0 } }\n";
+        String playbook = ReplayFiles.replacePlaybook("5m").replace("on-failure:",
+                "on-stand-down:\n  - { id: undrain, action: undrain-node, timeout: 10m }\non-failure:");
+        Path playbooks = files.playbooks("library", actions, playbook);
+        List<String> lines = new ArrayList<>();
+        for (int m = 0; m <= 5; m++) lines.add(minute(m, "tickets-12", "n2", "heartbeat", "silent"));
+        // the drain starts at 5m and takes a minute; the node reports again at 5m30s
+        lines.add(ReplayFiles.event(Duration.ofSeconds(330), "tickets-12", "n2", "heartbeat", "clear"));
+        ReplayReport r = ReplayFiles.replay(playbooks, files.recording("back-by-itself", T0.plus(Duration.ofHours(1)), lines), 1);
+        assertThat(r.summary().runsStoodDown()).isEqualTo(1);
+        assertThat(r.runs()).singleElement().satisfies(run -> {
+            assertThat(run.outcome()).isEqualTo("stood-down");
+            assertThat(run.detail()).startsWith("stood down (cleared): ");
+            assertThat(run.steps()).extracting(st -> st.step() + " " + st.state()).containsExactly("drain succeeded", "undrain succeeded");
+        });
+        var json = readJson(dev.tend.simulator.report.ReportJson.toJson(r));
+        assertThat(json.get("summary").get("runs_stood_down").asLong()).isEqualTo(1);
+        assertThat(json.get("runs").get(0).get("outcome").asText()).isEqualTo("stood-down");
+    }
+
+    private static com.fasterxml.jackson.databind.JsonNode readJson(String text) {
+        try {
+            return new com.fasterxml.jackson.databind.ObjectMapper().readTree(text);
+        } catch (java.io.IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
+    }
+
+    @Test
+    void aMaskThatLiftsRestartsConfirmationInAReplay() {
+        ReplayFiles files = new ReplayFiles(dir);
+        Path playbooks = files.playbooks("library", ReplayFiles.ACTIONS, ReplayFiles.RESTART);
+        List<String> lines = new ArrayList<>();
+        lines.add(minute(0, "tickets-12", "n1", "storage-full", "breach"));
+        for (int m = 0; m <= 20; m++) lines.add(minute(m, "tickets-12", "n1", "process-down", "breach"));
+        lines.add(minute(10, "tickets-12", "n1", "storage-full", "clear"));
+        lines.sort(java.util.Comparator.comparing(l -> l.substring(7, 27)));
+        ReplayReport r = ReplayFiles.replay(playbooks, files.recording("owner-fix", T0.plus(Duration.ofHours(1)), lines), 1);
+        // confirm-for: 2m counts from the lift at 10m, not from the onset at 0m
+        assertThat(r.runs()).singleElement().satisfies(run -> assertThat(run.startedAt()).isEqualTo(T0.plus(Duration.ofMinutes(12))));
+    }
 }

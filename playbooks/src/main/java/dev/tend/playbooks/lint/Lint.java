@@ -33,6 +33,9 @@ import java.util.TreeSet;
  *   <li>{@code unmatched} (fleet only, warning): the cluster selector matches no cluster.</li>
  *   <li>{@code window-never-opens}: the change window's cron expression never fires after the
  *       reference time.</li>
+ *   <li>{@code undeclared-signal}: a trigger or mask signal outside tend.yaml's {@code signals:};
+ *       {@code signal-typo} (warning, without {@code signals:}): a trigger signal named nowhere
+ *       else and one edit from one that is ({@link SignalCheck}).</li>
  * </ul>
  * Findings are sorted by file, line, column, code, playbook and message. Stateless.
  */
@@ -43,6 +46,8 @@ public final class Lint {
     public static final String UNSAFE_LIMITS = "unsafe-limits";
     public static final String UNMATCHED = "unmatched";
     public static final String WINDOW_NEVER_OPENS = "window-never-opens";
+    public static final String UNDECLARED_SIGNAL = "undeclared-signal";
+    public static final String SIGNAL_TYPO = "signal-typo";
 
     private Lint() {
     }
@@ -61,6 +66,7 @@ public final class Lint {
         Objects.requireNonNull(executorKinds, "executorKinds");
         Objects.requireNonNull(asOf, "asOf");
         List<Finding> out = new ArrayList<>(OverlapCheck.check(set.playbooks(), fleetOrNull));
+        SignalCheck.check(set, out);
         for (Playbook p : set.playbooks()) {
             steps(set, p, executorKinds, out);
             window(p, asOf, out);
@@ -79,7 +85,8 @@ public final class Lint {
         for (Step s : p.allSteps()) {
             if (!(s instanceof ActionStep step)) continue;
             ActionDef def = set.actions().get(step.action()).orElseThrow();
-            Position at = p.position((p.steps().contains(s) ? "steps." : "on-failure.") + s.id());
+            Position at = p.position((p.steps().contains(s) ? "steps." : p.onStandDown().contains(s) ? "on-stand-down." : "on-failure.")
+                    + s.id());
             if (step.timeout() == null && def.timeout() == null) {
                 out.add(finding(Severity.ERROR, NO_TIMEOUT, p, at, "step '" + s.id() + "' has no timeout and its action '"
                         + def.id() + "' defines none, so a hung " + def.kind() + " action would hold the run forever;"

@@ -44,6 +44,7 @@ public final class ReportHtml {
         Html.tile(sb, "runs started", s.runsStarted(), null);
         Html.tile(sb, "succeeded", s.runsSucceeded(), "ok");
         Html.tile(sb, "failed", s.runsFailed(), s.runsFailed() > 0 ? "bad" : null);
+        Html.tile(sb, "stood down", s.runsStoodDown(), null);
         Html.tile(sb, "held (decisions)", s.held(), null);
         Html.tile(sb, "denied (decisions)", s.denied(), null);
         Html.tile(sb, "approvals requested", s.approvalsRequested(), null);

@@ -20,7 +20,7 @@ import java.io.Writer;
  * recording       {name, description, from, until, horizon, events, bad_lines, late_events}
  * replay          {seed, playbooks:[{id, version, sha256}], actions_sha256, fleet, clusters, health_interval}
  * summary         {runs_started, runs_succeeded, runs_failed, held, denied, approvals_requested,
- *                  max_concurrent_runs, brake_engaged, runs_unfinished, hidden_events}
+ *                  max_concurrent_runs, brake_engaged, runs_unfinished, hidden_events, runs_stood_down}
  * runs            [{run, playbook, cluster, node, started_at, ended_at, outcome, steps:[{step, kind,
  *                  state, attempt, started_at, ended_at, outcome}], detail}]
  * decisions       [{at, playbook, cluster, node, verdict, reasons:[codes], signal, hold_until}]
@@ -144,6 +144,7 @@ public final class ReportJson {
         g.writeBooleanField("brake_engaged", s.brakeEngaged());
         g.writeNumberField("runs_unfinished", s.runsUnfinished());
         g.writeNumberField("hidden_events", s.hiddenEvents());
+        g.writeNumberField("runs_stood_down", s.runsStoodDown());
         g.writeEndObject();
     }
 

@@ -36,8 +36,9 @@ public final class ReportText {
                 .append(r.replay().fleet()).append(" (").append(r.replay().clusters()).append(" clusters)\n\n");
 
         sb.append("what would have happened\n");
-        sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished)\n", s.runsStarted(),
-                s.runsSucceeded(), s.runsFailed(), s.runsUnfinished()));
+        sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished%s)\n", s.runsStarted(),
+                s.runsSucceeded(), s.runsFailed(), s.runsUnfinished(),
+                s.runsStoodDown() == 0 ? "" : ", " + s.runsStoodDown() + " stood down: no longer needed before an action step"));
         sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested (none arrive in a replay)\n",
                 s.held(), s.denied(), s.approvalsRequested()));
         sb.append(String.format(Locale.ROOT, "  most runs at once  %d\n", s.maxConcurrentRuns()));

@@ -39,7 +39,7 @@ final class Fixtures {
         long unfinished = runs.stream().filter(r -> r.endedAt() == null).count();
         long held = decisions.stream().filter(d -> d.verdict() == Verdict.HOLD).count();
         long denied = decisions.stream().filter(d -> d.verdict() == Verdict.DENY).count();
-        Summary s = new Summary(started, ok, failed, held, denied, 0, runs.isEmpty() ? 0 : 1, !brakes.isEmpty(), unfinished, 3);
+        Summary s = new Summary(started, ok, failed, held, denied, 0, runs.isEmpty() ? 0 : 1, !brakes.isEmpty(), unfinished, 3, 0);
         return new ReplayReport(
                 new RecordingInfo("quiet-night", "two silent nodes <and> a \"quote\"", T0, at(300), at(300), 111, 0, 0),
                 new ReplayInfo(7, List.of(new PlaybookRef("replace-silent-node", 1, "ab".repeat(32))), "cd".repeat(32), "larkspur", 300,

@@ -19,10 +19,10 @@ class ReportValuesTest {
         Id c = Id.of("tickets-12");
         RunEntry run = Fixtures.run("r000001", "tickets-12", "n2", 5, 26, "succeeded");
         return Stream.of(
-                Arguments.of("negative held", (Executable) () -> new Summary(0, 0, 0, -1, 0, 0, 0, false, 0, 0),
+                Arguments.of("negative held", (Executable) () -> new Summary(0, 0, 0, -1, 0, 0, 0, false, 0, 0, 0),
                         "held must be at least 0, got -1"),
-                Arguments.of("more ended than started", (Executable) () -> new Summary(1, 1, 1, 0, 0, 0, 0, false, 0, 0),
-                        "runs_succeeded + runs_failed + runs_unfinished (2) must not exceed runs_started (1)"),
+                Arguments.of("more ended than started", (Executable) () -> new Summary(1, 1, 1, 0, 0, 0, 0, false, 0, 0, 0),
+                        "runs_succeeded + runs_failed + runs_unfinished + runs_stood_down (2) must not exceed runs_started (1)"),
                 Arguments.of("run ends before it starts", (Executable) () -> new RunEntry("r1", c, c, null, at(10), at(5), "succeeded", null, List.of()),
                         "run r1: endedAt (2027-03-16T01:05:00Z) must not be before startedAt (2027-03-16T01:10:00Z)"),
                 Arguments.of("brake released before engaged", (Executable) () -> new BrakePeriod(at(10), at(5), "automatic", "x"),
