@@ -11,6 +11,6 @@ public interface Notifier {
 
     /** Writes each notification as one line to a stream (stderr by default). */
     static Notifier printingTo(java.io.PrintStream out) {
-        return n -> out.println("tend: notify " + n.channel() + ": " + n.message());
+        return n -> out.println("tend: page " + n.channel() + ": " + n.message());
     }
 }

@@ -72,7 +72,7 @@ public final class TendServer implements AutoCloseable {
         };
         Notifier notifier = n -> {
             synchronized (log) {
-                log.println("tend: notify " + n.channel() + ": " + n.message());
+                log.println("tend: page " + n.channel() + ": " + n.message());
                 log.flush();
             }
         };

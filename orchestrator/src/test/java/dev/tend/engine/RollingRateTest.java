@@ -26,7 +26,7 @@ class RollingRateTest {
         return """
                 playbook: restart-stopped-process
                 version: 1
-                when: { signal: process-down, state: breach, scope: node }
+                trigger: { signal: process-down, state: breach, scope: node }
                 limits: { rate: %s }
                 steps:
                   - { id: restart, action: restart-process, timeout: 5m }

@@ -23,7 +23,7 @@ class RunGateTest {
         return """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
                 unless:
                   - { signal: storage-full, on: node }
                 steps:
@@ -104,7 +104,7 @@ class RunGateTest {
         String restart = """
                 playbook: restart-stopped-process
                 version: 1
-                when: { signal: process-down, state: breach, scope: node, confirm-for: 5m }
+                trigger: { signal: process-down, state: breach, scope: node, confirm-for: 5m }
                 unless:
                   - { signal: storage-full, on: node }
                 steps:

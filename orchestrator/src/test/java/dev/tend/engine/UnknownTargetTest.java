@@ -21,7 +21,7 @@ class UnknownTargetTest {
     private static final String RESTART = """
             playbook: restart-stopped-process
             version: 1
-            when: { signal: process-down, state: breach, scope: node }
+            trigger: { signal: process-down, state: breach, scope: node }
             steps:
               - { id: restart, action: restart-process, timeout: 5m }
             """;

@@ -34,17 +34,17 @@ final class SignalCheck {
             Set<String> declared = new TreeSet<>();
             for (Id s : set.config().signals()) declared.add(s.value());
             for (Playbook p : set.playbooks()) {
-                undeclared(p, p.when().signal(), "triggers", "when", declared, out);
+                undeclared(p, p.trigger().signal(), "triggers", "trigger", declared, out);
                 for (MaskRule m : p.unless()) undeclared(p, m.signal(), "masks", "unless", declared, out);
             }
             return;
         }
         for (Playbook p : set.playbooks()) {
-            String trigger = p.when().signal().value();
+            String trigger = p.trigger().signal().value();
             Set<String> others = namedBesides(set, p);
             if (others.contains(trigger)) continue;
             NearestName.among(trigger, others, TYPO_DISTANCE).ifPresent(near -> out.add(Lint.finding(Severity.WARNING, Lint.SIGNAL_TYPO,
-                    p, p.position("when"), "trigger signal '" + trigger + "' is named nowhere else, and is one edit away from '"
+                    p, p.position("trigger"), "trigger signal '" + trigger + "' is named nowhere else, and is one edit away from '"
                             + near + "', which is; if it is a typo, this playbook never matches a transition (declare the"
                             + " fleet's signals in tend.yaml to make this an error)")));
         }
@@ -62,7 +62,7 @@ final class SignalCheck {
     private static Set<String> namedBesides(PlaybookSet set, Playbook p) {
         Set<String> out = new TreeSet<>();
         for (Playbook q : set.playbooks()) {
-            if (q != p) out.add(q.when().signal().value());
+            if (q != p) out.add(q.trigger().signal().value());
             for (MaskRule m : q.unless()) out.add(m.signal().value());
             for (Step s : q.allSteps()) if (s instanceof WaitHealthyStep w) w.signals().forEach(id -> out.add(id.value()));
         }

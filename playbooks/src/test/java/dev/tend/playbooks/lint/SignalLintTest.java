@@ -28,7 +28,7 @@ class SignalLintTest {
     }
 
     private static String playbook(String id, String signal, String mask) {
-        return "playbook: " + id + "\nwhen: { signal: " + signal + ", state: breach, scope: node }\n"
+        return "playbook: " + id + "\ntrigger: { signal: " + signal + ", state: breach, scope: node }\n"
                 + (mask == null ? "" : "unless:\n  - { signal: " + mask + ", on: node }\n")
                 + "steps:\n  - { id: move, action: move-leadership, timeout: 5m }\n";
     }
