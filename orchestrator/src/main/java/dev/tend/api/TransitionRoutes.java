@@ -57,7 +57,7 @@ final class TransitionRoutes {
     }
 
     private void post(Context ctx) {
-        String body = singleObjectOnOneLine(ctx.body());
+        String body = singleObjectOnOneLine(Requests.bodyText(ctx));
         List<Input> events = new ArrayList<>();
         List<LineProblem> problems = new ArrayList<>();
         WireReader wire = WireReader.of("request").withLiveClock(clock::instant, config.maxSkew()).withSignals(config.signals());
