@@ -71,8 +71,11 @@ class IngestAcceptanceTest {
         Path actions = dir.resolve("failing-replace.yaml");
         java.nio.file.Files.writeString(actions, "actions:\n  replace-node: { simulated: { duration: 5m, success: 0.0 } }\n");
         String db = dir.resolve("overlay.db").toString();
+        java.util.List<String> lines = java.nio.file.Files.readAllLines(root.resolve("examples/silent-node.jsonl"));
+        Path input = dir.resolve("unrecovered.jsonl");
+        java.nio.file.Files.write(input, lines.subList(0, lines.size() - 1)); // the node never recovers: the run reaches replace
 
-        CliRun ingest = CliRun.of("ingest", root.resolve("examples/silent-node.jsonl").toString(),
+        CliRun ingest = CliRun.of("ingest", input.toString(),
                 "--playbooks", root.resolve("playbooks/library").toString(), "--actions", actions.toString(),
                 "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
 
