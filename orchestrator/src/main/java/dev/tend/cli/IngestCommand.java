@@ -8,7 +8,9 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
-import dev.tend.runtime.Notifier;
+import dev.tend.http.OutgoingHttp;
+import dev.tend.page.Courier;
+import dev.tend.page.Senders;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
 import dev.tend.shared.HealthTransition;
@@ -31,6 +33,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Duration;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.atomic.AtomicBoolean;
@@ -69,15 +72,20 @@ public final class IngestCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
+        OutgoingHttp outgoing = new OutgoingHttp();
+        Senders senders = Senders.from(setup.config().paging(), outgoing, err);
+        if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
              Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
              Executor simulated = new SimulatedExecutor(seed, speedup);
-             Executor http = HttpExecutor.withDefaults()) {
+             Executor http = HttpExecutor.withDefaults(outgoing);
+             Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock);
+                    n -> courier.wake(), clock);
+            courier.start();
             holder[0] = orch;
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {
@@ -119,6 +127,9 @@ public final class IngestCommand implements Callable<Integer> {
                 // a signal arrived: the store is consistent, runs resume on the next start
             }
             timers.close();
+            courier.close();
+            // what is due now goes out before the command ends; pages still waiting for a retry go out with the next start on this store
+            courier.deliverDue();
             report(out, orch, summary[0]);
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
