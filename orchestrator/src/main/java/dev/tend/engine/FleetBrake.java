@@ -52,7 +52,7 @@ final class FleetBrake {
         folded++;
         Map<String, Object> f = new java.util.LinkedHashMap<>(fields);
         f.put("id", pageId);
-        f.put("kind", kind);
+        f.put("page_kind", kind);
         f.put("message", message);
         f.put("into", "brake/" + episodes);
         f.put("sent", !pagePending);

@@ -159,7 +159,7 @@ public final class Courier implements AutoCloseable {
         Map<String, Object> f = new LinkedHashMap<>();
         f.put("id", row.id());
         f.put("channel", row.channel());
-        f.put("kind", page.kind());
+        f.put("page_kind", page.kind());
         for (String k : new String[] {"cluster", "playbook", "run"}) if (page.fields().get(k) != null) f.put(k, page.fields().get(k));
         f.put("attempt", attempt);
         f.put("answer", answer.text());

@@ -110,6 +110,9 @@ public final class EmailSender implements PageSender {
             else if (x instanceof SMTPSendFailedException s) code = Math.max(code, s.getReturnCode());
         }
         String text = describe(e);
+        if (e.getInvalidAddresses() != null && e.getInvalidAddresses().length > 0) {
+            text += " (refused: " + String.join(", ", java.util.Arrays.stream(e.getInvalidAddresses()).map(String::valueOf).toList()) + ")";
+        }
         return code >= 500 ? Answer.refused(text) : Answer.retry(text);
     }
 

@@ -42,7 +42,7 @@ final class Projections {
             } else if (e instanceof Effect.Notify n) {
                 Map<String, Object> f = new LinkedHashMap<>(n.fields());
                 f.put("id", n.id());
-                f.put("kind", n.kind());
+                f.put("page_kind", n.kind());
                 f.put("channel", n.channel());
                 f.put("message", n.message());
                 ledger.add(new LedgerDraft(at, "notification", f));
