@@ -89,7 +89,7 @@ public final class IngestCommand implements Callable<Integer> {
             holder[0] = orch;
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {
-                err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
+                err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
                         + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                         + rec.callsUnknown() + " runs stopped for a person");
             }

@@ -91,15 +91,16 @@ public final class RecordCommand implements Callable<Integer> {
         long[] counts = new long[2];
         Path dir = out.toAbsolutePath().getParent();
         if (dir != null) Files.createDirectories(dir);
-        try (Store store = db.openExisting();
+        StoreAddress address = db.address();
+        try (Store store = address.openExisting();
              BufferedWriter w = Files.newBufferedWriter(out, StandardCharsets.UTF_8)) {
             WireWriter writer = WireWriter.to(w);
             RecordingHeader header = RecordingHeader.of(name != null ? name : baseName(out)).withPeriod(start, end)
-                    .withDescription("exported from the input journal of " + db.db.getFileName()
+                    .withDescription("exported from the input journal of " + (address.isPostgres() ? address.url() : address.file().getFileName().toString())
                             + (only.isEmpty() ? "" : " for " + String.join(", ", only)));
             if (fleet != null) header = header.withFleet(relative(fleet));
             writer.writeHeader(header);
-            WireReader reader = WireReader.of(db.db.toString());
+            WireReader reader = WireReader.of(address.toString());
             store.read(r -> {
                 r.forEachTransitionInput(start, end, only, row -> export(row, reader, w, counts));
                 return null;

@@ -76,7 +76,7 @@ public final class ServeCommand implements Callable<Integer> {
             try (TendServer server = TendServer.start(store, settings)) {
                 var rec = server.recovery();
                 if (rec.inputsReplayed() > 0) {
-                    err.println("tend: resumed from " + db.db + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
+                    err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
                             + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                             + rec.callsUnknown() + " runs stopped for a person");
                 }

@@ -58,7 +58,18 @@ public final class Store implements AutoCloseable {
     public static Store openJdbc(String url, String user, String password) {
         Objects.requireNonNull(url, "url");
         if (url.startsWith("jdbc:sqlite:")) return openSqlite(Path.of(url.substring("jdbc:sqlite:".length())));
-        return new Store(Database.postgres(url, user, password));
+        return new Store(Database.postgres(url, user, password, false));
+    }
+
+    /**
+     * {@link #openJdbc} for a store that must already exist: a PostgreSQL database without a
+     * tend store is refused with a {@link StoreException} instead of given the schema. (A
+     * SQLite url is opened as {@link #openJdbc} does; callers check that the file exists.)
+     */
+    public static Store openExistingJdbc(String url, String user, String password) {
+        Objects.requireNonNull(url, "url");
+        if (url.startsWith("jdbc:sqlite:")) return openSqlite(Path.of(url.substring("jdbc:sqlite:".length())));
+        return new Store(Database.postgres(url, user, password, true));
     }
 
     /** The SQLite file or the PostgreSQL url (password hidden) this store uses. */

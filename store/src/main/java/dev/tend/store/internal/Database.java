@@ -1,5 +1,7 @@
 package dev.tend.store.internal;
 
+import com.zaxxer.hikari.HikariConfig;
+import com.zaxxer.hikari.HikariDataSource;
 import dev.tend.store.StoreException;
 import org.jdbi.v3.core.Jdbi;
 import org.jdbi.v3.core.transaction.TransactionIsolationLevel;
@@ -14,11 +16,14 @@ import java.sql.Connection;
 import java.sql.SQLException;
 import java.sql.Statement;
 import java.time.Duration;
+import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.locks.ReentrantLock;
+import javax.sql.DataSource;
 
 /**
  * An opened, migrated database: where it is, how to get connections for writing and for
- * reading, and, on SQLite, the lock that lets one transaction at a time write.
+ * reading (HikariCP pools), and, on SQLite, the lock that lets one transaction at a time
+ * write.
  */
 public final class Database implements AutoCloseable {
     /** How long a SQLite connection waits for a lock held by another connection. */
@@ -26,13 +31,21 @@ public final class Database implements AutoCloseable {
 
     private final Dialect dialect;
     private final String location;
-    private final ConnectionPool writers;
-    private final ConnectionPool readers;
+    /** Connections of one PostgreSQL store: the driver thread, HTTP reads and the tick share them. */
+    public static final int POSTGRES_POOL_SIZE = 8;
+    /** Read connections of one SQLite store (WAL lets them read beside the one writer). */
+    public static final int SQLITE_READERS = 8;
+    /** How long a caller waits for a free pooled connection before the store fails. */
+    public static final Duration POOL_WAIT = Duration.ofSeconds(30);
+    private static final AtomicInteger POOLS = new AtomicInteger();
+
+    private final HikariDataSource writers;
+    private final HikariDataSource readers;
     private final Jdbi writeJdbi;
     private final Jdbi readJdbi;
     private final ReentrantLock writeLock;
 
-    private Database(Dialect dialect, String location, ConnectionPool writers, ConnectionPool readers, ReentrantLock writeLock) {
+    private Database(Dialect dialect, String location, HikariDataSource writers, HikariDataSource readers, ReentrantLock writeLock) {
         this.dialect = dialect;
         this.location = location;
         this.writers = writers;
@@ -74,13 +87,23 @@ public final class Database implements AutoCloseable {
         } catch (RuntimeException | SQLException e) {
             throw Failures.ofOpening(location, e);
         }
-        ConnectionPool writers = new ConnectionPool(writerSource::getConnection, 1);
-        ConnectionPool readers = new ConnectionPool(() -> queryOnly(readerSource.getConnection()), 4);
+        HikariDataSource writers = pool(writerSource, "writer", 1, null, location);
+        HikariDataSource readers;
+        try {
+            readers = pool(readerSource, "reader", SQLITE_READERS, "PRAGMA query_only = true", location);
+        } catch (RuntimeException e) {
+            writers.close();
+            throw e;
+        }
         return new Database(Dialect.SQLITE, location, writers, readers, new ReentrantLock());
     }
 
-    /** Opens and migrates a PostgreSQL database; {@code url} is {@code jdbc:postgresql://host:port/db?...}. */
-    public static Database postgres(String url, String user, String password) {
+    /**
+     * Opens and migrates a PostgreSQL database; {@code url} is {@code jdbc:postgresql://host:port/db?...}.
+     * With {@code mustHoldStore}, a database that holds no tend store yet is refused instead of
+     * given the schema (for commands that only read one).
+     */
+    public static Database postgres(String url, String user, String password, boolean mustHoldStore) {
         String location = Failures.redact(url);
         if (!url.startsWith("jdbc:postgresql:")) {
             throw new StoreException(location, "cannot open the store at " + location + ": tend stores live in a SQLite "
@@ -94,12 +117,40 @@ public final class Database implements AutoCloseable {
         if (user != null) source.setUser(user);
         if (password != null) source.setPassword(password);
         try {
+            if (mustHoldStore && !holdsStore(source)) {
+                throw new StoreException(location, "no tend store in the database at " + location + ": run `tend ingest` or "
+                        + "`tend serve` with this --db first, or check the database name");
+            }
             Migrations.migrate(source, Dialect.POSTGRESQL, location);
+        } catch (RuntimeException | SQLException e) {
+            throw Failures.ofOpening(location, e);
+        }
+        HikariDataSource pool = pool(source, "pg", POSTGRES_POOL_SIZE, null, location);
+        return new Database(Dialect.POSTGRESQL, location, pool, pool, null);
+    }
+
+    /**
+     * A HikariCP pool over {@code source}: up to {@code size} connections, opened lazily
+     * (minimum idle 0, so a command that reads once opens one), each run through
+     * {@code initSql} when opened. Connections stay in auto-commit mode between uses; Jdbi
+     * begins and ends its transactions on them, and HikariCP rolls back one returned dirty.
+     */
+    private static HikariDataSource pool(DataSource source, String role, int size, String initSql, String location) {
+        HikariConfig config = new HikariConfig();
+        config.setDataSource(source);
+        config.setPoolName("tend-" + role + "-" + POOLS.incrementAndGet());
+        config.setMaximumPoolSize(size);
+        config.setMinimumIdle(0);
+        config.setAutoCommit(true);
+        config.setConnectionTimeout(POOL_WAIT.toMillis());
+        // The store was just migrated through the same source, so the database is reachable; do not open one here.
+        config.setInitializationFailTimeout(-1);
+        if (initSql != null) config.setConnectionInitSql(initSql);
+        try {
+            return new HikariDataSource(config);
         } catch (RuntimeException e) {
             throw Failures.ofOpening(location, e);
         }
-        ConnectionPool pool = new ConnectionPool(source::getConnection, 8);
-        return new Database(Dialect.POSTGRESQL, location, pool, pool, null);
     }
 
     private static SQLiteConfig sqliteConfig(SQLiteConfig.TransactionMode mode) {
@@ -111,11 +162,12 @@ public final class Database implements AutoCloseable {
         return config;
     }
 
-    private static Connection queryOnly(Connection c) throws SQLException {
-        try (Statement s = c.createStatement()) {
-            s.execute("PRAGMA query_only = true");
+    /** Whether Flyway's history table of the migrations is visible on the search path. */
+    private static boolean holdsStore(DataSource source) throws SQLException {
+        try (Connection c = source.getConnection(); Statement s = c.createStatement();
+             var rs = s.executeQuery("SELECT to_regclass('" + Migrations.HISTORY_TABLE + "') IS NOT NULL")) {
+            return rs.next() && rs.getBoolean(1);
         }
-        return c;
     }
 
     private static void requireWal(SQLiteDataSource source, String location) throws SQLException {
@@ -157,11 +209,11 @@ public final class Database implements AutoCloseable {
 
     @Override
     public void close() {
-        SQLException failure = null;
-        for (ConnectionPool pool : writers == readers ? new ConnectionPool[]{writers} : new ConnectionPool[]{writers, readers}) {
+        RuntimeException failure = null;
+        for (HikariDataSource pool : writers == readers ? new HikariDataSource[]{writers} : new HikariDataSource[]{writers, readers}) {
             try {
                 pool.close();
-            } catch (SQLException e) {
+            } catch (RuntimeException e) {
                 if (failure == null) failure = e;
             }
         }

@@ -13,6 +13,8 @@ import javax.sql.DataSource;
  */
 public final class Migrations {
     public static final String LOCATION = "classpath:db/tend";
+    /** Flyway's table of applied migrations (its default name): present in every tend store. */
+    public static final String HISTORY_TABLE = "flyway_schema_history";
 
     private Migrations() {
     }
@@ -23,6 +25,7 @@ public final class Migrations {
             return Flyway.configure(Migrations.class.getClassLoader())
                     .dataSource(dataSource)
                     .locations(LOCATION)
+                    .table(HISTORY_TABLE)
                     .failOnMissingLocations(true)
                     .placeholders(dialect.placeholders())
                     // Flyway ignores versions it does not know ("*:future") by default; a store migrated by a
