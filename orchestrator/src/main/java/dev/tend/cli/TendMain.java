@@ -12,7 +12,8 @@ import java.io.PrintWriter;
         description = "Remediation orchestrator with health gating.",
         subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
                 HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class,
-                ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class},
+                ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class,
+                PageCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify, a command the server refused)",
                 "2:usage or input error (a bad token or request, an unreachable server)"})

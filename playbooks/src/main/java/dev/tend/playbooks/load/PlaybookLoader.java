@@ -117,6 +117,14 @@ public final class PlaybookLoader {
         }
     }
 
+    /**
+     * Null when a page may go to channel {@code name} under {@code config}; otherwise the
+     * sentence that says it is not defined, with the nearest defined name.
+     */
+    public static String unknownChannel(TendConfig config, Id name) {
+        return ChannelsReader.unknownChannel(name, config.paging().channels());
+    }
+
     /** Parses one playbook; action steps are checked against {@code actions}. For tests and tools. */
     public static Playbook parse(String source, String yamlText, Actions actions) {
         Fields f = new Fields(source);
