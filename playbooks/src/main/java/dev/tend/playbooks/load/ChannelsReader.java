@@ -53,9 +53,9 @@ final class ChannelsReader {
      * Records a problem when channels are defined and {@code name} is not one of them, with
      * the nearest defined name.
      */
-    static void checkNamed(Fields f, YNode at, String field, Id name, Map<Id, ChannelDef> channels) {
+    static void checkNamed(Fields f, YNode at, String label, Id name, Map<Id, ChannelDef> channels) {
         String problem = unknownChannel(name, channels);
-        if (problem != null) f.add(at, field, problem);
+        if (problem != null) f.add(at, label.substring(label.lastIndexOf('.') + 1), label + ": " + problem);
     }
 
     /** Null when {@code name} may be used with these channels, else the sentence that says why not. */
@@ -222,7 +222,7 @@ final class ChannelsReader {
         if (m == null) return null;
         Read.allowOnly(f, m, "pages", PAGES);
         Id channel = Read.value(f, m, "channel", "pages", "pages.channel", false, Id::of);
-        if (channel != null) checkNamed(f, m.get("channel").get(), "channel", channel, channels);
+        if (channel != null) checkNamed(f, m.get("channel").get(), "pages.channel", channel, channels);
         String url = Read.value(f, m, "console-url", "pages", "pages.console-url", false, v -> {
             URI u = url(v);
             return u.toString();

@@ -54,9 +54,9 @@ final class ConfigReader {
         RateLimit rate = Read.value(f, m, "rate", "tend.yaml", "rate", false, RateLimit::parse);
         Map<Id, ChannelDef> channels = m.get("channels").map(n -> ChannelsReader.channels(f, n)).orElse(Map.of());
         if (brake != null && m.get("brake").orElse(null) instanceof YMap b) {
-            b.get("notify").ifPresent(n -> ChannelsReader.checkNamed(f, n, "notify", brake.notifyChannel(), channels));
+            b.get("notify").ifPresent(n -> ChannelsReader.checkNamed(f, n, "brake.notify", brake.notifyChannel(), channels));
             if (!b.has("notify") && m.get("channels").isPresent()) {
-                ChannelsReader.checkNamed(f, b, "notify", brake.notifyChannel(), channels);
+                ChannelsReader.checkNamed(f, b, "brake.notify", brake.notifyChannel(), channels);
             }
         }
         Paging paging = ChannelsReader.pages(f, m.get("pages").orElse(null), channels);

@@ -110,8 +110,8 @@ public final class PlaybookLoader {
             if (!(s instanceof NotifyStep n)) continue;
             String problem = ChannelsReader.unknownChannel(n.channel(), config.paging().channels());
             if (problem == null) continue;
-            Position at = p.position("steps." + s.id());
-            if (at.line() == 0) at = p.position("on-failure." + s.id());
+            String section = p.steps().contains(s) ? "steps." : "on-failure.";
+            Position at = p.position(section + s.id());
             problems.computeIfAbsent(p.source(), k -> new ArrayList<>())
                     .add(Problem.at(p.source(), at.line(), at.column(), s.kind(), "step " + s.id() + ": " + problem));
         }

@@ -98,22 +98,20 @@ class ChannelsConfigTest {
                 """;
         assertThat(problems(text)).extracting(Problem::toString).containsExactly(
                 "/etc/tend/tend.yaml:3:21: channel oncall.webhook.url: must be an absolute http:// or https:// URL with a host, got 'ftp://pager.larkspur.example'",
-                "/etc/tend/tend.yaml:3:64: channel oncall.webhook.retries: must be between 0 and 10, got 20",
-                "/etc/tend/tend.yaml:3:80: channel oncall.webhook.headers: header 'Authorization' is set by tend itself; give a bearer token with"
+                "/etc/tend/tend.yaml:3:60: channel oncall.webhook.retries: must be between 0 and 10, got 20",
+                "/etc/tend/tend.yaml:3:75: channel oncall.webhook.headers: header 'Authorization' is set by tend itself; give a bearer token with"
                         + " bearer-token-file, never in the configuration",
-                "/etc/tend/tend.yaml:5:52: channel mail.email.security: must be starttls, tls or none, got 'ssl'",
-                "/etc/tend/tend.yaml:5:63: channel mail.email.from: must be one mail address such as oncall@larkspur.example, got 'tend'",
-                "/etc/tend/tend.yaml:5:73: channel mail.email.to lists no address",
+                "/etc/tend/tend.yaml:5:53: channel mail.email.security: must be starttls, tls or none, got 'ssl'",
+                "/etc/tend/tend.yaml:5:64: channel mail.email.from: must be one mail address such as oncall@larkspur.example, got 'tend'",
+                "/etc/tend/tend.yaml:5:74: channel mail.email.to lists no address",
                 "/etc/tend/tend.yaml:7:14: channel desk.command must be a list of arguments such as [notify-desk, \"{message}\"], not one string:"
                         + " tend never runs a shell",
                 "/etc/tend/tend.yaml:9:5: channel both has both 'command' and 'log'; a channel is exactly one kind");
     }
 
     @Test
-    void unknownChannelNamesAreErrorsWithTheNearestDefinedName() {
-        TestDir d = new TestDir(tmp);
-        d.write("actions.yaml", TestDir.ACTIONS);
-        d.write("tend.yaml", """
+    void unknownChannelNamesInTendYamlAreErrorsWithTheNearestDefinedName() {
+        String text = """
                 brake:
                   engage-at: { clusters: 20 }
                   notify: on-call
@@ -124,23 +122,38 @@ class ChannelsConfigTest {
                     email: { host: smtp.larkspur.example, security: tls, from: tend@larkspur.example, to: [ops@larkspur.example] }
                 pages:
                   channel: platfrom-mail
+                """;
+        assertThat(problems(text)).extracting(Problem::toString).containsExactly(
+                "/etc/tend/tend.yaml:3:11: brake.notify: unknown channel 'on-call' (did you mean 'oncall'?); the channels defined in"
+                        + " tend.yaml are: oncall, platform-mail",
+                "/etc/tend/tend.yaml:10:12: pages.channel: unknown channel 'platfrom-mail' (did you mean 'platform-mail'?); the channels"
+                        + " defined in tend.yaml are: oncall, platform-mail");
+        assertThat(problems("channels:\n  platform-mail:\n    log: {}\n")).extracting(Problem::toString).containsExactly(
+                "/etc/tend/tend.yaml:2:3: tend's own pages (flapping, loops, runs that need a person, approvals) go to 'oncall', which is"
+                        + " not defined here; define it, or name another with pages.channel");
+    }
+
+    @Test
+    void aPlaybookPagingAnUnknownChannelIsAnErrorAtItsStep() {
+        TestDir d = new TestDir(tmp);
+        d.write("actions.yaml", TestDir.ACTIONS);
+        d.write("tend.yaml", """
+                channels:
+                  oncall:
+                    log: {}
+                  platform-mail:
+                    email: { host: smtp.larkspur.example, security: tls, from: tend@larkspur.example, to: [ops@larkspur.example] }
                 """);
-        String playbook = """
+        d.write("replace.yaml", """
                 playbook: replace-silent-node
                 when: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 5m }
                 on-failure:
                   - { id: tell, notify: oncal, message: "draining {node} failed" }
-                """;
-        d.write("replace.yaml", playbook);
-        List<Problem> ps = TestDir.problems(() -> PlaybookLoader.load(tmp));
-        assertThat(ps).extracting(Problem::toString).containsExactly(
-                d.source("tend.yaml") + ":3:11: notify: unknown channel 'on-call' (did you mean 'oncall'?); the channels defined in"
-                        + " tend.yaml are: oncall, platform-mail",
-                d.source("tend.yaml") + ":10:12: channel: unknown channel 'platfrom-mail' (did you mean 'platform-mail'?); the channels"
-                        + " defined in tend.yaml are: oncall, platform-mail",
-                d.source("replace.yaml") + ":6:5: notify: step tell: unknown channel 'oncal' (did you mean 'oncall'?); the channels"
+                """);
+        assertThat(TestDir.problems(() -> PlaybookLoader.load(tmp))).extracting(Problem::toString).containsExactly(
+                d.source("replace.yaml") + ":6:5: step tell: unknown channel 'oncal' (did you mean 'oncall'?); the channels"
                         + " defined in tend.yaml are: oncall, platform-mail");
     }
 
@@ -163,7 +176,7 @@ class ChannelsConfigTest {
                   rotate-certificate:
                     http: { url: "https://certs.larkspur.example/", client-cert: /etc/tend/tend.pem }
                 """))).extracting(Problem::toString).containsExactly(
-                "actions.yaml:3:53: action rotate-certificate.http: client-cert and client-key go together (mutual TLS needs the"
+                "actions.yaml:3:66: action rotate-certificate.http: client-cert and client-key go together (mutual TLS needs the"
                         + " certificate and its key)");
     }
 }
