@@ -15,7 +15,7 @@ const REASONS = {
   "cluster-busy": "another run is active on the cluster",
   "blast-radius": "too many runs at once",
   "quorum": "the cluster would lose its quorum",
-  "replication": "partitions would fall below min-in-sync",
+  "replication": "some data would fall below its minimum of healthy copies",
   "rate-limit": "the start budget is spent",
 };
 

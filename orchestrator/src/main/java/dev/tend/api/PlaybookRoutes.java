@@ -3,7 +3,7 @@ package dev.tend.api;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.PlaybookView;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.Step;
@@ -35,7 +35,7 @@ final class PlaybookRoutes {
     private static String detail(Step s) {
         if (s instanceof ActionStep a) return a.action().value();
         if (s instanceof WaitHealthyStep w) return w.signals().stream().map(Id::value).collect(Collectors.joining(", "));
-        if (s instanceof NotifyStep n) return n.channel().value();
+        if (s instanceof PageStep n) return n.channel().value();
         throw new IllegalStateException("a step kind this route does not know: " + s.kind());
     }
 }

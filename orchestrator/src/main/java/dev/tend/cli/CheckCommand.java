@@ -79,8 +79,8 @@ public final class CheckCommand implements Callable<Integer> {
                 .append(set.actions().ids().size()).append(" actions from ").append(dir).append('\n');
         for (Playbook p : set.playbooks()) {
             sb.append("  ").append(p.id()).append(" v").append(p.version()).append(" (").append(p.mode().wireName())
-                    .append("): ").append(p.when().signal()).append(' ').append(p.when().state().wireName())
-                    .append(" on ").append(p.when().scope().wireName()).append(", ").append(p.steps().size())
+                    .append("): ").append(p.trigger().signal()).append(' ').append(p.trigger().state().wireName())
+                    .append(" on ").append(p.trigger().scope().wireName()).append(", ").append(p.steps().size())
                     .append(p.steps().size() == 1 ? " step" : " steps").append('\n');
         }
         if (fleet != null) {

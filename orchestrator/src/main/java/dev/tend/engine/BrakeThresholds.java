@@ -22,7 +22,7 @@ public record BrakeThresholds(Integer engageClusters, Double engageFraction, Int
                 p.engageAt() == null ? null : p.engageAt().fraction(),
                 p.releaseBelow() == null ? null : p.releaseBelow().clusters(),
                 p.releaseBelow() == null ? null : p.releaseBelow().fraction(),
-                p.autoRelease(), p.notifyChannel() == null ? "oncall" : p.notifyChannel().value(), p.releaseAfter());
+                p.autoRelease(), p.pageChannel() == null ? "oncall" : p.pageChannel().value(), p.releaseAfter());
     }
 
     public static BrakeThresholds never() {

@@ -108,7 +108,7 @@ public final class Engine implements RunHost {
         } else {
             Map<String, String> tags = ctx.health.topology().cluster(t.cluster()).map(c -> c.tags()).orElse(Map.of());
             for (Playbook p : setup.playbooks().match(t, tags)) {
-                Target target = p.when().scope() == Scope.NODE ? Target.node(t.cluster(), t.node()) : Target.cluster(t.cluster());
+                Target target = p.trigger().scope() == Scope.NODE ? Target.node(t.cluster(), t.node()) : Target.cluster(t.cluster());
                 Candidate.Key key = new Candidate.Key(p.id(), target);
                 mattered = true;
                 if (hasLiveRun(key) || candidates.get(key) != null) continue;

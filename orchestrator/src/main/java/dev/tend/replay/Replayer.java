@@ -114,7 +114,7 @@ public final class Replayer {
             for (NodeSpec n : c.nodes()) ids.add(n.id());
         }
         for (Playbook p : policy.playbooks()) {
-            ids.add(p.when().signal());
+            ids.add(p.trigger().signal());
             for (MaskRule m : p.unless()) ids.add(m.signal());
             for (Step s : p.allSteps()) if (s instanceof WaitHealthyStep w) ids.addAll(w.signals());
         }

@@ -142,7 +142,7 @@ public final class IngestBenchmark {
             w.write("# invented benchmark fleet\nfleet: larkspur-bench\nclusters:\n");
             String[] tiers = {"standard", "bulk", "standard", "critical"};
             for (int c = 1; c <= clusters; c++) {
-                w.write("  - id: bench-" + c + "\n    tags: { tier: " + tiers[c % 4] + " }\n    replication: { factor: 3, min-in-sync: 2 }\n    nodes:\n");
+                w.write("  - id: bench-" + c + "\n    tags: { tier: " + tiers[c % 4] + " }\n    replication: { factor: 3, min-healthy: 2 }\n    nodes:\n");
                 for (int n = 1; n <= 4; n++) w.write("      - { id: n" + n + ", zone: z-" + (char) ('a' + (n + c) % 3) + " }\n");
             }
         }

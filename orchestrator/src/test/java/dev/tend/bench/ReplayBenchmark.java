@@ -41,7 +41,7 @@ public final class ReplayBenchmark {
               engage-at: { fraction: 0.08 }
               release-below: { fraction: 0.03 }
               auto-release: true
-              notify: oncall
+              page: oncall
             rate: 50/1h
             """;
 

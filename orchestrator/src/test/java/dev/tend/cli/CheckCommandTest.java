@@ -27,7 +27,7 @@ class CheckCommandTest {
         Files.writeString(dir.resolve("broken.yaml"), """
                 playbook: broken
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: 5 minutes }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 5 minutes }
                 limits: { rate: 10 per hour }
                 steps:
                   - { id: drain, action: no-such-action, timeout: 10m }
@@ -47,7 +47,7 @@ class CheckCommandTest {
         Files.writeString(dir.resolve("no-timeout.yaml"), """
                 playbook: no-timeout
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node }
                 """);

@@ -19,11 +19,11 @@ class PageCommandTest {
         Files.writeString(dir.resolve("drain.yaml"), """
                 playbook: drain
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 on-failure:
-                  - { id: tell, notify: %s, message: "draining {node} failed" }
+                  - { id: tell, page: %s, message: "draining {node} failed" }
                 """.formatted(pageStepChannel));
     }
 

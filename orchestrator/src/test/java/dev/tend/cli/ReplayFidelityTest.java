@@ -58,7 +58,7 @@ class ReplayFidelityTest {
         Files.writeString(playbooks.resolve("replace-silent-node.yaml"), """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: 3m }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 3m }
                 unless: [{ signal: storage-full, on: node }]
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
@@ -68,7 +68,7 @@ class ReplayFidelityTest {
         Files.writeString(playbooks.resolve("restart-stopped-process.yaml"), """
                 playbook: restart-stopped-process
                 version: 1
-                when: { signal: process-down, state: breach, scope: node, confirm-for: 2m }
+                trigger: { signal: process-down, state: breach, scope: node, confirm-for: 2m }
                 unless: [{ signal: storage-full, on: node }]
                 steps:
                   - { id: restart, action: restart-process, timeout: 5m }
@@ -76,7 +76,7 @@ class ReplayFidelityTest {
         Path fleet = dir.resolve("fleet.yaml");
         StringBuilder f = new StringBuilder("fleet: larkspur-test\nclusters:\n");
         for (String c : List.of("tickets-12", "tickets-13", "dispatch-4", "schedules-9", "telemetry-7")) {
-            f.append("  - id: ").append(c).append("\n    tags: { tier: standard }\n    replication: { factor: 3, min-in-sync: 2 }\n")
+            f.append("  - id: ").append(c).append("\n    tags: { tier: standard }\n    replication: { factor: 3, min-healthy: 2 }\n")
                     .append("    nodes: [{ id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c }]\n");
         }
         Files.writeString(fleet, f.toString());

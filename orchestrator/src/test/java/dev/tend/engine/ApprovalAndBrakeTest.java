@@ -13,8 +13,8 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 class ApprovalAndBrakeTest {
     private static final String FLEET = fleet(cluster("fares-1", "critical", 3, null) + cluster("fares-9", "standard", 3, null));
-    private static final String APPROVED_PLAYBOOK = replacePlaybook("0s", "keep-in-sync: false")
-            .replace("steps:", "approval: { when: { tier: [critical] }, expires-after: 30m }\nsteps:");
+    private static final String APPROVED_PLAYBOOK = replacePlaybook("0s", "keep-replicas: false")
+            .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
 
     private static String pendingRun(EngineHarness h) {
         return (String) h.ledger("approval-requested").get(0).get("run");
@@ -83,7 +83,7 @@ class ApprovalAndBrakeTest {
 
     @Test
     void manualBrakeHoldsEveryStartAndIsNotReleasedAutomatically() {
-        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false"));
         h.send(new Input.EngageBrake("change freeze for the city marathon", "ana", "cli"));
         h.at(0, "fares-9", "n2", "heartbeat", SILENT);
         assertThat(h.verdicts("fares-9")).containsExactly("hold [fleet-brake]");
@@ -99,7 +99,7 @@ class ApprovalAndBrakeTest {
 
     @Test
     void anExclusionThatWouldEndBeforeItBeginsIsRefusedOnTheRecordNotThrown() {
-        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false"));
         h.send(new Input.Exclude(dev.tend.shared.Target.cluster(dev.tend.shared.Id.of("fares-9")), "owner migrating", "payments",
                 EngineHarness.T0.minusSeconds(60), "ana", "cli"));
         assertThat(h.ledger("command-refused")).singleElement()

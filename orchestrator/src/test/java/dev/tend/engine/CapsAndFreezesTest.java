@@ -18,7 +18,7 @@ class CapsAndFreezesTest {
     @Test
     void heldBlastRadiusWhenTheZoneCapIsReachedAndStartedWhenAZoneRunEnds() {
         // n1 of every cluster is in zone z-a (EngineHarness.cluster spreads nodes over z-a, z-b, z-c)
-        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false, per-zone: 2, fleet: 10"));
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false, per-zone: 2, fleet: 10"));
         h.at(0, "fares-1", "n1", "heartbeat", SILENT);
         h.at(1, "fares-2", "n1", "heartbeat", SILENT);
         h.at(2, "fares-3", "n1", "heartbeat", SILENT);
@@ -32,7 +32,7 @@ class CapsAndFreezesTest {
 
     @Test
     void heldBlastRadiusWhenTheFleetCapIsReached() {
-        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false, per-zone: 10, fleet: 2"));
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false, per-zone: 10, fleet: 2"));
         h.at(0, "fares-1", "n1", "heartbeat", SILENT);
         h.at(1, "fares-2", "n2", "heartbeat", SILENT);
         h.at(2, "fares-3", "n3", "heartbeat", SILENT);
@@ -46,7 +46,7 @@ class CapsAndFreezesTest {
                 freezes:
                   - { from: 2027-03-14T01:00:00Z, until: 2027-03-14T06:00:00Z, reason: city marathon }
                 """;
-        EngineHarness h = new EngineHarness(FLEET, tend, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(FLEET, tend, replacePlaybook("0s", "keep-replicas: false"));
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
         assertThat(h.verdicts("fares-1")).containsExactly("hold [window-closed]");
         assertThat(h.lastVerdict("fares-1")).containsEntry("hold_until", "2027-03-14T06:00:00Z");
@@ -56,11 +56,11 @@ class CapsAndFreezesTest {
 
     @Test
     void anEngineFedTheSameInputsRebuildsTheSameBrakeAsRecoveryDoesFromTheJournal() {
-        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false"));
         h.send(new Input.EngageBrake("maintenance", "ana", "cli"));
         h.advance(Duration.ofMinutes(1));
         // a fresh engine fed the same inputs at the same times, as recover() does from the journal
-        EngineHarness restarted = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness restarted = new EngineHarness(FLEET, null, replacePlaybook("0s", "keep-replicas: false"));
         restarted.send(new Input.EngageBrake("maintenance", "ana", "cli"));
         restarted.advance(Duration.ofMinutes(1));
         assertThat(restarted.engine.brake()).isEqualTo(h.engine.brake());

@@ -155,14 +155,14 @@ final class EngineHarness {
         return """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: %s }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: %s }
                 limits: { %s }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                   - { id: replace, action: replace-node, timeout: 30m }
                   - { id: settle, wait-healthy: [heartbeat], within: 20m }
                 on-failure:
-                  - { notify: oncall, message: "replacing {node} in {cluster} failed at {step}" }
+                  - { page: oncall, message: "replacing {node} in {cluster} failed at {step}" }
                 """.formatted(confirm, limits);
     }
 }

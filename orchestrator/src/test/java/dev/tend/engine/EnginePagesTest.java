@@ -22,7 +22,7 @@ class EnginePagesTest {
     @Test
     void anApprovalIsPagedWhenAskedAndAgainBeforeItLapses() {
         String pb = replacePlaybook("0s", "keep-in-sync: false")
-                .replace("steps:", "approval: { when: { tier: [critical] }, expires-after: 30m }\nsteps:");
+                .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "critical", 3, null)), """
                 pages:
                   approval-reminder: 10m
@@ -50,7 +50,7 @@ class EnginePagesTest {
     @Test
     void anAnsweredApprovalIsNotReminded() {
         String pb = replacePlaybook("0s", "keep-in-sync: false")
-                .replace("steps:", "approval: { when: { tier: [critical] }, expires-after: 30m }\nsteps:");
+                .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "critical", 3, null)), null, pb);
         h.at(0, "fares-3", "n2", "heartbeat", SILENT);
         String run = (String) pages(h).get(0).fields().get("run");

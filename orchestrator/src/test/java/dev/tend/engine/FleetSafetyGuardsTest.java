@@ -18,7 +18,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 class FleetSafetyGuardsTest {
     /** Only the guard under test may object: blast radius and replication are opened wide. */
-    private static final String QUORUM_ONLY = "impaired-fraction: 1.0, keep-in-sync: false, per-cluster: 5";
+    private static final String QUORUM_ONLY = "impaired-fraction: 1.0, keep-replicas: false, per-cluster: 5";
 
     @ParameterizedTest(name = "{0}-node ensemble with {1} other impaired node(s): {2}")
     @CsvSource({"3,0,start", "3,1,hold", "5,1,start", "5,2,hold"})
@@ -34,14 +34,15 @@ class FleetSafetyGuardsTest {
         if (verdict.equals("hold")) assertThat(h.verdicts("coord-1")).containsExactly("hold [quorum]");
     }
 
-    @ParameterizedTest(name = "RF {0} min-in-sync {1}, {2} other impaired: {3}")
+    @ParameterizedTest(name = "RF {0} min-healthy {1}, {2} other impaired: {3}")
     @CsvSource({"3,2,0,start", "3,2,1,hold", "3,1,1,start", "3,1,2,hold"})
-    void replicationKeepsEveryPartitionAtItsMinimumInSyncReplicas(int rf, int min, int otherImpaired, String verdict) {
-        // the min.insync.replicas rule as the Apache Kafka documentation states it: a write needs min.insync.replicas
-        // in-sync replicas, so RF 3 with minimum 2 tolerates one impaired replica, RF 3 with minimum 1 tolerates two.
-        // Without partition placement any RF nodes may share a partition (worst case).
+    void replicationKeepsEveryPieceOfDataAtItsMinimumOfHealthyCopies(int rf, int min, int otherImpaired, String verdict) {
+        // quorum-based replication (Gifford, "Weighted Voting for Replicated Data", SOSP 1979): with N copies of which
+        // at least M must stay healthy, at most N - M copies may be impaired at once; so factor 3 with min-healthy 2
+        // tolerates one impaired copy, factor 3 with min-healthy 1 tolerates two. Without placement any RF nodes may
+        // hold copies of the same piece (worst case).
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "standard", 6,
-                "replication: { factor: " + rf + ", min-in-sync: " + min + " }")), null,
+                "replication: { factor: " + rf + ", min-healthy: " + min + " }")), null,
                 replacePlaybook("0s", "impaired-fraction: 1.0, per-cluster: 5"));
         for (int i = 0; i < otherImpaired; i++) h.at(i, "fares-3", "n" + (6 - i), "disk-latency", BREACH);
         h.at(30, "fares-3", "n1", "heartbeat", SILENT);
@@ -52,7 +53,7 @@ class FleetSafetyGuardsTest {
     @Test
     void blastRadiusHoldsWhenTheImpairedShareWouldPassTheCapAndReleasesWhenANodeRecovers() {
         EngineHarness h = new EngineHarness(fleet(cluster("tickets-2", "standard", 4, null)), null,
-                replacePlaybook("0s", "impaired-fraction: 0.5, keep-in-sync: false, per-cluster: 5"));
+                replacePlaybook("0s", "impaired-fraction: 0.5, keep-replicas: false, per-cluster: 5"));
         h.at(0, "tickets-2", "n3", "disk-latency", BREACH);
         h.at(1, "tickets-2", "n4", "disk-latency", BREACH);
         h.at(2, "tickets-2", "n1", "heartbeat", SILENT);
@@ -64,7 +65,7 @@ class FleetSafetyGuardsTest {
     @Test
     void cooldownHoldsTheSameTargetUntilItEnds() {
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "standard", 3, null)), null,
-                replacePlaybook("0s", "cooldown: 6h, keep-in-sync: false"));
+                replacePlaybook("0s", "cooldown: 6h, keep-replicas: false"));
         h.at(0, "fares-3", "n2", "heartbeat", SILENT);
         h.settle();
         h.advance(Duration.ofMinutes(30));
@@ -77,7 +78,7 @@ class FleetSafetyGuardsTest {
     @Test
     void loopDeniesAfterTooManyRunsEscalatesOnceAndWaitsForAPerson() {
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "standard", 3, null)), null,
-                replacePlaybook("0s", "cooldown: 1m, loop: 2/24h, keep-in-sync: false"));
+                replacePlaybook("0s", "cooldown: 1m, loop: 2/24h, keep-replicas: false"));
         for (int i = 0; i < 3; i++) {
             h.send(new Input.Transition(dev.tend.shared.HealthTransition.of(h.now, "fares-3", "n2", "heartbeat", SILENT)));
             h.settle();
@@ -94,7 +95,7 @@ class FleetSafetyGuardsTest {
     @Test
     void flappingSignalIsHeldAndPagesOnce() {
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "standard", 3, null)), null,
-                replacePlaybook("0s", "flapping: 3/10m, keep-in-sync: false").replace("confirm-for: 0s", "confirm-for: 1m"));
+                replacePlaybook("0s", "flapping: 3/10m, keep-replicas: false").replace("confirm-for: 0s", "confirm-for: 1m"));
         for (int i = 0; i < 8; i++) h.at(i * 20L, "fares-3", "n2", "heartbeat", i % 2 == 0 ? SILENT : CLEAR);
         h.advance(Duration.ofMinutes(2));
         assertThat(h.ledger("run-started")).isEmpty();
@@ -105,8 +106,8 @@ class FleetSafetyGuardsTest {
 
     @Test
     void changeWindowHoldsUntilItOpens() {
-        String pb = replacePlaybook("0s", "keep-in-sync: false")
-                .replace("steps:", "window: { allow: \"0 0 4 ? * *\", zone: UTC, length: 1h }\nsteps:");
+        String pb = replacePlaybook("0s", "keep-replicas: false")
+                .replace("steps:", "window: { from: \"04:00\", until: \"05:00\", zone: UTC }\nsteps:");
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "standard", 3, null)), null, pb);
         h.at(0, "fares-3", "n2", "heartbeat", SILENT);
         assertThat(h.verdicts("fares-3")).containsExactly("hold [window-closed]");

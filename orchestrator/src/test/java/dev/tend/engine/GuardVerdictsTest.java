@@ -20,7 +20,7 @@ class GuardVerdictsTest {
     private static final String RESTART = """
             playbook: restart-stopped-process
             version: 1
-            when: { signal: process-down, state: breach, scope: node }
+            trigger: { signal: process-down, state: breach, scope: node }
             unless:
               - { signal: storage-full, on: node }
               - { signal: key-revoked, on: cluster }
@@ -94,7 +94,7 @@ class GuardVerdictsTest {
     @Test
     void heldClusterBusyUntilTheRunningRunEnds() {
         String fleet = fleet(cluster("fares-3", "standard", 6, null));
-        EngineHarness h = new EngineHarness(fleet, null, replacePlaybook("0s", "impaired-fraction: 0.5, keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(fleet, null, replacePlaybook("0s", "impaired-fraction: 0.5, keep-replicas: false"));
         h.at(0, "fares-3", "n1", "heartbeat", SILENT);
         h.at(1, "fares-3", "n2", "heartbeat", SILENT);
         assertThat(h.verdicts("fares-3")).containsExactly("start []", "hold [cluster-busy]");

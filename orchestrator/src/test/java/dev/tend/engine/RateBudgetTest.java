@@ -21,7 +21,7 @@ class RateBudgetTest {
     void fleetWideBudgetGrantsExactlyItsPermitsPerPeriodThenHoldsUntilTheNextPeriod() {
         StringBuilder clusters = new StringBuilder();
         for (int i = 1; i <= 10; i++) clusters.append(cluster("fares-" + i, "standard", 3, null));
-        EngineHarness h = new EngineHarness(fleet(clusters.toString()), TEND, replacePlaybook("0s", "keep-in-sync: false"));
+        EngineHarness h = new EngineHarness(fleet(clusters.toString()), TEND, replacePlaybook("0s", "keep-replicas: false"));
         for (int i = 1; i <= 10; i++) h.at(i, "fares-" + i, "n1", "heartbeat", SILENT);
         assertThat(h.ledger("run-started")).hasSize(5);
         h.settle();

@@ -37,7 +37,7 @@ class StormTest {
         StringBuilder clusters = new StringBuilder();
         for (int i = 1; i <= CLUSTERS; i++) clusters.append(cluster("telemetry-" + i, "standard", 3, null));
         EngineHarness h = new EngineHarness(fleet(clusters.toString()), TEND,
-                replacePlaybook("5m", "keep-in-sync: false, cooldown: 1h"));
+                replacePlaybook("5m", "keep-replicas: false, cooldown: 1h"));
 
         // three ordinary failures before the storm: their runs are under way when it hits
         for (int i = 1; i <= 3; i++) h.at(i, "telemetry-" + i, "n1", "heartbeat", SILENT);

@@ -19,7 +19,7 @@ class HandoverDecisionsTest {
             playbook: rebalance-under-replicated
             version: 2
             mode: shadow
-            when: { signal: under-replicated, state: breach, scope: cluster, confirm-for: 0s }
+            trigger: { signal: under-replicated, state: breach, scope: cluster, confirm-for: 0s }
             steps:
               - { id: rebalance, action: restart-process, timeout: 5m }
             """;

@@ -52,22 +52,22 @@ final class NightShift implements AutoCloseable {
     static final String REPLACE = """
             playbook: replace-silent-node
             version: 1
-            when: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
-            approval: { when: { tier: [critical] }, expires-after: 2h }
+            trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
+            approval: { clusters: { tier: [critical] }, expires-after: 2h }
             steps:
               - { id: drain, action: drain-node, timeout: 10m }
               - { id: replace, action: replace-node, timeout: 30m }
             on-failure:
-              - { notify: oncall, message: "replacing {node} in {cluster} failed at {step}" }
+              - { page: oncall, message: "replacing {node} in {cluster} failed at {step}" }
             """;
     static final String RESTART = """
             playbook: restart-stopped-process
             version: 1
-            when: { signal: process-down, state: breach, scope: node, confirm-for: 0s }
+            trigger: { signal: process-down, state: breach, scope: node, confirm-for: 0s }
             steps:
               - { id: restart, action: restart-process, timeout: 5m }
             on-failure:
-              - { notify: oncall, message: "restarting on {node} in {cluster} failed at {step}" }
+              - { page: oncall, message: "restarting on {node} in {cluster} failed at {step}" }
             """;
 
     final Path db;

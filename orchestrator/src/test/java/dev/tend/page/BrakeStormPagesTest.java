@@ -93,7 +93,7 @@ class BrakeStormPagesTest {
         Files.writeString(pb.resolve("replace-silent-node.yaml"), """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
                 steps:
                   - { id: replace, action: replace-node, timeout: 40m }
                 """);

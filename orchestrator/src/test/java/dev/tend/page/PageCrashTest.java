@@ -98,7 +98,7 @@ class PageCrashTest {
         Files.writeString(policy.resolve("replace-silent-node.yaml"), """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: 5m }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 5m }
                 steps:
                   - { id: replace, action: replace-node, timeout: 10m }
                 """);

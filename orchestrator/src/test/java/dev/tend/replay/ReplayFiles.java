@@ -36,15 +36,15 @@ final class ReplayFiles {
             clusters:
               - id: tickets-12
                 tags: { tier: standard, team: ticketing }
-                replication: { factor: 3, min-in-sync: 2 }
+                replication: { factor: 3, min-healthy: 2 }
                 nodes: [{ id: n1, zone: z-c }, { id: n2, zone: z-a }, { id: n3, zone: z-b }]
               - id: tickets-13
                 tags: { tier: standard, team: ticketing }
-                replication: { factor: 3, min-in-sync: 2 }
+                replication: { factor: 3, min-healthy: 2 }
                 nodes: [{ id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c }]
               - id: fares-3
                 tags: { tier: critical, team: payments }
-                replication: { factor: 3, min-in-sync: 2 }
+                replication: { factor: 3, min-healthy: 2 }
                 nodes: [{ id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c }]
             """;
 
@@ -52,24 +52,24 @@ final class ReplayFiles {
         return """
                 playbook: replace-silent-node
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: %s }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: %s }
                 unless:
                   - { signal: storage-full, on: node }
                 limits: { cooldown: 6h }
-                approval: { when: { tier: [critical] }, expires-after: 30m }
+                approval: { clusters: { tier: [critical] }, expires-after: 30m }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                   - { id: replace, action: replace-node, timeout: 30m }
                   - { id: settle, wait-healthy: [heartbeat], within: 20m }
                 on-failure:
-                  - { notify: oncall, message: "replacing {node} in {cluster} failed at {step}" }
+                  - { page: oncall, message: "replacing {node} in {cluster} failed at {step}" }
                 """.formatted(confirmFor);
     }
 
     static final String RESTART = """
             playbook: restart-stopped-process
             version: 1
-            when: { signal: process-down, state: breach, scope: node, confirm-for: 2m }
+            trigger: { signal: process-down, state: breach, scope: node, confirm-for: 2m }
             unless:
               - { signal: storage-full, on: node }
             steps:

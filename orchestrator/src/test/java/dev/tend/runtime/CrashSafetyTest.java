@@ -171,8 +171,8 @@ class CrashSafetyTest {
             Files.writeString(policy.resolve("fix-" + signal + ".yaml"), """
                     playbook: fix-%1$s
                     version: 1
-                    when: { signal: %1$s, state: breach, scope: node }
-                    limits: { impaired-fraction: 1.0, keep-in-sync: false, keep-quorum: false }
+                    trigger: { signal: %1$s, state: breach, scope: node }
+                    limits: { impaired-fraction: 1.0, keep-replicas: false, keep-quorum: false }
                     steps:
                       - { id: first, action: fix-idempotent, timeout: 10m }
                       - { id: second, action: %2$s, timeout: 10m }

@@ -45,7 +45,7 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
             clusters:
               - id: fares-3
                 tags: { tier: critical, team: payments }
-                replication: { factor: 3, min-in-sync: 2 }
+                replication: { factor: 3, min-healthy: 2 }
                 nodes: [ { id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c } ]
               - id: dispatch-1
                 tags: { tier: standard, team: operations }
@@ -126,15 +126,15 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
             Files.writeString(pb.resolve("restart-critical.yaml"), """
                     playbook: restart-critical
                     version: 1
-                    when: { signal: process-down, state: breach, scope: node, confirm-for: 0s, clusters: { tier: [critical] } }
-                    approval: { when: { tier: [critical] }, expires-after: %s }
+                    trigger: { signal: process-down, state: breach, scope: node, confirm-for: 0s, clusters: { tier: [critical] } }
+                    approval: { clusters: { tier: [critical] }, expires-after: %s }
                     steps:
                       - { id: restart, action: restart-process, timeout: 5m }
                     """.formatted(seconds(approvalExpiry)));
             Files.writeString(pb.resolve("replace-standard.yaml"), """
                     playbook: replace-standard
                     version: 1
-                    when: { signal: heartbeat, state: silent, scope: node, confirm-for: %s, clusters: { tier: [standard] } }
+                    trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: %s, clusters: { tier: [standard] } }
                     steps:
                       - { id: replace, action: replace-node, timeout: %s }
                     """.formatted(seconds(confirmFor), seconds(stepTimeout)));

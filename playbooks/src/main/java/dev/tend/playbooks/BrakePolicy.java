@@ -6,16 +6,16 @@ import java.util.Objects;
 
 /**
  * The fleet brake: once {@code engageAt} is reached, all automatic starts stop and one
- * aggregated page goes to {@code notifyChannel} ({@code notify:} in tend.yaml). It is released by hand, or, with
+ * aggregated page goes to {@code pageChannel} ({@code page:} in tend.yaml). It is released by hand, or, with
  * {@code autoRelease}, once the count is below {@code releaseBelow}, which is lower than
  * {@code engageAt} in every measure it gives (hysteresis: the brake does not chatter).
  *
  * <p>The built-in policy ({@link #builtIn()}): engage at 20 clusters, release below 10,
- * release by hand only, notify {@code oncall}.
+ * release by hand only, page {@code oncall}.
  *
  * @param releaseBelow null only when {@code autoRelease} is false
  */
-public record BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id notifyChannel,
+public record BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id pageChannel,
                           java.time.Duration releaseAfter) {
     /** How long the fleet must stay below release-below before an automatic release, unless set. */
     public static final java.time.Duration DEFAULT_RELEASE_AFTER = java.time.Duration.ofMinutes(5);
@@ -23,15 +23,15 @@ public record BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, 
     private static final BrakePolicy BUILT_IN = new BrakePolicy(new BrakeThreshold(20, null), new BrakeThreshold(10, null),
             false, Id.of("oncall"));
 
-    public BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id notifyChannel) {
-        this(engageAt, releaseBelow, autoRelease, notifyChannel, DEFAULT_RELEASE_AFTER);
+    public BrakePolicy(BrakeThreshold engageAt, BrakeThreshold releaseBelow, boolean autoRelease, Id pageChannel) {
+        this(engageAt, releaseBelow, autoRelease, pageChannel, DEFAULT_RELEASE_AFTER);
     }
 
     public BrakePolicy {
         Objects.requireNonNull(engageAt, "brake.engage-at");
         Objects.requireNonNull(releaseAfter, "brake.release-after");
         if (releaseAfter.isNegative()) throw new IllegalArgumentException("brake.release-after must not be negative, got " + releaseAfter);
-        Objects.requireNonNull(notifyChannel, "brake.notify");
+        Objects.requireNonNull(pageChannel, "brake.page");
         if (autoRelease && releaseBelow == null) {
             throw new IllegalArgumentException("brake.auto-release needs brake.release-below: without it the brake would never know when to let go");
         }

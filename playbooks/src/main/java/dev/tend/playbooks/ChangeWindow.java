@@ -1,184 +1,149 @@
 package dev.tend.playbooks;
 
-import org.quartz.CronExpression;
-
-import java.text.ParseException;
-import java.time.Duration;
+import java.time.DayOfWeek;
 import java.time.Instant;
-import java.time.LocalDateTime;
+import java.time.LocalDate;
+import java.time.LocalTime;
 import java.time.ZoneId;
-import java.time.ZoneOffset;
-import java.time.zone.ZoneOffsetTransition;
-import java.time.zone.ZoneRules;
-import java.util.ArrayList;
-import java.util.Date;
+import java.time.ZonedDateTime;
+import java.util.Collections;
+import java.util.EnumSet;
 import java.util.List;
+import java.util.Locale;
 import java.util.Objects;
+import java.util.Set;
+import java.util.regex.Pattern;
+import java.util.stream.Collectors;
 
 /**
- * A change window: it opens each time the Quartz cron expression {@code cron} fires in
- * {@code zone}, and stays open for {@code length} of elapsed time. Openings that overlap
- * merge, so {@code "0 0 1 ? * MON-FRI"} with length 4h is open 01:00 to 05:00 local time on
- * weekdays, and {@code "0 0 1-5 ? * MON-FRI"} with length 4h is open 01:00 to 09:00.
+ * A change window: on each of {@code days} it opens at the wall-clock time {@code from} of
+ * {@code zone} and closes at {@code until}; an {@code until} at or before {@code from} closes
+ * on the next day (the window spans midnight, and belongs to the day it opens on). The
+ * opening is inclusive, the closing exclusive.
  *
- * <p>Daylight-saving changes follow java.time's tz database, and the cron expression is
- * matched against local wall-clock time. A local opening time that falls into a gap (the
- * hour skipped in spring) opens the window at the instant {@code ZonedDateTime.of} gives,
- * moved forward by the length of the gap, so no day loses its window; a local opening time
- * that occurs twice (the hour repeated in autumn) opens it at both instants. Because
- * {@code length} is elapsed time, on the night of a change the window's wall-clock end
- * moves by the hour the clocks moved. Quartz's own zone handling is not used for the
- * mapping to instants, because it skips fire times in a gap and misses some in an overlap.
+ * <p>Wall-clock times become instants through java.time's zone rules, as
+ * {@link ZonedDateTime#of} maps them: a time in the hour skipped in spring moves forward by
+ * the length of the gap, and a time in the hour repeated in autumn is taken at its first
+ * occurrence. So on the nights the clocks change the window still opens and closes at the
+ * written times on the clock, and lasts an hour less or more. When that shift carries the
+ * opening past the closing (from 02:30 until 03:00 on a night 02:00 becomes 03:00), the window
+ * does not open that day.
  *
  * <p>Immutable and thread-safe.
+ *
+ * @param days  the days of the week it opens on; not empty
+ * @param from  the wall-clock time it opens
+ * @param until the wall-clock time it closes; not equal to {@code from}
+ * @param zone  the time zone of {@code from} and {@code until}
  */
-public final class ChangeWindow {
-    private final String cron;
-    private final ZoneId zone;
-    private final Duration length;
-    private final CronExpression expression;
-    private final ZoneRules rules;
+public record ChangeWindow(Set<DayOfWeek> days, LocalTime from, LocalTime until, ZoneId zone) {
+    private static final Pattern CLOCK = Pattern.compile("([01][0-9]|2[0-3]):[0-5][0-9]");
+    private static final List<String> DAY_NAMES = List.of("mon", "tue", "wed", "thu", "fri", "sat", "sun");
+    /** Far enough to pass any run of days whose windows lie in a skipped hour. */
+    private static final int DAYS_AHEAD = 15;
 
-    private ChangeWindow(String cron, ZoneId zone, Duration length, CronExpression expression) {
-        this.cron = cron;
-        this.zone = zone;
-        this.length = length;
-        this.expression = expression;
-        this.rules = zone.getRules();
-    }
-
-    /**
-     * Validates and builds a window. Throws {@link IllegalArgumentException} when Quartz
-     * rejects the expression (its reason included) or the length is not longer than zero.
-     */
-    public static ChangeWindow of(String cron, ZoneId zone, Duration length) {
-        Objects.requireNonNull(cron, "window.allow");
+    public ChangeWindow {
+        Objects.requireNonNull(days, "window.days");
+        Objects.requireNonNull(from, "window.from");
+        Objects.requireNonNull(until, "window.until");
         Objects.requireNonNull(zone, "window.zone");
-        Objects.requireNonNull(length, "window.length");
-        if (length.isNegative() || length.isZero()) {
-            throw new IllegalArgumentException("window.length must be longer than zero, got " + length);
+        if (days.isEmpty()) throw new IllegalArgumentException("window.days must name at least one day");
+        if (from.equals(until)) {
+            throw new IllegalArgumentException("window.until must differ from window.from (" + clock(from) + "): a window"
+                    + " needs a length; an until before from spans midnight");
         }
-        return new ChangeWindow(cron, zone, length, parseCron(cron));
+        days = Collections.unmodifiableSet(EnumSet.copyOf(days));
+    }
+
+    /** Every day of the week. */
+    public static Set<DayOfWeek> everyDay() {
+        return EnumSet.allOf(DayOfWeek.class);
     }
 
     /**
-     * Checks that Quartz accepts {@code cron}; throws {@link IllegalArgumentException} with
-     * Quartz's reason and a reminder of the field order otherwise.
+     * A day name ({@code mon} ... {@code sun}) or a range of them ({@code mon-fri}; a range
+     * may wrap past Sunday, {@code fri-mon}). Throws {@link IllegalArgumentException} naming
+     * the accepted forms otherwise.
      */
-    public static void validateCron(String cron) {
-        parseCron(cron);
-    }
-
-    private static CronExpression parseCron(String cron) {
-        CronExpression e;
-        try {
-            e = new CronExpression(cron);
-        } catch (ParseException ex) {
-            String fields = cron.strip().split("\\s+").length == 5
-                    ? " (a Quartz cron has 6 or 7 fields: seconds minutes hours day-of-month month day-of-week [year]; this one has 5)"
-                    : " (fields: seconds minutes hours day-of-month month day-of-week [year])";
-            throw new IllegalArgumentException("Quartz rejects the cron expression '" + cron + "': " + ex.getMessage() + fields);
-        }
-        // local wall-clock time is matched as if it were UTC, which has no daylight saving
-        e.setTimeZone(java.util.TimeZone.getTimeZone(ZoneOffset.UTC));
-        return e;
-    }
-
-    public String cron() {
-        return cron;
-    }
-
-    public ZoneId zone() {
-        return zone;
-    }
-
-    public Duration length() {
-        return length;
-    }
-
-    /** True when an opening happened in {@code (t - length, t]}: open at an opening, closed at its end. */
-    public boolean isOpen(Instant t) {
-        Instant opening = nextFireAfter(t.minus(length));
-        return opening != null && !opening.isAfter(t);
-    }
-
-    /** {@code t} itself when the window is open at {@code t}, else the next opening; null if it never opens again. */
-    public Instant nextOpening(Instant t) {
-        return isOpen(t) ? t : nextFireAfter(t);
-    }
-
-    /**
-     * The first opening strictly after {@code t}, or null. Local fire times are scanned in
-     * order; near a clock change the mapping from local time to instants is not monotonic,
-     * so the scan starts and ends a clock change's width around {@code t} and the best result.
-     */
-    Instant nextFireAfter(Instant t) {
-        LocalDateTime local = nextLocalAtOrAfter(LocalDateTime.ofInstant(t, zone).minus(slackAround(t)));
-        Instant best = null;
-        LocalDateTime stopAfter = null;
-        while (local != null) {
-            if (stopAfter != null && local.isAfter(stopAfter)) break;
-            for (Instant i : instantsOf(local)) {
-                if (i.isAfter(t) && (best == null || i.isBefore(best))) {
-                    best = i;
-                    stopAfter = LocalDateTime.ofInstant(best, zone).plus(slackAround(best));
-                }
-            }
-            local = nextLocalAfter(local);
-        }
-        return best;
-    }
-
-    private List<Instant> instantsOf(LocalDateTime local) {
-        List<ZoneOffset> offsets = rules.getValidOffsets(local);
-        List<Instant> out = new ArrayList<>(2);
-        if (offsets.isEmpty()) {
-            // a gap: as ZonedDateTime.of does, keep the offset from before the change
-            ZoneOffsetTransition gap = rules.getTransition(local);
-            out.add(local.toInstant(gap.getOffsetBefore()));
-        } else {
-            for (ZoneOffset o : offsets) out.add(local.toInstant(o));
+    public static Set<DayOfWeek> parseDays(String text) {
+        String t = text.strip().toLowerCase(Locale.ROOT);
+        int dash = t.indexOf('-');
+        if (dash < 0) return EnumSet.of(day(t, text));
+        DayOfWeek first = day(t.substring(0, dash), text);
+        DayOfWeek last = day(t.substring(dash + 1), text);
+        Set<DayOfWeek> out = EnumSet.of(first);
+        for (DayOfWeek d = first; d != last; ) {
+            d = d.plus(1);
+            out.add(d);
         }
         return out;
     }
 
-    /** The largest clock change within a day of {@code t}; zero far from any change. */
-    private Duration slackAround(Instant t) {
-        Duration slack = Duration.ZERO;
-        Instant until = t.plus(Duration.ofDays(1));
-        ZoneOffsetTransition tr = rules.nextTransition(t.minus(Duration.ofDays(1)));
-        while (tr != null && !tr.getInstant().isAfter(until)) {
-            Duration d = tr.getDuration().abs();
-            if (d.compareTo(slack) > 0) slack = d;
-            tr = rules.nextTransition(tr.getInstant());
+    private static DayOfWeek day(String name, String text) {
+        int i = DAY_NAMES.indexOf(name.strip());
+        if (i < 0) {
+            throw new IllegalArgumentException("'" + text + "' is not a day or a range of days; write mon, tue, wed, thu, fri,"
+                    + " sat or sun, or a range such as mon-fri");
         }
-        return slack;
+        return DayOfWeek.of(i + 1);
     }
 
-    private LocalDateTime nextLocalAtOrAfter(LocalDateTime local) {
-        return nextLocalAfter(local.minusSeconds(1).withNano(0));
-    }
-
-    private LocalDateTime nextLocalAfter(LocalDateTime local) {
-        Date next;
-        synchronized (expression) { // Quartz does not promise that a CronExpression may be shared between threads
-            next = expression.getNextValidTimeAfter(Date.from(local.toInstant(ZoneOffset.UTC)));
+    /** A wall-clock time written {@code HH:MM} (24-hour clock, {@code 00:00} to {@code 23:59}). */
+    public static LocalTime parseClock(String text) {
+        String t = text.strip();
+        if (!CLOCK.matcher(t).matches()) {
+            throw new IllegalArgumentException("a wall-clock time looks like \"01:00\" or \"23:30\" (HH:MM, 24-hour clock),"
+                    + " got '" + text + "'");
         }
-        return next == null ? null : LocalDateTime.ofInstant(next.toInstant(), ZoneOffset.UTC);
+        return LocalTime.parse(t);
     }
 
-    @Override
-    public boolean equals(Object o) {
-        return o instanceof ChangeWindow w && w.cron.equals(cron) && w.zone.equals(zone) && w.length.equals(length);
+    /** True when {@code until} is at or before {@code from}: the window closes on the day after it opens. */
+    public boolean spansMidnight() {
+        return !until.isAfter(from);
     }
 
-    @Override
-    public int hashCode() {
-        return Objects.hash(cron, zone, length);
+    /** True when {@code t} lies in an opening: at or after its start, before its end. */
+    public boolean isOpen(Instant t) {
+        LocalDate today = LocalDate.ofInstant(t, zone);
+        for (LocalDate d = today.minusDays(1); !d.isAfter(today); d = d.plusDays(1)) {
+            if (!days.contains(d.getDayOfWeek())) continue;
+            Instant open = opening(d);
+            if (!t.isBefore(open) && t.isBefore(closing(d))) return true;
+        }
+        return false;
     }
 
+    /** {@code t} itself when the window is open at {@code t}, else the start of the next opening; null if none follows soon. */
+    public Instant nextOpening(Instant t) {
+        if (isOpen(t)) return t;
+        LocalDate today = LocalDate.ofInstant(t, zone);
+        for (LocalDate d = today; d.isBefore(today.plusDays(DAYS_AHEAD)); d = d.plusDays(1)) {
+            if (!days.contains(d.getDayOfWeek())) continue;
+            Instant open = opening(d);
+            if (open.isAfter(t) && open.isBefore(closing(d))) return open;
+        }
+        return null;
+    }
+
+    /** The instant the opening of {@code day} starts (that day's {@code from} in the zone). */
+    public Instant opening(LocalDate day) {
+        return ZonedDateTime.of(day, from, zone).toInstant();
+    }
+
+    /** The instant the opening of {@code day} ends (its {@code until}, on the next day when it spans midnight). */
+    public Instant closing(LocalDate day) {
+        return ZonedDateTime.of(spansMidnight() ? day.plusDays(1) : day, until, zone).toInstant();
+    }
+
+    private static String clock(LocalTime t) {
+        return String.format(Locale.ROOT, "%02d:%02d", t.getHour(), t.getMinute());
+    }
+
+    /** As written in a playbook: {@code {days: [mon, tue], from: "01:00", until: "05:00", zone: Europe/Berlin}}. */
     @Override
     public String toString() {
-        return "{allow: \"" + cron + "\", zone: " + zone + ", length: " + dev.tend.shared.time.Durations.format(length) + "}";
+        String names = days.stream().map(d -> DAY_NAMES.get(d.getValue() - 1)).collect(Collectors.joining(", "));
+        return "{days: [" + names + "], from: \"" + clock(from) + "\", until: \"" + clock(until) + "\", zone: " + zone + "}";
     }
 }

@@ -10,10 +10,10 @@ import java.util.Objects;
  *
  * <p>The built-in defaults ({@link #builtIn()}): per-cluster 1, fleet 10, per-zone 5,
  * rate 20/1h, cooldown 1h, loop 3/24h, impaired-fraction 0.34 (one node of three),
- * keep-quorum true, keep-in-sync true, flapping 6/15m.
+ * keep-quorum true, keep-replicas true, flapping 6/15m.
  */
 public record EffectiveLimits(int perCluster, int fleet, int perZone, RateLimit rate, Duration cooldown,
-                              LoopLimit loop, double impairedFraction, boolean keepQuorum, boolean keepInSync,
+                              LoopLimit loop, double impairedFraction, boolean keepQuorum, boolean keepReplicas,
                               FlapLimit flapping) {
     private static final EffectiveLimits BUILT_IN = new EffectiveLimits(1, 10, 5, new RateLimit(20, Duration.ofHours(1)),
             Duration.ofHours(1), new LoopLimit(3, Duration.ofHours(24)), 0.34, true, true,
@@ -21,7 +21,7 @@ public record EffectiveLimits(int perCluster, int fleet, int perZone, RateLimit 
 
     public EffectiveLimits {
         // the same rules as Limits, which checks the nullable form
-        new Limits(perCluster, fleet, perZone, rate, cooldown, loop, impairedFraction, keepQuorum, keepInSync, flapping);
+        new Limits(perCluster, fleet, perZone, rate, cooldown, loop, impairedFraction, keepQuorum, keepReplicas, flapping);
         Objects.requireNonNull(rate, "limits.rate");
         Objects.requireNonNull(cooldown, "limits.cooldown");
         Objects.requireNonNull(loop, "limits.loop");
@@ -45,7 +45,7 @@ public record EffectiveLimits(int perCluster, int fleet, int perZone, RateLimit 
                 o.loop() != null ? o.loop() : loop,
                 o.impairedFraction() != null ? o.impairedFraction() : impairedFraction,
                 o.keepQuorum() != null ? o.keepQuorum() : keepQuorum,
-                o.keepInSync() != null ? o.keepInSync() : keepInSync,
+                o.keepReplicas() != null ? o.keepReplicas() : keepReplicas,
                 o.flapping() != null ? o.flapping() : flapping);
     }
 

@@ -16,11 +16,11 @@ import java.time.Duration;
  * @param impairedFraction the largest share of a cluster's nodes that may be impaired
  *                         (unhealthy or under remediation) at once; more than 0, at most 1
  * @param keepQuorum       hold a run that would cost a majority-quorum ensemble its majority
- * @param keepInSync       hold a run that would take a partition below its min-in-sync replicas
+ * @param keepReplicas     hold a run that would leave some data with fewer than min-healthy healthy copies
  * @param flapping         above this many state changes in the period a signal is flapping
  */
 public record Limits(Integer perCluster, Integer fleet, Integer perZone, RateLimit rate, Duration cooldown,
-                     LoopLimit loop, Double impairedFraction, Boolean keepQuorum, Boolean keepInSync,
+                     LoopLimit loop, Double impairedFraction, Boolean keepQuorum, Boolean keepReplicas,
                      FlapLimit flapping) {
     private static final Limits NONE = new Limits(null, null, null, null, null, null, null, null, null, null);
 
@@ -59,7 +59,7 @@ public record Limits(Integer perCluster, Integer fleet, Integer perZone, RateLim
         private LoopLimit loop;
         private Double impairedFraction;
         private Boolean keepQuorum;
-        private Boolean keepInSync;
+        private Boolean keepReplicas;
         private FlapLimit flapping;
 
         private Builder() {
@@ -81,13 +81,13 @@ public record Limits(Integer perCluster, Integer fleet, Integer perZone, RateLim
 
         public Builder keepQuorum(Boolean v) { keepQuorum = v; return this; }
 
-        public Builder keepInSync(Boolean v) { keepInSync = v; return this; }
+        public Builder keepReplicas(Boolean v) { keepReplicas = v; return this; }
 
         public Builder flapping(FlapLimit v) { flapping = v; return this; }
 
         /** Validates as the record constructor does. */
         public Limits build() {
-            return new Limits(perCluster, fleet, perZone, rate, cooldown, loop, impairedFraction, keepQuorum, keepInSync, flapping);
+            return new Limits(perCluster, fleet, perZone, rate, cooldown, loop, impairedFraction, keepQuorum, keepReplicas, flapping);
         }
     }
 }

@@ -31,11 +31,11 @@ import java.util.TreeMap;
  * @param contentHash SHA-256 hex of the file's bytes
  * @param line        line of the {@code playbook:} key, for messages
  * @param column      column of the {@code playbook:} key
- * @param positions   where parts were written, by path ({@code when}, {@code when.clusters},
+ * @param positions   where parts were written, by path ({@code trigger}, {@code trigger.clusters},
  *                    {@code limits.impaired-fraction}, {@code window}, {@code steps.<id>},
  *                    {@code on-failure.<id>}); see {@link #position(String)}
  */
-public record Playbook(Id id, int version, String description, Mode mode, Trigger when, List<MaskRule> unless,
+public record Playbook(Id id, int version, String description, Mode mode, Trigger trigger, List<MaskRule> unless,
                        Limits limits, ChangeWindow window, ApprovalPolicy approval, List<Step> steps,
                        List<Step> onFailure, String source, String contentHash, int line, int column,
                        Map<String, Position> positions) {
@@ -44,7 +44,7 @@ public record Playbook(Id id, int version, String description, Mode mode, Trigge
         if (version < 1) throw new IllegalArgumentException("playbook " + id + " version must be at least 1, got " + version);
         description = description == null ? "" : description;
         Objects.requireNonNull(mode, "mode");
-        Objects.requireNonNull(when, "when");
+        Objects.requireNonNull(trigger, "trigger");
         unless = List.copyOf(unless);
         limits = limits == null ? Limits.none() : limits;
         steps = List.copyOf(steps);
@@ -62,9 +62,9 @@ public record Playbook(Id id, int version, String description, Mode mode, Trigge
         return mode == Mode.SHADOW;
     }
 
-    /** True when {@code t} on a cluster with {@code clusterTags} satisfies {@link #when()}. */
+    /** True when {@code t} on a cluster with {@code clusterTags} satisfies {@link #trigger()}. */
     public boolean matches(HealthTransition t, Map<String, String> clusterTags) {
-        return when.matches(t, clusterTags);
+        return trigger.matches(t, clusterTags);
     }
 
     /** The step (of steps or on-failure) with this id. */

@@ -12,12 +12,12 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 
 /**
- * Text with {@code {name}} placeholders, such as a notify message or one argument of a
+ * Text with {@code {name}} placeholders, such as a page message or one argument of a
  * command. Only a brace pair around a word is a placeholder; other braces are literal.
  * Immutable.
  */
 public record Template(String text) {
-    /** Placeholders a notify message may use. */
+    /** Placeholders a page message may use. */
     public static final Set<String> MESSAGE_PLACEHOLDERS = Set.of("cluster", "node", "run", "step", "playbook");
     /** Placeholders a channel's webhook body, command argument or mail subject may use: the page's fields. */
     public static final Set<String> PAGE_PLACEHOLDERS = Set.of("id", "channel", "at", "kind", "cluster", "node", "run",

@@ -9,7 +9,7 @@ import java.util.Map;
 import java.util.Objects;
 
 /**
- * A playbook's {@code when}: the transitions it reacts to.
+ * A playbook's {@code trigger}: the transitions it reacts to.
  *
  * @param signal     the signal, not null
  * @param state      {@code breach} or {@code silent}; a playbook reacts to a problem, and
@@ -21,14 +21,14 @@ import java.util.Objects;
  */
 public record Trigger(Id signal, SignalState state, Scope scope, Duration confirmFor, TagSelector clusters) {
     public Trigger {
-        Objects.requireNonNull(signal, "when.signal");
-        Objects.requireNonNull(state, "when.state");
-        Objects.requireNonNull(scope, "when.scope");
+        Objects.requireNonNull(signal, "trigger.signal");
+        Objects.requireNonNull(state, "trigger.state");
+        Objects.requireNonNull(scope, "trigger.scope");
         if (state == SignalState.CLEAR) {
-            throw new IllegalArgumentException("when.state must be breach or silent: a playbook reacts to a problem, and clear ends one");
+            throw new IllegalArgumentException("trigger.state must be breach or silent: a playbook reacts to a problem, and clear ends one");
         }
         confirmFor = confirmFor == null ? Duration.ZERO : confirmFor;
-        if (confirmFor.isNegative()) throw new IllegalArgumentException("when.confirm-for must not be negative, got " + confirmFor);
+        if (confirmFor.isNegative()) throw new IllegalArgumentException("trigger.confirm-for must not be negative, got " + confirmFor);
         clusters = clusters == null ? TagSelector.all() : clusters;
     }
 

@@ -37,7 +37,7 @@ class PlaybookSetMatchTest {
 
     private static String playbook(String id, String signal, String state, String scope, String clusters) {
         return "playbook: " + id + "\n"
-                + "when: { signal: " + signal + ", state: " + state + ", scope: " + scope + ", clusters: " + clusters + " }\n"
+                + "trigger: { signal: " + signal + ", state: " + state + ", scope: " + scope + ", clusters: " + clusters + " }\n"
                 + "steps:\n  - { id: drain, action: drain-node, timeout: 1m }\n";
     }
 

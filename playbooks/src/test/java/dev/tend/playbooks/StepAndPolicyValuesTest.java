@@ -37,7 +37,7 @@ class StepAndPolicyValuesTest {
 
     @Test
     void notifyMessageMayUseOnlyMessagePlaceholders() {
-        assertThatThrownBy(() -> new NotifyStep(STEP, Id.of("oncall"), new Template("{key}")))
+        assertThatThrownBy(() -> new PageStep(STEP, Id.of("oncall"), new Template("{key}")))
                 .isInstanceOf(IllegalArgumentException.class).hasMessage("step drain message uses unknown placeholder {key}");
     }
 
@@ -45,9 +45,9 @@ class StepAndPolicyValuesTest {
     void triggerRejectsClearAndNegativeConfirmation() {
         assertThatThrownBy(() -> Trigger.of("heartbeat", SignalState.CLEAR, Scope.NODE))
                 .isInstanceOf(IllegalArgumentException.class)
-                .hasMessage("when.state must be breach or silent: a playbook reacts to a problem, and clear ends one");
+                .hasMessage("trigger.state must be breach or silent: a playbook reacts to a problem, and clear ends one");
         assertThatThrownBy(() -> new Trigger(Id.of("heartbeat"), SignalState.SILENT, Scope.NODE, Duration.ofSeconds(-1), null))
-                .isInstanceOf(IllegalArgumentException.class).hasMessage("when.confirm-for must not be negative, got PT-1S");
+                .isInstanceOf(IllegalArgumentException.class).hasMessage("trigger.confirm-for must not be negative, got PT-1S");
     }
 
     @Test
@@ -105,9 +105,9 @@ class StepAndPolicyValuesTest {
     void playbookPositionFallsBackToWhereThePlaybookStarts() {
         Playbook p = new Playbook(Id.of("p"), 1, null, Mode.LIVE, Trigger.of("heartbeat", SignalState.SILENT, Scope.NODE), List.of(),
                 null, null, null, List.of(new ActionStep(STEP, Id.of("drain-node"), null, 0)), List.of(), "p.yaml", "00", 1, 11,
-                Map.of("when", new Position(2, 1)));
+                Map.of("trigger", new Position(2, 1)));
 
-        assertThat(p.position("when")).isEqualTo(new Position(2, 1));
+        assertThat(p.position("trigger")).isEqualTo(new Position(2, 1));
         assertThat(p.position("window")).isEqualTo(new Position(1, 11));
         assertThat(p.step(STEP)).isPresent();
     }

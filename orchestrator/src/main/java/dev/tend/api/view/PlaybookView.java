@@ -16,7 +16,7 @@ public record PlaybookView(String playbook, int version, String description, Str
     /**
      * One step as written.
      *
-     * @param kind   action, wait-healthy or notify
+     * @param kind   action, wait-healthy or page
      * @param detail the action's name, the signals waited for, or the channel notified
      */
     public record PlannedStep(String step, String kind, String detail) {

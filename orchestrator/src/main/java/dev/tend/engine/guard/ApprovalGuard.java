@@ -17,7 +17,7 @@ public final class ApprovalGuard implements Guard {
         if (c.approved() || c.playbook().approval() == null) return Optional.empty();
         var spec = ctx.health().topology().cluster(c.target().cluster());
         var tags = spec.map(s -> s.tags()).orElse(java.util.Map.of());
-        if (!c.playbook().approval().when().matches(tags)) return Optional.empty();
+        if (!c.playbook().approval().clusters().matches(tags)) return Optional.empty();
         return Optional.of(Objection.on(code(), Wake.HUMAN, "policy asks a person to approve " + c.playbook().id()
                 + " on " + c.target()));
     }

@@ -8,9 +8,11 @@ import dev.tend.shared.fleet.Replication;
 import java.util.Optional;
 
 /**
- * Holds when some partition could fall below its minimum in-sync replicas: with factor RF
- * and minimum m, at most RF - m replicas of one partition may be impaired. Without
- * partition placement, the worst case is assumed: any RF nodes may share a partition.
+ * Holds when some piece of data could fall below {@code min-healthy} healthy copies: with
+ * {@code factor} copies of which at least {@code min-healthy} must stay healthy, at most
+ * {@code factor - min-healthy} copies may be impaired at once. Without knowing where the
+ * copies are placed, the worst case is assumed: any {@code factor} nodes may hold copies of
+ * the same piece.
  */
 public final class ReplicationGuard implements Guard {
     @Override
@@ -20,14 +22,14 @@ public final class ReplicationGuard implements Guard {
 
     @Override
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
-        if (!ctx.limits(c.playbook()).keepInSync()) return Optional.empty();
+        if (!ctx.limits(c.playbook()).keepReplicas()) return Optional.empty();
         ClusterSpec spec = ctx.health().topology().cluster(c.target().cluster()).orElse(null);
         if (spec == null || spec.replication() == null) return Optional.empty();
         Replication r = spec.replication();
         int impaired = Impairment.ifStarted(c, ctx);
         if (impaired <= r.tolerableImpaired()) return Optional.empty();
         return Optional.of(Objection.on(code(), Wake.CLUSTER, impaired + " nodes of " + spec.id()
-                + " would be impaired; with replication factor " + r.factor() + " and min-in-sync " + r.minInSync()
-                + " a partition tolerates " + r.tolerableImpaired()));
+                + " would be impaired; with " + r.factor() + " copies of each piece of data, of which " + r.minHealthy()
+                + " must stay healthy, at most " + r.tolerableImpaired() + " may be impaired at once"));
     }
 }

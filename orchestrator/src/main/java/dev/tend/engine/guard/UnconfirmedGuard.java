@@ -17,7 +17,7 @@ public final class UnconfirmedGuard implements Guard {
 
     @Override
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
-        Duration need = c.playbook().when().confirmFor();
+        Duration need = c.playbook().trigger().confirmFor();
         if (need == null || need.isZero()) return Optional.empty();
         Instant confirmedAt = c.problemSince().plus(need);
         if (!ctx.eventTime().isBefore(confirmedAt)) return Optional.empty();

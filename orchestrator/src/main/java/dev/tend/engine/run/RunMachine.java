@@ -6,7 +6,7 @@ import dev.tend.engine.PageKind;
 import dev.tend.engine.RunState;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Step;
 import dev.tend.playbooks.Template;
 import dev.tend.playbooks.WaitHealthyStep;
@@ -20,7 +20,7 @@ import java.util.Map;
 
 /**
  * Moves runs through their steps: action (an executor call with a timeout and retries),
- * wait-healthy (continue once the signals clear on the target, within a limit), notify;
+ * wait-healthy (continue once the signals clear on the target, within a limit), page;
  * the on-failure steps when a step fails or times out. Pauses at step boundaries while the
  * fleet brake is engaged. Deterministic: timers and calls are effects with stable keys.
  */
@@ -51,7 +51,7 @@ public final class RunMachine {
         advance(r, fx);
     }
 
-    /** Moves to the next step, executing notify and already-satisfied waits inline. */
+    /** Moves to the next step, executing pages and already-satisfied waits inline. */
     public void advance(RunProcess r, Effects fx) {
         while (true) {
             if (host.isBrakeEngaged() && !r.failing && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
@@ -71,7 +71,7 @@ public final class RunMachine {
             }
             r.stepStartedAt = fx.now();
             Step s = list.get(r.index);
-            if (s instanceof NotifyStep n) {
+            if (s instanceof PageStep n) {
                 String msg = render(n.message(), r);
                 fx.add(new Effect.Notify(r.id + "/" + n.id(), PageKind.PLAYBOOK, n.channel().value(), msg,
                         pageFields(r)));

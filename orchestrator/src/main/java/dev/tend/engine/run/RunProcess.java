@@ -4,7 +4,7 @@ import dev.tend.engine.RunSnapshot;
 import dev.tend.engine.RunState;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Step;
 import dev.tend.shared.Target;
@@ -93,7 +93,7 @@ public final class RunProcess {
 
     void recordStep(String state, String outcome, Instant at) {
         Step s = currentStep();
-        String kind = s instanceof ActionStep ? "action" : s instanceof NotifyStep ? "notify" : "wait-healthy";
+        String kind = s.kind();
         StepSnapshot snap = new StepSnapshot(s.id().value(), record.size() + 1, kind, state, attempt,
                 stepStartedAt, state.equals("running") ? null : at, outcome);
         if (!record.isEmpty() && record.get(record.size() - 1).stepId().equals(snap.stepId())

@@ -19,11 +19,11 @@ final class FleetCheck {
     }
 
     static void check(PlaybookSet set, Playbook p, Fleet fleet, List<Finding> out) {
-        TagSelector selector = p.when().clusters();
+        TagSelector selector = p.trigger().clusters();
         List<ClusterSpec> matched = new ArrayList<>();
         for (ClusterSpec c : fleet.clusters()) if (selector.matches(c.tags())) matched.add(c);
         if (matched.isEmpty()) {
-            out.add(Lint.finding(Severity.WARNING, Lint.UNMATCHED, p, p.position("when.clusters"), "the cluster selector " + selector
+            out.add(Lint.finding(Severity.WARNING, Lint.UNMATCHED, p, p.position("trigger.clusters"), "the cluster selector " + selector
                     + " matches none of the " + fleet.size() + " clusters of fleet " + fleet.name() + hint(selector, fleet)));
             return;
         }
@@ -31,8 +31,8 @@ final class FleetCheck {
     }
 
     /**
-     * A majority quorum of n nodes tolerates floor((n-1)/2) impaired; a replicated log with
-     * factor RF and min-in-sync m tolerates RF-m (any RF nodes may share a partition).
+     * A majority quorum of n nodes tolerates floor((n-1)/2) impaired; data kept in RF copies of
+     * which m must stay healthy tolerates RF-m (any RF nodes may hold copies of the same piece).
      */
     private static void unsafe(EffectiveLimits limits, Playbook p, List<ClusterSpec> clusters, List<Finding> out) {
         ClusterSpec worst = null;
@@ -68,7 +68,7 @@ final class FleetCheck {
         if (c.replication() == null || quorum <= c.replication().tolerableImpaired()) {
             return "a majority quorum of " + c.size() + " tolerates " + quorum;
         }
-        return "replication factor " + c.replication().factor() + " with min-in-sync " + c.replication().minInSync()
+        return "replication factor " + c.replication().factor() + " with min-healthy " + c.replication().minHealthy()
                 + " tolerates " + c.replication().tolerableImpaired();
     }
 

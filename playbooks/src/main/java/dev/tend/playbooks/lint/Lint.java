@@ -2,7 +2,6 @@ package dev.tend.playbooks.lint;
 
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.ChangeWindow;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.Position;
@@ -10,7 +9,6 @@ import dev.tend.playbooks.Step;
 import dev.tend.shared.Id;
 import dev.tend.shared.fleet.Fleet;
 
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -31,8 +29,6 @@ import java.util.TreeSet;
  *   <li>{@code unsafe-limits} (fleet only): impaired-fraction lets more nodes of a cluster be
  *       impaired than its quorum or replication bears; one finding per playbook.</li>
  *   <li>{@code unmatched} (fleet only, warning): the cluster selector matches no cluster.</li>
- *   <li>{@code window-never-opens}: the change window's cron expression never fires after the
- *       reference time.</li>
  * </ul>
  * Findings are sorted by file, line, column, code, playbook and message. Stateless.
  */
@@ -42,28 +38,17 @@ public final class Lint {
     public static final String NO_EXECUTOR = "no-executor";
     public static final String UNSAFE_LIMITS = "unsafe-limits";
     public static final String UNMATCHED = "unmatched";
-    public static final String WINDOW_NEVER_OPENS = "window-never-opens";
 
     private Lint() {
     }
 
-    /**
-     * Checks {@code set}; {@code fleetOrNull} enables the fleet checks. Windows are checked
-     * for ever opening at all (a calendar that does not exist, such as 30 February).
-     */
+    /** Checks {@code set}; {@code fleetOrNull} enables the fleet checks. */
     public static List<Finding> check(PlaybookSet set, Fleet fleetOrNull, Set<String> executorKinds) {
-        return check(set, fleetOrNull, executorKinds, Instant.EPOCH);
-    }
-
-    /** As {@link #check(PlaybookSet, Fleet, Set)}, and a window must open again after {@code asOf}. */
-    public static List<Finding> check(PlaybookSet set, Fleet fleetOrNull, Set<String> executorKinds, Instant asOf) {
         Objects.requireNonNull(set, "set");
         Objects.requireNonNull(executorKinds, "executorKinds");
-        Objects.requireNonNull(asOf, "asOf");
         List<Finding> out = new ArrayList<>(OverlapCheck.check(set.playbooks(), fleetOrNull));
         for (Playbook p : set.playbooks()) {
             steps(set, p, executorKinds, out);
-            window(p, asOf, out);
             if (fleetOrNull != null) FleetCheck.check(set, p, fleetOrNull, out);
         }
         out.sort(null);
@@ -91,13 +76,5 @@ public final class Lint {
                         + (kinds.isEmpty() ? "" : "; the configured executors are: " + String.join(", ", new TreeSet<>(kinds)))));
             }
         }
-    }
-
-    private static void window(Playbook p, Instant asOf, List<Finding> out) {
-        ChangeWindow w = p.window();
-        if (w == null || w.nextOpening(asOf) != null) return;
-        String after = asOf.equals(Instant.EPOCH) ? "" : " after " + asOf;
-        out.add(finding(Severity.ERROR, WINDOW_NEVER_OPENS, p, p.position("window"), "the change window \"" + w.cron()
-                + "\" in " + w.zone() + " never opens" + after + ", so this playbook can never start a run"));
     }
 }

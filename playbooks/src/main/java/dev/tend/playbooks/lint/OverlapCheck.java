@@ -20,12 +20,12 @@ final class OverlapCheck {
             if (b.isShadow()) continue;
             for (int i = 0; i < j; i++) {
                 Playbook a = playbooks.get(i);
-                if (a.isShadow() || !a.when().sameEvent(b.when())) continue;
+                if (a.isShadow() || !a.trigger().sameEvent(b.trigger())) continue;
                 String where = fleetOrNull == null ? overlapByTags(a, b) : overlapInFleet(a, b, fleetOrNull);
                 if (where == null) continue;
-                Trigger t = b.when();
-                out.add(Lint.finding(Severity.ERROR, Lint.OVERLAP, b, b.position("when"), "playbooks '" + a.id() + "' ("
-                        + a.source() + ":" + a.position("when").line() + ") and '" + b.id() + "' can both match the same transition: "
+                Trigger t = b.trigger();
+                out.add(Lint.finding(Severity.ERROR, Lint.OVERLAP, b, b.position("trigger"), "playbooks '" + a.id() + "' ("
+                        + a.source() + ":" + a.position("trigger").line() + ") and '" + b.id() + "' can both match the same transition: "
                         + t.signal() + " " + t.state().wireName() + " at " + t.scope().wireName() + " scope " + where
                         + "; make their cluster selectors disjoint, or put one of them in shadow mode"));
             }
@@ -34,15 +34,15 @@ final class OverlapCheck {
     }
 
     private static String overlapByTags(Playbook a, Playbook b) {
-        if (!a.when().clusters().overlaps(b.when().clusters())) return null;
-        return "on any cluster whose tags match both " + a.when().clusters() + " and " + b.when().clusters();
+        if (!a.trigger().clusters().overlaps(b.trigger().clusters())) return null;
+        return "on any cluster whose tags match both " + a.trigger().clusters() + " and " + b.trigger().clusters();
     }
 
     private static String overlapInFleet(Playbook a, Playbook b, Fleet fleet) {
         String first = null;
         int count = 0;
         for (ClusterSpec c : fleet.clusters()) {
-            if (a.when().clusters().matches(c.tags()) && b.when().clusters().matches(c.tags())) {
+            if (a.trigger().clusters().matches(c.tags()) && b.trigger().clusters().matches(c.tags())) {
                 if (first == null || c.id().value().compareTo(first) < 0) first = c.id().value();
                 count++;
             }

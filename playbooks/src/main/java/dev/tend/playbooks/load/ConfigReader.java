@@ -13,6 +13,7 @@ import dev.tend.playbooks.TagSelector;
 import dev.tend.playbooks.TendConfig;
 import dev.tend.shared.Id;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.RenamedKeys;
 import dev.tend.shared.yaml.YList;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
@@ -28,7 +29,8 @@ import java.util.Map;
 /** Reads {@code tend.yaml}, the fleet-wide policy. */
 final class ConfigReader {
     private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate", "channels", "pages");
-    private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "notify", "release-after");
+    private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "page", "release-after");
+    private static final RenamedKeys RENAMED_BRAKE = RenamedKeys.of("notify", "page");
     private static final List<String> THRESHOLD = List.of("clusters", "fraction");
     private static final List<String> FREEZE = List.of("from", "until", "reason", "clusters");
 
@@ -54,9 +56,9 @@ final class ConfigReader {
         RateLimit rate = Read.value(f, m, "rate", "tend.yaml", "rate", false, RateLimit::parse);
         Map<Id, ChannelDef> channels = m.get("channels").map(n -> ChannelsReader.channels(f, n)).orElse(Map.of());
         if (brake != null && m.get("brake").orElse(null) instanceof YMap b) {
-            b.get("notify").ifPresent(n -> ChannelsReader.checkNamed(f, n, "brake.notify", brake.notifyChannel(), channels));
-            if (!b.has("notify") && m.get("channels").isPresent()) {
-                ChannelsReader.checkNamed(f, b, "brake.notify", brake.notifyChannel(), channels);
+            b.get("page").ifPresent(n -> ChannelsReader.checkNamed(f, n, "brake.page", brake.pageChannel(), channels));
+            if (!b.has("page") && m.get("channels").isPresent()) {
+                ChannelsReader.checkNamed(f, b, "brake.page", brake.pageChannel(), channels);
             }
         }
         Paging paging = ChannelsReader.pages(f, m.get("pages").orElse(null), channels);
@@ -73,11 +75,11 @@ final class ConfigReader {
     private BrakePolicy brake(YNode node) {
         YMap m = f.asMap(node, "brake");
         if (m == null) return null;
-        Read.allowOnly(f, m, "brake", BRAKE);
+        Read.allowOnly(f, m, "brake", BRAKE, RENAMED_BRAKE);
         BrakeThreshold engage = f.node(m, "engage-at", "brake", true).map(n -> threshold(n, "brake.engage-at")).orElse(null);
         BrakeThreshold release = m.get("release-below").map(n -> threshold(n, "brake.release-below")).orElse(null);
         Boolean auto = Read.bool(f, m, "auto-release", "brake", "brake.auto-release");
-        Id notify = Read.value(f, m, "notify", "brake", "brake.notify", false, Id::of);
+        Id page = Read.value(f, m, "page", "brake", "brake.page", false, Id::of);
         java.time.Duration after = Read.value(f, m, "release-after", "brake", "brake.release-after", false,
                 dev.tend.shared.time.Durations::parse);
         if (engage != null && release != null) {
@@ -94,7 +96,7 @@ final class ConfigReader {
             return null;
         }
         if (engage == null || (m.has("release-below") && release == null)) return null;
-        return new BrakePolicy(engage, release, auto != null && auto, notify == null ? BrakePolicy.builtIn().notifyChannel() : notify,
+        return new BrakePolicy(engage, release, auto != null && auto, page == null ? BrakePolicy.builtIn().pageChannel() : page,
                 after == null ? BrakePolicy.DEFAULT_RELEASE_AFTER : after);
     }
 

@@ -6,6 +6,7 @@ import dev.tend.playbooks.LoopLimit;
 import dev.tend.playbooks.Position;
 import dev.tend.playbooks.RateLimit;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.RenamedKeys;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
 
@@ -15,7 +16,8 @@ import java.util.Map;
 /** Reads a playbook's {@code limits:} or the {@code defaults:} of tend.yaml; every key optional. */
 final class LimitsReader {
     static final List<String> KEYS = List.of("per-cluster", "fleet", "per-zone", "rate", "cooldown", "loop",
-            "impaired-fraction", "keep-quorum", "keep-in-sync", "flapping");
+            "impaired-fraction", "keep-quorum", "keep-replicas", "flapping");
+    private static final RenamedKeys RENAMED = RenamedKeys.of("keep-in-sync", "keep-replicas");
 
     private LimitsReader() {
     }
@@ -24,7 +26,7 @@ final class LimitsReader {
     static Limits read(Fields f, YNode node, String where, Map<String, Position> positions) {
         YMap m = f.asMap(node, where);
         if (m == null) return null;
-        Read.allowOnly(f, m, where, KEYS);
+        Read.allowOnly(f, m, where, KEYS, RENAMED);
         for (YMap.Entry e : m.entries()) positions.put(where + "." + e.key().value(), Read.position(e.key()));
         int before = f.problems().size();
         Limits.Builder b = Limits.builder()
@@ -36,7 +38,7 @@ final class LimitsReader {
                 .loop(Read.value(f, m, "loop", where, where + ".loop", false, LoopLimit::parse))
                 .impairedFraction(Read.fraction(f, m, "impaired-fraction", where, where + ".impaired-fraction", false))
                 .keepQuorum(Read.bool(f, m, "keep-quorum", where, where + ".keep-quorum"))
-                .keepInSync(Read.bool(f, m, "keep-in-sync", where, where + ".keep-in-sync"))
+                .keepReplicas(Read.bool(f, m, "keep-replicas", where, where + ".keep-replicas"))
                 .flapping(Read.value(f, m, "flapping", where, where + ".flapping", false, FlapLimit::parse));
         if (f.problems().size() > before) return null;
         try {

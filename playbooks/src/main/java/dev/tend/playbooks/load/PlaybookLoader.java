@@ -1,7 +1,7 @@
 package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.Actions;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Position;
 import dev.tend.playbooks.Step;
@@ -107,7 +107,7 @@ public final class PlaybookLoader {
     /** A step that pages a channel tend.yaml does not define is an error, with the nearest defined name. */
     private static void checkChannels(Playbook p, TendConfig config, Map<String, List<Problem>> problems) {
         for (Step s : p.allSteps()) {
-            if (!(s instanceof NotifyStep n)) continue;
+            if (!(s instanceof PageStep n)) continue;
             String problem = ChannelsReader.unknownChannel(n.channel(), config.paging().channels());
             if (problem == null) continue;
             String section = p.steps().contains(s) ? "steps." : "on-failure.";

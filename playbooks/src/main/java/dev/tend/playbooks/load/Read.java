@@ -5,6 +5,7 @@ import dev.tend.playbooks.TagSelector;
 import dev.tend.playbooks.Template;
 import dev.tend.shared.time.Durations;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.RenamedKeys;
 import dev.tend.shared.yaml.YList;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
@@ -32,9 +33,14 @@ final class Read {
 
     /** Like {@link Fields#allowOnly}, and suggests the nearest allowed key for a near miss. */
     static void allowOnly(Fields f, YMap map, String where, Collection<String> allowed) {
+        allowOnly(f, map, where, allowed, RenamedKeys.none());
+    }
+
+    /** Like {@link #allowOnly(Fields, YMap, String, Collection)}; an old name of {@code renamed} is reported with its new name. */
+    static void allowOnly(Fields f, YMap map, String where, Collection<String> allowed, RenamedKeys renamed) {
         for (YMap.Entry e : map.entries()) {
             String key = e.key().value();
-            if (allowed.contains(key)) continue;
+            if (allowed.contains(key) || f.reportedAsRenamed(e, renamed)) continue;
             String near = nearest(key, allowed);
             f.add(e.key(), key, "unknown key '" + key + "' in " + where + (near == null ? "" : " (did you mean '" + near + "'?)")
                     + "; the keys allowed here are: " + String.join(", ", new TreeSet<>(allowed)));

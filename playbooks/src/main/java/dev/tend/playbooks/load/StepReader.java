@@ -2,7 +2,7 @@ package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Position;
 import dev.tend.playbooks.Scope;
 import dev.tend.playbooks.Step;
@@ -10,6 +10,7 @@ import dev.tend.playbooks.Template;
 import dev.tend.playbooks.WaitHealthyStep;
 import dev.tend.shared.Id;
 import dev.tend.shared.yaml.Fields;
+import dev.tend.shared.yaml.RenamedKeys;
 import dev.tend.shared.yaml.YList;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
@@ -23,11 +24,12 @@ import java.util.Map;
 
 /** Reads {@code steps:} and {@code on-failure:}. One instance per playbook, so step ids are checked across both. */
 final class StepReader {
-    private static final List<String> KINDS = List.of("action", "wait-healthy", "notify");
+    private static final List<String> KINDS = List.of("action", "wait-healthy", "page");
     private static final List<String> ACTION_KEYS = List.of("id", "action", "timeout", "retries");
     private static final List<String> WAIT_KEYS = List.of("id", "wait-healthy", "within");
-    private static final List<String> NOTIFY_KEYS = List.of("id", "notify", "message");
-    private static final List<String> ALL_KEYS = List.of("id", "action", "timeout", "retries", "wait-healthy", "within", "notify", "message");
+    private static final List<String> PAGE_KEYS = List.of("id", "page", "message");
+    private static final List<String> ALL_KEYS = List.of("id", "action", "timeout", "retries", "wait-healthy", "within", "page", "message");
+    private static final RenamedKeys RENAMED = RenamedKeys.of("notify", "page");
 
     private final Fields f;
     private final ActionCatalog actions;
@@ -64,9 +66,13 @@ final class StepReader {
         for (String k : KINDS) if (m.has(k)) kinds.add(k);
         String label = label(m, section, n);
         Id id = stepId(m, section, n);
+        if (kinds.isEmpty() && RENAMED.writtenIn(m, "notify")) {
+            Read.allowOnly(f, m, label, ALL_KEYS, RENAMED);
+            return null;
+        }
         if (kinds.isEmpty()) {
             Read.allowOnly(f, m, label, ALL_KEYS);
-            f.add(m, "", label + " does nothing: a step needs exactly one of 'action', 'wait-healthy' or 'notify'");
+            f.add(m, "", label + " does nothing: a step needs exactly one of 'action', 'wait-healthy' or 'page'");
             return null;
         }
         if (kinds.size() > 1) {
@@ -78,7 +84,7 @@ final class StepReader {
         return switch (kinds.get(0)) {
             case "action" -> actionStep(m, id, label);
             case "wait-healthy" -> waitStep(m, id, label);
-            default -> notifyStep(m, id, label);
+            default -> pageStep(m, id, label);
         };
     }
 
@@ -135,9 +141,9 @@ final class StepReader {
         return new WaitHealthyStep(id, signals, within);
     }
 
-    private Step notifyStep(YMap m, Id id, String label) {
-        Read.allowOnly(f, m, label, NOTIFY_KEYS);
-        Id channel = Read.value(f, m, "notify", label, label + ".notify", true, Id::of);
+    private Step pageStep(YMap m, Id id, String label) {
+        Read.allowOnly(f, m, label, PAGE_KEYS, RENAMED);
+        Id channel = Read.value(f, m, "page", label, label + ".page", true, Id::of);
         Template message = f.node(m, "message", label, true)
                 .map(n -> Read.template(f, n, label + ".message", Template.MESSAGE_PLACEHOLDERS)).orElse(null);
         if (message != null && scope == Scope.CLUSTER && message.uses("node")) {
@@ -146,6 +152,6 @@ final class StepReader {
             return null;
         }
         if (id == null || channel == null || message == null) return null;
-        return new NotifyStep(id, channel, message);
+        return new PageStep(id, channel, message);
     }
 }

@@ -38,13 +38,13 @@ class BundledLibraryTest {
         assertThat(set.playbooks()).extracting(p -> p.id().value()).containsExactly(
                 "move-leadership-off-lagging-node", "replace-silent-node", "restart-stopped-process", "rotate-expiring-certificate");
         Playbook replace = set.playbook(Id.of("replace-silent-node")).orElseThrow();
-        assertThat(replace.when().signal()).isEqualTo(Id.of("heartbeat"));
-        assertThat(replace.when().state()).isEqualTo(SignalState.SILENT);
-        assertThat(replace.when().scope()).isEqualTo(Scope.NODE);
+        assertThat(replace.trigger().signal()).isEqualTo(Id.of("heartbeat"));
+        assertThat(replace.trigger().state()).isEqualTo(SignalState.SILENT);
+        assertThat(replace.trigger().scope()).isEqualTo(Scope.NODE);
         assertThat(replace.approval().isRequiredFor(Map.of("tier", "critical"))).isTrue();
         assertThat(replace.approval().isRequiredFor(Map.of("tier", "standard"))).isFalse();
         Playbook rotate = set.playbook(Id.of("rotate-expiring-certificate")).orElseThrow();
-        assertThat(rotate.when().scope()).isEqualTo(Scope.CLUSTER);
+        assertThat(rotate.trigger().scope()).isEqualTo(Scope.CLUSTER);
         assertThat(rotate.window()).isNotNull();
         for (Playbook p : set.playbooks()) {
             assertThat(p.onFailure()).as(p.id() + " on-failure").isNotEmpty();
@@ -64,6 +64,6 @@ class BundledLibraryTest {
         assertThat(fleet.clusters()).extracting(ClusterSpec::size).allMatch(n -> n >= 3 && n <= 6);
         assertThat(fleet.clusters()).filteredOn(ClusterSpec::quorum).isNotEmpty();
         assertThat(fleet.clusters()).filteredOn(c -> c.replication() != null && c.replication().factor() == 5).isNotEmpty();
-        assertThat(fleet.clusters()).filteredOn(c -> c.replication() != null && c.replication().minInSync() == 1).isNotEmpty();
+        assertThat(fleet.clusters()).filteredOn(c -> c.replication() != null && c.replication().minHealthy() == 1).isNotEmpty();
     }
 }

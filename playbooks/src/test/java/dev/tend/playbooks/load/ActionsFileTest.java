@@ -196,7 +196,7 @@ class ActionsFileTest {
                 """);
         String text = """
                 playbook: p1
-                when: { signal: cert-expiry, state: breach, scope: cluster }
+                trigger: { signal: cert-expiry, state: breach, scope: cluster }
                 steps:
                   - { id: restart, action: restart-process }
                 """;
@@ -216,7 +216,7 @@ class ActionsFileTest {
                 """);
         dir.write("p1.yaml", """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 1m }
                 """);

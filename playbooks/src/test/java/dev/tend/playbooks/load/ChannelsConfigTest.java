@@ -114,7 +114,7 @@ class ChannelsConfigTest {
         String text = """
                 brake:
                   engage-at: { clusters: 20 }
-                  notify: on-call
+                  page: on-call
                 channels:
                   oncall:
                     log: {}
@@ -124,7 +124,7 @@ class ChannelsConfigTest {
                   channel: platfrom-mail
                 """;
         assertThat(problems(text)).extracting(Problem::toString).containsExactly(
-                "/etc/tend/tend.yaml:3:11: brake.notify: unknown channel 'on-call' (did you mean 'oncall'?); the channels defined in"
+                "/etc/tend/tend.yaml:3:9: brake.page: unknown channel 'on-call' (did you mean 'oncall'?); the channels defined in"
                         + " tend.yaml are: oncall, platform-mail",
                 "/etc/tend/tend.yaml:10:12: pages.channel: unknown channel 'platfrom-mail' (did you mean 'platform-mail'?); the channels"
                         + " defined in tend.yaml are: oncall, platform-mail");
@@ -146,11 +146,11 @@ class ChannelsConfigTest {
                 """);
         d.write("replace.yaml", """
                 playbook: replace-silent-node
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 5m }
                 on-failure:
-                  - { id: tell, notify: oncal, message: "draining {node} failed" }
+                  - { id: tell, page: oncal, message: "draining {node} failed" }
                 """);
         assertThat(TestDir.problems(() -> PlaybookLoader.load(tmp))).extracting(Problem::toString).containsExactly(
                 d.source("replace.yaml") + ":6:5: step tell: unknown channel 'oncal' (did you mean 'oncall'?); the channels"

@@ -39,7 +39,7 @@ class ConfigFileTest {
                   engage-at: { clusters: 25, fraction: 0.08 }
                   release-below: { clusters: 10, fraction: 0.03 }
                   auto-release: true
-                  notify: platform-oncall
+                  page: platform-oncall
                 freezes:
                   - from: 2027-12-24T00:00:00+01:00
                     until: 2027-12-27T00:00:00+01:00
@@ -57,13 +57,13 @@ class ConfigFileTest {
         assertThat(d.cooldown()).isEqualTo(Duration.ofHours(1));
         assertThat(d.loop()).isEqualTo(new LoopLimit(3, Duration.ofHours(24)));
         assertThat(d.keepQuorum()).isTrue();
-        assertThat(d.keepInSync()).isTrue();
+        assertThat(d.keepReplicas()).isTrue();
         assertThat(d.flapping()).isEqualTo(new FlapLimit(6, Duration.ofMinutes(15)));
         BrakePolicy b = c.brake();
         assertThat(b.engageAt().clusters()).isEqualTo(25);
         assertThat(b.releaseBelow().fraction()).isEqualTo(0.03);
         assertThat(b.autoRelease()).isTrue();
-        assertThat(b.notifyChannel()).isEqualTo(Id.of("platform-oncall"));
+        assertThat(b.pageChannel()).isEqualTo(Id.of("platform-oncall"));
         assertThat(c.freezes()).containsExactly(new Freeze(Instant.parse("2027-12-23T23:00:00Z"), Instant.parse("2027-12-26T23:00:00Z"),
                 "holiday timetable", TagSelector.of("team", "planning")));
         assertThat(c.freezeAt(Instant.parse("2027-12-25T12:00:00Z"), Map.of("team", "planning"))).isPresent();
@@ -79,7 +79,7 @@ class ConfigFileTest {
         dir.write("tend.yaml", "defaults: { cooldown: 2h, fleet: 20 }\n");
         dir.write("p.yaml", """
                 playbook: p
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 limits: { fleet: 3 }
                 steps:
                   - { id: drain, action: drain-node, timeout: 1m }
@@ -100,7 +100,7 @@ class ConfigFileTest {
         dir.write("actions.yaml", TestDir.ACTIONS);
         dir.write("p.yaml", """
                 playbook: p
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 1m }
                 """);
@@ -120,7 +120,7 @@ class ConfigFileTest {
         dir.write("tend.yaml", "rate: 5/1h\n");
         dir.write("p.yaml", """
                 playbook: p
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 1m }
                 """);
@@ -137,7 +137,7 @@ class ConfigFileTest {
         dir.write("actions.yaml", TestDir.ACTIONS);
         dir.write("p.yaml", """
                 playbook: p
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 1m }
                 """);

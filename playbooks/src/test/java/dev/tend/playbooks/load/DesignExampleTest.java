@@ -8,7 +8,7 @@ import dev.tend.playbooks.Limits;
 import dev.tend.playbooks.LoopLimit;
 import dev.tend.playbooks.MaskRule;
 import dev.tend.playbooks.Mode;
-import dev.tend.playbooks.NotifyStep;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.RateLimit;
 import dev.tend.playbooks.Scope;
@@ -28,6 +28,9 @@ import java.time.ZoneId;
 import java.util.HexFormat;
 import java.util.List;
 import java.util.Map;
+import java.util.EnumSet;
+import java.time.DayOfWeek;
+import java.time.LocalTime;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
@@ -38,7 +41,7 @@ class DesignExampleTest {
             version: 3
             description: Replace a node that stopped reporting.
             mode: live                 # live | shadow (decide and record, never execute)
-            when:
+            trigger:
               signal: heartbeat
               state: silent
               scope: node              # node | cluster
@@ -55,17 +58,17 @@ class DesignExampleTest {
               loop: 3/24h
               impaired-fraction: 0.34
               keep-quorum: true
-              keep-in-sync: true
-            window: { allow: "0 0 1-5 ? * MON-FRI", zone: Europe/Berlin, length: 4h }
+              keep-replicas: true
+            window: { days: [mon, tue, wed, thu, fri], from: "01:00", until: "05:00", zone: Europe/Berlin }
             approval:
-              when: { tier: [critical] }
+              clusters: { tier: [critical] }
               expires-after: 30m
             steps:
               - { id: drain,   action: drain-node,   timeout: 10m }
               - { id: replace, action: replace-node, timeout: 30m, retries: 1 }
               - { id: settle,  wait-healthy: [heartbeat], within: 20m }
             on-failure:
-              - { notify: oncall, message: "replacing {node} in {cluster} failed at {step}" }
+              - { page: oncall, message: "replacing {node} in {cluster} failed at {step}" }
             """;
 
     static Actions actions() {
@@ -80,20 +83,21 @@ class DesignExampleTest {
         assertThat(p.version()).isEqualTo(3);
         assertThat(p.description()).isEqualTo("Replace a node that stopped reporting.");
         assertThat(p.mode()).isEqualTo(Mode.LIVE);
-        assertThat(p.when()).isEqualTo(new Trigger(Id.of("heartbeat"), SignalState.SILENT, Scope.NODE, Duration.ofMinutes(5),
+        assertThat(p.trigger()).isEqualTo(new Trigger(Id.of("heartbeat"), SignalState.SILENT, Scope.NODE, Duration.ofMinutes(5),
                 TagSelector.of("tier", "standard", "bulk")));
         assertThat(p.unless()).containsExactly(new MaskRule(Id.of("storage-full"), Scope.NODE),
                 new MaskRule(Id.of("key-revoked"), Scope.CLUSTER));
         assertThat(p.limits()).isEqualTo(Limits.builder().perCluster(1).fleet(5).rate(new RateLimit(10, Duration.ofHours(1)))
                 .cooldown(Duration.ofHours(6)).loop(new LoopLimit(3, Duration.ofHours(24))).impairedFraction(0.34)
-                .keepQuorum(true).keepInSync(true).build());
-        assertThat(p.window()).isEqualTo(ChangeWindow.of("0 0 1-5 ? * MON-FRI", ZoneId.of("Europe/Berlin"), Duration.ofHours(4)));
+                .keepQuorum(true).keepReplicas(true).build());
+        assertThat(p.window()).isEqualTo(new ChangeWindow(EnumSet.range(DayOfWeek.MONDAY, DayOfWeek.FRIDAY),
+                LocalTime.of(1, 0), LocalTime.of(5, 0), ZoneId.of("Europe/Berlin")));
         assertThat(p.approval()).isEqualTo(new ApprovalPolicy(TagSelector.of("tier", "critical"), Duration.ofMinutes(30)));
         assertThat(p.steps()).containsExactly(
                 new ActionStep(Id.of("drain"), Id.of("drain-node"), Duration.ofMinutes(10), 0),
                 new ActionStep(Id.of("replace"), Id.of("replace-node"), Duration.ofMinutes(30), 1),
                 new WaitHealthyStep(Id.of("settle"), List.of(Id.of("heartbeat")), Duration.ofMinutes(20)));
-        assertThat(p.onFailure()).containsExactly(new NotifyStep(Id.of("on-failure-1"), Id.of("oncall"),
+        assertThat(p.onFailure()).containsExactly(new PageStep(Id.of("on-failure-1"), Id.of("oncall"),
                 new Template("replacing {node} in {cluster} failed at {step}")));
         assertThat(p.source()).isEqualTo("replace-silent-node.yaml");
         // FIPS 180-4 SHA-256 of the file's bytes, computed here with the JDK's own provider
@@ -101,7 +105,7 @@ class DesignExampleTest {
         assertThat(p.contentHash()).isEqualTo(expected);
         assertThat(p.line()).isEqualTo(1);
         assertThat(p.column()).isEqualTo(11);
-        assertThat(p.position("when").line()).isEqualTo(6);
+        assertThat(p.position("trigger").line()).isEqualTo(6);
         assertThat(p.position("steps.replace").line()).isEqualTo(29);
         assertThat(p.position("limits.impaired-fraction")).extracting("line", "column").containsExactly(20, 3);
     }
@@ -109,9 +113,9 @@ class DesignExampleTest {
     @Test
     void designExampleMessageRendersWithRunValues() {
         Playbook p = PlaybookLoader.parse("replace-silent-node.yaml", EXAMPLE, actions());
-        NotifyStep notify = (NotifyStep) p.onFailure().get(0);
+        PageStep page = (PageStep) p.onFailure().get(0);
 
-        assertThat(notify.message().render(Map.of("node", "n2", "cluster", "fares-3", "step", "replace")))
+        assertThat(page.message().render(Map.of("node", "n2", "cluster", "fares-3", "step", "replace")))
                 .isEqualTo("replacing n2 in fares-3 failed at replace");
     }
 
@@ -119,7 +123,7 @@ class DesignExampleTest {
     void unwrittenOptionalKeysTakeTheirDocumentedDefaults() {
         Playbook p = PlaybookLoader.parse("p.yaml", """
                 playbook: minimal
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node }
                 """, actions());
@@ -127,8 +131,8 @@ class DesignExampleTest {
         assertThat(p.version()).isEqualTo(1);
         assertThat(p.description()).isEmpty();
         assertThat(p.mode()).isEqualTo(Mode.LIVE);
-        assertThat(p.when().confirmFor()).isEqualTo(Duration.ZERO);
-        assertThat(p.when().clusters()).isEqualTo(TagSelector.all());
+        assertThat(p.trigger().confirmFor()).isEqualTo(Duration.ZERO);
+        assertThat(p.trigger().clusters()).isEqualTo(TagSelector.all());
         assertThat(p.unless()).isEmpty();
         assertThat(p.limits()).isEqualTo(Limits.none());
         assertThat(p.window()).isNull();
@@ -143,9 +147,9 @@ class DesignExampleTest {
         Playbook p = PlaybookLoader.parse("p.yaml", """
                 playbook: candidate
                 mode: shadow
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 limits: { per-zone: 2, flapping: 4/10m }
-                approval: { when: {} }
+                approval: { clusters: {} }
                 steps:
                   - { id: drain, action: drain-node, timeout: 5m }
                 """, actions());

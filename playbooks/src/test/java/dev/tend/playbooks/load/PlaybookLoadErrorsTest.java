@@ -43,7 +43,7 @@ class PlaybookLoadErrorsTest {
     void unknownKeyNamesTheAllowedKeysAndTheNearestOne() {
         String text = """
                 playbook: p1
-                when:
+                trigger:
                   signal: heartbeat
                   state: silent
                   scope: node
@@ -51,7 +51,7 @@ class PlaybookLoadErrorsTest {
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 6, 3, "unknown key 'confirm_for' in when (did you mean 'confirm-for'?);"
+        assertOnly(load("p1.yaml", text), "p1.yaml", 6, 3, "unknown key 'confirm_for' in trigger (did you mean 'confirm-for'?);"
                 + " the keys allowed here are: clusters, confirm-for, scope, signal, state");
     }
 
@@ -59,20 +59,20 @@ class PlaybookLoadErrorsTest {
     void unknownTopLevelKeyWithoutNearMissListsTheKeys() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 owner: payments
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 3, 1, "unknown key 'owner' in a playbook; the keys allowed here are:"
-                + " approval, description, limits, mode, on-failure, playbook, steps, unless, version, when, window");
+                + " approval, description, limits, mode, on-failure, playbook, steps, trigger, unless, version, window");
     }
 
     @Test
     void durationInWordsIsRejectedWithTheCompactForm() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 limits:
                   cooldown: 5 minutes
                 steps:
@@ -85,7 +85,7 @@ class PlaybookLoadErrorsTest {
     void rateInWordsIsRejectedWithTheCountSlashDurationForm() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 limits:
                   rate: 10 per hour
                 steps:
@@ -96,40 +96,65 @@ class PlaybookLoadErrorsTest {
     }
 
     @Test
-    void cronExpressionQuartzRejectsCarriesQuartzReason() {
+    void dayThatIsNotADayNamesTheAcceptedForms() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
-                window: { allow: "0 0 1 * * MON", zone: Europe/Berlin, length: 4h }
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                window: { days: [mon-fry], from: "01:00", until: "05:00", zone: Europe/Berlin }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        // Quartz's own reason text, as org.quartz.CronExpression 2.5.2 words it
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "\"0 0 1"), "window.allow: Quartz rejects the cron"
-                + " expression '0 0 1 * * MON': Support for specifying both a day-of-week AND a day-of-month parameter is not"
-                + " implemented. (fields: seconds minutes hours day-of-month month day-of-week [year])");
+        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "mon-fry"), "window.days: 'mon-fry' is not a day or a"
+                + " range of days; write mon, tue, wed, thu, fri, sat or sun, or a range such as mon-fri");
     }
 
     @Test
-    void fiveFieldCronIsExplainedAsMissingTheSecondsField() {
+    void wallClockTimeMustBeHoursAndMinutes() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
-                window: { allow: "0 1 * * *", zone: Europe/Berlin, length: 4h }
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                window: { days: [sat], from: "1am", until: "24:00", zone: Europe/Berlin }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "\"0 1"), "window.allow: Quartz rejects the cron"
-                + " expression '0 1 * * *': Unexpected end of expression. (a Quartz cron has 6 or 7 fields: seconds minutes"
-                + " hours day-of-month month day-of-week [year]; this one has 5)");
+        List<Problem> problems = load("p1.yaml", text);
+        assertThat(problems).extracting(Problem::message).containsExactly(
+                "window.from: a wall-clock time looks like \"01:00\" or \"23:30\" (HH:MM, 24-hour clock), got '1am'",
+                "window.until: a wall-clock time looks like \"01:00\" or \"23:30\" (HH:MM, 24-hour clock), got '24:00'");
+    }
+
+    @Test
+    void windowWithoutLengthIsRejected() {
+        String text = """
+                playbook: p1
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                window: { from: "01:00", until: "01:00", zone: UTC }
+                steps:
+                  - { id: drain, action: drain-node, timeout: 10m }
+                """;
+        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "until") + "until: ".length(), "window.until must differ from window.from:"
+                + " a window needs a length; an until before from spans midnight");
+    }
+
+    @Test
+    void emptyDaysIsRejected() {
+        String text = """
+                playbook: p1
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                window: { days: [], from: "01:00", until: "05:00", zone: UTC }
+                steps:
+                  - { id: drain, action: drain-node, timeout: 10m }
+                """;
+        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "[]"), "window.days is empty; name at least one day,"
+                + " such as [mon-fri], or leave days out for every day");
     }
 
     @Test
     void unknownTimeZoneSuggestsTzDatabaseNames() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
-                window: { allow: "0 0 1 ? * MON-FRI", zone: Europe/Berln, length: 4h }
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                window: { days: [mon-fri], from: "01:00", until: "05:00", zone: Europe/Berln }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
@@ -141,7 +166,7 @@ class PlaybookLoadErrorsTest {
     void stepNamingAnUndefinedActionListsTheDefinedOnes() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-nod, timeout: 10m }
                 """;
@@ -154,7 +179,7 @@ class PlaybookLoadErrorsTest {
         TestDir bare = new TestDir(empty);
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
@@ -168,12 +193,12 @@ class PlaybookLoadErrorsTest {
     void duplicateStepIdSaysWhereTheFirstIs() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                   - { id: settle, wait-healthy: [heartbeat], within: 5m }
                 on-failure:
-                  - { id: drain, notify: oncall, message: "drain of {node} failed" }
+                  - { id: drain, page: oncall, message: "drain of {node} failed" }
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 7, column(text, 7, "drain"), "step id 'drain' is used twice; the first is"
                 + " at line 4, column 11 (step ids must be unique across steps and on-failure)");
@@ -182,7 +207,7 @@ class PlaybookLoadErrorsTest {
     @Test
     void duplicatePlaybookIdAcrossFilesNamesTheFirstFile() {
         String body = """
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
@@ -196,20 +221,20 @@ class PlaybookLoadErrorsTest {
     void missingRequiredKeyIsReportedAtItsMapping() {
         String text = """
                 playbook: p1
-                when:
+                trigger:
                   signal: heartbeat
                   scope: node
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, 3, "when needs 'state'");
+        assertOnly(load("p1.yaml", text), "p1.yaml", 3, 3, "trigger needs 'state'");
     }
 
     @Test
     void missingStepsIsReportedAtThePlaybook() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 1, 1, "a playbook needs 'steps'");
     }
@@ -218,7 +243,7 @@ class PlaybookLoadErrorsTest {
     void stepsGivenAsOneValueIsAWrongType() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps: drain
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 3, 8, "steps must be a list, got a value");
@@ -229,7 +254,7 @@ class PlaybookLoadErrorsTest {
         String text = """
                 playbook: p1
                 version: three
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
@@ -240,22 +265,22 @@ class PlaybookLoadErrorsTest {
     void listWhereAValueBelongsIsAWrongType() {
         String text = """
                 playbook: p1
-                when: { signal: [heartbeat], state: silent, scope: node }
+                trigger: { signal: [heartbeat], state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 2, column(text, 2, "[heartbeat]"), "when.signal must be a value, got a list");
+        assertOnly(load("p1.yaml", text), "p1.yaml", 2, column(text, 2, "[heartbeat]"), "trigger.signal must be a value, got a list");
     }
 
     @Test
     void clearStateIsRejectedWithTheReason() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: clear, scope: node }
+                trigger: { signal: heartbeat, state: clear, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 2, column(text, 2, "clear"), "when.state: must be breach or silent:"
+        assertOnly(load("p1.yaml", text), "p1.yaml", 2, column(text, 2, "clear"), "trigger.state: must be breach or silent:"
                 + " a playbook reacts to a problem, and clear ends one");
     }
 
@@ -263,11 +288,11 @@ class PlaybookLoadErrorsTest {
     void unknownPlaceholderInMessageListsTheKnownOnes() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 on-failure:
-                  - { notify: oncall, message: "{nod} failed at {step}" }
+                  - { page: oncall, message: "{nod} failed at {step}" }
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 6, column(text, 6, "\"{nod}"), "on-failure[#1].message: unknown placeholder"
                 + " {nod} in '{nod} failed at {step}'; the placeholders here are {cluster} {node} {playbook} {run} {step}");
@@ -277,11 +302,11 @@ class PlaybookLoadErrorsTest {
     void nodePlaceholderInClusterScopePlaybookIsRejected() {
         String text = """
                 playbook: p1
-                when: { signal: cert-expiry, state: breach, scope: cluster }
+                trigger: { signal: cert-expiry, state: breach, scope: cluster }
                 steps:
-                  - { id: notify-owner, notify: owners, message: "{node} of {cluster} needs a certificate" }
+                  - { id: tell-owner, page: owners, message: "{node} of {cluster} needs a certificate" }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 4, column(text, 4, "\"{node}"), "steps[notify-owner].message uses {node},"
+        assertOnly(load("p1.yaml", text), "p1.yaml", 4, column(text, 4, "\"{node}"), "steps[tell-owner].message uses {node},"
                 + " but this playbook has cluster scope, so there is no node to fill in");
     }
 
@@ -289,10 +314,10 @@ class PlaybookLoadErrorsTest {
     void unquotedPlaceholderIsExplained() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - id: tell
-                    notify: oncall
+                    page: oncall
                     message: {node}
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 6, 14, "steps[tell].message: write the placeholder in quotes, \"{node}\":"
@@ -303,11 +328,11 @@ class PlaybookLoadErrorsTest {
     void stepDoingTwoThingsIsRejected() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
-                  - { id: drain, action: drain-node, notify: oncall }
+                  - { id: drain, action: drain-node, page: oncall }
                 """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 4, 5, "steps[drain] has both 'action' and 'notify'; a step does one"
+        assertOnly(load("p1.yaml", text), "p1.yaml", 4, 5, "steps[drain] has both 'action' and 'page'; a step does one"
                 + " thing, so split it into two steps");
     }
 
@@ -315,7 +340,7 @@ class PlaybookLoadErrorsTest {
     void playbookWithThreeMistakesYieldsExactlyThreeLocatedProblems() {
         String text = """
                 playbook: p1
-                when:
+                trigger:
                   signal: heartbeat
                   state: silent
                   scope: nodes
@@ -327,7 +352,7 @@ class PlaybookLoadErrorsTest {
                 """;
         List<Problem> problems = load("p1.yaml", text);
         assertThat(problems).extracting(Problem::toString).containsExactly(
-                dir.source("p1.yaml") + ":5:10: when.scope: must be node or cluster, got 'nodes'",
+                dir.source("p1.yaml") + ":5:10: trigger.scope: must be node or cluster, got 'nodes'",
                 dir.source("p1.yaml") + ":7:13: limits.cooldown: a duration looks like 30s, 5m, 6h or 1d, got '6 hours'",
                 dir.source("p1.yaml") + ":10:11: step id 'drain' is used twice; the first is at line 9, column 11"
                         + " (step ids must be unique across steps and on-failure)");
@@ -339,7 +364,7 @@ class PlaybookLoadErrorsTest {
         dir.write("a.yaml", "playbook: [a\n");
         List<Problem> problems = load("b.yaml", """
                 playbook: b
-                when: { signal: heartbeat, state: silent, scope: node, confirm-for: soon }
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: soon }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                 """);
@@ -347,7 +372,7 @@ class PlaybookLoadErrorsTest {
                 .containsExactly(dir.source("tend.yaml"), dir.source("a.yaml"), dir.source("b.yaml"));
         assertThat(problems.get(0).message()).startsWith("rate: a rate looks like 10/1h");
         assertThat(problems.get(1).message()).startsWith("this is not valid YAML:");
-        assertThat(problems.get(2).message()).isEqualTo("when.confirm-for: a duration looks like 30s, 5m, 6h or 1d, got 'soon'");
+        assertThat(problems.get(2).message()).isEqualTo("trigger.confirm-for: a duration looks like 30s, 5m, 6h or 1d, got 'soon'");
     }
 
     @Test

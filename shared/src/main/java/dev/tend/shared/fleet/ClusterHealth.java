@@ -4,7 +4,7 @@ package dev.tend.shared.fleet;
 public enum ClusterHealth {
     /** No signal of the cluster or its nodes is in breach or silent. */
     HEALTHY,
-    /** Some nodes have problems, fewer than the cluster tolerates (quorum, in-sync replicas). */
+    /** Some nodes have problems, fewer than the cluster tolerates (quorum, healthy copies). */
     IMPAIRED,
     /** A cluster-level problem, or more impaired nodes than the cluster tolerates. */
     UNHEALTHY

@@ -49,8 +49,8 @@ public record ClusterSpec(Id id, Map<String, String> tags, Replication replicati
 
     /**
      * How many nodes of this cluster may be impaired at once without losing quorum (a
-     * majority quorum of n tolerates floor((n-1)/2)) or in-sync replicas (worst case: any
-     * {@code factor} nodes may share a partition). {@code Integer.MAX_VALUE} when neither applies.
+     * majority quorum of n tolerates floor((n-1)/2)) or healthy copies of its data (worst case:
+     * any {@code factor} nodes hold copies of the same piece). {@code Integer.MAX_VALUE} when neither applies.
      */
     public int safeImpaired() {
         int safe = Integer.MAX_VALUE;

@@ -5,6 +5,7 @@ import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
 import dev.tend.shared.yaml.Fields;
 import dev.tend.shared.yaml.YList;
+import dev.tend.shared.yaml.RenamedKeys;
 import dev.tend.shared.yaml.YMap;
 import dev.tend.shared.yaml.YNode;
 import dev.tend.shared.yaml.YScalar;
@@ -22,13 +23,14 @@ import java.util.Optional;
 /**
  * Loads a fleet file (YAML or JSON, DESIGN.md section 3). Every problem is reported at
  * once, located and in reading order, through {@link InvalidInputException}; messages
- * name the place by path, e.g. {@code clusters[0].replication.min-in-sync}.
+ * name the place by path, e.g. {@code clusters[0].replication.min-healthy}.
  */
 public final class FleetFile {
     private static final List<String> TOP = List.of("fleet", "clusters");
     private static final List<String> CLUSTER = List.of("id", "tags", "replication", "quorum", "nodes");
     private static final List<String> NODE = List.of("id", "zone", "tags");
-    private static final List<String> REPLICATION = List.of("factor", "min-in-sync");
+    private static final List<String> REPLICATION = List.of("factor", "min-healthy");
+    private static final RenamedKeys RENAMED_REPLICATION = RenamedKeys.of("min-in-sync", "min-healthy");
 
     private FleetFile() {
     }
@@ -82,13 +84,13 @@ public final class FleetFile {
             String rw = where + ".replication";
             YMap r = f.asMap(m.get("replication").get(), rw);
             if (r != null) {
-                f.allowOnly(r, rw, REPLICATION);
+                f.allowOnly(r, rw, REPLICATION, RENAMED_REPLICATION);
                 Integer factor = f.integer(r, "factor", rw, true, 1, 100);
-                Integer min = f.integer(r, "min-in-sync", rw, true, 1, 100);
+                Integer min = f.integer(r, "min-healthy", rw, !RENAMED_REPLICATION.writtenIn(r, "min-in-sync"), 1, 100);
                 if (factor != null && min != null) {
                     if (min > factor) {
-                        f.add(r.get("min-in-sync").get(), "min-in-sync", rw + ".min-in-sync (" + min
-                                + ") cannot exceed " + rw + ".factor (" + factor + "): a write could never be accepted");
+                        f.add(r.get("min-healthy").get(), "min-healthy", rw + ".min-healthy (" + min
+                                + ") cannot exceed " + rw + ".factor (" + factor + "): there are only " + factor + " copies");
                     } else {
                         replication = new Replication(factor, min);
                     }

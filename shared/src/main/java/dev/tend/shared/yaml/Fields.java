@@ -68,12 +68,28 @@ public final class Fields {
 
     /** Records every key of {@code map} not in {@code allowed}, naming what is allowed. */
     public void allowOnly(YMap map, String where, Collection<String> allowed) {
+        allowOnly(map, where, allowed, RenamedKeys.none());
+    }
+
+    /**
+     * Like {@link #allowOnly(YMap, String, Collection)}, and reports each old name of
+     * {@code renamed} with the sentence that names its replacement.
+     */
+    public void allowOnly(YMap map, String where, Collection<String> allowed, RenamedKeys renamed) {
         for (YMap.Entry e : map.entries()) {
+            if (reportedAsRenamed(e, renamed)) continue;
             if (!allowed.contains(e.key().value())) {
                 add(e.key(), e.key().value(), "unknown key '" + e.key().value() + "' in " + where
                         + "; expected one of: " + String.join(", ", new TreeSet<>(allowed)));
             }
         }
+    }
+
+    /** Reports {@code e}'s key when it is an old name of {@code renamed}; true if it was. */
+    public boolean reportedAsRenamed(YMap.Entry e, RenamedKeys renamed) {
+        Optional<String> message = renamed.messageFor(e.key().value());
+        message.ifPresent(m -> add(e.key(), e.key().value(), m));
+        return message.isPresent();
     }
 
     public Optional<YNode> node(YMap map, String key, String where, boolean required) {

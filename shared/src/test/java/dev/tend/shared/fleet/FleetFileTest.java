@@ -21,7 +21,7 @@ class FleetFileTest {
             clusters:
               - id: fares-3
                 tags: { tier: critical, team: payments }
-                replication: { factor: 3, min-in-sync: 2 }   # replicated-log safety (section 4)
+                replication: { factor: 3, min-healthy: 2 }   # copies of each piece of data, and how many must stay healthy
                 quorum: true                                  # nodes form a majority-quorum ensemble
                 nodes:
                   - { id: n1, zone: z-a }
@@ -47,7 +47,7 @@ class FleetFileTest {
     @Test
     void loadsTheSameFleetFromJson(@TempDir Path dir) throws Exception {
         Path file = Files.writeString(dir.resolve("fleet.json"), "{\"fleet\":\"larkspur\",\"clusters\":[{\"id\":\"fares-3\","
-                + "\"tags\":{\"tier\":\"critical\",\"team\":\"payments\"},\"replication\":{\"factor\":3,\"min-in-sync\":2},"
+                + "\"tags\":{\"tier\":\"critical\",\"team\":\"payments\"},\"replication\":{\"factor\":3,\"min-healthy\":2},"
                 + "\"quorum\":true,\"nodes\":[{\"id\":\"n1\",\"zone\":\"z-a\"},{\"id\":\"n2\",\"zone\":\"z-b\"},{\"id\":\"n3\",\"zone\":\"z-c\"}]}]}");
         Fleet fromJson = FleetFile.load(file);
         Fleet fromYaml = FleetFile.parse("fleet.yaml", DESIGN_EXAMPLE);
@@ -61,7 +61,7 @@ class FleetFileTest {
                 color: blue
                 clusters:
                   - id: fares 3
-                    replication: { factor: 3, min-in-sync: 4 }
+                    replication: { factor: 3, min-healthy: 4 }
                     quorum: maybe
                     nodes:
                       - { id: n1, zone: z-a }
@@ -76,12 +76,12 @@ class FleetFileTest {
         assertThat(e.problems()).extracting(Problem::toString).containsExactly(
                 "fleet.yaml:2:1: unknown key 'color' in the fleet file; expected one of: clusters, fleet",
                 "fleet.yaml:4:9: clusters[0].id: 'fares 3'" + notAnId,
-                "fleet.yaml:5:44: clusters[0].replication.min-in-sync (4) cannot exceed clusters[0].replication.factor (3):"
-                        + " a write could never be accepted",
+                "fleet.yaml:5:44: clusters[0].replication.min-healthy (4) cannot exceed clusters[0].replication.factor (3):"
+                        + " there are only 3 copies",
                 "fleet.yaml:6:13: clusters[0].quorum: must be true or false, got 'maybe'",
                 "fleet.yaml:9:9: clusters[0].nodes[1]: node n1 is listed twice; the first is clusters[0].nodes[0]",
                 "fleet.yaml:9:25: clusters[0].nodes[1].zone: 'z b'" + notAnId,
-                "fleet.yaml:11:18: clusters[1].replication needs 'min-in-sync'",
+                "fleet.yaml:11:18: clusters[1].replication needs 'min-healthy'",
                 "fleet.yaml:11:28: clusters[1].replication.factor: must be a whole number, got 'three'",
                 "fleet.yaml:12:12: clusters[1].nodes must be a list, got a value",
                 "fleet.yaml:13:5: clusters[2]: cluster dispatch-1 is listed twice; the first is clusters[1]");
@@ -89,19 +89,31 @@ class FleetFileTest {
     }
 
     @Test
-    void rejectsMinInSyncAboveTheFactor() {
+    void rejectsMinHealthyAboveTheFactor() {
         assertThatThrownBy(() -> FleetFile.parse("fleet.yaml", """
                 fleet: larkspur
                 clusters:
                   - id: fares-3
-                    replication: { factor: 3, min-in-sync: 4 }
+                    replication: { factor: 3, min-healthy: 4 }
                 """))
                 .isInstanceOf(InvalidInputException.class)
-                .hasMessage("fleet.yaml:4:44: clusters[0].replication.min-in-sync (4) cannot exceed"
-                        + " clusters[0].replication.factor (3): a write could never be accepted");
+                .hasMessage("fleet.yaml:4:44: clusters[0].replication.min-healthy (4) cannot exceed"
+                        + " clusters[0].replication.factor (3): there are only 3 copies");
         assertThatThrownBy(() -> new Replication(3, 4))
                 .isInstanceOf(IllegalArgumentException.class)
-                .hasMessage("replication.min-in-sync must be between 1 and the factor (3), got 4");
+                .hasMessage("replication.min-healthy must be between 1 and the factor (3), got 4");
+    }
+
+    @Test
+    void oldReplicationKeyIsRefusedNamingItsNewName() {
+        assertThatThrownBy(() -> FleetFile.parse("fleet.yaml", """
+                fleet: larkspur
+                clusters:
+                  - id: fares-3
+                    replication: { factor: 3, min-in-sync: 2 }
+                """))
+                .isInstanceOf(InvalidInputException.class)
+                .hasMessage("fleet.yaml:4:31: 'min-in-sync' is now 'min-healthy'");
     }
 
     @Test

@@ -6,7 +6,7 @@ import java.util.Objects;
 /**
  * One step of a replayed run as it ended up.
  *
- * @param kind      action, wait-healthy or notify
+ * @param kind      action, wait-healthy or page
  * @param state     succeeded, failed, timed-out, running, ...
  * @param attempt   the attempt of an action step, 0 for other kinds
  * @param startedAt null when not known

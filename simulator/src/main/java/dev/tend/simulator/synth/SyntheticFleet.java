@@ -98,8 +98,8 @@ public final class SyntheticFleet {
             sb.append("    tags: { tier: ").append(c.tags().get("tier")).append(", team: ").append(c.tags().get("team"))
                     .append(", kind: ").append(c.tags().get("kind")).append(" }\n");
             if (c.replication() != null) {
-                sb.append("    replication: { factor: ").append(c.replication().factor()).append(", min-in-sync: ")
-                        .append(c.replication().minInSync()).append(" }\n");
+                sb.append("    replication: { factor: ").append(c.replication().factor()).append(", min-healthy: ")
+                        .append(c.replication().minHealthy()).append(" }\n");
             }
             if (c.quorum()) sb.append("    quorum: true\n");
             sb.append("    nodes:\n");

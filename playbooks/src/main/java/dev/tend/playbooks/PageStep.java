@@ -4,11 +4,11 @@ import dev.tend.shared.Id;
 
 import java.util.Objects;
 
-/** Sends {@code message}, its placeholders filled in, to the notification channel {@code channel}. */
-public record NotifyStep(Id id, Id channel, Template message) implements Step {
-    public NotifyStep {
+/** Pages {@code channel} (a rota such as {@code oncall}) with {@code message}, its placeholders filled in. */
+public record PageStep(Id id, Id channel, Template message) implements Step {
+    public PageStep {
         Objects.requireNonNull(id, "step id");
-        Objects.requireNonNull(channel, "step " + id + " notify");
+        Objects.requireNonNull(channel, "step " + id + " page");
         Objects.requireNonNull(message, "step " + id + " message");
         for (String p : message.placeholders()) {
             if (!Template.MESSAGE_PLACEHOLDERS.contains(p)) {
@@ -19,6 +19,6 @@ public record NotifyStep(Id id, Id channel, Template message) implements Step {
 
     @Override
     public String kind() {
-        return "notify";
+        return "page";
     }
 }
