@@ -21,7 +21,7 @@ class EnginePagesTest {
 
     @Test
     void anApprovalIsPagedWhenAskedAndAgainBeforeItLapses() {
-        String pb = replacePlaybook("0s", "keep-in-sync: false")
+        String pb = replacePlaybook("0s", "keep-replicas: false")
                 .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "critical", 3, null)), """
                 pages:
@@ -49,7 +49,7 @@ class EnginePagesTest {
 
     @Test
     void anAnsweredApprovalIsNotReminded() {
-        String pb = replacePlaybook("0s", "keep-in-sync: false")
+        String pb = replacePlaybook("0s", "keep-replicas: false")
                 .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
         EngineHarness h = new EngineHarness(fleet(cluster("fares-3", "critical", 3, null)), null, pb);
         h.at(0, "fares-3", "n2", "heartbeat", SILENT);
@@ -69,7 +69,7 @@ class EnginePagesTest {
                   release-below: { clusters: 1 }
                 pages:
                   brake-gather: 1m
-                """, replacePlaybook("2m", "flapping: 3/10m, keep-in-sync: false"));
+                """, replacePlaybook("2m", "flapping: 3/10m, keep-replicas: false"));
         for (int i = 1; i <= 6; i++) h.at(i, "dispatch-" + i, "n1", "heartbeat", SILENT);
         assertThat(pages(h)).as("the page gathers first").isEmpty();
         // a flapping signal while the brake holds: covered by the brake's page
