@@ -25,7 +25,7 @@ import java.util.List;
  * RefusedException           409 refused, with the engine's reason
  * DriverUnavailableException,
  * StoreException             503 unavailable
- * Javalin's own (no route, wrong method, body too large): their status
+ * Javalin's own (no route, wrong method), body too large (413 too-large): their status
  * anything else              500 failed (and the stack trace to the server's log)
  * </pre>
  */
@@ -49,14 +49,15 @@ final class ApiErrors {
         app.exception(DriverUnavailableException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(StoreException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(HttpResponseException.class, (e, ctx) -> answer(ctx, e.getStatus(),
-                ErrorBody.of(e.getStatus() == 404 ? "not-found" : "invalid-input", e.getMessage())));
+                ErrorBody.of(e.getStatus() == 404 ? "not-found" : e.getStatus() == 413 ? "too-large"
+                        : e.getStatus() >= 500 ? "failed" : "invalid-input", e.getMessage())));
         app.exception(Exception.class, (e, ctx) -> {
             synchronized (log) {
                 log.println("tend: " + ctx.method() + " " + ctx.path() + " failed:");
                 e.printStackTrace(log);
                 log.flush();
             }
-            answer(ctx, 500, ErrorBody.of("failed", "the server failed: " + e));
+            answer(ctx, 500, ErrorBody.of("failed", "the server failed on this request; the details are in its log"));
         });
     }
 

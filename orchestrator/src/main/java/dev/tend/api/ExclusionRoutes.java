@@ -7,6 +7,7 @@ import dev.tend.api.view.ExclusionView;
 import dev.tend.engine.Input;
 import dev.tend.shared.Id;
 import dev.tend.shared.Target;
+import dev.tend.shared.time.Durations;
 import dev.tend.store.Store;
 import io.javalin.http.Context;
 import io.javalin.router.JavalinDefaultRouting;
@@ -55,6 +56,10 @@ final class ExclusionRoutes {
         if (req.until() != null && req.until().isBefore(now.plus(MIN_LENGTH))) {
             throw Requests.invalid("until", "until must be at least " + MIN_LENGTH.toMinutes() + " minute from now ("
                     + now + "), got " + req.until());
+        }
+        if (req.until() != null && req.until().isAfter(now.plus(Durations.MAX))) {
+            throw Requests.invalid("until", "until must be at most " + Durations.format(Durations.MAX) + " (ten years) from now ("
+                    + now + "), got " + req.until() + "; leave it out for an exclusion that lasts until removed");
         }
         Caller caller = Requests.caller(ctx);
         gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(), Requests.from(ctx)));

@@ -1,6 +1,11 @@
 package dev.tend.api;
 
 import com.fasterxml.jackson.core.JsonLocation;
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.exc.MismatchedInputException;
+import io.javalin.http.HttpResponseException;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonMappingException;
 import dev.tend.api.auth.Caller;
@@ -10,6 +15,9 @@ import dev.tend.shared.Problem;
 import dev.tend.shared.wire.Rfc3339;
 import io.javalin.http.Context;
 
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
 import java.time.Instant;
 import java.util.stream.Collectors;
 
@@ -17,6 +25,8 @@ import java.util.stream.Collectors;
 final class Requests {
     static final String CALLER = "tend.caller";
     private static final String BODY = "request body";
+    /** Reads bodies as trees, refusing a field given twice. */
+    private static final ObjectMapper STRICT = new ObjectMapper().enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
 
     private Requests() {
     }
@@ -33,24 +43,90 @@ final class Requests {
         return ctx.ip();
     }
 
-    /** The JSON body as {@code type}; an empty body is an empty object. */
+    /**
+     * The body as text, at most {@link ApiServer#MAX_BODY} bytes whether its length is
+     * declared or it comes in chunks; a larger body is a 413 (read no further than the cap).
+     */
+    static String bodyText(Context ctx) {
+        long declared = ctx.req().getContentLengthLong();
+        if (declared > ApiServer.MAX_BODY) throw tooLarge(declared);
+        try (InputStream in = ctx.req().getInputStream()) {
+            byte[] bytes = in.readNBytes((int) ApiServer.MAX_BODY + 1);
+            if (bytes.length > ApiServer.MAX_BODY) throw tooLarge(-1);
+            return new String(bytes, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw invalid("", "the request body could not be read to its end: " + e.getMessage());
+        }
+    }
+
+    private static HttpResponseException tooLarge(long declared) {
+        return new HttpResponseException(413, "the request body is larger than " + (ApiServer.MAX_BODY >> 20)
+                + " MiB" + (declared > 0 ? " (" + declared + " bytes declared)" : "") + "; send it in smaller requests");
+    }
+
+    /**
+     * The JSON body as {@code type}: it must be one JSON object (an empty body counts as an
+     * empty one) with each field once; every problem is a plain sentence that names the
+     * field and never a class of the server.
+     */
     static <T> T body(Context ctx, Class<T> type) {
-        String text = ctx.body();
+        String text = bodyText(ctx);
         if (text.isBlank()) text = "{}";
-        try {
-            return ApiJson.MAPPER.readValue(text, type);
-        } catch (JsonMappingException e) {
-            JsonLocation at = e.getLocation();
-            String field = e.getPath().stream().map(r -> r.getFieldName() == null ? "[" + r.getIndex() + "]" : r.getFieldName())
-                    .collect(Collectors.joining("."));
-            throw new InvalidInputException(Problem.at(BODY, at == null ? 0 : Math.max(0, at.getLineNr()),
-                    at == null ? 0 : Math.max(0, at.getColumnNr()), field,
-                    (field.isEmpty() ? "" : field + ": ") + "cannot be read: " + e.getOriginalMessage()));
+        JsonNode tree;
+        try (JsonParser p = STRICT.createParser(text)) {
+            tree = STRICT.readTree(p);
+            if (p.nextToken() != null) {
+                throw new InvalidInputException(Problem.at(BODY, p.currentLocation().getLineNr(), p.currentLocation().getColumnNr(), "",
+                        "the body must be one JSON object; more follows after it"));
+            }
         } catch (JsonProcessingException e) {
             JsonLocation at = e.getLocation();
             throw new InvalidInputException(Problem.at(BODY, at == null ? 0 : Math.max(0, at.getLineNr()),
-                    at == null ? 0 : Math.max(0, at.getColumnNr()), "", "the body is not JSON: " + e.getOriginalMessage()));
+                    at == null ? 0 : Math.max(0, at.getColumnNr()), "", "the body is not JSON: " + plain(e.getOriginalMessage())));
+        } catch (IOException e) {
+            throw invalid("", "the request body could not be read: " + e.getMessage());
         }
+        if (tree == null || !tree.isObject()) {
+            throw invalid("", "the body must be a JSON object like {\"reason\": \"...\"}, got " + kind(tree));
+        }
+        try {
+            return ApiJson.MAPPER.treeToValue(tree, type);
+        } catch (JsonProcessingException e) {
+            String field = e instanceof JsonMappingException m ? m.getPath().stream()
+                    .map(r -> r.getFieldName() == null ? "[" + r.getIndex() + "]" : r.getFieldName())
+                    .collect(Collectors.joining(".")) : "";
+            String expected = e instanceof MismatchedInputException mi && mi.getTargetType() != null
+                    ? expectedKind(mi.getTargetType()) : null;
+            String sentence = expected != null ? "must be " + expected
+                    : e.getCause() instanceof IllegalArgumentException iae && iae.getMessage() != null ? plain(iae.getMessage())
+                    : "has a value that cannot be read here";
+            throw invalid(field, (field.isEmpty() ? "the body " : "field '" + field + "' ") + sentence);
+        }
+    }
+
+    /** What a person calls the JSON that a Java type is read from. */
+    private static String expectedKind(Class<?> t) {
+        if (t == String.class) return "a string";
+        if (t == Instant.class) return "an RFC 3339 time like 2027-03-14T22:00:00Z";
+        if (Number.class.isAssignableFrom(t) || t.isPrimitive() && t != boolean.class) return "a number";
+        if (t == Boolean.class || t == boolean.class) return "true or false";
+        if (java.util.Collection.class.isAssignableFrom(t) || t.isArray()) return "a list";
+        return "an object";
+    }
+
+    private static String kind(JsonNode n) {
+        if (n == null || n.isNull() || n.isMissingNode()) return "null";
+        if (n.isArray()) return "a list";
+        if (n.isTextual()) return "a string";
+        if (n.isNumber()) return "a number";
+        if (n.isBoolean()) return "true or false";
+        return "something else";
+    }
+
+    /** A parser's sentence without the names of Java types (quoted in backticks) it may carry. */
+    static String plain(String message) {
+        if (message == null) return "it cannot be read";
+        return message.replaceAll("`[A-Za-z0-9_.$\\[\\]]+`", "a value").replaceAll("\\s*\\n.*", "");
     }
 
     /** A required, non-blank text field of a body, at most {@code max} characters. */

@@ -54,7 +54,7 @@ final class TransitionRoutes {
     }
 
     private void post(Context ctx) {
-        String body = singleObjectOnOneLine(ctx.body());
+        String body = singleObjectOnOneLine(Requests.bodyText(ctx));
         List<Input> events = new ArrayList<>();
         List<LineProblem> problems = new ArrayList<>();
         ReadSummary summary = WireReader.of("request").readAll(new StringReader(body), r -> {

@@ -1,8 +1,10 @@
 package dev.tend.cli;
 
+import dev.tend.audit.Anchor;
+import dev.tend.audit.AnchorVerifier;
+import dev.tend.audit.LedgerKey;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
-import dev.tend.store.LedgerVerification;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -15,7 +17,7 @@ import java.time.Clock;
 import java.util.concurrent.Callable;
 
 /** {@code tend audit}: read the ledger; {@code tend audit verify}: check its hash chain. */
-@Command(name = "audit", mixinStandardHelpOptions = true, subcommands = AuditCommand.Verify.class,
+@Command(name = "audit", mixinStandardHelpOptions = true, subcommands = {AuditCommand.Verify.class, AuditCommand.AnchorCommand.class},
         description = "Show ledger entries (every verdict, run and step change, executor call, approval, exclusion,"
                 + " brake change, policy load and operator command), oldest first.")
 public final class AuditCommand implements Callable<Integer> {
@@ -53,8 +55,8 @@ public final class AuditCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         Clock clock = Clock.systemDefaultZone();
         LedgerFilter f = LedgerFilter.all();
-        if (since != null) f = f.withSince(TimeArg.parse(since, clock));
-        if (until != null) f = f.withUntil(TimeArg.parse(until, clock));
+        if (since != null) f = f.withSince(TimeArg.parse("--since", since, clock));
+        if (until != null) f = f.withUntil(TimeArg.parse("--until", until, clock));
         if (cluster != null) f = f.withCluster(cluster);
         if (playbook != null) f = f.withPlaybook(playbook);
         if (kind != null) f = f.withKind(kind);
@@ -88,10 +90,47 @@ public final class AuditCommand implements Callable<Integer> {
         return "\"" + s.replace("\"", "\"\"") + "\"";
     }
 
-    /** {@code tend audit verify}: exit 0 when the chain is whole, 1 naming the first broken entry. */
+    /** {@code tend audit verify}: exit 0 when the chain (and the checkpoints, and the anchor) hold, 1 naming the first entry at fault. */
     @Command(name = "verify", mixinStandardHelpOptions = true,
-            description = "Recompute the ledger's hash chain; exit 1 naming the first edited, dropped or reordered entry.")
+            description = "Recompute the ledger's hash chain; with --ledger-key also check every checkpoint, with --anchor"
+                    + " also check an anchor kept elsewhere. Exit 1 naming the first entry at fault: edited, dropped,"
+                    + " reordered, rewritten with every hash recomputed, cut off, or checkpointed with another key.")
     public static final class Verify implements Callable<Integer> {
+        @Spec
+        CommandSpec spec;
+
+        @Mixin
+        DbOption db;
+
+        @Mixin
+        LedgerKeyOption ledgerKey;
+
+        @Option(names = "--anchor", paramLabel = "SEQ:HASH", description = "a head printed earlier by tend audit anchor")
+        String anchor;
+
+        @Override
+        public Integer call() throws Exception {
+            LedgerKey key = ledgerKey.load();
+            Anchor a = anchor == null ? null : Anchor.parse("--anchor", anchor);
+            PrintWriter out = spec.commandLine().getOut();
+            try (Store store = db.openExisting()) {
+                AnchorVerifier.Result v = store.read(r -> AnchorVerifier.verify(r, key, a));
+                if (v.ok()) {
+                    out.println("ledger ok: " + v.entries() + " entries, head " + v.headHash() + "; " + v.message());
+                    for (String n : v.notes()) out.println("note: " + n);
+                    return ExitCodes.OK;
+                }
+                out.println("ledger broken at entry " + v.firstAtFault() + ": " + v.message());
+                return ExitCodes.FINDINGS;
+            }
+        }
+    }
+
+    /** {@code tend audit anchor}: the head as {@code seq:hash}, to keep outside tend. */
+    @Command(name = "anchor", mixinStandardHelpOptions = true,
+            description = "Print the ledger's head as SEQ:HASH, to keep elsewhere (a ticket, a chat message, another"
+                    + " system); tend audit verify --anchor SEQ:HASH later proves that nothing up to it was rewritten or cut off.")
+    public static final class AnchorCommand implements Callable<Integer> {
         @Spec
         CommandSpec spec;
 
@@ -101,13 +140,10 @@ public final class AuditCommand implements Callable<Integer> {
         @Override
         public Integer call() throws Exception {
             try (Store store = db.openExisting()) {
-                LedgerVerification v = store.read(r -> r.verifyLedger());
-                if (v.ok()) {
-                    spec.commandLine().getOut().println("ledger ok: " + v.entries() + " entries, head " + v.headHash());
-                    return ExitCodes.OK;
-                }
-                spec.commandLine().getOut().println("ledger broken: " + v.reason());
-                return ExitCodes.FINDINGS;
+                var head = store.read(r -> r.ledgerHead());
+                if (head.isEmpty()) throw new dev.tend.shared.TendException(db.db + ": the ledger is empty; there is nothing to anchor");
+                spec.commandLine().getOut().println(head.get().seq() + ":" + head.get().hash());
+                return ExitCodes.OK;
             }
         }
     }

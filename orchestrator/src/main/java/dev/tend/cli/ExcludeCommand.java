@@ -110,12 +110,6 @@ public final class ExcludeCommand implements Runnable {
 
     /** An RFC 3339 time, or a duration from now. */
     static Instant until(String text, Clock clock) {
-        if (text.matches("(\\d+[smhd])+")) return clock.instant().plus(Durations.parse(text));
-        try {
-            return Rfc3339.parse(text);
-        } catch (IllegalArgumentException e) {
-            throw new CommandLine.TypeConversionException("--until '" + text
-                    + "' is not a time: use an RFC 3339 time like 2027-03-15T06:00:00Z or a duration from now like 4h");
-        }
+        return TimeArg.ahead("--until", text, clock);
     }
 }

@@ -54,8 +54,8 @@ public final class HandoverCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         Clock clock = Clock.systemDefaultZone();
-        Instant from = TimeArg.parse(since, clock);
-        Instant to = until == null ? clock.instant() : TimeArg.parse(until, clock);
+        Instant from = TimeArg.parse("--since", since, clock);
+        Instant to = until == null ? clock.instant() : TimeArg.parse("--until", until, clock);
         if (!to.isAfter(from)) {
             throw new CommandLine.ParameterException(spec.commandLine(),
                     "--until (" + to + ") must be after --since (" + from + ")");

@@ -1,5 +1,7 @@
 package dev.tend.cli;
 
+import dev.tend.audit.CheckpointWriter;
+import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
@@ -11,9 +13,15 @@ import dev.tend.executor.SimulatedExecutor;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
+import dev.tend.runtime.SourceProgress;
 import dev.tend.shared.HealthTransition;
+import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.Problem;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
@@ -26,14 +34,15 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import picocli.CommandLine.Model.CommandSpec;
 
-import java.io.InputStreamReader;
+import java.io.IOException;
+import java.io.InputStream;
 import java.io.PrintWriter;
-import java.io.Reader;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Duration;
+import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.atomic.AtomicBoolean;
@@ -66,10 +75,15 @@ public final class IngestCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
+    @Mixin
+    LedgerKeyOption ledgerKey;
+
     @Override
     public Integer call() throws Exception {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
+        InputStream source = open();
+        LedgerKey ledger = ledgerKey.load();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
         OutgoingHttp outgoing = new OutgoingHttp();
@@ -81,28 +95,48 @@ public final class IngestCommand implements Callable<Integer> {
              Executor http = HttpExecutor.withDefaults(outgoing);
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    n -> courier.wake(), clock);
+                    n -> courier.wake(), clock, new CommitListener() {
+                        @Override
+                        public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+                        }
+
+                        @Override
+                        public void refused(Input in, String reason) {
+                            refused.incrementAndGet();
+                            err.println("tend: refused a " + in.kind() + " input" + (in.cluster() == null ? "" : " of " + in.cluster())
+                                    + " (a ledger entry input-refused names it): " + reason);
+                        }
+                    });
             courier.start();
             holder[0] = orch;
+            if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {
                 err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "
                         + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                         + rec.callsUnknown() + " runs stopped for a person");
             }
+            long skip = input.equals("-") ? 0 : orch.readingFrom(SourceProgress.identity(Path.of(input)));
+            if (skip > 0) {
+                err.println("tend: the first " + skip + " events of " + input + " are already journaled in " + db.db
+                        + "; reading on after them");
+            }
+            long[] seen = {0};
             AtomicBoolean eof = new AtomicBoolean();
+            java.util.concurrent.atomic.AtomicReference<String> readFailure = new java.util.concurrent.atomic.AtomicReference<>();
             ReadSummary[] summary = new ReadSummary[1];
             Thread reader = new Thread(() -> {
-                try (Reader in = open()) {
+                try (InputStream in = source) {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
-                            if (r instanceof LineResult.Event e) {
+                            if (r instanceof LineResult.Event e && ++seen[0] > skip) {
                                 orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
                                         : new Input.Topology((TopologyEvent) e.event()));
-                            } else if (r instanceof LineResult.Bad b) {
+                            } else if (r instanceof LineResult.Bad b && seen[0] >= skip) {
                                 err.println(b.problem() + " (line skipped)");
                             }
                         } catch (InterruptedException ie) {
@@ -110,7 +144,8 @@ public final class IngestCommand implements Callable<Integer> {
                             throw new IllegalStateException(ie);
                         }
                     });
-                } catch (Exception e) {
+                } catch (RuntimeException | IOException e) {
+                    readFailure.set(e.getMessage());
                     err.println("tend: reading " + input + " stopped: " + e.getMessage());
                 } finally {
                     eof.set(true);
@@ -131,13 +166,24 @@ public final class IngestCommand implements Callable<Integer> {
             // what is due now goes out before the command ends; pages still waiting for a retry go out with the next start on this store
             courier.deliverDue();
             report(out, orch, summary[0]);
+            if (readFailure.get() != null) return ExitCodes.USAGE;
+            if (refused.get() > 0) return ExitCodes.FINDINGS;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }
 
-    private Reader open() throws java.io.IOException {
-        if (input.equals("-")) return new InputStreamReader(System.in, StandardCharsets.UTF_8);
-        return Files.newBufferedReader(Path.of(input), StandardCharsets.UTF_8);
+    /** Standard input or the file, opened before anything else so that a missing file is exit 2 with its path. */
+    private InputStream open() {
+        if (input.equals("-")) return System.in;
+        Path file = Path.of(input);
+        try {
+            if (Files.isDirectory(file)) throw new IOException("it is a directory");
+            return Files.newInputStream(file);
+        } catch (NoSuchFileException e) {
+            throw new InvalidInputException(Problem.at(input, 0, 0, "", "no such file"));
+        } catch (IOException e) {
+            throw new InvalidInputException(Problem.at(input, 0, 0, "", "cannot read the file: " + e.getMessage()));
+        }
     }
 
     private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {

@@ -82,8 +82,8 @@ public final class RecordCommand implements Callable<Integer> {
                     "exporting the journal needs --from T and --until T (or --synthesize for a synthetic recording)"));
         }
         Clock clock = Clock.systemDefaultZone();
-        Instant start = TimeArg.parse(from, clock);
-        Instant end = TimeArg.parse(until, clock);
+        Instant start = TimeArg.parse("--from", from, clock);
+        Instant end = TimeArg.parse("--until", until, clock);
         if (!end.isAfter(start)) {
             throw new InvalidInputException(Problem.at("tend record", 0, 0, "--until", "--until (" + end + ") must be after --from (" + start + ")"));
         }

@@ -9,6 +9,7 @@ import dev.tend.serve.TendServer;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
+import dev.tend.audit.LedgerKey;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import picocli.CommandLine.Model.CommandSpec;
@@ -55,6 +56,9 @@ public final class ServeCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
+    @Mixin
+    LedgerKeyOption ledgerKey;
+
     static final class ListenConverter implements picocli.CommandLine.ITypeConverter<Listen> {
         @Override
         public Listen convert(String value) {
@@ -67,6 +71,7 @@ public final class ServeCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
         Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
+        LedgerKey key = ledgerKey.load();
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
@@ -74,6 +79,7 @@ public final class ServeCommand implements Callable<Integer> {
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {
+                if (key != null) server.checkpointWith(store, key);
                 var rec = server.recovery();
                 if (rec.inputsReplayed() > 0) {
                     err.println("tend: resumed from " + db.describe() + ": " + rec.inputsReplayed() + " journaled inputs replayed, "

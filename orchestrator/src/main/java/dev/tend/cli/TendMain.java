@@ -34,9 +34,13 @@ public final class TendMain implements Runnable {
         cli.setExecutionExceptionHandler((ex, cmd, parsed) -> {
             if (ex instanceof InvalidInputException || ex instanceof TendException) {
                 cmd.getErr().println(ex.getMessage());
+            } else if (ex instanceof CommandLine.ParameterException || ex instanceof CommandLine.TypeConversionException) {
+                cmd.getErr().println("tend " + cmd.getCommandName() + ": " + ex.getMessage());
+                return ExitCodes.USAGE;
             } else {
-                cmd.getErr().println("tend: unexpected failure: " + ex);
-                ex.printStackTrace(cmd.getErr());
+                cmd.getErr().println("tend: internal failure (" + ex.getClass().getSimpleName() + "); "
+                        + FailureTrace.write(ex, args));
+                return ExitCodes.USAGE; // DESIGN.md section 8 knows 0, 1 and 2 only
             }
             return exitCodeFor(ex);
         });

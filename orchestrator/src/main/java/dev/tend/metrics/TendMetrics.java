@@ -25,6 +25,7 @@ import java.util.List;
  * <pre>
  * tend_transitions_received_total           transitions and topology events accepted over HTTP
  * tend_transition_lines_rejected_total      lines of transition requests refused
+ * tend_inputs_refused_total{input}          inputs refused at commit (a value the store or engine cannot hold)
  * tend_verdicts_total{verdict,reason}       verdicts written to the ledger, once per reason code ("none" for a clean start)
  * tend_runs_started_total{playbook}
  * tend_runs_ended_total{playbook,state}     succeeded, failed, cancelled, shadowed
@@ -44,6 +45,8 @@ public final class TendMetrics implements CommitListener {
             .help("Transitions and topology events accepted over HTTP").register(registry);
     private final Counter rejectedLines = Counter.builder().name("tend_transition_lines_rejected_total")
             .help("Lines of transition requests refused").register(registry);
+    private final Counter refusedInputs = Counter.builder().name("tend_inputs_refused_total")
+            .help("Inputs refused because of a value the store or the engine cannot hold").labelNames("input").register(registry);
     private final Counter verdicts = Counter.builder().name("tend_verdicts_total")
             .help("Verdicts written to the ledger, once per reason code").labelNames("verdict", "reason").register(registry);
     private final Counter runsStarted = Counter.builder().name("tend_runs_started_total")
@@ -80,6 +83,11 @@ public final class TendMetrics implements CommitListener {
 
     public void transitionsReceived(long n) {
         if (n > 0) transitions.inc(n);
+    }
+
+    @Override
+    public void refused(Input input, String reason) {
+        refusedInputs.labelValues(input.kind()).inc();
     }
 
     public void linesRejected(long n) {

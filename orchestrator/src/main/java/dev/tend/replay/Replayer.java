@@ -137,6 +137,8 @@ public final class Replayer {
         private VirtualClock clock;
         private Instant lastEventAt;
 
+        private final List<Problem> problems = new ArrayList<>();
+
         Run(Recording recording, ReplayListener listener) {
             this.recording = recording;
             this.listener = listener;
@@ -159,6 +161,7 @@ public final class Replayer {
 
         @Override
         public void problem(Problem problem) {
+            problems.add(problem);
             listener.problem(problem);
         }
 
@@ -251,7 +254,7 @@ public final class Replayer {
                     collector.maxConcurrent(), !collector.brakePeriods().isEmpty(), unfinished, model.hiddenEvents());
             Instant from = collector.startTime();
             RecordingInfo info = new RecordingInfo(recording.name(), header == null ? null : header.description(), from,
-                    header == null ? null : header.until(), horizon, read.events(), read.bad(), engine.health().lateEvents());
+                    header == null ? null : header.until(), horizon, read.events(), read.bad(), engine.health().lateEvents(), problems);
             List<PlaybookRef> playbooks = new ArrayList<>();
             for (Playbook p : policy.playbooks()) playbooks.add(new PlaybookRef(p.id().value(), p.version(), p.contentHash()));
             Duration interval = horizon == null ? Duration.ofMinutes(1) : collector.healthInterval(horizon);

@@ -20,4 +20,11 @@ public interface CommitListener {
 
     /** {@code inputs} in the order handled; {@code effects} all their effects, in the same order. */
     void committed(Engine engine, List<Input> inputs, List<Effect> effects);
+
+    /**
+     * {@code input} was refused: what it carries could not be decided or kept, and a ledger
+     * entry {@code input-refused} names it; the driver goes on with the next input.
+     */
+    default void refused(Input input, String reason) {
+    }
 }

@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
@@ -40,7 +41,9 @@ public final class Orchestrator {
     private static final long GATHER_NANOS = 10_000_000;
 
     private final Store store;
-    private final Engine engine;
+    private final EngineSetup setup;
+    /** Replaced by a rebuilt one when a batch must be taken apart (see {@link #retryOneByOne}); driver thread only. */
+    private Engine engine;
     private final Map<String, Executor> executors;
     private final Timers timers;
     private final Notifier notifier;
@@ -50,6 +53,13 @@ public final class Orchestrator {
     private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
     private final AtomicInteger callsInFlight = new AtomicInteger();
     private volatile boolean stopping;
+    /** The input the events queue is fed from (see {@link #readingFrom}); null when it has no identity. */
+    private volatile String source;
+    /** Events of {@link #source} journaled (or refused) so far, from the journal's progress rows on. */
+    private long sourceDone;
+    private final Map<String, Long> progressFound = new java.util.HashMap<>();
+    /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
+    private volatile CheckpointWriter checkpoints;
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
@@ -62,6 +72,7 @@ public final class Orchestrator {
                         Notifier notifier, Clock clock, CommitListener listener) {
         this.listener = java.util.Objects.requireNonNull(listener, "listener");
         this.store = store;
+        this.setup = setup;
         this.engine = new Engine(setup);
         this.executors = Map.copyOf(executors);
         this.timers = timers;
@@ -83,14 +94,7 @@ public final class Orchestrator {
      * in flight: asked again by key where the executor can, else the run stops for a person.
      */
     public Recovery recover() {
-        long[] n = {0};
-        store.read(r -> {
-            r.forEachInput(0, row -> {
-                engine.handle(InputCodec.decode(row), row.now());
-                n[0]++;
-            });
-            return null;
-        });
+        long n = replayJournal();
         Map<String, Instant> armed = engine.armedTimers();
         armed.forEach(timers::arm);
         int again = 0, unknown = 0;
@@ -104,7 +108,48 @@ public final class Orchestrator {
                 unknown++;
             }
         }
-        return new Recovery(n[0], armed.size(), again, unknown);
+        return new Recovery(n, armed.size(), again, unknown);
+    }
+
+    /** Feeds every journaled input to the engine (its effects are already in the store); returns how many. */
+    private long replayJournal() {
+        long[] n = {0};
+        store.read(r -> {
+            r.forEachInput(0, row -> {
+                if (row.kind().equals(SourceProgress.KIND)) {
+                    SourceProgress p = SourceProgress.decode(row);
+                    progressFound.put(p.source(), p.events());
+                    return;
+                }
+                engine.handle(InputCodec.decode(row), row.now());
+                n[0]++;
+            });
+            return null;
+        });
+        return n[0];
+    }
+
+    /**
+     * Names the input that {@link #submitEvent} is fed from (a file's identity, see
+     * {@link SourceProgress#identity}); from then on each commit also journals how many of its
+     * events are done, in the same transaction, so that a reader started again after a crash
+     * skips exactly those. Call after {@link #recover()} and before {@link #runUntil}.
+     *
+     * @return how many events of this source the journal already holds (0 for a new source)
+     */
+    public long readingFrom(String sourceIdentity) {
+        this.source = java.util.Objects.requireNonNull(sourceIdentity, "sourceIdentity");
+        sourceDone = progressFound.getOrDefault(sourceIdentity, 0L);
+        return sourceDone;
+    }
+
+    /**
+     * Writes keyed checkpoints into the ledger from now on: at least every
+     * {@link CheckpointWriter#EVERY} of processing time while the ledger grows, and when
+     * {@link #runUntil} ends.
+     */
+    public void checkpointWith(CheckpointWriter writer) {
+        this.checkpoints = writer;
     }
 
     /** Queues a transition or topology event; blocks while the queue is full. */
@@ -157,28 +202,55 @@ public final class Orchestrator {
 
     /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
     public void runUntil(BooleanSupplier done) throws InterruptedException {
+        boolean failed = true;
+        try {
+            loop(done);
+            failed = false;
+        } finally {
+            CheckpointWriter w = checkpoints;
+            if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
+        }
+    }
+
+    private void loop(BooleanSupplier done) throws InterruptedException {
         List<Input> batch = new ArrayList<>(BATCH);
+        java.util.BitSet queued = new java.util.BitSet(BATCH);
         while (!stopping) {
             batch.clear();
+            queued.clear();
             urgent.drainTo(batch, BATCH);
-            if (batch.size() < BATCH) events.drainTo(batch, BATCH - batch.size());
+            if (batch.size() < BATCH) fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
             if (batch.isEmpty()) {
                 if (done.getAsBoolean() && urgent.isEmpty() && events.isEmpty()) return;
+                CheckpointWriter w = checkpoints;
+                if (w != null) w.maybeWrite(clock.instant());
                 Input next = urgent.poll(20, TimeUnit.MILLISECONDS);
-                if (next == null) next = events.poll();
+                boolean event = false;
+                if (next == null) {
+                    next = events.poll();
+                    event = true;
+                }
                 if (next == null) continue;
                 batch.add(next);
+                if (event) queued.set(0);
             }
-            gather(batch);
-            process(batch);
+            gather(batch, queued);
+            process(batch, queued);
+            CheckpointWriter w = checkpoints;
+            if (w != null) w.maybeWrite(clock.instant());
         }
+    }
+
+    /** Marks the last {@code n} inputs of {@code batch} as taken from the events queue. */
+    private static void fromEvents(List<Input> batch, java.util.BitSet queued, int n) {
+        if (n > 0) queued.set(batch.size() - n, batch.size());
     }
 
     /**
      * Lets a small batch fill up for a few milliseconds, so that a steady trickle of events
      * is committed in groups rather than a transaction per event.
      */
-    private void gather(List<Input> batch) throws InterruptedException {
+    private void gather(List<Input> batch, java.util.BitSet queued) throws InterruptedException {
         long deadline = System.nanoTime() + GATHER_NANOS;
         while (batch.size() < BATCH) {
             long left = deadline - System.nanoTime();
@@ -189,39 +261,40 @@ public final class Orchestrator {
                 return;
             }
             batch.add(next);
-            events.drainTo(batch, BATCH - batch.size());
+            queued.set(batch.size() - 1);
+            fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
             urgent.drainTo(batch, BATCH - batch.size());
         }
     }
 
-    private void process(List<Input> batch) {
+    private void process(List<Input> batch, java.util.BitSet queued) {
         List<InputRow> rows = new ArrayList<>(batch.size());
         List<Effect> all = new ArrayList<>();
         List<LedgerDraft> ledger = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
-        for (Input in : batch) {
-            Instant now = clock.instant();
-            rows.add(InputCodec.encode(in, now));
-            List<Effect> fx = engine.handle(in, now);
-            all.addAll(fx);
-            times.add(now);
-            perInput.add(fx);
-        }
         try {
+            for (Input in : batch) {
+                Instant now = clock.instant();
+                rows.add(InputCodec.encode(in, now));
+                List<Effect> fx = engine.handle(in, now);
+                all.addAll(fx);
+                times.add(now);
+                perInput.add(fx);
+            }
+            long done = sourceDone + queued.cardinality();
+            if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
             store.useTransaction(tx -> {
                 tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) Projections.apply(tx, times.get(i), perInput.get(i), ledger);
                 tx.appendLedger(ledger);
             });
+            sourceDone = done;
         } catch (RuntimeException e) {
-            stopping = true;
-            for (Input in : batch) {
-                CompletableFuture<List<Effect>> f = waiting.remove(in);
-                if (f != null) f.completeExceptionally(e);
-            }
-            throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
-                    + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
+            if (InputRefusal.isDatabaseFailure(e)) stopOn(batch, e);
+            // what one input carries cannot be decided or kept: nothing of the batch was written or done
+            retryOneByOne(batch, queued);
+            return;
         }
         for (Effect e : all) perform(e);
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
@@ -231,6 +304,76 @@ public final class Orchestrator {
                 if (f != null) f.complete(perInput.get(i));
             }
         }
+    }
+
+    /**
+     * Takes a batch apart after an input in it could not be decided or committed: the engine
+     * is rebuilt from the journal (which holds exactly what was committed, so the rebuilt
+     * engine is the one before the batch, and no effect of the batch has been performed),
+     * then each input is decided and committed on its own. The input at fault is refused on
+     * the record (a ledger entry naming it, and the listener is told) and the others go on.
+     */
+    private void retryOneByOne(List<Input> batch, java.util.BitSet queued) {
+        rebuild();
+        for (int i = 0; i < batch.size(); i++) {
+            Input in = batch.get(i);
+            Instant now = clock.instant();
+            List<InputRow> rows = new ArrayList<>(2);
+            if (source != null && queued.get(i)) rows.add(SourceProgress.row(source, sourceDone + 1, now));
+            List<Effect> fx;
+            try {
+                rows.add(0, InputCodec.encode(in, now));
+                fx = engine.handle(in, now);
+                List<LedgerDraft> ledger = new ArrayList<>();
+                store.useTransaction(tx -> {
+                    tx.appendInputs(rows);
+                    Projections.apply(tx, now, fx, ledger);
+                    tx.appendLedger(ledger);
+                });
+            } catch (RuntimeException e) {
+                if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
+                rebuild();
+                refuse(batch.subList(i, batch.size()), in, now, e, source != null && queued.get(i));
+                continue;
+            }
+            if (source != null && queued.get(i)) sourceDone++;
+            for (Effect e : fx) perform(e);
+            listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
+            CompletableFuture<List<Effect>> f = waiting.remove(in);
+            if (f != null) f.complete(fx);
+        }
+    }
+
+    private void rebuild() {
+        engine = new Engine(setup);
+        replayJournal();
+    }
+
+    private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
+        String reason = InputRefusal.reason(cause);
+        try {
+            store.useTransaction(tx -> {
+                if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
+                tx.appendLedger(now, "input-refused", InputRefusal.fields(in, reason));
+            });
+        } catch (RuntimeException e) {
+            stopOn(rest, e);
+        }
+        if (ofSource) sourceDone++;
+        listener.refused(in, reason);
+        CompletableFuture<List<Effect>> f = waiting.remove(in);
+        if (f != null) f.completeExceptionally(InputRefusal.asInvalidInput(in, reason));
+    }
+
+    /** A failure of the database itself: tend stops safely and resumes from the journal when started again. */
+    private void stopOn(List<Input> batch, RuntimeException e) {
+        stopping = true;
+        for (Input in : batch) {
+            CompletableFuture<List<Effect>> f = waiting.remove(in);
+            if (f != null) f.completeExceptionally(e);
+        }
+        throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
+                + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
     }
 
     private void perform(Effect e) {

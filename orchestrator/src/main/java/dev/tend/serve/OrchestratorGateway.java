@@ -5,6 +5,7 @@ import dev.tend.api.Gateway;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
 import dev.tend.runtime.Orchestrator;
+import dev.tend.shared.InvalidInputException;
 
 import java.time.Duration;
 import java.util.List;
@@ -65,6 +66,7 @@ final class OrchestratorGateway implements Gateway {
                 }
             }
         } catch (ExecutionException e) {
+            if (e.getCause() instanceof InvalidInputException refused) throw refused;
             throw new DriverUnavailableException("the orchestrator could not commit " + what + ": " + e.getCause().getMessage(), e);
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();

@@ -81,10 +81,22 @@ public final class TendServer implements AutoCloseable {
         Orchestrator[] holder = new Orchestrator[1];
         timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
         Timers engineTimers = s.timeScale().onProcessingTime(timers);
-        CommitListener listeners = (Engine engine, List<Input> inputs, List<Effect> effects) -> {
-            lastCommitNanos.set(System.nanoTime());
-            metrics.committed(engine, inputs, effects);
-            health.committed(engine, inputs, effects);
+        CommitListener listeners = new CommitListener() {
+            @Override
+            public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+                lastCommitNanos.set(System.nanoTime());
+                metrics.committed(engine, inputs, effects);
+                health.committed(engine, inputs, effects);
+            }
+
+            @Override
+            public void refused(Input input, String reason) {
+                metrics.refused(input, reason);
+                synchronized (log) {
+                    log.println("tend: refused a " + input.kind() + " input: " + reason);
+                    log.flush();
+                }
+            }
         };
         Courier[] courierRef = new Courier[1];
         Notifier notifier = n -> {
@@ -153,6 +165,14 @@ public final class TendServer implements AutoCloseable {
     public String url() {
         String h = host.contains(":") ? "[" + host + "]" : host;
         return "http://" + h + ":" + port();
+    }
+
+    /**
+     * Keys the ledger from now on (DESIGN.md section 6): a checkpoint entry at least once a
+     * minute while it grows, and one when the server stops.
+     */
+    public void checkpointWith(Store store, dev.tend.audit.LedgerKey key) {
+        orchestrator.checkpointWith(new dev.tend.audit.CheckpointWriter(store, key, dev.tend.audit.CheckpointWriter.EVERY));
     }
 
     /** What the start found in the store. */

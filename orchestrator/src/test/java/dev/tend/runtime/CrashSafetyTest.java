@@ -95,7 +95,10 @@ class CrashSafetyTest {
                     dev.tend.engine.EventTimeMode.eventsOnly());
             dev.tend.engine.Engine replayed = new dev.tend.engine.Engine(setup);
             store.read(r -> {
-                r.forEachInput(0, row -> replayed.handle(InputCodec.decode(row), row.now()));
+                r.forEachInput(0, row -> {
+                    // progress rows count what ingest read of its file; they are not the engine's inputs
+                    if (!row.kind().equals(SourceProgress.KIND)) replayed.handle(InputCodec.decode(row), row.now());
+                });
                 return null;
             });
             Map<String, String> projected = new HashMap<>();

@@ -101,7 +101,7 @@ class OperatorCommandsTest {
         assertThat(again.exit()).isEqualTo(2);
         assertThat(again.err()).contains("dispatch-1/n2 is not excluded");
         assertThat(badUntil.exit()).isEqualTo(2);
-        assertThat(badUntil.err()).contains("--until 'tomorrow' is not a time");
+        assertThat(badUntil.err()).contains("--until: 'tomorrow' is not a time");
         assertThat(tend(VERA, "exclude", "list").out()).isEqualTo("no exclusions\n");
     }
 

@@ -68,7 +68,8 @@ public final class Recording {
      */
     public static Recording open(Path file) {
         Objects.requireNonNull(file, "file");
-        try (BufferedReader in = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+        // lenient decoding here: a line that is not UTF-8 is only looked at, and read() refuses it by number
+        try (BufferedReader in = new BufferedReader(new InputStreamReader(Files.newInputStream(file), StandardCharsets.UTF_8))) {
             WireReader reader = WireReader.of(file.toString());
             RecordingHeader header = null;
             String line;
@@ -149,10 +150,9 @@ public final class Recording {
      */
     public ReadSummary read(Sink sink) {
         Objects.requireNonNull(sink, "sink");
-        try (CountingStream counted = new CountingStream(Files.newInputStream(file));
-             BufferedReader in = new BufferedReader(new InputStreamReader(counted, StandardCharsets.UTF_8), 1 << 16)) {
+        try (CountingStream counted = new CountingStream(Files.newInputStream(file))) {
             long[] lastReported = {0};
-            return WireReader.of(file.toString()).readAll(in, r -> {
+            return WireReader.of(file.toString()).readAll(counted, r -> {
                 if (r instanceof LineResult.Event e) sink.event(e.event(), e.line());
                 else if (r instanceof LineResult.Bad b) sink.problem(b.problem());
                 if (counted.count - lastReported[0] >= 1 << 20) {

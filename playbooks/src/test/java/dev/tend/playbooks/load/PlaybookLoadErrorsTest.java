@@ -205,6 +205,22 @@ class PlaybookLoadErrorsTest {
     }
 
     @Test
+    void aWaitLongerThanTheStoreCanHoldIsLocatedAtCheckTime() {
+        String text = """
+                playbook: p1
+                when: { signal: heartbeat, state: silent, scope: node }
+                steps:
+                  - { id: drain, action: drain-node, timeout: 10m }
+                  - { id: settle, wait-healthy: [heartbeat], within: 100000d }
+                """;
+        List<Problem> problems = load("p1.yaml", text);
+        assertThat(problems).hasSize(1);
+        assertThat(problems.get(0).line()).isEqualTo(5);
+        assertThat(problems.get(0).column()).isEqualTo(column(text, 5, "100000d"));
+        assertThat(problems.get(0).message()).contains("at most 3650d");
+    }
+
+    @Test
     void duplicatePlaybookIdAcrossFilesNamesTheFirstFile() {
         String body = """
                 trigger: { signal: heartbeat, state: silent, scope: node }

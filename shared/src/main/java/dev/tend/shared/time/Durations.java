@@ -7,11 +7,16 @@ import java.util.regex.Pattern;
 /**
  * The compact duration syntax of playbooks and config: a whole number and a unit,
  * {@code s}, {@code m}, {@code h} or {@code d}, optionally chained: {@code 90s},
- * {@code 5m}, {@code 1h30m}, {@code 7d}.
+ * {@code 5m}, {@code 1h30m}, {@code 7d}. At most {@link #MAX} (3650d): every time tend
+ * computes from a duration (a deadline, an expiry, a window's end) must still fit what the
+ * store keeps (up to 2262), and no remediation waits ten years.
  */
 public final class Durations {
     private static final Pattern WHOLE = Pattern.compile("(?:\\d+[smhd])+");
     private static final Pattern PART = Pattern.compile("(\\d+)([smhd])");
+
+    /** The longest duration tend accepts anywhere: ten years of days. */
+    public static final Duration MAX = Duration.ofDays(3650);
 
     private Durations() {
     }
@@ -37,7 +42,10 @@ public final class Durations {
                 });
             }
         } catch (NumberFormatException | ArithmeticException tooBig) {
-            throw new IllegalArgumentException("a duration must be shorter than 292 billion years, got '" + text + "'");
+            d = null;
+        }
+        if (d == null || d.compareTo(MAX) > 0) {
+            throw new IllegalArgumentException("a duration is at most " + format(MAX) + " (ten years), got '" + text + "'");
         }
         return d;
     }

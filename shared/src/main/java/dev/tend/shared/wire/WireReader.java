@@ -5,6 +5,7 @@ import dev.tend.shared.Problem;
 
 import java.io.BufferedReader;
 import java.io.IOException;
+import java.io.InputStream;
 import java.io.Reader;
 import java.util.ArrayList;
 import java.util.List;
@@ -119,13 +120,42 @@ public final class WireReader {
      */
     public ReadSummary readAll(Reader in, Consumer<LineResult> sink) {
         BufferedReader lines = in instanceof BufferedReader b ? b : new BufferedReader(in, 1 << 16);
+        return readAll(() -> {
+            String text = lines.readLine();
+            return text == null ? null : new Utf8Lines.Line(text, 0);
+        }, sink);
+    }
+
+    /**
+     * As {@link #readAll(Reader, Consumer)}, from bytes: each line is decoded as UTF-8 on its
+     * own, and a line that is not valid UTF-8 is a bad line located at its first wrong byte,
+     * while the lines after it are read as usual. Files and standard input are read this way,
+     * so that both behave the same.
+     */
+    public ReadSummary readAll(InputStream in, Consumer<LineResult> sink) {
+        Utf8Lines lines = new Utf8Lines(in);
+        return readAll(lines::next, sink);
+    }
+
+    private interface LineSource {
+        Utf8Lines.Line next() throws IOException;
+    }
+
+    private ReadSummary readAll(LineSource lines, Consumer<LineResult> sink) {
         long n = 0, events = 0, headers = 0, blanks = 0, bad = 0, omitted = 0;
         List<Problem> problems = new ArrayList<>();
-        String line;
-        while ((line = next(lines, n)) != null) {
+        Utf8Lines.Line next;
+        while ((next = next(lines, n)) != null) {
             n++;
-            if (n == 1 && !line.isEmpty() && line.charAt(0) == BYTE_ORDER_MARK) line = line.substring(1);
-            LineResult r = parseLine(line, n);
+            LineResult r;
+            if (!next.isValid()) {
+                r = bad(n, next.badColumn(), "", "this line is not valid UTF-8 (the byte at column " + next.badColumn()
+                        + " cannot start or continue a character); the line is skipped");
+            } else {
+                String line = next.text();
+                if (n == 1 && !line.isEmpty() && line.charAt(0) == BYTE_ORDER_MARK) line = line.substring(1);
+                r = parseLine(line, n);
+            }
             if (r instanceof LineResult.Event) {
                 events++;
             } else if (r instanceof LineResult.Header) {
@@ -142,9 +172,9 @@ public final class WireReader {
         return new ReadSummary(n, events, headers, blanks, bad, problems, omitted);
     }
 
-    private String next(BufferedReader lines, long done) {
+    private Utf8Lines.Line next(LineSource lines, long done) {
         try {
-            return lines.readLine();
+            return lines.next();
         } catch (IOException e) {
             throw new InvalidInputException(Problem.at(source, lineInt(done + 1), 0, "",
                     "cannot read past line " + done + ": " + e.getMessage()));

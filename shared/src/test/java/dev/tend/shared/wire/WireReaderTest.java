@@ -394,4 +394,27 @@ class WireReaderTest {
         WireReader.of("night.jsonl").readAll(new StringReader(text), results::add);
         return results;
     }
+
+    @Test
+    void readsBytesLineByLineAndRefusesOnlyTheLineThatIsNotUtf8AtItsFirstWrongByte() {
+        String good = "{\"at\":\"2027-03-14T02:00:00Z\",\"cluster\":\"fares-3\",\"signal\":\"heartbeat\",\"state\":\"silent\"}";
+        java.io.ByteArrayOutputStream b = new java.io.ByteArrayOutputStream();
+        b.writeBytes(new byte[]{(byte) 0xEF, (byte) 0xBB, (byte) 0xBF}); // a byte order mark, skipped
+        b.writeBytes((good + "\r\n").getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        b.writeBytes("{\"at\":\"".getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        b.writeBytes(new byte[]{(byte) 0xC3, (byte) 0x28, '\n'}); // 0xC3 must be followed by a continuation byte (RFC 3629, section 4)
+        b.writeBytes((good.replace("fares-3", "f\u00e4res-3") + "\n").getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        b.writeBytes(good.getBytes(java.nio.charset.StandardCharsets.UTF_8)); // no line break at the end
+        List<LineResult> results = new ArrayList<>();
+        ReadSummary s = WireReader.of("in.jsonl").readAll(new java.io.ByteArrayInputStream(b.toByteArray()), results::add);
+        assertThat(s.lines()).isEqualTo(4);
+        assertThat(s.events()).isEqualTo(2);
+        assertThat(s.bad()).isEqualTo(2);
+        Problem p = s.problems().get(0);
+        assertThat(p.line()).isEqualTo(2);
+        assertThat(p.column()).isEqualTo(8);
+        assertThat(p.message()).contains("not valid UTF-8");
+        assertThat(s.problems().get(1).line()).as("valid UTF-8 that is not an id is refused for the id").isEqualTo(3);
+        assertThat(s.problems().get(1).field()).isEqualTo("cluster");
+    }
 }

@@ -92,4 +92,53 @@ class YamlDocumentTest {
         Path file = Files.writeString(dir.resolve("f.yaml"), "a: 1\n");
         assertThat(((YMap) YamlDocument.read(file)).keys()).containsExactly("a");
     }
+
+    @Test
+    void refusesAnAliasInsideItsOwnValueWithALocatedProblem() {
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class,
+                () -> YamlDocument.parse("fleet.yaml", "fleet: larkspur\nloop: &r [1, *r]\n"));
+        Problem p = e.problems().get(0);
+        assertThat(p.line()).isEqualTo(2);
+        assertThat(p.column()).isGreaterThan(0);
+        assertThat(p.message()).contains("inside its own value");
+    }
+
+    @Test
+    void refusesADoublingChainOfAliasesWithinASecond() {
+        StringBuilder doc = new StringBuilder("a0: &a0 [x, x]\n");
+        for (int i = 1; i <= 48; i++) {
+            doc.append("a").append(i).append(": &a").append(i).append(" [*a").append(i - 1).append(", *a").append(i - 1).append("]\n");
+        }
+        long start = System.nanoTime();
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class, () -> YamlDocument.parse("tend.yaml", doc.toString()));
+        long millis = (System.nanoTime() - start) / 1_000_000;
+        assertThat(millis).isLessThan(1000);
+        assertThat(e.problems().get(0).line()).isGreaterThan(0);
+        assertThat(e.problems().get(0).message()).contains("repeat more than " + YamlDocument.MAX_ALIASED_VALUES);
+    }
+
+    @Test
+    void keepsAFewAliasesThatRepeatLittle() {
+        YMap root = (YMap) YamlDocument.parse("f.yaml", "base: &b {tier: standard}\none: *b\ntwo: *b\n");
+        assertThat(((YMap) root.get("two").orElseThrow()).keys()).containsExactly("tier");
+    }
+
+    @Test
+    void locatesACharacterYamlDoesNotAllow() {
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class,
+                () -> YamlDocument.parse("tend.yaml", "fleet: larkspur\nname: fa\u0007res\n"));
+        Problem p = e.problems().get(0);
+        assertThat(p.line()).isEqualTo(2);
+        assertThat(p.column()).isEqualTo(9);
+        assertThat(p.message()).contains("U+0007");
+    }
+
+    @Test
+    void locatesEveryParserLimitAtLeastAtTheDocumentStart() {
+        StringBuilder deep = new StringBuilder();
+        for (int i = 0; i < 300; i++) deep.append('[');
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class, () -> YamlDocument.parse("f.yaml", deep.toString()));
+        assertThat(e.problems().get(0).line()).isGreaterThan(0);
+        assertThat(e.problems().get(0).column()).isGreaterThan(0);
+    }
 }

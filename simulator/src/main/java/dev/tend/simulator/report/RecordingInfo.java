@@ -1,6 +1,9 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.Problem;
+
 import java.time.Instant;
+import java.util.List;
 import java.util.Objects;
 
 /**
@@ -14,11 +17,20 @@ import java.util.Objects;
  * @param events      events read
  * @param badLines    lines rejected and skipped
  * @param lateEvents  events older than one already applied for their signal (changed nothing)
+ * @param problems    every bad line's located problem, in line order (all of them: a report is where a
+ *                    person finds each line to fix)
  */
 public record RecordingInfo(String name, String description, Instant from, Instant until, Instant horizon,
-                            long events, long badLines, long lateEvents) {
+                            long events, long badLines, long lateEvents, List<Problem> problems) {
+    /** A recording whose bad lines are counted only. */
+    public RecordingInfo(String name, String description, Instant from, Instant until, Instant horizon,
+                         long events, long badLines, long lateEvents) {
+        this(name, description, from, until, horizon, events, badLines, lateEvents, List.of());
+    }
+
     public RecordingInfo {
         Objects.requireNonNull(name, "name");
+        problems = List.copyOf(problems);
         if (events < 0 || badLines < 0 || lateEvents < 0) {
             throw new IllegalArgumentException("events, badLines and lateEvents must be at least 0");
         }

@@ -110,6 +110,16 @@ public final class ReportJson {
         g.writeNumberField("events", r.events());
         g.writeNumberField("bad_lines", r.badLines());
         g.writeNumberField("late_events", r.lateEvents());
+        g.writeArrayFieldStart("bad_line_problems");
+        for (dev.tend.shared.Problem p : r.problems()) {
+            g.writeStartObject();
+            g.writeNumberField("line", p.line());
+            g.writeNumberField("column", p.column());
+            g.writeStringField("field", p.field());
+            g.writeStringField("message", p.message());
+            g.writeEndObject();
+        }
+        g.writeEndArray();
         g.writeEndObject();
     }
 

@@ -33,7 +33,9 @@ public final class ReportText {
         sb.append("  ").append(time(rec.from())).append(" to ").append(time(rec.horizon())).append(", ")
                 .append(rec.events()).append(" events (").append(rec.badLines()).append(" bad lines skipped, ")
                 .append(rec.lateEvents()).append(" late), seed ").append(r.replay().seed()).append(", fleet ")
-                .append(r.replay().fleet()).append(" (").append(r.replay().clusters()).append(" clusters)\n\n");
+                .append(r.replay().fleet()).append(" (").append(r.replay().clusters()).append(" clusters)\n");
+        badLines(sb, rec);
+        sb.append('\n');
 
         sb.append("what would have happened\n");
         sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished)\n", s.runsStarted(),
@@ -103,5 +105,20 @@ public final class ReportText {
 
     static String time(Instant t) {
         return t == null ? "-" : Rfc3339.format(t);
+    }
+
+    /** How many bad lines the text names; the JSON report lists every one. */
+    static final int BAD_LINES_SHOWN = 20;
+
+    private static void badLines(StringBuilder sb, RecordingInfo rec) {
+        int shown = 0;
+        for (dev.tend.shared.Problem p : rec.problems()) {
+            if (shown++ == BAD_LINES_SHOWN) break;
+            sb.append("  skipped ").append(p).append('\n');
+        }
+        if (rec.problems().size() > BAD_LINES_SHOWN) {
+            sb.append("  ... and ").append(rec.problems().size() - BAD_LINES_SHOWN)
+                    .append(" more bad lines; --format json lists every one\n");
+        }
     }
 }

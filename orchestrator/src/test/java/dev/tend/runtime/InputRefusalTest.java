@@ -1,0 +1,106 @@
+package dev.tend.runtime;
+
+import dev.tend.engine.BrakeThresholds;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.Input;
+import dev.tend.executor.SimulatedExecutor;
+import dev.tend.playbooks.PlaybookSet;
+import dev.tend.playbooks.load.PlaybookLoader;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.SignalState;
+import dev.tend.shared.fleet.FleetFile;
+import dev.tend.store.LedgerFilter;
+import dev.tend.store.Store;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+/** No input stops the driver: one the store cannot hold is refused on the record, and the rest goes on. */
+class InputRefusalTest {
+    @TempDir
+    Path dir;
+
+    private EngineSetup setup() throws Exception {
+        Files.writeString(dir.resolve("actions.yaml"), "actions:\n  fix: { simulated: { duration: 1s, success: 1.0 } }\n");
+        Files.writeString(dir.resolve("tend.yaml"), "brake: { engage-at: { clusters: 100 }, release-below: { clusters: 50 } }\n");
+        Files.writeString(dir.resolve("fix.yaml"), """
+                playbook: fix-heartbeat
+                version: 1
+                when: { signal: heartbeat, state: silent, scope: node }
+                limits: { keep-in-sync: false }
+                steps:
+                  - { id: fix, action: fix, timeout: 1m }
+                """);
+        StringBuilder fleet = new StringBuilder("fleet: larkspur\nclusters:\n");
+        for (int c = 1; c <= 4; c++) fleet.append("  - id: fares-").append(c).append("\n    nodes: [ { id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c } ]\n");
+        Files.writeString(dir.resolve("fleet.yaml"), fleet);
+        PlaybookSet set = PlaybookLoader.load(dir);
+        return new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")),
+                BrakeThresholds.from(set.config().brake()), EventTimeMode.eventsOnly());
+    }
+
+    @Test
+    void aTransitionTheStoreCannotHoldIsRefusedOnTheRecordAndTheRestOfItsBatchGoesOn() throws Exception {
+        EngineSetup setup = setup();
+        Path db = dir.resolve("tend.db");
+        Clock clock = Clock.systemUTC();
+        List<String> refused = new ArrayList<>();
+        Instant at = Instant.parse("2027-03-14T02:00:00Z");
+        try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
+            Orchestrator[] holder = new Orchestrator[1];
+            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock, new CommitListener() {
+                @Override
+                public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
+                }
+
+                @Override
+                public void refused(Input input, String reason) {
+                    refused.add(input.cluster() + ": " + reason);
+                }
+            });
+            holder[0] = orch;
+            orch.recover();
+            orch.submitEvent(new Input.Transition(HealthTransition.of(at, "fares-1", "n1", "heartbeat", SignalState.SILENT)));
+            // past 2262-04-11, the last instant the store's nanosecond times can hold
+            orch.submitEvent(new Input.Transition(HealthTransition.of(Instant.parse("2263-01-01T00:00:00Z"), "fares-2", "n1",
+                    "heartbeat", SignalState.SILENT)));
+            orch.submitEvent(new Input.Transition(HealthTransition.of(at.plusSeconds(2), "fares-3", "n1", "heartbeat", SignalState.SILENT)));
+            orch.runUntil(orch::isIdle);
+            timers.close();
+
+            assertThat(refused).hasSize(1);
+            assertThat(refused.get(0)).startsWith("fares-2: ").contains("2263-01-01T00:00:00Z").contains("outside the times the store can keep");
+            List<String> kinds = new ArrayList<>();
+            List<String> started = new ArrayList<>();
+            store.read(r -> {
+                r.forEachLedger(LedgerFilter.all(), e -> {
+                    kinds.add(e.kind());
+                    if (e.kind().equals("run-started")) started.add(e.cluster());
+                });
+                return null;
+            });
+            assertThat(kinds).contains("input-refused");
+            assertThat(started).containsExactlyInAnyOrder("fares-1", "fares-3");
+            assertThat(store.read(r -> r.verifyLedger()).ok()).isTrue();
+        }
+        // the journal holds nothing that would stop the next start
+        try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), new ScheduledTimers(clock, k -> { }),
+                    n -> { }, clock);
+            assertThat(orch.recover().inputsReplayed()).isGreaterThanOrEqualTo(2);
+        }
+    }
+}
