@@ -38,8 +38,8 @@ class InputRefusalTest {
         Files.writeString(dir.resolve("fix.yaml"), """
                 playbook: fix-heartbeat
                 version: 1
-                when: { signal: heartbeat, state: silent, scope: node }
-                limits: { keep-in-sync: false }
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                limits: { keep-replicas: false }
                 steps:
                   - { id: fix, action: fix, timeout: 1m }
                 """);

@@ -213,7 +213,7 @@ public final class PlaybookLoader {
         }
         YNode doc;
         try {
-            doc = YamlDocument.parse(source, new String(text, StandardCharsets.UTF_8));
+            doc = YamlDocument.parse(source, YamlDocument.decode(source, text));
         } catch (InvalidInputException e) {
             mine.addAll(e.problems());
             return null;

@@ -208,7 +208,7 @@ class PlaybookLoadErrorsTest {
     void aWaitLongerThanTheStoreCanHoldIsLocatedAtCheckTime() {
         String text = """
                 playbook: p1
-                when: { signal: heartbeat, state: silent, scope: node }
+                trigger: { signal: heartbeat, state: silent, scope: node }
                 steps:
                   - { id: drain, action: drain-node, timeout: 10m }
                   - { id: settle, wait-healthy: [heartbeat], within: 100000d }

@@ -49,13 +49,41 @@ public final class YamlDocument {
     }
 
     public static YNode read(Path file) {
-        String text;
+        byte[] bytes;
         try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
+            bytes = Files.readAllBytes(file);
         } catch (IOException e) {
             throw new InvalidInputException(Problem.at(file.toString(), 0, 0, "", "cannot read the file: " + e.getMessage()));
         }
-        return parse(file.toString(), text);
+        return parse(file.toString(), decode(file.toString(), bytes));
+    }
+
+    /**
+     * The text of a file's bytes as UTF-8; a byte that is not UTF-8 is a problem located at
+     * its line and column (counted in characters before it, bytes on its line).
+     */
+    public static String decode(String source, byte[] bytes) {
+        java.nio.charset.CharsetDecoder d = StandardCharsets.UTF_8.newDecoder()
+                .onMalformedInput(java.nio.charset.CodingErrorAction.REPORT)
+                .onUnmappableCharacter(java.nio.charset.CodingErrorAction.REPORT);
+        java.nio.ByteBuffer in = java.nio.ByteBuffer.wrap(bytes);
+        java.nio.CharBuffer out = java.nio.CharBuffer.allocate(bytes.length + 1);
+        java.nio.charset.CoderResult r = d.decode(in, out, true);
+        if (r.isError()) {
+            int bad = in.position();
+            int line = 1, lineStart = 0;
+            for (int i = 0; i < bad; i++) {
+                if (bytes[i] == '\n') {
+                    line++;
+                    lineStart = i + 1;
+                }
+            }
+            throw new InvalidInputException(Problem.at(source, line, bad - lineStart + 1, "",
+                    "this file is not valid UTF-8: the byte here cannot start or continue a character"));
+        }
+        d.flush(out);
+        out.flip();
+        return out.toString();
     }
 
     /**

@@ -141,4 +141,17 @@ class YamlDocumentTest {
         assertThat(e.problems().get(0).line()).isGreaterThan(0);
         assertThat(e.problems().get(0).column()).isGreaterThan(0);
     }
+
+    @Test
+    void locatesAByteThatIsNotUtf8InAFile(@TempDir Path dir) throws Exception {
+        Path f = dir.resolve("fleet.yaml");
+        byte[] text = "fleet: larkspur\nclusters:\n  - id: fares-3X\n".getBytes(java.nio.charset.StandardCharsets.UTF_8);
+        text[text.length - 2] = (byte) 0xFF;
+        Files.write(f, text);
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class, () -> YamlDocument.read(f));
+        Problem p = e.problems().get(0);
+        assertThat(p.line()).isEqualTo(3);
+        assertThat(p.column()).isEqualTo(16);
+        assertThat(p.message()).contains("not valid UTF-8");
+    }
 }
