@@ -31,10 +31,17 @@ function abortControl(ctx, run, after) {
   const button = el("button", {
     type: "button", class: "quiet-button", text: "Abort", dataset: { action: "abort", run: run.run },
     onclick: async () => {
-      if (!window.confirm("Abort " + run.run + " on " + target(run.cluster, run.node) + "?")) return;
+      const answer = window.prompt("Abort " + run.run + " (" + run.playbook + " on " + target(run.cluster, run.node)
+        + ")? Say why; the reason goes into the ledger.", "");
+      if (answer === null) return;
+      const reason = answer.trim();
+      if (!reason) {
+        ctx.notify("Not aborted: say why the run is aborted; the reason goes into the ledger.", "wait");
+        return;
+      }
       button.disabled = true;
       try {
-        await api.abort(run.run, "aborted from the console");
+        await api.abort(run.run, reason);
         ctx.notify("Aborted " + run.run + ".", "good");
       } catch (err) {
         ctx.notify(err.message, "bad");

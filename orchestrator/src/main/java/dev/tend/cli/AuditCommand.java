@@ -5,7 +5,9 @@ import dev.tend.audit.AnchorVerifier;
 import dev.tend.audit.LedgerKey;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
+import dev.tend.store.RunRow;
 import dev.tend.store.Store;
+import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -14,6 +16,10 @@ import picocli.CommandLine.Model.CommandSpec;
 
 import java.io.PrintWriter;
 import java.time.Clock;
+import java.util.HashMap;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
 import java.util.concurrent.Callable;
 
 /** {@code tend audit}: read the ledger; {@code tend audit verify}: check its hash chain. */
@@ -62,10 +68,13 @@ public final class AuditCommand implements Callable<Integer> {
         if (kind != null) f = f.withKind(kind);
         if (run != null) f = f.withRun(run);
         LedgerFilter filter = f;
-        if (format == Format.csv) out.println("seq,at,kind,cluster,playbook,run,hash,entry");
         try (Store store = db.openExisting()) {
+            if (kind != null) checkKind(store.read(r -> r.ledgerKinds()));
+            if (format == Format.csv) out.println("seq,at,kind,cluster,playbook,run,hash,entry");
             store.read(r -> {
-                r.forEachLedger(filter, e -> out.println(render(e)));
+                Map<String, Optional<String>> nodes = new HashMap<>();
+                LedgerText text = new LedgerText(run -> nodes.computeIfAbsent(run, id -> r.run(id).map(RunRow::node)).orElse(null));
+                r.forEachLedger(filter, e -> out.println(render(e, text)));
                 return null;
             });
         }
@@ -73,12 +82,21 @@ public final class AuditCommand implements Callable<Integer> {
         return ExitCodes.OK;
     }
 
-    private String render(LedgerEntry e) {
+    /** A kind no tend writes and this ledger does not hold is a mistake: say so, with the nearest kind (exit 2). */
+    private void checkKind(Set<String> present) {
+        Set<String> known = LedgerKinds.known(present);
+        if (known.contains(kind)) return;
+        String near = LedgerKinds.nearest(kind, known).map(k -> " (did you mean '" + k + "'?)").orElse("");
+        throw new CommandLine.ParameterException(spec.commandLine(), "--kind: no ledger entry kind '" + kind + "'" + near
+                + "; the kinds are: " + String.join(", ", known));
+    }
+
+    private String render(LedgerEntry e, LedgerText text) {
         return switch (format) {
             case json -> e.entry();
             case csv -> e.seq() + "," + e.at() + "," + e.kind() + "," + nz(e.cluster()) + "," + nz(e.playbook()) + ","
                     + nz(e.run()) + "," + e.hash() + "," + csv(e.entry());
-            default -> LedgerText.line(e);
+            default -> text.line(e);
         };
     }
 

@@ -34,7 +34,15 @@ public final class BrakeCommand implements Runnable {
 
         @Override
         public Integer call() {
-            spec.commandLine().getOut().println(Render.brake(server.operations().engageBrake(reason)));
+            var ops = server.operations();
+            var before = ops.brake();
+            var after = ops.engageBrake(reason);
+            if (before.engaged()) {
+                spec.commandLine().getOut().println("the fleet brake was already engaged (since " + Render.time(before.since())
+                        + " by " + before.by() + (before.manual() ? "" : ", automatically") + ": " + before.reason()
+                        + "); its reason is replaced, and it now releases only by hand");
+            }
+            spec.commandLine().getOut().println(Render.brake(after));
             return ExitCodes.OK;
         }
     }

@@ -67,8 +67,7 @@ public final class CheckCommand implements Callable<Integer> {
             out.println(FindingsFormat.json(findings));
         } else {
             out.println(summary(set, fleet));
-            if (!findings.isEmpty()) out.print(FindingsFormat.text(findings));
-            out.println(findings.isEmpty() ? "no findings" : findings.size() + (findings.size() == 1 ? " finding" : " findings"));
+            out.print(FindingsFormat.text(findings)); // the findings, then one summary line
         }
         return findings.isEmpty() ? ExitCodes.OK : ExitCodes.FINDINGS;
     }

@@ -5,11 +5,16 @@ import picocli.CommandLine.Option;
 
 import java.nio.file.Path;
 
-/** The {@code --db} options every store-backed command shares; see {@link StoreAddress}. */
+/**
+ * The {@code --db} options every store-backed command shares; see {@link StoreAddress}. Without
+ * {@code --db} every command uses the same store: {@code $TEND_DB} when set, else {@code tend.db}
+ * in the working directory, so that {@code tend ingest} and then {@code tend runs}, {@code audit}
+ * and {@code handover} read what it wrote without repeating the flag.
+ */
 final class DbOption {
-    @Option(names = "--db", paramLabel = "FILE|URL", defaultValue = "tend.db",
-            description = "the store: a SQLite file (default: ${DEFAULT-VALUE} in the working directory) or a PostgreSQL "
-                    + "database, jdbc:postgresql://HOST:PORT/DATABASE")
+    @Option(names = "--db", paramLabel = "FILE|URL", defaultValue = "${env:TEND_DB:-tend.db}",
+            description = "the store: a SQLite file or a PostgreSQL database, jdbc:postgresql://HOST:PORT/DATABASE"
+                    + " (default: $TEND_DB, else tend.db in the working directory)")
     String db;
 
     @Option(names = "--db-user", paramLabel = "USER",

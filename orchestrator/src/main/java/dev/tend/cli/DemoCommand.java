@@ -19,6 +19,7 @@ import dev.tend.store.LedgerEntry;
 import dev.tend.store.Store;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -47,8 +48,8 @@ public final class DemoCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--port", defaultValue = "7420", paramLabel = "N", description = "port on 127.0.0.1 (default: ${DEFAULT-VALUE}; 0: any free port)")
-    int port;
+    @Mixin
+    ListenOptions listenOptions;
 
     @Option(names = "--speedup", defaultValue = "10", paramLabel = "N",
             description = "demo time runs N times faster than the wall clock (default: ${DEFAULT-VALUE})")
@@ -67,7 +68,12 @@ public final class DemoCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
-        if (port < 0 || port > 65535) throw usage("--port must be from 0 to 65535, got " + port);
+        Listen listen = listenOptions.resolve();
+        if (!listenOptions.isExplicit() && !ListenOptions.isFree(listen)) {
+            err.println("tend demo: port " + listen.port() + " is taken (another tend?); listening on a free port instead"
+                    + " (choose one with --port N)");
+            listen = new Listen(listen.host(), 0);
+        }
         if (!(speedup >= 1 && speedup <= TimeScale.MAX_FACTOR)) {
             throw usage("--speedup must be from 1 to " + (long) TimeScale.MAX_FACTOR + ", got " + speedup);
         }
@@ -91,20 +97,32 @@ public final class DemoCommand implements Callable<Integer> {
             Instant start = demoStart(store);
             TimeScale scale = TimeScale.accelerated(start, speedup);
             store.useTransaction(tx -> tx.appendLedger(start, "policy-loaded", PolicyOptions.loaded(setup)));
-            ServeSettings settings = ServeSettings.builder(setup).listen("127.0.0.1", port)
+            ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port())
                     .tokens(TokenFile.load(home.resolve("tokens.yaml"))).speedup(speedup).seed(seed).timeScale(scale)
                     .tick(Duration.ofSeconds(1)).workDir(home).log(err).build();
             try (TendServer server = TendServer.start(store, settings);
                  DemoFeeder feeder = new DemoFeeder(server.url(), tokens.script(), scale, start.plus(Duration.ofSeconds(30)),
                          DemoScript.larkspur(), err)) {
                 feeder.start();
-                printWelcome(out, server.url(), tokens, storeFile, scale);
-                awaitEnd(server, limit);
+                printWelcome(out, server.url(), tokens, storeFile, scale, firstApprovalAfter(set, scale), limit);
+                awaitEnd(server, limit, new StopLine(out, "tend demo: stopped; the store stays at " + storeFile));
             }
         }
-        out.println("tend demo: stopped; the store stays at " + storeFile);
-        out.flush();
         return ExitCodes.OK;
+    }
+
+    /**
+     * Wall time from now until the critical cluster's silent node waits for a person: the
+     * feeder's 30 s head start, the script's beat, the playbook's confirmation and the event
+     * time lag of serve, all in demo time, divided by the speed-up.
+     */
+    static Duration firstApprovalAfter(PlaybookSet set, TimeScale scale) {
+        Duration beat = DemoScript.larkspur().stream().filter(i -> i.name().equals("silent-critical-node"))
+                .flatMap(i -> i.beats().stream()).map(DemoScript.Beat::after).min(Duration::compareTo).orElse(Duration.ZERO);
+        Duration confirm = set.playbooks().stream().filter(p -> p.trigger().signal().value().equals("heartbeat"))
+                .map(p -> p.trigger().confirmFor()).max(Duration::compareTo).orElse(Duration.ZERO);
+        Duration demo = Duration.ofSeconds(30).plus(beat).plus(confirm).plus(ServeCommand.EVENT_TIME_LAG);
+        return Duration.ofMillis((long) (demo.toMillis() / scale.factor()));
     }
 
     /** Now, or just after the store's last entry when an earlier demo's accelerated time ran ahead of the wall clock. */
@@ -114,24 +132,30 @@ public final class DemoCommand implements Callable<Integer> {
         return last != null && !last.isBefore(now) ? last.plusSeconds(1).truncatedTo(ChronoUnit.SECONDS) : now;
     }
 
-    private void awaitEnd(TendServer server, Duration limit) throws InterruptedException {
+    private void awaitEnd(TendServer server, Duration limit, StopLine stopped) throws InterruptedException {
+        Thread hook = new Thread(() -> {
+            try {
+                server.close();
+            } finally {
+                stopped.print();
+            }
+        }, "tend-demo-stop");
+        Runtime.getRuntime().addShutdownHook(hook);
         if (limit != null) {
             Thread.sleep(limit.toMillis());
             server.close();
-            server.awaitStop();
-            return;
         }
-        Thread hook = new Thread(server::close, "tend-demo-stop");
-        Runtime.getRuntime().addShutdownHook(hook);
         server.awaitStop();
         try {
             Runtime.getRuntime().removeShutdownHook(hook);
         } catch (IllegalStateException shuttingDown) {
             // Ctrl-C stopped us; the store is consistent
         }
+        stopped.print();
     }
 
-    private static void printWelcome(PrintWriter out, String url, DemoTokens tokens, Path storeFile, TimeScale scale) {
+    private static void printWelcome(PrintWriter out, String url, DemoTokens tokens, Path storeFile, TimeScale scale,
+                                     Duration firstApproval, Duration limit) {
         long roundMinutes = Math.round(DemoScript.ROUND.toSeconds() / scale.factor() / 60.0);
         long approvalMinutes = Math.round(30 * 60 / scale.factor() / 60.0);
         List<String> lines = List.of(
@@ -145,17 +169,26 @@ public final class DemoCommand implements Callable<Integer> {
                 "            viewer (" + DemoTokens.VIEWER + "):               " + tokens.viewer(),
                 "",
                 "Three things to try:",
-                "  1. Sign in with the approver token and open Approvals: a node of a critical fares cluster went silent and"
-                        + " waits for a person (it lapses after about " + Math.max(1, approvalMinutes) + " min). Approve it, then"
-                        + " watch it drain, replace and settle on Runs.",
+                "  1. Sign in with the approver token and open Approvals: " + aboutFromNow(firstApproval) + " a node of a"
+                        + " critical fares cluster goes silent and, once tend has confirmed it, waits there for a person (it"
+                        + " lapses after about " + Math.max(1, approvalMinutes) + " min). Approve it, then watch it drain,"
+                        + " replace and settle on Runs.",
                 "  2. Open Ledger with kind 'verdict': the owner-filled disks on tickets-* are denied as masked, and the"
                         + " flapping heartbeat on dispatch-* is held as flapping instead of being replaced.",
                 "  3. Engage the fleet brake on Fleet and watch the next silent node be held (fleet-brake); release it."
                         + " Then sign in with the viewer token: no buttons, and the server refuses a forged approval (403).",
                 "",
-                "The store is " + storeFile + " (`tend audit --db " + storeFile + "` reads it afterwards). Stop with Ctrl-C.");
+                "The store is " + storeFile + " (`tend audit --db " + storeFile + "` reads it afterwards). "
+                        + (limit == null ? "Stop with Ctrl-C." : "It stops by itself after " + Durations.format(limit)
+                        + "; stop it earlier with Ctrl-C."));
         lines.forEach(out::println);
         out.flush();
+    }
+
+    private static String aboutFromNow(Duration d) {
+        long seconds = Math.max(1, d.toSeconds());
+        if (seconds < 90) return "about " + ((seconds + 9) / 10 * 10) + " s from now";
+        return "about " + Math.round(seconds / 60.0) + " min from now";
     }
 
     private static String fmt(double d) {

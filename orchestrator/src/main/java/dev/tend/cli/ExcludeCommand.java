@@ -59,7 +59,7 @@ public final class ExcludeCommand implements Runnable {
             Instant end = until == null ? null : until(until, Clock.systemUTC());
             ExclusionView x = server.operations().exclude(new ExclusionRequest(cluster, node, reason, owner, end));
             spec.commandLine().getOut().println("excluded " + Render.target(x.cluster(), x.node())
-                    + (x.until() == null ? " until removed" : " until " + x.until()) + " (owner " + x.owner() + "): " + x.reason());
+                    + (x.until() == null ? " until removed" : " until " + Render.time(x.until())) + " (owner " + x.owner() + "): " + x.reason());
             return ExitCodes.OK;
         }
     }

@@ -6,6 +6,7 @@ import dev.tend.handover.HandoverReport;
 import dev.tend.handover.HandoverText;
 import dev.tend.handover.ReportPeriod;
 import dev.tend.store.Store;
+import dev.tend.store.StoreReader;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -39,7 +40,7 @@ public final class HandoverCommand implements Callable<Integer> {
             description = "RFC 3339 time, clock time (22:00: its latest past occurrence, local zone) or duration ago (8h)")
     String since;
 
-    @Option(names = "--until", paramLabel = "T", description = "end of the period, not included (default: now)")
+    @Option(names = "--until", paramLabel = "T", description = "end of the period, not included (default: now, or just after the ledger's last entry when that is later)")
     String until;
 
     @Option(names = "--format", defaultValue = "text",
@@ -51,18 +52,28 @@ public final class HandoverCommand implements Callable<Integer> {
 
     enum Format { text, csv, html }
 
+    /**
+     * The end of a period that lasts "until now": now, or just after the ledger's last entry
+     * when that is later (the demo's accelerated time runs ahead of the wall clock, and an
+     * approval settled there must not show as pending).
+     */
+    static Instant endOfNow(StoreReader r, Clock clock) {
+        Instant now = clock.instant();
+        return r.ledgerHead().map(h -> h.at().plusNanos(1)).filter(t -> t.isAfter(now)).orElse(now);
+    }
+
     @Override
     public Integer call() throws Exception {
         Clock clock = Clock.systemDefaultZone();
         Instant from = TimeArg.parse("--since", since, clock);
-        Instant to = until == null ? clock.instant() : TimeArg.parse("--until", until, clock);
-        if (!to.isAfter(from)) {
-            throw new CommandLine.ParameterException(spec.commandLine(),
-                    "--until (" + to + ") must be after --since (" + from + ")");
-        }
-        ReportPeriod period = ReportPeriod.of(from, to);
         HandoverReport report;
         try (Store store = db.openExisting()) {
+            Instant to = until != null ? TimeArg.parse("--until", until, clock) : store.read(r -> endOfNow(r, clock));
+            if (!to.isAfter(from)) {
+                throw new CommandLine.ParameterException(spec.commandLine(),
+                        "--until (" + to + ") must be after --since (" + from + ")");
+            }
+            ReportPeriod period = ReportPeriod.of(from, to);
             report = store.read(r -> HandoverReport.from(r, period));
         }
         String text = switch (format) {

@@ -10,6 +10,7 @@ import dev.tend.shared.TendException;
 
 import java.io.PrintWriter;
 import java.time.Instant;
+import java.time.temporal.ChronoUnit;
 import java.util.List;
 
 /** Text and JSON renderings shared by the operator commands. */
@@ -29,8 +30,9 @@ final class Render {
         return node == null ? cluster : cluster + "/" + node;
     }
 
+    /** A time to the second, RFC 3339 in UTC ({@code 2027-03-14T02:17:05Z}): what a table column has room for. */
     static String time(Instant t) {
-        return t == null ? "-" : t.toString();
+        return t == null ? "-" : t.truncatedTo(ChronoUnit.SECONDS).toString();
     }
 
     static void approvals(PrintWriter out, List<ApprovalView> list) {
@@ -53,7 +55,7 @@ final class Render {
         out.printf("%-18s %-18s %-21s %-8s %s%n", "TARGET", "OWNER", "UNTIL", "ACTIVE", "REASON");
         for (ExclusionView x : list) {
             out.printf("%-18s %-18s %-21s %-8s %s%n", target(x.cluster(), x.node()), x.owner(),
-                    x.until() == null ? "until removed" : x.until().toString(), x.active() ? "yes" : "lapsed", x.reason());
+                    x.until() == null ? "until removed" : time(x.until()), x.active() ? "yes" : "lapsed", x.reason());
         }
     }
 

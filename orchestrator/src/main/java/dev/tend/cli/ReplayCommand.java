@@ -2,7 +2,6 @@ package dev.tend.cli;
 
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;
-import dev.tend.replay.ActionOverrides;
 import dev.tend.replay.Replayer;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
@@ -59,7 +58,7 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--fleet", paramLabel = "FILE", description = "fleet file (default: the one the recording's header names, relative to the recording)")
     Path fleet;
 
-    @Option(names = "--actions", paramLabel = "FILE", description = "an actions.yaml whose actions replace those of the same id, for this replay")
+    @Option(names = "--actions", paramLabel = "FILE", description = PolicyOptions.ACTIONS_HELP)
     Path actions;
 
     @Option(names = "--against", paramLabel = "DIR", description = "a second playbook directory to replay on the same recording and seed, and compare")
@@ -112,7 +111,7 @@ public final class ReplayCommand implements Callable<Integer> {
             throw new InvalidInputException(Problem.at(dir.toString(), 0, 0, "", "not a directory of playbooks"));
         }
         PlaybookSet set = config == null ? PlaybookLoader.load(dir) : PlaybookLoader.load(dir, config);
-        return actions == null ? set : ActionOverrides.apply(set, PlaybookLoader.loadActions(actions));
+        return PolicyOptions.withActions(set, actions);
     }
 
     private void write(String text) {

@@ -63,12 +63,17 @@ public final class RunsCommand implements Callable<Integer> {
                 out.printf("%-8s %-32s %-14s %-6s %-18s %-21s %s%n", "RUN", "PLAYBOOK", "CLUSTER", "NODE", "STATE", "STARTED", "OUTCOME");
                 for (Map<String, Object> m : runs) {
                     out.printf("%-8s %-32s %-14s %-6s %-18s %-21s %s%n", m.get("run"), m.get("playbook"), m.get("cluster"),
-                            m.get("node") == null ? "-" : m.get("node"), m.get("state"),
-                            m.get("started_at") == null ? "-" : m.get("started_at"), m.get("outcome") == null ? "" : m.get("outcome"));
+                            m.get("node") == null ? "-" : m.get("node"), m.get("state"), startedText(m),
+                            m.get("outcome") == null ? "" : m.get("outcome"));
                 }
             }
         }
         return ExitCodes.OK;
+    }
+
+    private static String startedText(Map<String, Object> run) {
+        Object at = run.get("started_at");
+        return at == null ? "-" : Render.time(java.time.Instant.parse((String) at));
     }
 
     static Map<String, Object> toMap(RunRow r, List<StepRow> steps) {

@@ -41,9 +41,8 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     DbOption db;
 
-    @Option(names = "--listen", paramLabel = "HOST:PORT", defaultValue = "127.0.0.1:7420", converter = ListenConverter.class,
-            description = "address to listen on (default: ${DEFAULT-VALUE})")
-    Listen listen;
+    @Mixin
+    ListenOptions listenOptions;
 
     @Option(names = "--tokens", paramLabel = "FILE",
             description = "bearer tokens (YAML: name, roles, sha256 of the token); without it every API request is refused")
@@ -59,16 +58,10 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     LedgerKeyOption ledgerKey;
 
-    static final class ListenConverter implements picocli.CommandLine.ITypeConverter<Listen> {
-        @Override
-        public Listen convert(String value) {
-            return Listen.parse(value);
-        }
-    }
-
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
+        Listen listen = listenOptions.resolve();
         EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
         Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
         LedgerKey key = ledgerKey.load();
@@ -86,16 +79,25 @@ public final class ServeCommand implements Callable<Integer> {
                             + rec.timersArmed() + " timers armed, " + rec.callsAskedAgain() + " calls asked again by key, "
                             + rec.callsUnknown() + " runs stopped for a person");
                 }
-                err.println("tend: serving " + server.url() + "/api/v1 (tokens: " + String.join(", ", tokens.names()) + ")");
-                err.flush();
-                Thread hook = new Thread(server::close, "tend-serve-stop");
+                StopLine stopped = new StopLine(err, "tend: stopped; everything resumes from " + db.describe() + " on the next start");
+                Thread hook = new Thread(() -> {
+                    try {
+                        server.close();
+                    } finally {
+                        stopped.print();
+                    }
+                }, "tend-serve-stop");
                 Runtime.getRuntime().addShutdownHook(hook);
+                err.println("tend: serving " + server.url() + "/api/v1, the console on " + server.url() + "/"
+                        + " (tokens: " + String.join(", ", tokens.names()) + "); stop with Ctrl-C or SIGTERM");
+                err.flush();
                 server.awaitStop();
                 try {
                     Runtime.getRuntime().removeShutdownHook(hook);
                 } catch (IllegalStateException shuttingDown) {
                     // a signal stopped us: the store is consistent, everything resumes on the next start
                 }
+                stopped.print();
             }
         }
         return ExitCodes.OK;

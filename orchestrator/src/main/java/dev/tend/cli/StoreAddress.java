@@ -100,7 +100,8 @@ record StoreAddress(Path file, String url, String user, String password) {
     Store openExisting() {
         if (isPostgres()) return Store.openExistingJdbc(url, user, password);
         if (!Files.exists(file)) {
-            throw new TendException(file + ": no such store; run `tend ingest` first or pass --db FILE");
+            throw new TendException(file.toAbsolutePath() + ": no such store; `tend ingest` or `tend serve` writes one"
+                    + " (every command uses $TEND_DB, else tend.db in the working directory, unless --db FILE)");
         }
         return Store.openSqlite(file);
     }

@@ -11,7 +11,7 @@ import java.io.PrintWriter;
 @Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
         description = "Remediation orchestrator with health gating.",
         subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
-                HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class,
+                HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class, AbortCommand.class,
                 ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class,
                 PageCommand.class},
         exitCodeListHeading = "%nExit codes:%n",

@@ -106,7 +106,7 @@ final class Approvals {
         ApprovalSnapshot s = byRun.get(a.runId());
         if (s == null || !s.state().equals("pending")) {
             fx.ledger("approval-refused", "run", a.runId(), "by", a.by(), "from", a.from(),
-                    "reason", s == null ? "no approval was requested for this run" : "the approval is " + s.state());
+                    "reason", notPending(s));
             return;
         }
         if (a.by().equals(s.requestedBy())) {
@@ -121,7 +121,7 @@ final class Approvals {
         ApprovalSnapshot s = byRun.get(runId);
         if (s == null || !s.state().equals("pending")) {
             fx.ledger("approval-refused", "run", runId, "by", by, "from", from,
-                    "reason", s == null ? "no approval was requested for this run" : "the approval is " + s.state());
+                    "reason", notPending(s));
             return;
         }
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
@@ -143,6 +143,17 @@ final class Approvals {
             cancelRun(runId, "rejected by " + by + (reason == null ? "" : ": " + reason), fx);
             if (e != null) engine.candidates().remove(key);
         }
+    }
+
+    /** Why an approval cannot be decided: none was asked, or who decided it and when (approving twice says by whom). */
+    private static String notPending(ApprovalSnapshot s) {
+        if (s == null) return "no approval was requested for this run";
+        String when = s.decidedAt() == null ? "" : " at " + s.decidedAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
+        return switch (s.state()) {
+            case "approved", "rejected" -> "the run was already " + s.state() + (s.decidedBy() == null ? "" : " by " + s.decidedBy()) + when;
+            case "lapsed" -> "the approval lapsed" + when + " (it expired at " + s.expiresAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + ")";
+            default -> "the approval is " + s.state() + when;
+        };
     }
 
     void expire(String runId, Effects fx) {

@@ -61,4 +61,21 @@ class IngestAcceptanceTest {
         assertThat(audit.out()).contains("step_kind=wait-healthy");
         assertThat(CliRun.of("audit", "--db", db, "--kind", "step-finished").out()).contains("signals cleared");
     }
+
+    @Test
+    void anActionsFileIsLaidOverTheLibrarysActionsAsInReplay() throws Exception {
+        Path root = CliRun.root();
+        Path actions = dir.resolve("failing-replace.yaml");
+        java.nio.file.Files.writeString(actions, "actions:\n  replace-node: { simulated: { duration: 5m, success: 0.0 } }\n");
+        String db = dir.resolve("overlay.db").toString();
+
+        CliRun ingest = CliRun.of("ingest", root.resolve("examples/silent-node.jsonl").toString(),
+                "--playbooks", root.resolve("playbooks/library").toString(), "--actions", actions.toString(),
+                "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
+
+        // drain-node still comes from the library's actions.yaml; replace-node is the failing one laid over it
+        assertThat(ingest.exit()).as(ingest.err()).isZero();
+        assertThat(ingest.out()).contains("1 started, 0 succeeded, 1 failed");
+        assertThat(CliRun.of("audit", "--db", db, "--kind", "executor-call").out()).contains("action=drain-node", "action=replace-node");
+    }
 }

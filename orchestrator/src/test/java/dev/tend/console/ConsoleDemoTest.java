@@ -41,6 +41,10 @@ class ConsoleDemoTest {
         String lead = find(LEAD, out.toString());
         String viewer = find(VIEWER, out.toString());
         assertThat(out.toString()).contains("Larkspur", "invented", "Three things to try", "1. ", "2. ", "3. ");
+        // the first tip tells when the approval will wait (it is not there yet when printed), and --for says how it ends
+        assertThat(out.toString()).containsPattern("open Approvals: about \\d+ s from now a node of a critical fares cluster"
+                + " goes silent and, once tend has confirmed it, waits there for a person")
+                .contains("It stops by itself after 10s; stop it earlier with Ctrl-C.");
 
         HttpResponse<String> health = get(url + "/api/v1/health", lead);
         assertThat(health.statusCode()).as(health.body()).isEqualTo(200);
@@ -71,13 +75,27 @@ class ConsoleDemoTest {
             "--speedup|0      | --speedup must be from 1 to 10000, got 0.0",
             "--speedup|20000  | --speedup must be from 1 to 10000, got 20000.0",
             "--port|70000     | --port must be from 0 to 65535, got 70000",
-            "--for|soon       | --for: a duration looks like 30s, 5m, 6h or 1d, got 'soon'"})
+            "--for|soon       | --for: a duration looks like 30s, 5m, 6h or 1d, got 'soon'",
+            "--listen|localhost | is not HOST:PORT, e.g. 127.0.0.1:7420"})
     void demoRefusesAnOptionOutOfRangeAsAUsageError(String option, String value, String message) {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         int code = TendMain.run(new String[]{"demo", option, value.strip()}, new PrintWriter(out, true), new PrintWriter(err, true));
         assertThat(code).isEqualTo(2);
         assertThat(err.toString()).contains(message);
+    }
+
+    @Test
+    void listenAndPortMeanTheSameInDemoAndServeAndMayNotDisagree() {
+        String[][] commands = {{"demo"}, {"serve", "--playbooks", "no-such-dir", "--fleet", "no-such-fleet.yaml"}};
+        for (String[] command : commands) {
+            StringWriter err = new StringWriter();
+            String[] args = java.util.stream.Stream.concat(java.util.Arrays.stream(command),
+                    java.util.stream.Stream.of("--listen", "127.0.0.1:7431", "--port", "7432")).toArray(String[]::new);
+            int code = TendMain.run(args, new PrintWriter(new StringWriter(), true), new PrintWriter(err, true));
+            assertThat(code).as(command[0]).isEqualTo(2);
+            assertThat(err.toString()).as(command[0]).contains("--listen 127.0.0.1:7431 and --port 7432 name two ports; give one");
+        }
     }
 
     private HttpResponse<String> get(String url, String token) throws Exception {

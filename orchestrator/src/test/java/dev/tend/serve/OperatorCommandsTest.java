@@ -59,12 +59,14 @@ class OperatorCommandsTest {
 
         assertThat(list.exit()).as(list.err()).isZero();
         assertThat(list.out()).contains(run, "restart-critical", "fares-3/n2", "pending", "approval-required");
+        assertSecondsOnly(list.out());
         assertThat(self.exit()).isEqualTo(1);
         assertThat(self.err()).contains("two-person rule: whoever requested a run cannot approve it");
         assertThat(ok.exit()).as(ok.err()).isZero();
         assertThat(ok.out()).startsWith("approved " + run + " (restart-critical on fares-3/n2); guards passed: run ");
         assertThat(twice.exit()).isEqualTo(1);
-        assertThat(twice.err()).contains("the approval is approved");
+        // approving twice says who approved it and when, to the second
+        assertThat(twice.err()).containsPattern("the run was already approved by anna at \\d{4}-\\d\\d-\\d\\dT\\d\\d:\\d\\d:\\d\\dZ");
         assertThat(tend(VERA, "approvals", "--state", "approved").out()).contains(run);
     }
 
@@ -97,6 +99,8 @@ class OperatorCommandsTest {
         assertThat(add.exit()).as(add.err()).isZero();
         assertThat(add.out()).startsWith("excluded dispatch-1/n2 until ").endsWith(" (owner team-operations): disk swap by the owner\n");
         assertThat(list.out()).contains("dispatch-1/n2", "team-operations", "yes", "disk swap by the owner");
+        assertSecondsOnly(list.out());
+        assertSecondsOnly(add.out());
         assertThat(remove.out()).isEqualTo("removed the exclusion of dispatch-1/n2\n");
         assertThat(again.exit()).isEqualTo(2);
         assertThat(again.err()).contains("dispatch-1/n2 is not excluded");
@@ -125,6 +129,50 @@ class OperatorCommandsTest {
         assertThat(again.err()).contains("the fleet brake is not engaged; nothing was released");
         awaitTrue("the ledger has both brake changes", Duration.ofSeconds(2), () ->
                 serve.get("/api/v1/ledger?kind=operator-command", VERA).json().get("entries").size() == 3);
+    }
+
+    @Test
+    void abortCancelsAnActiveRunWithTheReasonAndWhoGaveIt() {
+        serve.start(dir);
+        serve.post("/api/v1/transitions", OLGA, transition("fares-3", "n2", "process-down", "breach"));
+        String run = serve.awaitPendingApproval();
+
+        Run noReason = tend(OLGA, "abort", run);
+        Run viewer = tend(VERA, "abort", run, "--reason", "x");
+        Run abort = tend(OLGA, "abort", run, "--reason", "owner is replacing the host");
+        Run again = tend(OLGA, "abort", run, "--reason", "twice");
+
+        assertThat(noReason.exit()).isEqualTo(2);
+        assertThat(noReason.err()).contains("Missing required option: '--reason=R'");
+        assertThat(viewer.exit()).isEqualTo(2);
+        assertThat(abort.exit()).as(abort.err()).isZero();
+        assertThat(abort.out()).startsWith("aborted " + run + " (restart-critical on fares-3/n2): run cancelled at ");
+        assertSecondsOnly(abort.out());
+        assertThat(again.exit()).isEqualTo(1);
+        assertThat(again.err()).contains("already ended");
+        assertThat(serve.run(run).get("state").asText()).isEqualTo("cancelled");
+        awaitTrue("the ledger names who aborted and why", Duration.ofSeconds(2), () -> serve.get("/api/v1/ledger?run=" + run, VERA)
+                .json().get("entries").toString().contains("owner is replacing the host"));
+        assertThat(serve.get("/api/v1/ledger?run=" + run, VERA).json().get("entries").toString()).contains("olga");
+    }
+
+    @Test
+    void engagingAnEngagedBrakeSaysWhatItReplaced() {
+        serve.start(dir);
+
+        tend(OLGA, "brake", "engage", "--reason", "regional network event");
+        Run second = tend(OLGA, "brake", "engage", "--reason", "storage vendor maintenance");
+
+        assertThat(second.exit()).as(second.err()).isZero();
+        assertThat(second.out()).contains("the fleet brake was already engaged (since ")
+                .contains(" by olga: regional network event); its reason is replaced")
+                .contains("fleet brake ENGAGED since ").endsWith(": storage vendor maintenance\n");
+        assertSecondsOnly(second.out());
+    }
+
+    /** Times in operator output are RFC 3339 to the second: no fraction that would overflow a column. */
+    private static void assertSecondsOnly(String out) {
+        assertThat(out).containsPattern("\\d\\d:\\d\\d:\\d\\dZ").doesNotContainPattern(":\\d\\d\\.\\d+Z");
     }
 
     @Test

@@ -83,7 +83,8 @@ class ServeApprovalsTest {
         assertThat(Instant.parse(lapsed.get(0).get("at").asText())).isAfterOrEqualTo(expiresAt);
         ServeFixture.Response late = serve.post("/api/v1/approvals/" + run + "/approve", ANNA, "");
         assertThat(late.status()).isEqualTo(409);
-        assertThat(late.json().get("message").asText()).isEqualTo("the approval is lapsed");
+        assertThat(late.json().get("message").asText()).startsWith("the approval lapsed at ")
+                .endsWith(" (it expired at " + expiresAt.truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + ")");
     }
 
     @Test

@@ -41,6 +41,7 @@ class ServeCommandTest {
             first.stop();
         }
         assertThat(first.process.exitValue()).as("stopped by SIGTERM").isIn(0, 143);
+        assertThat(first.log).contains(", the console on " + first.url + "/").contains("stop with Ctrl-C or SIGTERM");
 
         Served second = serve();
         try {
@@ -53,6 +54,7 @@ class ServeCommandTest {
     }
 
     private record Served(Process process, String url, String log) {
+
         void stop() throws InterruptedException {
             process.destroy(); // SIGTERM
             if (!process.waitFor(30, TimeUnit.SECONDS)) process.destroyForcibly();

@@ -54,6 +54,9 @@ public interface StoreReader {
     /** Streams the ledger entries that pass {@code filter} in seq order. */
     void forEachLedger(LedgerFilter filter, Consumer<LedgerEntry> consumer);
 
+    /** The distinct kinds of the ledger's entries, sorted. */
+    java.util.SortedSet<String> ledgerKinds();
+
     /** The last ledger entry; empty when the ledger is empty. */
     Optional<LedgerEntry> ledgerHead();
 

@@ -10,6 +10,7 @@ import dev.tend.api.view.BrakeView;
 import dev.tend.api.view.ExclusionRequest;
 import dev.tend.api.view.ExclusionView;
 import dev.tend.api.view.ReasonRequest;
+import dev.tend.api.view.RunView;
 import dev.tend.shared.TendException;
 
 import java.io.IOException;
@@ -52,6 +53,11 @@ public final class HttpOperations implements Operations {
     @Override
     public ApprovalOutcome reject(String run, String reason) {
         return call("POST", "/api/v1/approvals/" + segment(run) + "/reject", new ReasonRequest(reason), new TypeReference<>() { });
+    }
+
+    @Override
+    public RunView abort(String run, String reason) {
+        return call("POST", "/api/v1/runs/" + segment(run) + "/abort", new ReasonRequest(reason), new TypeReference<>() { });
     }
 
     @Override

@@ -5,6 +5,7 @@ import dev.tend.api.view.ApprovalView;
 import dev.tend.api.view.BrakeView;
 import dev.tend.api.view.ExclusionRequest;
 import dev.tend.api.view.ExclusionView;
+import dev.tend.api.view.RunView;
 
 import java.util.List;
 
@@ -21,6 +22,9 @@ public interface Operations {
     ApprovalOutcome approve(String run);
 
     ApprovalOutcome reject(String run, String reason);
+
+    /** Aborts an active run (cancelled at once; a step in flight is not called again); returns the run as it ended. */
+    RunView abort(String run, String reason);
 
     List<ExclusionView> exclusions();
 

@@ -205,6 +205,12 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
+    public java.util.SortedSet<String> ledgerKinds() {
+        beforeRead();
+        return new java.util.TreeSet<>(handle.createQuery("SELECT DISTINCT kind FROM ledger").mapTo(String.class).list());
+    }
+
+    @Override
     public Optional<LedgerEntry> ledgerHead() {
         beforeRead();
         return handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger ORDER BY seq DESC LIMIT 1")
