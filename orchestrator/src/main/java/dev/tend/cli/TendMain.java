@@ -15,8 +15,7 @@ import java.io.PrintWriter;
                 ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class,
                 PageCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
-        exitCodeList = {"0:ok", "1:findings (a lint problem, a failed verify, a command the server refused)",
-                "2:usage or input error (a bad token or request, an unreachable server)"})
+        exitCodeList = {ExitCodes.OK_TEXT, ExitCodes.FINDINGS_TEXT, ExitCodes.USAGE_TEXT})
 public final class TendMain implements Runnable {
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -30,7 +29,7 @@ public final class TendMain implements Runnable {
         CommandLine cli = new CommandLine(new TendMain());
         cli.setOut(out);
         cli.setErr(err);
-        cli.setExitCodeExceptionMapper(TendMain::exitCodeFor);
+        cli.setExitCodeExceptionMapper(ExitCodes::forFailure);
         cli.setExecutionExceptionHandler((ex, cmd, parsed) -> {
             if (ex instanceof InvalidInputException || ex instanceof TendException) {
                 cmd.getErr().println(ex.getMessage());
@@ -42,17 +41,9 @@ public final class TendMain implements Runnable {
                         + FailureTrace.write(ex, args));
                 return ExitCodes.USAGE; // DESIGN.md section 8 knows 0, 1 and 2 only
             }
-            return exitCodeFor(ex);
+            return ExitCodes.forFailure(ex);
         });
         return cli.execute(args);
-    }
-
-    static int exitCodeFor(Throwable ex) {
-        if (ex instanceof CommandLine.ParameterException) return ExitCodes.USAGE;
-        if (ex instanceof dev.tend.cli.ops.OperationRefusedException r && r.isRefusal()) return ExitCodes.FINDINGS;
-        if (ex instanceof InvalidInputException) return ExitCodes.USAGE;
-        if (ex instanceof TendException) return ExitCodes.USAGE;
-        return ExitCodes.USAGE;
     }
 
     @Override

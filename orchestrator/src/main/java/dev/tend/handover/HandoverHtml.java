@@ -1,5 +1,7 @@
 package dev.tend.handover;
 
+import dev.tend.shared.text.HtmlText;
+
 import java.util.List;
 import java.util.Map;
 
@@ -248,25 +250,8 @@ public final class HandoverHtml {
         }
     }
 
-    /** Text made safe for HTML and XML content and attribute values; "" for null. */
+    /** {@link HtmlText#escape}: text safe for element content and quoted attributes; "" for null. */
     static String esc(String text) {
-        if (text == null) return "";
-        StringBuilder sb = new StringBuilder(text.length() + 16);
-        for (int i = 0; i < text.length(); i++) {
-            char c = text.charAt(i);
-            switch (c) {
-                case '&' -> sb.append("&amp;");
-                case '<' -> sb.append("&lt;");
-                case '>' -> sb.append("&gt;");
-                case '"' -> sb.append("&quot;");
-                case '\'' -> sb.append("&#39;");
-                default -> {
-                    // control characters other than tab and line breaks are not allowed in XML 1.0
-                    if (c < 0x20 && c != '\t' && c != '\n' && c != '\r') sb.append('?');
-                    else sb.append(c);
-                }
-            }
-        }
-        return sb.toString();
+        return HtmlText.escape(text);
     }
 }

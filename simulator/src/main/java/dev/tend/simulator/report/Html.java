@@ -1,5 +1,7 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.text.HtmlText;
+
 /**
  * The page frame and escaping of the HTML reports: one self-contained file, its style
  * inline, no script, no font, no image or other asset fetched from anywhere.
@@ -44,21 +46,8 @@ final class Html {
                 .append(esc(String.valueOf(value))).append("</b><span>").append(esc(label)).append("</span></div>");
     }
 
-    /** Text escaped for an element's content or a quoted attribute. */
-    static String esc(String s) {
-        if (s == null) return "";
-        StringBuilder sb = new StringBuilder(s.length() + 8);
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            switch (c) {
-                case '<' -> sb.append("&lt;");
-                case '>' -> sb.append("&gt;");
-                case '&' -> sb.append("&amp;");
-                case '"' -> sb.append("&quot;");
-                case '\'' -> sb.append("&#39;");
-                default -> sb.append(c);
-            }
-        }
-        return sb.toString();
+    /** {@link HtmlText#escape}: text safe for element content and quoted attributes; "" for null. */
+    static String esc(String text) {
+        return HtmlText.escape(text);
     }
 }

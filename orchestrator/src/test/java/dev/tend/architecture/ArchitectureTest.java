@@ -1,0 +1,87 @@
+package dev.tend.architecture;
+
+import com.tngtech.archunit.core.domain.JavaClasses;
+import com.tngtech.archunit.core.importer.ClassFileImporter;
+import com.tngtech.archunit.core.importer.ImportOption;
+import com.tngtech.archunit.lang.ArchRule;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+
+import static com.tngtech.archunit.core.domain.JavaClass.Predicates.resideInAPackage;
+import static com.tngtech.archunit.core.domain.JavaClass.Predicates.resideOutsideOfPackage;
+import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
+
+/**
+ * The layout DEVELOPERS.md describes, checked on the compiled classes of every module (the
+ * orchestrator's test class path holds them all): the engine stays free of adapter
+ * libraries and of the adapters themselves, modules depend one way only, and nothing reaches
+ * into another library's {@code internal} package (no promise of stability there).
+ */
+class ArchitectureTest {
+    private static final String[] ORCHESTRATOR = {"dev.tend.engine..", "dev.tend.executor..", "dev.tend.runtime..",
+            "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..", "dev.tend.metrics..", "dev.tend.replay..",
+            "dev.tend.handover..", "dev.tend.demo.."};
+    private static JavaClasses classes;
+
+    @BeforeAll
+    static void importMainClasses() {
+        classes = new ClassFileImporter().withImportOption(ImportOption.Predefined.DO_NOT_INCLUDE_TESTS).importPackages("dev.tend");
+    }
+
+    private static void check(ArchRule rule) {
+        rule.check(classes);
+    }
+
+    @Test
+    void engineImportsNoAdapterLibrary() {
+        check(noClasses().that().resideInAPackage("dev.tend.engine..").should().dependOnClassesThat().resideInAnyPackage(
+                "org.jdbi..", "io.javalin..", "org.quartz..", "picocli..", "java.net.http..", "java.sql..", "org.sqlite..",
+                "org.postgresql..", "org.apache.kafka..", "io.prometheus..")
+                .because("the engine is deterministic and does no I/O; adapters plug into its ports"));
+    }
+
+    @Test
+    void engineDependsOnNoAdapter() {
+        check(noClasses().that().resideInAPackage("dev.tend.engine..").should().dependOnClassesThat().resideInAnyPackage(
+                "dev.tend.executor..", "dev.tend.runtime..", "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..",
+                "dev.tend.metrics..", "dev.tend.replay..", "dev.tend.handover..", "dev.tend.demo..", "dev.tend.store..",
+                "dev.tend.simulator..")
+                .because("adapters depend on the engine, never the reverse"));
+    }
+
+    @Test
+    void sharedDependsOnNoOtherModule() {
+        check(noClasses().that().resideInAPackage("dev.tend.shared..").should().dependOnClassesThat()
+                .resideInAnyPackage(with(ORCHESTRATOR, "dev.tend.playbooks..", "dev.tend.store..", "dev.tend.simulator..")));
+    }
+
+    @Test
+    void playbooksDependOnlyOnShared() {
+        check(noClasses().that().resideInAPackage("dev.tend.playbooks..").should().dependOnClassesThat()
+                .resideInAnyPackage(with(ORCHESTRATOR, "dev.tend.store..", "dev.tend.simulator..")));
+    }
+
+    @Test
+    void storeAndSimulatorNeverDependOnTheOrchestrator() {
+        check(noClasses().that().resideInAnyPackage("dev.tend.store..", "dev.tend.simulator..").should().dependOnClassesThat()
+                .resideInAnyPackage(ORCHESTRATOR));
+    }
+
+    /**
+     * One class is left out by name, and only it: {@code RateBudgets} still builds
+     * resilience4j's {@code AtomicRateLimiter}, which exists only in the library's internal
+     * package; the rolling-window budget that DESIGN.md section 4 asks for replaces it.
+     */
+    @Test
+    void nothingImportsALibrarysInternalPackage() {
+        check(noClasses().that().resideInAPackage("dev.tend..").and().doNotHaveFullyQualifiedName("dev.tend.engine.RateBudgets")
+                .should().dependOnClassesThat(
+                resideInAPackage("..internal..").and(resideOutsideOfPackage("dev.tend.."))));
+    }
+
+    private static String[] with(String[] base, String... more) {
+        String[] out = java.util.Arrays.copyOf(base, base.length + more.length);
+        System.arraycopy(more, 0, out, base.length, more.length);
+        return out;
+    }
+}
