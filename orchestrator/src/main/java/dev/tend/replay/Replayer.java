@@ -136,6 +136,7 @@ public final class Replayer {
         private final ReportCollector collector = new ReportCollector();
         private VirtualClock clock;
         private Instant lastEventAt;
+        private long events;
 
         private final List<Problem> problems = new ArrayList<>();
 
@@ -147,6 +148,7 @@ public final class Replayer {
 
         @Override
         public void event(WireEvent event, long line) {
+            events++;
             Instant at = event.at();
             if (clock == null) startAt(header != null && header.from() != null && header.from().isBefore(at) ? header.from() : at);
             runDue(at);
@@ -167,7 +169,7 @@ public final class Replayer {
 
         @Override
         public void progress(long bytesRead) {
-            listener.progress(bytesRead, recording.size());
+            listener.progress(bytesRead, recording.size(), events);
         }
 
         /** Moves the clock forward (it never goes back); most events are at or before the time it shows. */
