@@ -36,7 +36,8 @@ export function pill(state, extra) {
 
 export function tone(state) {
   switch (state) {
-    case "succeeded": case "clear": case "released": case "approved": case "start": case "verified":
+    case "succeeded": case "clear": case "released": case "approved": case "start": case "verified": case "delivered":
+    case "all delivered":
       return "good";
     case "running": case "pending": case "awaiting-approval": case "impaired": case "hold": case "paused": case "approval":
       return "wait";

@@ -94,6 +94,7 @@ public final class ApiServer implements AutoCloseable {
                 new ExclusionRoutes(parts.store(), parts.gateway(), parts.clock()).mount(r);
                 new BrakeRoutes(parts.store(), parts.gateway()).mount(r);
                 new LedgerRoutes(parts.store()).mount(r);
+                new PageRoutes(parts.store()).mount(r);
                 new HandoverRoutes(parts.store(), parts.clock()).mount(r);
                 new PlaybookRoutes(parts.playbooks()).mount(r);
                 new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock()).mount(r);

@@ -44,13 +44,20 @@ public final class HandoverCommand implements Callable<Integer> {
     String until;
 
     @Option(names = "--format", defaultValue = "text",
-            description = "text (one screen), csv (runs table, then summary table) or html (one self-contained page with a timeline); default: ${DEFAULT-VALUE}")
+            description = "text (one screen), csv (one table, see --table) or html (one self-contained page with a timeline); default: ${DEFAULT-VALUE}")
     Format format;
 
     @Option(names = "--out", paramLabel = "FILE", description = "write the report to FILE instead of standard output")
     Path out;
 
     enum Format { text, csv, html }
+
+    @Option(names = "--table", defaultValue = "runs", paramLabel = "T",
+            description = "with --format csv, the one table to write: runs (one row per run) or summary (one metric per row);"
+                    + " default: ${DEFAULT-VALUE}")
+    Table table;
+
+    enum Table { runs, summary }
 
     /**
      * The end of a period that lasts "until now": now, or just after the ledger's last entry
@@ -77,7 +84,7 @@ public final class HandoverCommand implements Callable<Integer> {
             report = store.read(r -> HandoverReport.from(r, period));
         }
         String text = switch (format) {
-            case csv -> HandoverCsv.render(report);
+            case csv -> table == Table.summary ? HandoverCsv.summary(report) : HandoverCsv.runs(report);
             case html -> HandoverHtml.render(report);
             default -> HandoverText.render(report);
         };

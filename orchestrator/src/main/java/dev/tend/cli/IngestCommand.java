@@ -10,10 +10,12 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
+import dev.tend.http.OutgoingHttp;
+import dev.tend.page.Courier;
+import dev.tend.page.Senders;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.runtime.CommitListener;
-import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
 import dev.tend.runtime.SourceProgress;
@@ -32,6 +34,7 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import picocli.CommandLine.Model.CommandSpec;
 
+import java.io.FilterInputStream;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintWriter;
@@ -39,9 +42,12 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Duration;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicBoolean;
 
 /**
@@ -83,16 +89,20 @@ public final class IngestCommand implements Callable<Integer> {
         LedgerKey ledger = ledgerKey.load();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
+        OutgoingHttp outgoing = new OutgoingHttp();
+        Senders senders = Senders.from(setup.config().paging(), outgoing, err);
+        if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
              Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
              Executor simulated = new SimulatedExecutor(seed, speedup);
-             Executor http = HttpExecutor.withDefaults()) {
+             Executor http = HttpExecutor.withDefaults(outgoing);
+             Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock, new CommitListener() {
+                    n -> courier.wake(), clock, new CommitListener() {
                         @Override
                         public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
                         }
@@ -104,6 +114,7 @@ public final class IngestCommand implements Callable<Integer> {
                                     + " (a ledger entry input-refused names it): " + reason);
                         }
                     });
+            courier.start();
             holder[0] = orch;
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
@@ -121,13 +132,16 @@ public final class IngestCommand implements Callable<Integer> {
             AtomicBoolean eof = new AtomicBoolean();
             java.util.concurrent.atomic.AtomicReference<String> readFailure = new java.util.concurrent.atomic.AtomicReference<>();
             ReadSummary[] summary = new ReadSummary[1];
+            Progress progress = Progress.onStderr("ingesting " + input, input.equals("-") ? -1 : Files.size(Path.of(input)), err);
+            CountingInput counted = new CountingInput(source);
             Thread reader = new Thread(() -> {
-                try (InputStream in = source) {
+                try (InputStream in = counted) {
                     summary[0] = WireReader.of(input).readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
                                 orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
                                         : new Input.Topology((TopologyEvent) e.event()));
+                                if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);
                             } else if (r instanceof LineResult.Bad b && seen[0] >= skip) {
                                 err.println(b.problem() + " (line skipped)");
                             }
@@ -136,7 +150,13 @@ public final class IngestCommand implements Callable<Integer> {
                             throw new IllegalStateException(ie);
                         }
                     });
+                    progress.update(counted.count(), seen[0]);
+                    progress.close();
+                    err.println("tend: end of input after " + String.format(java.util.Locale.ROOT, "%,d", seen[0])
+                            + " events; waiting for the runs still executing (Ctrl-C stops; they resume on the next start)");
+                    err.flush();
                 } catch (RuntimeException | IOException e) {
+                    progress.close();
                     readFailure.set(e.getMessage());
                     err.println("tend: reading " + input + " stopped: " + e.getMessage());
                 } finally {
@@ -144,9 +164,20 @@ public final class IngestCommand implements Callable<Integer> {
                 }
             }, "tend-ingest-reader");
             reader.setDaemon(true);
-            reader.start();
-            Thread hook = new Thread(orch::stop, "tend-ingest-stop");
+            CountDownLatch reported = new CountDownLatch(1);
+            Thread hook = new Thread(() -> {
+                // a signal: say where the input stood, stop the driver, and let the main thread print its report
+                err.println(progress.summary() + "; the store is consistent and the next start reads on from there");
+                err.flush();
+                orch.stop();
+                try {
+                    reported.await(10, TimeUnit.SECONDS);
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                }
+            }, "tend-ingest-stop");
             Runtime.getRuntime().addShutdownHook(hook);
+            reader.start();
             orch.runUntil(() -> eof.get() && orch.isIdle());
             try {
                 Runtime.getRuntime().removeShutdownHook(hook);
@@ -154,10 +185,45 @@ public final class IngestCommand implements Callable<Integer> {
                 // a signal arrived: the store is consistent, runs resume on the next start
             }
             timers.close();
+            courier.close();
+            // what is due now goes out before the command ends; pages still waiting for a retry go out with the next start on this store
+            courier.deliverDue();
             report(out, orch, summary[0]);
+            out.flush();
+            reported.countDown();
             if (readFailure.get() != null) return ExitCodes.USAGE;
             if (refused.get() > 0) return ExitCodes.FINDINGS;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
+        }
+    }
+
+    /** Events read between two progress updates. */
+    private static final int PROGRESS_EVERY = 1024;
+
+    /** The input, counting the bytes read from it (for the share done and the time left). */
+    private static final class CountingInput extends FilterInputStream {
+        private volatile long count;
+
+        CountingInput(InputStream in) {
+            super(in);
+        }
+
+        long count() {
+            return count;
+        }
+
+        @Override
+        public int read() throws IOException {
+            int b = super.read();
+            if (b >= 0) count++;
+            return b;
+        }
+
+        @Override
+        public int read(byte[] buf, int off, int len) throws IOException {
+            int n = super.read(buf, off, len);
+            if (n > 0) count += n;
+            return n;
         }
     }
 

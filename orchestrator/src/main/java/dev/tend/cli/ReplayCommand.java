@@ -85,8 +85,7 @@ public final class ReplayCommand implements Callable<Integer> {
         PlaybookSet a = policy(playbooks);
         PlaybookSet b = against == null ? null : policy(against);
 
-        ProgressBar bar = ProgressBar.forStderr(err, "replaying " + recording.getFileName());
-        ReplayReport first = Replayer.of(a, topology, seed).replay(rec, bar);
+        ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName(), err);
         boolean skipped = first.recording().badLines() > 0;
         if (b == null) {
             write(switch (format) {
@@ -96,7 +95,7 @@ public final class ReplayCommand implements Callable<Integer> {
             });
             return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
-        ReplayReport second = Replayer.of(b, topology, seed).replay(rec, ProgressBar.forStderr(err, "replaying against " + against.getFileName()));
+        ReplayReport second = replay(b, topology, rec, "replaying " + recording.getFileName() + " against " + against.getFileName(), err);
         ReportComparison c = ReportComparison.of(playbooks.toString(), first, against.toString(), second);
         write(switch (format) {
             case json -> ComparisonJson.toJson(c);
@@ -104,6 +103,16 @@ public final class ReplayCommand implements Callable<Integer> {
             default -> ComparisonText.render(c);
         });
         return skipped || !c.isSame() ? ExitCodes.FINDINGS : ExitCodes.OK;
+    }
+
+    /** One replay, its progress on standard error, and where it stood if a signal stops it. */
+    private ReplayReport replay(PlaybookSet set, Fleet topology, Recording rec, String task, PrintWriter err) throws IOException {
+        Progress progress = Progress.onStderr(task, Files.size(recording), err);
+        try (StopSummary onSignal = new StopSummary(err, () -> progress.summary() + "; no report was written")) {
+            return Replayer.of(set, topology, seed).replay(rec, new ReplayProgress(err, progress));
+        } finally {
+            progress.close();
+        }
     }
 
     private PlaybookSet policy(Path dir) {

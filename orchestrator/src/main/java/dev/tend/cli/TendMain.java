@@ -8,11 +8,12 @@ import picocli.CommandLine.Command;
 import java.io.PrintWriter;
 
 /** The {@code tend} command line. Each subcommand is one class. */
-@Command(name = "tend", mixinStandardHelpOptions = true, version = "tend 0.1.0",
+@Command(name = "tend", mixinStandardHelpOptions = true, versionProvider = VersionProvider.class,
         description = "Remediation orchestrator with health gating.",
         subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
                 HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class, AbortCommand.class,
-                ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class},
+                ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class,
+                PageCommand.class, CompletionCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {ExitCodes.OK_TEXT, ExitCodes.FINDINGS_TEXT, ExitCodes.USAGE_TEXT})
 public final class TendMain implements Runnable {

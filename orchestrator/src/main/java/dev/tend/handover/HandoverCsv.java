@@ -33,14 +33,25 @@ public final class HandoverCsv {
     private HandoverCsv() {
     }
 
+    /** Both tables, runs first, separated by one empty line. */
     public static String render(HandoverReport r) {
+        return runs(r) + EOL + summary(r);
+    }
+
+    /** The runs table alone (one table, as a spreadsheet or a CSV reader expects a file to hold). */
+    public static String runs(HandoverReport r) {
         StringBuilder out = new StringBuilder();
         out.append(RUN_HEADER).append(EOL);
         for (RunLine x : r.runs()) {
             row(out, x.run(), x.playbook(), x.cluster(), x.node(), time(x.createdAt()), time(x.startedAt()),
                     time(x.endedAt()), x.state(), x.note(), String.join(";", x.actions()));
         }
-        out.append(EOL);
+        return out.toString();
+    }
+
+    /** The summary table alone. */
+    public static String summary(HandoverReport r) {
+        StringBuilder out = new StringBuilder();
         out.append(SUMMARY_HEADER).append(EOL);
         fleet(out, "period_since", time(r.period().since()));
         fleet(out, "period_until", time(r.period().until()));
@@ -50,6 +61,8 @@ public final class HandoverCsv {
         fleet(out, "approvals_lapsed", r.lapsedApprovals().size());
         fleet(out, "runs_needing_person", r.runsNeedingPerson().size());
         fleet(out, "loops_stopped", r.loopsStopped().size());
+        fleet(out, "pages_delivered", r.deliveredPages().size());
+        fleet(out, "pages_failed", r.failedPages().size());
         fleet(out, "brake_periods", r.brakePeriods().size());
         fleet(out, "brake_engaged_at_until", r.brakeStillEngaged().isPresent());
         LedgerStatus l = r.ledger();

@@ -11,8 +11,8 @@ public interface ReplayListener {
     default void problem(Problem problem) {
     }
 
-    /** {@code bytesRead} of the recording's {@code bytesTotal} have been fed; called now and then. */
-    default void progress(long bytesRead, long bytesTotal) {
+    /** {@code bytesRead} of the recording's {@code bytesTotal}, {@code events} events, have been fed; called now and then. */
+    default void progress(long bytesRead, long bytesTotal, long events) {
     }
 
     /** The recording has been fed; virtual time runs on to the horizon. */

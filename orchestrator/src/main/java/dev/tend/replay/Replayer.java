@@ -137,6 +137,7 @@ public final class Replayer {
         private final ReportCollector collector = new ReportCollector();
         private VirtualClock clock;
         private Instant lastEventAt;
+        private long events;
 
         private final List<Problem> problems = new ArrayList<>();
         private long unkeepable;
@@ -149,6 +150,7 @@ public final class Replayer {
 
         @Override
         public void event(WireEvent event, long line) {
+            events++;
             Instant at = event.at();
             if (!TimeLimits.isKeepable(at)) {
                 // the live store would refuse it: so does its rehearsal, by line
@@ -176,7 +178,7 @@ public final class Replayer {
 
         @Override
         public void progress(long bytesRead) {
-            listener.progress(bytesRead, recording.size());
+            listener.progress(bytesRead, recording.size(), events);
         }
 
         /** Moves the clock forward (it never goes back); most events are at or before the time it shows. */

@@ -9,7 +9,7 @@ import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.wire.Rfc3339;
-import dev.tend.simulator.report.BrakePeriod;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.simulator.report.DecisionEntry;
 import dev.tend.simulator.report.HealthPoint;
 import dev.tend.simulator.report.NotificationEntry;
@@ -90,7 +90,7 @@ final class ReportCollector {
         if (b.engaged()) {
             if (engaged == null) engaged = b;
         } else if (engaged != null) {
-            brakePeriods.add(new BrakePeriod(engaged.since(), now, engaged.by(), engaged.reason()));
+            brakePeriods.add(new BrakePeriod(engaged.since(), by(engaged), engaged.reason(), now, null, null));
             engaged = null;
         }
     }
@@ -152,7 +152,7 @@ final class ReportCollector {
     /** The brake periods; one still engaged at {@code horizon} is reported without a release. */
     List<BrakePeriod> brakePeriods() {
         List<BrakePeriod> out = new ArrayList<>(brakePeriods);
-        if (engaged != null) out.add(new BrakePeriod(engaged.since(), null, engaged.by(), engaged.reason()));
+        if (engaged != null) out.add(new BrakePeriod(engaged.since(), by(engaged), engaged.reason(), null, null, null));
         return out;
     }
 
@@ -200,5 +200,10 @@ final class ReportCollector {
         }
         out.sort((a, b) -> a.run().compareTo(b.run()));
         return out;
+    }
+
+    /** Who engaged the brake: the engine names an operator or {@code automatic}; "unknown" if it named no one. */
+    private static String by(BrakeState b) {
+        return b.by() == null ? "unknown" : b.by();
     }
 }

@@ -20,7 +20,7 @@ import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
 class ArchitectureTest {
     private static final String[] ORCHESTRATOR = {"dev.tend.engine..", "dev.tend.executor..", "dev.tend.runtime..",
             "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..", "dev.tend.metrics..", "dev.tend.replay..",
-            "dev.tend.handover..", "dev.tend.demo.."};
+            "dev.tend.handover..", "dev.tend.demo..", "dev.tend.page..", "dev.tend.http.."};
     private static JavaClasses classes;
 
     @BeforeAll
@@ -45,7 +45,7 @@ class ArchitectureTest {
         check(noClasses().that().resideInAPackage("dev.tend.engine..").should().dependOnClassesThat().resideInAnyPackage(
                 "dev.tend.executor..", "dev.tend.runtime..", "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..",
                 "dev.tend.metrics..", "dev.tend.replay..", "dev.tend.handover..", "dev.tend.demo..", "dev.tend.store..",
-                "dev.tend.simulator..")
+                "dev.tend.simulator..", "dev.tend.page..", "dev.tend.http..")
                 .because("adapters depend on the engine, never the reverse"));
     }
 

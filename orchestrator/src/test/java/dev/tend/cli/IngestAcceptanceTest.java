@@ -25,6 +25,7 @@ class IngestAcceptanceTest {
                 "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
         assertThat(ingest.exit()).as(ingest.err()).isZero();
         assertThat(ingest.out()).contains("1 started, 1 succeeded");
+        assertThat(ingest.err()).contains("tend: end of input after 20 events; waiting for the runs still executing");
 
         CliRun runs = CliRun.of("runs", "--db", db, "--format", "json");
         JsonNode list = new ObjectMapper().readTree(runs.out());

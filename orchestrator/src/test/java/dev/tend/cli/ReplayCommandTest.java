@@ -31,8 +31,14 @@ class ReplayCommandTest {
         assertThat(r.exit()).as(r.err()).isZero();
         assertThat(r.out()).contains("replay of zone-outage").contains("runs started       0").contains("fleet brake        engaged 1 time")
                 .contains("holds by reason").contains("fleet-brake").contains("notifications: 1 (oncall 1)");
+        // "0 approvals requested" beside approval-required holds is explained, and each reason names targets
+        assertThat(r.out()).containsPattern("0 approvals requested \\(\\d+ decisions named approval-required; a person is asked"
+                + " only once no other guard holds the run, and none is answered in a replay\\)")
+                .containsPattern("fleet-brake +\\d+  [a-z]+-\\d+(/n\\d+)?, [a-z]+-\\d+(/n\\d+)?, [a-z]+-\\d+(/n\\d+)? and \\d+ more \\(\\d+ targets\\)");
         assertThat(r.out().lines().count()).isLessThan(50);
-        assertThat(r.err()).as("no progress bar when standard error is not a terminal").isEmpty();
+        assertThat(r.err()).as("no bar when standard error is not a terminal: at most plain progress lines")
+                .doesNotContain("\r").doesNotContain("[");
+        assertThat(r.err().lines()).allMatch(l -> l.startsWith("tend: replaying zone-outage.jsonl: "));
     }
 
     @Test

@@ -53,15 +53,22 @@ class HandoverCommandTest {
     @Test
     void writesCsvAndHtmlToTheFileGiven() throws Exception {
         Path csv = dir.resolve("night.csv");
+        Path summary = dir.resolve("night-summary.csv");
         Path html = dir.resolve("out/night.html");
 
         assertThat(tend("handover", "--since", SINCE.toString(), "--until", UNTIL.toString(), "--db", db.toString(),
                 "--format", "csv", "--out", csv.toString())).as(err.toString()).isZero();
         assertThat(tend("handover", "--since", SINCE.toString(), "--until", UNTIL.toString(), "--db", db.toString(),
+                "--format", "csv", "--table", "summary", "--out", summary.toString())).as(err.toString()).isZero();
+        assertThat(tend("handover", "--since", SINCE.toString(), "--until", UNTIL.toString(), "--db", db.toString(),
                 "--format", "html", "--out", html.toString())).as(err.toString()).isZero();
 
         assertThat(out.toString()).isEmpty();
-        assertThat(Files.readString(csv)).startsWith("run,playbook,cluster,node,").contains("runs_started,,,4\r\n");
+        // one table per file (RFC 4180 section 2: one header line, then records of the same fields)
+        assertThat(Files.readString(csv)).startsWith("run,playbook,cluster,node,").doesNotContain("\r\n\r\n")
+                .doesNotContain("metric,playbook,reason_code,value");
+        assertThat(Files.readString(summary)).startsWith("metric,playbook,reason_code,value\r\n").contains("runs_started,,,4\r\n")
+                .doesNotContain("run,playbook,cluster,node,");
         assertThat(Files.readString(html)).startsWith("<!DOCTYPE html>").contains("<svg class=\"timeline\"");
     }
 

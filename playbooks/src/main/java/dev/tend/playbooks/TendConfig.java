@@ -19,9 +19,10 @@ import java.util.Optional;
  * @param rate        how many runs may start in the whole fleet per period, all playbooks together
  * @param source      the file it came from, or null for the built-in policy
  * @param contentHash SHA-256 hex of that file, or null
+ * @param paging      channels and where tend's own pages go
  */
 public record TendConfig(EffectiveLimits defaults, BrakePolicy brake, List<Freeze> freezes, RateLimit rate,
-                         String source, String contentHash) {
+                         String source, String contentHash, Paging paging) {
     public static final RateLimit BUILT_IN_FLEET_RATE = new RateLimit(50, Duration.ofHours(1));
     private static final TendConfig BUILT_IN = new TendConfig(EffectiveLimits.builtIn(), BrakePolicy.builtIn(), List.of(),
             BUILT_IN_FLEET_RATE, null, null);
@@ -31,6 +32,18 @@ public record TendConfig(EffectiveLimits defaults, BrakePolicy brake, List<Freez
         Objects.requireNonNull(brake, "brake");
         freezes = List.copyOf(freezes);
         Objects.requireNonNull(rate, "rate");
+        paging = paging == null ? Paging.builtIn() : paging;
+    }
+
+    /** A policy whose pages all go to the log. */
+    public TendConfig(EffectiveLimits defaults, BrakePolicy brake, List<Freeze> freezes, RateLimit rate, String source,
+                      String contentHash) {
+        this(defaults, brake, freezes, rate, source, contentHash, Paging.builtIn());
+    }
+
+    /** This policy with other paging settings. */
+    public TendConfig withPaging(Paging p) {
+        return new TendConfig(defaults, brake, freezes, rate, source, contentHash, p);
     }
 
     public static TendConfig builtIn() {

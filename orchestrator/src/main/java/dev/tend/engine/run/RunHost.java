@@ -13,6 +13,9 @@ public interface RunHost {
 
     boolean isBrakeEngaged();
 
+    /** The channel of tend's own pages (a run that needs a person). */
+    String pageChannel();
+
     /** True when none of {@code signals} is in breach or silent on the target. */
     boolean allClear(Target target, List<Id> signals);
 

@@ -1,6 +1,8 @@
 package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.BrakePolicy;
+import dev.tend.playbooks.ChannelDef;
+import dev.tend.playbooks.Paging;
 import dev.tend.playbooks.BrakeThreshold;
 import dev.tend.playbooks.EffectiveLimits;
 import dev.tend.playbooks.Freeze;
@@ -22,10 +24,11 @@ import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 
 /** Reads {@code tend.yaml}, the fleet-wide policy. */
 final class ConfigReader {
-    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate");
+    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate", "channels", "pages");
     private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "page", "release-after");
     private static final RenamedKeys RENAMED_BRAKE = RenamedKeys.of("notify", "page");
     private static final List<String> THRESHOLD = List.of("clusters", "fraction");
@@ -51,9 +54,22 @@ final class ConfigReader {
         BrakePolicy brake = m.get("brake").map(this::brake).orElse(BrakePolicy.builtIn());
         List<Freeze> freezes = m.get("freezes").map(this::freezes).orElse(List.of());
         RateLimit rate = Read.value(f, m, "rate", "tend.yaml", "rate", false, RateLimit::parse);
+        Map<Id, ChannelDef> channels = m.get("channels").map(n -> ChannelsReader.channels(f, n)).orElse(Map.of());
+        if (brake != null && m.get("brake").orElse(null) instanceof YMap b) {
+            b.get("page").ifPresent(n -> ChannelsReader.checkNamed(f, n, "brake.page", brake.pageChannel(), channels));
+            if (!b.has("page") && m.get("channels").isPresent()) {
+                ChannelsReader.checkNamed(f, b, "brake.page", brake.pageChannel(), channels);
+            }
+        }
+        Paging paging = ChannelsReader.pages(f, m.get("pages").orElse(null), channels);
+        if (paging == null && m.get("pages").isEmpty() && m.get("channels").isPresent()) {
+            f.add(m.get("channels").get(), "channels", "tend's own pages (flapping, loops, runs that need a person, approvals)"
+                    + " go to '" + Paging.DEFAULT_CHANNEL + "', which is not defined here; define it, or name another with pages.channel");
+        }
         if (f.hasProblems()) return null;
         EffectiveLimits merged = EffectiveLimits.builtIn().withOverrides(defaults);
-        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate, f.source(), contentHash);
+        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate, f.source(), contentHash,
+                paging);
     }
 
     private BrakePolicy brake(YNode node) {

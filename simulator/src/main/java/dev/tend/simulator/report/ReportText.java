@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.time.Durations;
@@ -19,6 +20,8 @@ import java.util.Map;
  */
 public final class ReportText {
     static final int LISTED = 8;
+    /** Targets named beside each reason. */
+    static final int TARGETS = 3;
 
     private ReportText() {
     }
@@ -40,8 +43,8 @@ public final class ReportText {
         sb.append("what would have happened\n");
         sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished)\n", s.runsStarted(),
                 s.runsSucceeded(), s.runsFailed(), s.runsUnfinished()));
-        sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested (none arrive in a replay)\n",
-                s.held(), s.denied(), s.approvalsRequested()));
+        sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested%s\n",
+                s.held(), s.denied(), s.approvalsRequested(), approvalNote(r.decisions(), s.approvalsRequested())));
         sb.append(String.format(Locale.ROOT, "  most runs at once  %d\n", s.maxConcurrentRuns()));
         sb.append(String.format(Locale.ROOT, "  fleet brake        %s\n", s.brakeEngaged()
                 ? "engaged " + r.brakePeriods().size() + (r.brakePeriods().size() == 1 ? " time" : " times") : "never engaged"));
@@ -62,7 +65,7 @@ public final class ReportText {
                 sb.append("  ").append(time(b.engagedAt())).append(" to ")
                         .append(b.releasedAt() == null ? "the end (still engaged)" : time(b.releasedAt()));
                 if (b.releasedAt() != null) sb.append(" (").append(Durations.format(Duration.between(b.engagedAt(), b.releasedAt()))).append(')');
-                sb.append(", ").append(b.by()).append(": ").append(b.reason()).append('\n');
+                sb.append(", ").append(b.engagedBy()).append(": ").append(b.reason()).append('\n');
             }
         }
         if (!r.notifications().isEmpty()) {
@@ -93,8 +96,29 @@ public final class ReportText {
     private static void reasons(StringBuilder sb, List<DecisionEntry> decisions, Verdict verdict, String title) {
         Map<ReasonCode, Long> counts = Tallies.reasons(decisions, verdict);
         if (counts.isEmpty()) return;
-        sb.append('\n').append(title).append('\n');
-        counts.forEach((c, n) -> sb.append(String.format(Locale.ROOT, "  %-18s %d\n", c.code(), n)));
+        sb.append('\n').append(title).append(", with the first targets\n");
+        counts.forEach((c, n) -> sb.append(String.format(Locale.ROOT, "  %-18s %6d  %s\n", c.code(), n,
+                targets(decisions, verdict, c))));
+    }
+
+    /** How many targets a reason held (or denied), the first {@value #TARGETS} by name, and how many more. */
+    static String targets(List<DecisionEntry> decisions, Verdict verdict, ReasonCode code) {
+        java.util.LinkedHashSet<String> all = new java.util.LinkedHashSet<>();
+        for (DecisionEntry d : decisions) if (d.verdict() == verdict && d.reasons().contains(code)) all.add(d.target());
+        List<String> first = all.stream().limit(TARGETS).toList();
+        return String.join(", ", first) + (all.size() > first.size() ? " and " + (all.size() - first.size()) + " more" : "")
+                + (all.size() == 1 ? " (1 target)" : " (" + all.size() + " targets)");
+    }
+
+    /**
+     * Why fewer approvals were requested than decisions named approval-required: a candidate
+     * asks a person only once every other guard lets it through, and none is answered in a replay.
+     */
+    private static String approvalNote(List<DecisionEntry> decisions, long requested) {
+        long needing = decisions.stream().filter(d -> d.reasons().contains(ReasonCode.APPROVAL_REQUIRED)).count();
+        if (needing == 0) return requested == 0 ? "" : " (none is answered in a replay)";
+        return " (" + needing + " decisions named approval-required; a person is asked only once no other guard holds"
+                + " the run, and none is answered in a replay)";
     }
 
     static <T> void list(StringBuilder sb, List<T> items, java.util.function.Function<T, String> line) {
