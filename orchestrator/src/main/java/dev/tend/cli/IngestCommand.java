@@ -10,10 +10,12 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
+import dev.tend.http.OutgoingHttp;
+import dev.tend.page.Courier;
+import dev.tend.page.Senders;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.runtime.CommitListener;
-import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
 import dev.tend.runtime.SourceProgress;
@@ -40,6 +42,7 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Duration;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -86,16 +89,20 @@ public final class IngestCommand implements Callable<Integer> {
         LedgerKey ledger = ledgerKey.load();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
+        OutgoingHttp outgoing = new OutgoingHttp();
+        Senders senders = Senders.from(setup.config().paging(), outgoing, err);
+        if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
              Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
              Executor simulated = new SimulatedExecutor(seed, speedup);
-             Executor http = HttpExecutor.withDefaults()) {
+             Executor http = HttpExecutor.withDefaults(outgoing);
+             Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock, new CommitListener() {
+                    n -> courier.wake(), clock, new CommitListener() {
                         @Override
                         public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
                         }
@@ -107,6 +114,7 @@ public final class IngestCommand implements Callable<Integer> {
                                     + " (a ledger entry input-refused names it): " + reason);
                         }
                     });
+            courier.start();
             holder[0] = orch;
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
@@ -179,6 +187,9 @@ public final class IngestCommand implements Callable<Integer> {
                 // a signal arrived: the store is consistent, runs resume on the next start
             }
             timers.close();
+            courier.close();
+            // what is due now goes out before the command ends; pages still waiting for a retry go out with the next start on this store
+            courier.deliverDue();
             report(out, orch, summary[0]);
             reportTimeRefusals(out, wire);
             out.flush();

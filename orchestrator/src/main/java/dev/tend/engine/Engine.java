@@ -57,7 +57,7 @@ public final class Engine implements RunHost {
     public Engine(EngineSetup setup) {
         this.setup = setup;
         FleetHealthView view = new FleetHealthView(setup.fleet());
-        this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake()));
+        this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake(), setup.config().paging().brakeGather()));
         this.approvals = new Approvals(this);
         this.escalations = new Escalations(ctx);
     }
@@ -143,6 +143,10 @@ public final class Engine implements RunHost {
         if (key.startsWith("recheck:")) {
             work.addAll(candidates.dueByTime(ctx.now));
             work.add(key.substring("recheck:".length()));
+        } else if (key.equals(FleetBrake.PAGE_TIMER)) {
+            ctx.brake.pageDue(fx);
+        } else if (key.startsWith(Approvals.REMINDER_TIMER)) {
+            approvals.remind(key.substring(Approvals.REMINDER_TIMER.length()), fx);
         } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
             if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
         } else if (key.startsWith("approval:")) {
@@ -319,6 +323,16 @@ public final class Engine implements RunHost {
     public ActionDef action(Id id) {
         return setup.playbooks().actions().get(id)
                 .orElseThrow(() -> new TendException("action " + id + " is not defined; the playbook set was validated, so this is a bug"));
+    }
+
+    /** Where pages go and when approvals are reminded. */
+    dev.tend.playbooks.Paging paging() {
+        return ctx.config.paging();
+    }
+
+    @Override
+    public String pageChannel() {
+        return ctx.config.paging().channel().value();
     }
 
     @Override

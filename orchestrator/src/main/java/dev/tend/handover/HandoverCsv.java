@@ -61,6 +61,8 @@ public final class HandoverCsv {
         fleet(out, "approvals_lapsed", r.lapsedApprovals().size());
         fleet(out, "runs_needing_person", r.runsNeedingPerson().size());
         fleet(out, "loops_stopped", r.loopsStopped().size());
+        fleet(out, "pages_delivered", r.deliveredPages().size());
+        fleet(out, "pages_failed", r.failedPages().size());
         fleet(out, "brake_periods", r.brakePeriods().size());
         fleet(out, "brake_engaged_at_until", r.brakeStillEngaged().isPresent());
         LedgerStatus l = r.ledger();

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.text.HtmlText;
 
 import java.util.List;
@@ -141,6 +142,11 @@ public final class HandoverHtml {
             s.append("<li><strong>Loop stopped</strong>: ").append(esc(x.playbook())).append(" on ").append(esc(x.target()))
                     .append(" since ").append(TimeText.at(x.stoppedAt()))
                     .append("; automation stays off this target until a person clears it</li>\n");
+        }
+        for (PageLine p : r.failedPages()) {
+            s.append("<li><strong>Page not delivered</strong>: ").append(esc(p.id())).append(" to ").append(esc(p.channel()))
+                    .append(", given up ").append(TimeText.at(p.at())).append(p.answer() == null ? "" : ": " + esc(p.answer()))
+                    .append("</li>\n");
         }
         r.brakeStillEngaged().ifPresent(b -> s.append("<li><strong>Fleet brake engaged</strong> since ")
                 .append(TimeText.at(b.engagedAt())).append(" by ").append(esc(b.engagedBy()))

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import java.util.List;
 import java.util.Map;
 
@@ -28,6 +29,7 @@ public final class HandoverText {
         line(out, "Approvals  %d asked, %d pending, %d lapsed", r.approvalsRequested(), r.pendingApprovals().size(),
                 r.lapsedApprovals().size());
         line(out, "Brake      %s", brakeHeadline(r));
+        line(out, "Pages      %d delivered, %d given up", r.deliveredPages().size(), r.failedPages().size());
         LedgerStatus l = r.ledger();
         line(out, "Ledger     %d entries (%d in the period), verify %s, head %s", l.entries(), l.entriesInPeriod(),
                 l.verified() ? "ok" : "FAILED at entry " + l.firstBrokenSeq(), l.headHash());
@@ -38,6 +40,7 @@ public final class HandoverText {
         nodes(out, r.nodesRemediated());
         brakes(out, r);
         lapsed(out, r);
+        pages(out, r);
         return out.toString();
     }
 
@@ -85,6 +88,25 @@ public final class HandoverText {
         more(out, loops.size());
         r.brakeStillEngaged().ifPresent(b -> line(out, "  ! fleet brake       engaged since %s by %s%s; automatic starts are on hold",
                 TimeText.at(b.engagedAt()), b.engagedBy(), b.reason() == null ? "" : ": " + b.reason()));
+        List<PageLine> failed = r.failedPages();
+        for (int i = 0; i < failed.size() && i < LIST_LIMIT; i++) {
+            PageLine p = failed.get(i);
+            line(out, "  ! page not delivered %s to %s, given up %s after %d attempt%s: %s", p.id(), p.channel(), TimeText.at(p.at()),
+                    p.attempts(), p.attempts() == 1 ? "" : "s", p.answer() == null ? "" : p.answer());
+        }
+        more(out, failed.size());
+        out.append('\n');
+    }
+
+    private static void pages(StringBuilder out, HandoverReport r) {
+        if (r.pages().isEmpty()) return;
+        line(out, "Pages sent and given up");
+        List<PageLine> all = r.pages();
+        for (int i = 0; i < all.size() && i < LIST_LIMIT; i++) {
+            PageLine p = all.get(i);
+            line(out, "  %s  %-9s %-10s %-20s %s", TimeText.at(p.at()), p.outcome(), p.channel(), p.kind() == null ? "" : p.kind(), p.id());
+        }
+        more(out, all.size());
         out.append('\n');
     }
 

@@ -38,6 +38,7 @@ import java.util.Map;
  * tend_approvals_pending                    read from the store at scrape time
  * tend_ledger_entries                       the ledger's length, read from the store at scrape time
  * tend_executor_duration_seconds{kind,success}  from call to result
+ * tend_notifications_total{channel,outcome} page delivery attempts: delivered, retry (tried again later), failed (given up)
  * </pre>
  * Thread-safe. {@link #committed} runs on the driver thread.
  */
@@ -68,6 +69,10 @@ public final class TendMetrics implements CommitListener {
             .help("Time from an executor call to its result").labelNames("kind", "success")
             .classicUpperBounds(0.01, 0.05, 0.1, 0.5, 1, 5, 10, 30, 60, 300, 900, 1800).classicOnly().register(registry);
 
+    private final Counter notifications = Counter.builder().name("tend_notifications_total")
+            .help("Page delivery attempts by channel and outcome (delivered, retry, failed)").labelNames("channel", "outcome")
+            .register(registry);
+
     public TendMetrics(Store store) {
         GaugeWithCallback.builder().name("tend_ledger_entries").help("Entries in the audit ledger")
                 .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
@@ -75,6 +80,11 @@ public final class TendMetrics implements CommitListener {
         GaugeWithCallback.builder().name("tend_approvals_pending").help("Approvals waiting for a person")
                 .callback(cb -> cb.call(store.read(r -> r.approvals("pending").size())))
                 .register(registry);
+    }
+
+    /** A page delivery attempt ended: outcome delivered, retry or failed. */
+    public void pageAttempted(String channel, String outcome) {
+        notifications.labelValues(channel, outcome).inc();
     }
 
     public void transitionsReceived(long n) {

@@ -76,4 +76,12 @@ public interface StoreReader {
      * the engine took them, late arrivals included. For exporting recordings.
      */
     void forEachTransitionInput(Instant from, Instant until, Set<String> clusters, Consumer<InputRow> consumer);
+
+    /** Pending pages due at {@code now} or before, soonest first, at most {@code limit}. */
+    List<PageRow> pagesDue(Instant now, int limit);
+
+    /** Pages in one of {@code states} (each from {@link PageRow#STATES}), newest first, at most {@code limit}. */
+    List<PageRow> pages(Set<String> states, int limit);
+
+    Optional<PageRow> page(String id);
 }

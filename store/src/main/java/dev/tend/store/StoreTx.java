@@ -60,4 +60,10 @@ public interface StoreTx extends StoreReader {
 
     /** Deletes what is under {@code key}; returns false when there was nothing. */
     boolean deleteState(String key);
+
+    /** Puts a page in the outbox, unless a page with its id is there already (then nothing changes). */
+    void enqueuePage(PageRow page);
+
+    /** Replaces the outbox row of the page with the same id (after a delivery attempt). */
+    void updatePage(PageRow page);
 }

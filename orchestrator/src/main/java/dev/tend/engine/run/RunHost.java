@@ -19,6 +19,8 @@ public interface RunHost {
      * trigger check, for a step written {@code if-cleared: continue}.
      */
     java.util.Optional<StandDown> gate(RunProcess run, boolean ignoreCleared);
+    /** The channel of tend's own pages (a run that needs a person). */
+    String pageChannel();
 
     /** True when none of {@code signals} is in breach or silent on the target. */
     boolean allClear(Target target, List<Id> signals);

@@ -2,6 +2,7 @@ package dev.tend.engine.run;
 
 import dev.tend.engine.Effect;
 import dev.tend.engine.Effects;
+import dev.tend.engine.PageKind;
 import dev.tend.engine.RunState;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
@@ -76,8 +77,8 @@ public final class RunMachine {
             Step s = list.get(r.index);
             if (s instanceof PageStep n) {
                 String msg = render(n.message(), r);
-                fx.add(new Effect.Notify(r.id + "/" + n.id(), n.channel().value(), msg,
-                        Map.of("run", r.id, "cluster", r.target.cluster().value())));
+                fx.add(new Effect.Notify(r.id + "/" + n.id(), PageKind.PLAYBOOK, n.channel().value(), msg,
+                        pageFields(r)));
                 r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
                 fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);
@@ -192,9 +193,19 @@ public final class RunMachine {
         fx.ledger("run-needs-human", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt,
                 "reason", "the call was in flight when tend stopped and its action cannot be asked again by key");
-        fx.add(new Effect.Notify(r.id + "/needs-human", "oncall", "run " + r.id + " on " + r.target
-                + " needs a person: the outcome of step " + stepId + " is unknown", Map.of("run", r.id)));
+        fx.add(new Effect.Notify(r.id + "/needs-human", PageKind.NEEDS_HUMAN, host.pageChannel(), "run " + r.id + " on " + r.target
+                + " needs a person: the outcome of step " + stepId + " is unknown", pageFields(r)));
         changed(r, fx);
+    }
+
+    /** What a page about run {@code r} carries besides its message. */
+    static Map<String, Object> pageFields(RunProcess r) {
+        Map<String, Object> f = new java.util.LinkedHashMap<>();
+        f.put("run", r.id);
+        f.put("playbook", r.playbook.id().value());
+        f.put("cluster", r.target.cluster().value());
+        if (r.target.node() != null) f.put("node", r.target.node().value());
+        return f;
     }
 
     /** Releases a run paused by the brake. */

@@ -48,7 +48,8 @@ final class Read {
         }
     }
 
-    private static String nearest(String key, Collection<String> allowed) {
+    /** The allowed value nearest to {@code key} (edit distance under 3), or null. */
+    static String nearest(String key, Collection<String> allowed) {
         String normal = key.toLowerCase(Locale.ROOT).replace('_', '-').replace(' ', '-');
         if (allowed.contains(normal)) return normal;
         return NearestName.among(normal, allowed, 2).orElse(null);

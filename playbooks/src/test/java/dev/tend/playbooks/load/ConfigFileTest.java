@@ -232,8 +232,8 @@ class ConfigFileTest {
                 "tend.yaml:2:16: defaults.per-cluster: must be between 1 and 1000, got 0",
                 "tend.yaml:3:13: defaults.cooldown: a duration looks like 30s, 5m, 6h or 1d, got '1 hour'",
                 "tend.yaml:4:22: defaults.impaired-fraction: must be more than 0 and at most 1, got 1.5",
-                "tend.yaml:5:1: unknown key 'brakes' in tend.yaml (did you mean 'brake'?); the keys allowed here are: brake,"
-                        + " defaults, freezes, max-skew, rate, signals");
+                "tend.yaml:5:1: unknown key 'brakes' in tend.yaml (did you mean 'brake'?); the keys allowed here are: brake, channels,"
+                        + " defaults, freezes, max-skew, pages, rate, signals");
     }
 
     @Test
