@@ -8,6 +8,7 @@ export function el(tag, props, ...children) {
     else if (k === "text") node.textContent = v;
     else if (k.startsWith("on")) node.addEventListener(k.slice(2), v);
     else if (k === "dataset") Object.assign(node.dataset, v);
+    else if (k === "style") node.style.cssText = String(v); // CSSOM, which the content-security policy allows
     else node.setAttribute(k, v === true ? "" : String(v));
   }
   append(node, children);

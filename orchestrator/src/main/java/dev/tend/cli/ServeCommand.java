@@ -58,6 +58,11 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     LedgerKeyOption ledgerKey;
 
+    @Option(names = "--allow-host", paramLabel = "NAME",
+            description = "a name clients reach the server by (the Host header) besides localhost and the address listened on;"
+                    + " repeat for several")
+    java.util.List<String> allowHosts = new java.util.ArrayList<>();
+
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
@@ -68,7 +73,7 @@ public final class ServeCommand implements Callable<Integer> {
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(speedup).seed(seed).log(err).build();
+                .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).build();
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {

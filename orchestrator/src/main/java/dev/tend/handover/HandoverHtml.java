@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.text.HtmlText;
 
 import java.util.List;

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.StoreReader;

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;

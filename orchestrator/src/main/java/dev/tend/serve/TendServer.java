@@ -124,7 +124,7 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
                     s.setup().playbooks()));
         } catch (RuntimeException e) {
             stopDriver();

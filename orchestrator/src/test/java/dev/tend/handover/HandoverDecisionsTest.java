@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.engine.Input;
 import dev.tend.shared.SignalState;
 import org.junit.jupiter.api.Test;

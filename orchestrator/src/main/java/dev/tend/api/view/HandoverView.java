@@ -1,7 +1,7 @@
 package dev.tend.api.view;
 
 import dev.tend.handover.ApprovalLine;
-import dev.tend.handover.BrakePeriod;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.handover.HandoverReport;
 import dev.tend.handover.LedgerStatus;
 import dev.tend.handover.LoopStop;

@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonGenerator;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.TendException;
@@ -63,7 +64,7 @@ public final class ReportJson {
                 g.writeStartObject();
                 JsonOutput.time(g, "engaged_at", b.engagedAt());
                 JsonOutput.time(g, "released_at", b.releasedAt());
-                JsonOutput.text(g, "by", b.by());
+                JsonOutput.text(g, "by", b.engagedBy());
                 JsonOutput.text(g, "reason", b.reason());
                 g.writeEndObject();
             }

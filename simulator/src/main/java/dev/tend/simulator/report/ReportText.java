@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.time.Durations;
@@ -64,7 +65,7 @@ public final class ReportText {
                 sb.append("  ").append(time(b.engagedAt())).append(" to ")
                         .append(b.releasedAt() == null ? "the end (still engaged)" : time(b.releasedAt()));
                 if (b.releasedAt() != null) sb.append(" (").append(Durations.format(Duration.between(b.engagedAt(), b.releasedAt()))).append(')');
-                sb.append(", ").append(b.by()).append(": ").append(b.reason()).append('\n');
+                sb.append(", ").append(b.engagedBy()).append(": ").append(b.reason()).append('\n');
             }
         }
         if (!r.notifications().isEmpty()) {

@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
@@ -57,6 +58,6 @@ final class Fixtures {
                 List.of(decision(0, "tickets-12", "n2", Verdict.HOLD, ReasonCode.UNCONFIRMED),
                         decision(5, "tickets-12", "n2", Verdict.START),
                         decision(60, "tickets-13", "n2", Verdict.DENY, ReasonCode.MASKED, ReasonCode.UNCONFIRMED)),
-                List.of(new BrakePeriod(at(40), at(80), "automatic", "24 clusters unhealthy (8.0% of the fleet)")));
+                List.of(new BrakePeriod(at(40), "automatic", "24 clusters unhealthy (8.0% of the fleet)", at(80), null, null)));
     }
 }
