@@ -94,6 +94,8 @@ public final class YamlDocument {
         LoaderOptions options = new LoaderOptions();
         options.setAllowDuplicateKeys(true); // found and reported below, all at once
         options.setMaxAliasesForCollections(1000); // what they expand to is bounded below
+        // SnakeYAML refuses input over 3 MB by default; the text is already in memory, so size the limit to it.
+        options.setCodePointLimit(Math.max(options.getCodePointLimit(), text.length() + 1));
         Node root;
         try {
             root = new Yaml(options).compose(new StringReader(text));
