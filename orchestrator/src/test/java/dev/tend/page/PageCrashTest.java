@@ -31,8 +31,8 @@ class PageCrashTest {
             writePolicy(receiver.url());
             Path storm = dir.resolve("storm.jsonl");
             Files.writeString(storm, """
-                    {"at":"2027-03-14T02:00:00Z","cluster":"fares-1","node":"n1","signal":"heartbeat","state":"silent"}
-                    {"at":"2027-03-14T02:00:05Z","cluster":"fares-2","node":"n1","signal":"heartbeat","state":"silent"}
+                    {"at":"2026-03-14T02:00:00Z","cluster":"fares-1","node":"n1","signal":"heartbeat","state":"silent"}
+                    {"at":"2026-03-14T02:00:05Z","cluster":"fares-2","node":"n1","signal":"heartbeat","state":"silent"}
                     """);
             Process first = ingest(storm, "first");
             try {

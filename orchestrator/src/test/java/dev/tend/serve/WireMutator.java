@@ -28,7 +28,7 @@ final class WireMutator {
 
     private final Random rnd;
     private final List<String> clusters;
-    private final Instant t0 = Instant.parse("2027-03-14T02:00:00Z");
+    private final Instant t0 = Instant.parse("2026-03-14T02:00:00Z");
 
     WireMutator(long seed, List<String> clusters) {
         this.rnd = new Random(seed);
@@ -44,8 +44,8 @@ final class WireMutator {
             String state = rnd.nextInt(4) == 0 ? "breach" : "clear";
             String at = t0.plusMillis(i * 250L).toString();
             String good = "{\"at\":\"" + at + "\",\"cluster\":\"" + cluster + "\",\"node\":\"" + node
-                    + "\",\"signal\":\"probe-latency\",\"state\":\"" + state + "\",\"detail\":{\"p99_ms\":" + rnd.nextInt(900) + "}}";
-            String key = at + "|" + cluster + "|" + node + "|probe-latency|" + state;
+                    + "\",\"signal\":\"disk-latency\",\"state\":\"" + state + "\",\"detail\":{\"p99_ms\":" + rnd.nextInt(900) + "}}";
+            String key = at + "|" + cluster + "|" + node + "|disk-latency|" + state;
             if (rnd.nextInt(3) != 0) {
                 out.add(new Line(good.getBytes(StandardCharsets.UTF_8), true, key));
             } else {
@@ -97,7 +97,7 @@ final class WireMutator {
             case 9: // not an object at all
                 return VALUES[rnd.nextInt(VALUES.length)].getBytes(StandardCharsets.UTF_8);
             case 10: { // control characters and a NUL inside
-                String s = good.replace("probe-latency", "probe\u0000lat\u0007ency");
+                String s = good.replace("disk-latency", "disk\u0000lat\u0007ency");
                 return s.getBytes(StandardCharsets.UTF_8);
             }
             default: // deeply nested detail
