@@ -64,6 +64,7 @@ export const api = {
   engageBrake: (reason) => send("POST", "brake/engage", null, { reason }),
   releaseBrake: (reason) => send("POST", "brake/release", null, { reason }),
   ledger: (params) => send("GET", "ledger", params),
+  pages: (params) => send("GET", "pages", params),
   handover: (params) => send("GET", "handover", params),
   handoverHtml: async (params) => {
     const res = await fetch("api/v1/handover" + query(Object.assign({}, params, { format: "html" })),

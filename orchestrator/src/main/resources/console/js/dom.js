@@ -8,6 +8,7 @@ export function el(tag, props, ...children) {
     else if (k === "text") node.textContent = v;
     else if (k.startsWith("on")) node.addEventListener(k.slice(2), v);
     else if (k === "dataset") Object.assign(node.dataset, v);
+    else if (k === "style") node.style.cssText = String(v); // CSSOM, which the content-security policy allows
     else node.setAttribute(k, v === true ? "" : String(v));
   }
   append(node, children);
@@ -35,9 +36,11 @@ export function pill(state, extra) {
 
 export function tone(state) {
   switch (state) {
-    case "succeeded": case "clear": case "released": case "approved": case "start": case "verified":
+    case "succeeded": case "clear": case "released": case "approved": case "start": case "verified": case "delivered":
+    case "all delivered":
       return "good";
     case "running": case "pending": case "awaiting-approval": case "impaired": case "hold": case "paused": case "approval":
+    case "stood-down": case "unknown-target":
       return "wait";
     case "failed": case "timed-out": case "needs-human": case "unhealthy": case "deny": case "engaged": case "silent":
     case "breach": case "rejected": case "lapsed": case "broken":

@@ -1,4 +1,4 @@
-// Fleet overview: how much of the fleet is unhealthy, where, and the fleet brake.
+// Fleet overview: how much of the fleet is unhealthy, where, the fleet brake, and pages not delivered.
 import { api } from "./api.js";
 import { el, replace, pill, stat, table, time, ago, empty, target } from "./dom.js";
 
@@ -36,7 +36,8 @@ export default {
     const brake = el("section", { class: "card", id: "brake" });
     const zones = el("div", { class: "zones" });
     const clusters = el("section", { class: "card" });
-    root.append(stats, brake, el("h2", { text: "Unhealthy clusters by zone" }), zones, clusters);
+    const pages = el("section", { class: "card", id: "pages" });
+    root.append(stats, brake, pages, el("h2", { text: "Unhealthy clusters by zone" }), zones, clusters);
     let brakeShown = null;
 
     const view = {
@@ -81,10 +82,30 @@ export default {
           el("td", {}, pill(c.health)),
           el("td", { text: c.zones.join(", ") }),
           el("td", {}, el("ul", { class: "plain" }, c.signals.map((s) => el("li", {},
-            el("code", { text: target(c.cluster, s.node) }), " ", s.signal, " ", pill(s.state), " ",
+            el("code", { text: target(c.cluster, s.node) }), s.unknown_target ? el("span", { class: "muted small", text: " (not in the topology: never remediated)" }) : null,
+            " ", s.signal, " ", pill(s.state), " ",
             el("span", { class: "muted small" }, "since ", time(s.since, now))))))));
         replace(clusters, el("h2", { text: "Signals in breach or silent" }),
           rows.length === 0 ? empty("Every cluster is healthy.") : table(["cluster", "health", "zones", "signals"], rows));
+
+        // pages that have not reached anyone yet (still being tried, or given up) first, then the latest delivered
+        const undelivered = await api.pages({ state: "undelivered" });
+        const delivered = await api.pages({ state: "delivered", limit: 10 });
+        const pageRow = (p) => el("tr", { dataset: { page: p.id } },
+          el("td", {}, el("code", { text: p.id })),
+          el("td", { text: p.channel }),
+          el("td", {}, pill(p.state)),
+          el("td", { text: p.message || "" }),
+          el("td", { class: "small" }, p.attempts + " attempt" + (p.attempts === 1 ? "" : "s"),
+            p.last_answer ? el("div", { class: "muted", text: p.last_answer }) : "",
+            p.next_at ? el("div", { class: "muted" }, "next ", time(p.next_at, now)) : ""));
+        replace(pages,
+          el("div", { class: "card-head" }, el("h2", { text: "Pages" }),
+            pill(undelivered.length === 0 ? "all delivered" : undelivered.length + " not delivered", "pages-state")),
+          undelivered.length === 0 ? el("p", { class: "muted", text: "Every page reached its channel." })
+            : table(["page", "channel", "state", "message", "delivery"], undelivered.map(pageRow)),
+          delivered.length > 0 && el("h3", { text: "Latest delivered" }),
+          delivered.length > 0 && table(["page", "channel", "state", "message", "delivery"], delivered.map(pageRow)));
       },
     };
     return view;

@@ -5,7 +5,7 @@ import { el, replace, pill, stat, table, time, empty, target } from "./dom.js";
 const PERIODS = [["last hour", 60], ["last 8 hours", 480], ["last 12 hours", 720], ["last 24 hours", 1440]];
 
 function counts(c) {
-  return [c.started, c.succeeded, c.failed, c.cancelled, c.shadowed, c.held, c.denied].map((n) => el("td", { class: "num", text: n }));
+  return [c.started, c.succeeded, c.failed, c.cancelled, c.shadowed, c.stood_down, c.held, c.denied].map((n) => el("td", { class: "num", text: n }));
 }
 
 function timeline(r) {
@@ -41,12 +41,12 @@ function render(r, now) {
         : "Nothing waits for a person." }),
     el("div", { class: "stats" },
       stat("started", t.started), stat("succeeded", t.succeeded, "good"), stat("failed", t.failed, t.failed ? "bad" : null),
-      stat("cancelled", t.cancelled), stat("held", t.held, t.held ? "wait" : null), stat("denied", t.denied),
+      stat("cancelled", t.cancelled), stat("stood down", t.stood_down, t.stood_down ? "wait" : null), stat("held", t.held, t.held ? "wait" : null), stat("denied", t.denied),
       stat("approvals asked", r.approvals_requested), stat("pending", r.pending_approvals.length, r.pending_approvals.length ? "wait" : null),
       stat("lapsed", r.lapsed_approvals.length, r.lapsed_approvals.length ? "bad" : null)),
     el("section", { class: "card" }, el("h2", { text: "Timeline" }), timeline(r)),
     el("section", { class: "card" }, el("h2", { text: "By playbook" }), pb.length === 0 ? empty("No playbook did anything.")
-        : table(["playbook", "started", "succeeded", "failed", "cancelled", "shadowed", "held", "denied"],
+        : table(["playbook", "started", "succeeded", "failed", "cancelled", "shadowed", "stood down", "held", "denied"],
           pb.map(([name, c]) => el("tr", {}, el("td", { text: name }), counts(c))))),
     el("section", { class: "card" }, el("h2", { text: "Held and denied by reason" }), r.by_reason.length === 0 ? empty("No guard held or denied.")
       : table(["reason code", "held", "denied"], r.by_reason.map((x) => el("tr", {},

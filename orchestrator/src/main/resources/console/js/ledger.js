@@ -3,7 +3,7 @@ import { api } from "./api.js";
 import { el, replace, pill, time, empty, target } from "./dom.js";
 
 const KINDS = ["verdict", "transition", "transitions-received", "approval-requested", "approval-granted", "approval-rejected", "approval-lapsed",
-  "approval-refused", "run-started", "run-ended", "run-needs-human", "run-paused", "run-resumed", "run-shadowed",
+  "approval-refused", "run-started", "run-ended", "run-needs-human", "run-paused", "run-resumed", "run-shadowed", "run-standing-down",
   "step-started", "step-finished", "step-failed", "step-timed-out", "executor-call", "executor-result",
   "brake-engaged", "brake-released", "exclusion-added", "exclusion-removed", "loop-stopped", "loop-cleared",
   "operator-command", "policy-loaded", "topology"];

@@ -1,6 +1,7 @@
 package dev.tend.api;
 
 import dev.tend.api.auth.ForbiddenException;
+import dev.tend.api.auth.TooManyFailuresException;
 import dev.tend.api.auth.UnauthenticatedException;
 import dev.tend.api.view.ErrorBody;
 import dev.tend.api.view.LineProblem;
@@ -23,6 +24,8 @@ import java.util.List;
  * InvalidInputException,
  * IllegalArgumentException   400 invalid-input, each problem listed
  * RefusedException           409 refused, with the engine's reason
+ * TooManyFailuresException   429 too-many-attempts (with Retry-After), after repeated wrong tokens
+ * a Host not served          421 misdirected
  * DriverUnavailableException,
  * StoreException             503 unavailable
  * Javalin's own (no route, wrong method), body too large (413 too-large): their status
@@ -40,6 +43,10 @@ final class ApiErrors {
         });
         app.exception(ForbiddenException.class, (e, ctx) ->
                 answer(ctx, 403, new ErrorBody("forbidden", e.getMessage(), e.needed().wireName(), null)));
+        app.exception(TooManyFailuresException.class, (e, ctx) -> {
+            ctx.header("Retry-After", String.valueOf(e.retryAfterSeconds()));
+            answer(ctx, 429, ErrorBody.of("too-many-attempts", e.getMessage()));
+        });
         app.exception(NotFoundException.class, (e, ctx) -> answer(ctx, 404, ErrorBody.of("not-found", e.getMessage())));
         app.exception(InvalidInputException.class, (e, ctx) -> answer(ctx, 400, new ErrorBody("invalid-input",
                 e.problems().size() == 1 ? e.problems().get(0).message() : e.problems().size() + " problems in the request",
@@ -49,7 +56,7 @@ final class ApiErrors {
         app.exception(DriverUnavailableException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(StoreException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(HttpResponseException.class, (e, ctx) -> answer(ctx, e.getStatus(),
-                ErrorBody.of(e.getStatus() == 404 ? "not-found" : e.getStatus() == 413 ? "too-large"
+                ErrorBody.of(e.getStatus() == 404 ? "not-found" : e.getStatus() == 413 ? "too-large" : e.getStatus() == 421 ? "misdirected"
                         : e.getStatus() >= 500 ? "failed" : "invalid-input", e.getMessage())));
         app.exception(Exception.class, (e, ctx) -> {
             synchronized (log) {

@@ -1,6 +1,7 @@
 package dev.tend.api;
 
 import dev.tend.api.auth.Caller;
+import dev.tend.api.auth.FailedTokens;
 import dev.tend.api.auth.ForbiddenException;
 import dev.tend.api.auth.Role;
 import dev.tend.api.auth.Tokens;
@@ -17,6 +18,7 @@ import io.javalin.security.RouteRole;
 
 import java.io.PrintWriter;
 import java.time.Clock;
+import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import java.util.Set;
@@ -55,8 +57,18 @@ public final class ApiServer implements AutoCloseable {
         }
     }
 
-    /** Starts listening on {@code host:port} (port 0: any free port, see {@link #port()}). */
+    /** Starts listening on {@code host:port} (port 0: any free port, see {@link #port()}), answering loopback names and {@code host}. */
     public static ApiServer start(String host, int port, Parts parts) {
+        return start(host, port, List.of(), FailedTokens.LIMIT, parts);
+    }
+
+    /**
+     * As above, also answering requests whose Host header names one of {@code allowHosts}, and
+     * answering 429 to an address after {@code wrongTokens} wrong tokens in a minute.
+     */
+    public static ApiServer start(String host, int port, List<String> allowHosts, int wrongTokens, Parts parts) {
+        HostCheck hosts = new HostCheck(host, allowHosts);
+        FailedTokens failed = FailedTokens.systemClock(wrongTokens);
         RunRoutes runs = new RunRoutes(parts.store(), parts.gateway());
         Javalin app = Javalin.create(cfg -> {
             cfg.showJavalinBanner = false;
@@ -71,16 +83,21 @@ public final class ApiServer implements AutoCloseable {
                 });
             }
             cfg.router.mount(r -> {
-                r.beforeMatched(ctx -> authorize(ctx, parts.tokens()));
+                r.before(ctx -> {
+                    SecurityHeaders.add(ctx);
+                    hosts.check(ctx);
+                });
+                r.beforeMatched(ctx -> authorize(ctx, parts.tokens(), failed));
                 ApiErrors.install(r, parts.log());
                 runs.mount(r);
                 new ApprovalRoutes(parts.store(), parts.gateway(), runs).mount(r);
                 new ExclusionRoutes(parts.store(), parts.gateway(), parts.clock()).mount(r);
                 new BrakeRoutes(parts.store(), parts.gateway()).mount(r);
                 new LedgerRoutes(parts.store()).mount(r);
+                new PageRoutes(parts.store()).mount(r);
                 new HandoverRoutes(parts.store(), parts.clock()).mount(r);
                 new PlaybookRoutes(parts.playbooks()).mount(r);
-                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock()).mount(r);
+                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 new HealthRoutes(parts.health(), parts.metrics()).mount(r);
             });
         });
@@ -88,12 +105,18 @@ public final class ApiServer implements AutoCloseable {
         return new ApiServer(app);
     }
 
-    private static void authorize(Context ctx, Tokens tokens) {
+    private static void authorize(Context ctx, Tokens tokens, FailedTokens failed) {
         Set<RouteRole> roles = ctx.routeRoles();
         if (roles.isEmpty()) return; // console files and /metrics
         Role needed = (Role) roles.iterator().next();
-        Caller caller = tokens.holderOf(bearer(ctx, tokens)).orElseThrow(() ->
-                new UnauthenticatedException("the bearer token is not one this server accepts"));
+        failed.check(ctx.ip());
+        Caller caller;
+        String token = bearer(ctx, tokens);
+        caller = tokens.holderOf(token).orElse(null);
+        if (caller == null) {
+            failed.failed(ctx.ip());
+            throw new UnauthenticatedException("the bearer token is not one this server accepts");
+        }
         if (!caller.may(needed)) throw new ForbiddenException(needed, caller);
         ctx.attribute(Requests.CALLER, caller);
     }

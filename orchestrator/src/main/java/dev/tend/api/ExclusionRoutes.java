@@ -4,7 +4,9 @@ import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ExclusionRequest;
 import dev.tend.api.view.ExclusionView;
+import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
+import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Id;
 import dev.tend.shared.Target;
 import dev.tend.shared.time.Durations;
@@ -15,6 +17,7 @@ import io.javalin.router.JavalinDefaultRouting;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
+import java.util.List;
 import java.util.Objects;
 
 /**
@@ -62,7 +65,15 @@ final class ExclusionRoutes {
                     + now + "), got " + req.until() + "; leave it out for an exclusion that lasts until removed");
         }
         Caller caller = Requests.caller(ctx);
-        gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(), Requests.from(ctx)));
+        List<Effect> effects = gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(), Requests.from(ctx)));
+        for (Effect e : effects) {
+            // an unknown cluster or node is a mistake in the request (a typo, most often): 400, with the engine's suggestion
+            if (e instanceof Effect.Ledger l && l.kind().equals("command-refused")
+                    && ReasonCode.UNKNOWN_TARGET.code().equals(l.fields().get("code"))) {
+                throw Requests.invalid(target.node() != null && l.fields().get("reason").toString().startsWith("node")
+                        ? "node" : "cluster", String.valueOf(l.fields().get("reason")));
+            }
+        }
         ctx.status(201).json(find(target));
     }
 

@@ -8,6 +8,7 @@ import dev.tend.api.view.LineProblem;
 import dev.tend.api.view.TransitionsOutcome;
 import dev.tend.engine.Input;
 import dev.tend.metrics.TendMetrics;
+import dev.tend.playbooks.TendConfig;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
@@ -41,12 +42,14 @@ final class TransitionRoutes {
     private final TendMetrics metrics;
     private final Store store;
     private final Clock clock;
+    private final TendConfig config;
 
-    TransitionRoutes(Gateway gateway, TendMetrics metrics, Store store, Clock clock) {
+    TransitionRoutes(Gateway gateway, TendMetrics metrics, Store store, Clock clock, TendConfig config) {
         this.gateway = gateway;
         this.metrics = metrics;
         this.store = store;
         this.clock = clock;
+        this.config = config;
     }
 
     void mount(JavalinDefaultRouting r) {
@@ -57,7 +60,8 @@ final class TransitionRoutes {
         String body = singleObjectOnOneLine(Requests.bodyText(ctx));
         List<Input> events = new ArrayList<>();
         List<LineProblem> problems = new ArrayList<>();
-        ReadSummary summary = WireReader.of("request").readAll(new StringReader(body), r -> {
+        WireReader wire = WireReader.of("request").withLiveClock(clock::instant, config.maxSkew()).withSignals(config.signals());
+        ReadSummary summary = wire.readAll(new StringReader(body), r -> {
             if (r instanceof LineResult.Event e) {
                 events.add(e.event() instanceof HealthTransition t ? new Input.Transition(t)
                         : new Input.Topology((TopologyEvent) e.event()));
@@ -78,6 +82,7 @@ final class TransitionRoutes {
         }
         metrics.transitionsReceived(events.size());
         metrics.linesRejected(summary.bad());
+        metrics.timeRefused(wire.timeRefusals());
         int status = events.isEmpty() ? 400 : summary.bad() > 0 ? 207 : 200;
         if (events.isEmpty() && problems.isEmpty()) {
             problems.add(new LineProblem(0, 0, "", "the body holds no transition or topology event"));

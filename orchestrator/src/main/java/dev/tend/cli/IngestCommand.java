@@ -10,10 +10,12 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
+import dev.tend.http.OutgoingHttp;
+import dev.tend.page.Courier;
+import dev.tend.page.Senders;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.runtime.CommitListener;
-import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
 import dev.tend.runtime.SourceProgress;
@@ -40,6 +42,7 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
+import java.time.Duration;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -89,16 +92,20 @@ public final class IngestCommand implements Callable<Integer> {
         LedgerKey ledger = ledgerKey.load();
         EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
+        OutgoingHttp outgoing = new OutgoingHttp();
+        Senders senders = Senders.from(setup.config().paging(), outgoing, err);
+        if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
              Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
              Executor simulated = new SimulatedExecutor(seed, speedup);
-             Executor http = HttpExecutor.withDefaults()) {
+             Executor http = HttpExecutor.withDefaults(outgoing);
+             Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    Notifier.printingTo(System.err), clock, new CommitListener() {
+                    n -> courier.wake(), clock, new CommitListener() {
                         @Override
                         public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
                         }
@@ -110,6 +117,7 @@ public final class IngestCommand implements Callable<Integer> {
                                     + " (a ledger entry input-refused names it): " + reason);
                         }
                     }, snapshots.every());
+            courier.start();
             holder[0] = orch;
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
@@ -127,9 +135,11 @@ public final class IngestCommand implements Callable<Integer> {
             ReadSummary[] summary = new ReadSummary[1];
             Progress progress = Progress.onStderr("ingesting " + input, input.equals("-") ? -1 : Files.size(Path.of(input)), err);
             CountingInput counted = new CountingInput(source);
+            WireReader wire = WireReader.of(input).withLiveClock(clock::instant, setup.config().maxSkew())
+                    .withSignals(setup.config().signals());
             Thread reader = new Thread(() -> {
                 try (InputStream in = counted) {
-                    summary[0] = WireReader.of(input).readAll(in, r -> {
+                    summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
                                 orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
@@ -178,7 +188,11 @@ public final class IngestCommand implements Callable<Integer> {
                 // a signal arrived: the store is consistent, runs resume on the next start
             }
             timers.close();
+            courier.close();
+            // what is due now goes out before the command ends; pages still waiting for a retry go out with the next start on this store
+            courier.deliverDue();
             report(out, orch, summary[0]);
+            reportTimeRefusals(out, wire);
             out.flush();
             reported.countDown();
             if (readFailure.get() != null) return ExitCodes.USAGE;
@@ -231,19 +245,29 @@ public final class IngestCommand implements Callable<Integer> {
         }
     }
 
+    private static void reportTimeRefusals(PrintWriter out, WireReader wire) {
+        StringBuilder sb = new StringBuilder();
+        wire.timeRefusals().forEach((why, n) -> {
+            if (n > 0) sb.append(sb.length() == 0 ? "" : ", ").append(n).append(' ').append(why.wireName());
+        });
+        if (sb.length() > 0) out.println("lines refused for their time: " + sb);
+    }
+
     private static void report(PrintWriter out, Orchestrator orch, ReadSummary s) {
-        long started = 0, ok = 0, failed = 0, other = 0;
+        long started = 0, ok = 0, failed = 0, stoodDown = 0, other = 0;
         for (RunSnapshot r : orch.engine().runs()) {
             if (r.startedAt() != null) started++;
             switch (r.state()) {
                 case SUCCEEDED -> ok++;
                 case FAILED -> failed++;
+                case STOOD_DOWN -> stoodDown++;
                 default -> other++;
             }
         }
         out.println("read " + (s == null ? 0 : s.events()) + " events (" + (s == null ? 0 : s.bad()) + " bad lines skipped, "
                 + orch.engine().health().lateEvents() + " late); runs: " + started + " started, " + ok + " succeeded, "
-                + failed + " failed, " + other + " waiting or held; " + orch.engine().heldCandidates().size()
+                + failed + " failed, " + stoodDown + " stood down, " + other + " waiting or held; "
+                + orch.engine().heldCandidates().size()
                 + " candidates held or denied");
     }
 }

@@ -100,7 +100,7 @@ public final class RecordCommand implements Callable<Integer> {
                             + (only.isEmpty() ? "" : " for " + String.join(", ", only)));
             if (fleet != null) header = header.withFleet(relative(fleet));
             writer.writeHeader(header);
-            WireReader reader = WireReader.of(address.toString());
+            WireReader reader = WireReader.trusted(address.toString());
             store.read(r -> {
                 r.forEachTransitionInput(start, end, only, row -> export(row, reader, w, counts));
                 return null;

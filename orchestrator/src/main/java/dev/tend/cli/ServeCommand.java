@@ -61,6 +61,11 @@ public final class ServeCommand implements Callable<Integer> {
     @Mixin
     LedgerKeyOption ledgerKey;
 
+    @Option(names = "--allow-host", paramLabel = "NAME",
+            description = "a name clients reach the server by (the Host header) besides localhost and the address listened on;"
+                    + " repeat for several")
+    java.util.List<String> allowHosts = new java.util.ArrayList<>();
+
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
@@ -71,7 +76,7 @@ public final class ServeCommand implements Callable<Integer> {
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(speedup).seed(seed).log(err).snapshotEvery(snapshots.every()).build();
+                .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every()).build();
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {

@@ -13,7 +13,7 @@ import java.io.PrintWriter;
         subcommands = {CheckCommand.class, IngestCommand.class, ServeCommand.class, RunsCommand.class, AuditCommand.class,
                 HandoverCommand.class, ApprovalsCommand.class, ApproveCommand.class, RejectCommand.class, AbortCommand.class,
                 ExcludeCommand.class, BrakeCommand.class, ReplayCommand.class, RecordCommand.class, DemoCommand.class,
-                JournalCommand.class, CompletionCommand.class},
+                JournalCommand.class, PageCommand.class, CompletionCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {ExitCodes.OK_TEXT, ExitCodes.FINDINGS_TEXT, ExitCodes.USAGE_TEXT})
 public final class TendMain implements Runnable {

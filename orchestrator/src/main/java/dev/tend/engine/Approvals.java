@@ -1,5 +1,7 @@
 package dev.tend.engine;
 
+import dev.tend.shared.ReasonCode;
+
 import dev.tend.engine.guard.Decision;
 import dev.tend.engine.run.RunProcess;
 import dev.tend.shared.Verdict;
@@ -16,6 +18,7 @@ import java.util.Map;
  */
 final class Approvals {
     private final Engine engine;
+    static final String REMINDER_TIMER = "approval-reminder:";
     private final Map<String, ApprovalSnapshot> byRun = new HashMap<>();
 
     Approvals(Engine engine) {
@@ -24,7 +27,7 @@ final class Approvals {
 
     /** Creates the run that waits for a person; returns its id. */
     String request(Candidate c, Decision d, Effects fx) {
-        RunProcess r = engine.newRun(c.playbook(), c.target(), RunState.AWAITING_APPROVAL, Engine.AUTOMATION);
+        RunProcess r = engine.newRun(c, RunState.AWAITING_APPROVAL, Engine.AUTOMATION);
         Instant expires = fx.now().plus(c.playbook().approval().expiresAfter());
         ApprovalSnapshot a = new ApprovalSnapshot(r.id(), c.playbook().id().value(), c.target(), Engine.AUTOMATION,
                 fx.now(), expires, "pending", null, null, d.reasonCodes());
@@ -34,7 +37,30 @@ final class Approvals {
                 "node", c.target().node(), "expires_at", expires, "reasons", d.reasonCodes());
         fx.add(new Effect.ApprovalChanged(a));
         fx.add(new Effect.RunChanged(r.snapshot()));
+        fx.add(new Effect.Notify(r.id() + "/approval", PageKind.APPROVAL_REQUESTED, engine.pageChannel(),
+                c.playbook().id() + " on " + c.target() + " waits for an approval until " + expires, pageFields(a)));
+        java.time.Duration before = engine.paging().approvalReminder();
+        Instant remindAt = expires.minus(before);
+        if (!before.isZero() && remindAt.isAfter(fx.now())) fx.arm(REMINDER_TIMER + r.id(), remindAt);
         return r.id();
+    }
+
+    /** The reminder timer fired: pages once more while the approval is still pending. */
+    void remind(String runId, Effects fx) {
+        ApprovalSnapshot s = byRun.get(runId);
+        if (s == null || !s.state().equals("pending")) return;
+        fx.add(new Effect.Notify(runId + "/approval-lapsing", PageKind.APPROVAL_LAPSING, engine.pageChannel(),
+                s.playbook() + " on " + s.target() + " still waits for an approval; it lapses at " + s.expiresAt(), pageFields(s)));
+    }
+
+    private static Map<String, Object> pageFields(ApprovalSnapshot a) {
+        Map<String, Object> f = new java.util.LinkedHashMap<>();
+        f.put("run", a.runId());
+        f.put("playbook", a.playbook());
+        f.put("cluster", a.target().cluster().value());
+        if (a.target().node() != null) f.put("node", a.target().node().value());
+        f.put("expires_at", Effects.normalise(a.expiresAt()));
+        return f;
     }
 
     void onCommand(Input.Command cmd, Effects fx) {
@@ -42,6 +68,13 @@ final class Approvals {
         else if (cmd instanceof Input.Reject r) decide(r.runId(), "rejected", r.by(), r.from(), r.reason(), fx);
         else if (cmd instanceof Input.AbortRun a) abort(a, fx);
         else if (cmd instanceof Input.Exclude e) {
+            java.util.Optional<String> unknown = UnknownTargets.describe(engine.context().health.topology(), e.target());
+            if (unknown.isPresent()) {
+                fx.ledger("command-refused", "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
+                        "by", e.by(), "from", e.from(), "code", ReasonCode.UNKNOWN_TARGET.code(),
+                        "reason", unknown.get() + "; only a cluster or node in the topology can be excluded");
+                return;
+            }
             Exclusion ex;
             try {
                 ex = new Exclusion(e.target(), e.reason(), e.owner(), fx.now(), e.until(), e.by());
@@ -104,6 +137,7 @@ final class Approvals {
                 s.expiresAt(), state, by, fx.now(), s.reasons());
         byRun.put(runId, d);
         fx.cancel("approval:" + runId);
+        fx.cancel(REMINDER_TIMER + runId);
         fx.ledger(state.equals("approved") ? "approval-granted" : "approval-rejected", "run", runId, "playbook", s.playbook(),
                 "cluster", s.target().cluster(), "node", s.target().node(), "by", by, "from", from, "reason", reason);
         fx.add(new Effect.ApprovalChanged(d));
@@ -137,6 +171,7 @@ final class Approvals {
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
                 s.expiresAt(), "lapsed", null, fx.now(), s.reasons());
         byRun.put(runId, d);
+        fx.cancel(REMINDER_TIMER + runId);
         fx.ledger("approval-lapsed", "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
                 "node", s.target().node(), "expired_at", s.expiresAt());
         fx.add(new Effect.ApprovalChanged(d));
@@ -152,6 +187,7 @@ final class Approvals {
                     s.expiresAt(), "withdrawn", null, fx.now(), s.reasons());
             byRun.put(runId, d);
             fx.cancel("approval:" + runId);
+            fx.cancel(REMINDER_TIMER + runId);
             fx.add(new Effect.ApprovalChanged(d));
         }
         cancelRun(runId, why, fx);

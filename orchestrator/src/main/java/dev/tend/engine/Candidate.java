@@ -16,9 +16,11 @@ import java.util.Objects;
  * @param firstSeen    processing time of the first verdict
  * @param runId        the run created for an approval request, or null before that
  * @param approved     a person approved it; the approval guard lets it through
+ * @param liftedAt     event time at which the last mask or exclusion on it lifted, or null:
+ *                     {@code confirm-for} counts from the later of this and {@code problemSince}
  */
 public record Candidate(Playbook playbook, Target target, SignalKey trigger, Instant problemSince,
-                        Instant firstSeen, String runId, boolean approved) {
+                        Instant firstSeen, String runId, boolean approved, Instant liftedAt) {
     public Candidate {
         Objects.requireNonNull(playbook, "playbook");
         Objects.requireNonNull(target, "target");
@@ -51,14 +53,24 @@ public record Candidate(Playbook playbook, Target target, SignalKey trigger, Ins
     }
 
     public Candidate withRun(String id) {
-        return new Candidate(playbook, target, trigger, problemSince, firstSeen, id, approved);
+        return new Candidate(playbook, target, trigger, problemSince, firstSeen, id, approved, liftedAt);
     }
 
     public Candidate withApproved() {
-        return new Candidate(playbook, target, trigger, problemSince, firstSeen, runId, true);
+        return new Candidate(playbook, target, trigger, problemSince, firstSeen, runId, true, liftedAt);
     }
 
     public Candidate withProblemSince(Instant since) {
-        return new Candidate(playbook, target, trigger, since, firstSeen, runId, approved);
+        return new Candidate(playbook, target, trigger, since, firstSeen, runId, approved, liftedAt);
+    }
+
+    /** A copy whose confirmation counts again from {@code at}, the moment a mask or exclusion lifted. */
+    public Candidate withLiftedAt(Instant at) {
+        return new Candidate(playbook, target, trigger, problemSince, firstSeen, runId, approved, at);
+    }
+
+    /** Event time from which {@code confirm-for} counts: the later of the onset and the last lift. */
+    public Instant confirmingSince() {
+        return liftedAt != null && liftedAt.isAfter(problemSince) ? liftedAt : problemSince;
     }
 }

@@ -27,6 +27,8 @@ final class Candidates {
     private final Map<Id, Set<String>> byCluster = new HashMap<>();
     private final Set<String> fleetWide = new TreeSet<>();
     private final TreeMap<Instant, Set<String>> eventAgenda = new TreeMap<>();
+    /** Holds until a processing-time instant (a rate permit, a cooldown's end ...): looked at together when due. */
+    private final TreeMap<Instant, Set<String>> timeAgenda = new TreeMap<>();
     private final Map<String, Candidate.Key> byName = new HashMap<>();
     private final Map<dev.tend.shared.SignalKey, Set<String>> byTrigger = new HashMap<>();
 
@@ -63,6 +65,7 @@ final class Candidates {
         if (wakes.contains(Wake.FLEET)) fleetWide.add(name);
         Instant et = d.retryAtEventTime();
         if (et != null) eventAgenda.computeIfAbsent(et, k -> new TreeSet<>()).add(name);
+        if (wakes.contains(Wake.TIME) && d.retryAt() != null) timeAgenda.computeIfAbsent(d.retryAt(), k -> new TreeSet<>()).add(name);
     }
 
     void remove(Candidate.Key key) {
@@ -88,31 +91,45 @@ final class Candidates {
             if (s.isEmpty()) byCluster.remove(key.target().cluster());
         }
         fleetWide.remove(name);
-        Instant et = e.decision().retryAtEventTime();
-        if (et != null) {
-            Set<String> a = eventAgenda.get(et);
-            if (a != null) {
-                a.remove(name);
-                if (a.isEmpty()) eventAgenda.remove(et);
-            }
+        unindex(eventAgenda, e.decision().retryAtEventTime(), name);
+        unindex(timeAgenda, e.decision().retryAt(), name);
+    }
+
+    private static void unindex(TreeMap<Instant, Set<String>> agenda, Instant at, String name) {
+        if (at == null) return;
+        Set<String> a = agenda.get(at);
+        if (a != null) {
+            a.remove(name);
+            if (a.isEmpty()) agenda.remove(at);
         }
     }
 
     /** The event-time agenda as it stands, soonest first: for a snapshot. */
-    List<EngineState.AgendaSlot> agenda() {
-        List<EngineState.AgendaSlot> out = new ArrayList<>(eventAgenda.size());
-        eventAgenda.forEach((at, names) -> out.add(new EngineState.AgendaSlot(at, List.copyOf(names))));
+    List<EngineState.AgendaSlot> eventAgenda() {
+        return slots(eventAgenda);
+    }
+
+    /** The processing-time agenda as it stands, soonest first: for a snapshot. */
+    List<EngineState.AgendaSlot> timeAgenda() {
+        return slots(timeAgenda);
+    }
+
+    private static List<EngineState.AgendaSlot> slots(TreeMap<Instant, Set<String>> agenda) {
+        List<EngineState.AgendaSlot> out = new ArrayList<>(agenda.size());
+        agenda.forEach((at, names) -> out.add(new EngineState.AgendaSlot(at, List.copyOf(names))));
         return out;
     }
 
     /**
-     * Replaces the event-time agenda (after every entry was {@link #put} back): an entry's
-     * slot is gone from the agenda once event time passed it, although its decision still
-     * names the instant, so the agenda cannot be rebuilt from the entries.
+     * Replaces both agendas (after every entry was {@link #put} back): an entry's slot is gone
+     * from its agenda once the instant passed, although its decision still names the instant,
+     * so the agendas cannot be rebuilt from the entries.
      */
-    void restoreAgenda(List<EngineState.AgendaSlot> slots) {
+    void restoreAgendas(List<EngineState.AgendaSlot> byEventTime, List<EngineState.AgendaSlot> byTime) {
         eventAgenda.clear();
-        for (EngineState.AgendaSlot s : slots) eventAgenda.put(s.at(), new TreeSet<>(s.candidates()));
+        for (EngineState.AgendaSlot s : byEventTime) eventAgenda.put(s.at(), new TreeSet<>(s.candidates()));
+        timeAgenda.clear();
+        for (EngineState.AgendaSlot s : byTime) timeAgenda.put(s.at(), new TreeSet<>(s.candidates()));
     }
 
     /** Candidates to look at again because something on the cluster changed. */
@@ -127,10 +144,21 @@ final class Candidates {
 
     /** Candidates whose event-time objection may be gone now that event time reached {@code t}. */
     List<String> dueByEventTime(Instant t) {
+        return due(eventAgenda, t);
+    }
+
+    /**
+     * Candidates held until a processing-time instant at or before {@code t}: when one such
+     * hold's timer fires, all that are due are looked at together, so that those that
+     * become startable together start in the order their problems began.
+     */
+    List<String> dueByTime(Instant t) {
+        return due(timeAgenda, t);
+    }
+
+    private static List<String> due(TreeMap<Instant, Set<String>> agenda, Instant t) {
         List<String> out = new ArrayList<>();
-        while (!eventAgenda.isEmpty() && !eventAgenda.firstKey().isAfter(t)) {
-            out.addAll(eventAgenda.pollFirstEntry().getValue());
-        }
+        while (!agenda.isEmpty() && !agenda.firstKey().isAfter(t)) out.addAll(agenda.pollFirstEntry().getValue());
         return out;
     }
 

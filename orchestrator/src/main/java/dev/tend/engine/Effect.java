@@ -31,9 +31,16 @@ public sealed interface Effect {
     record CancelTimer(String key) implements Effect {
     }
 
-    /** Send a notification; {@code id} is unique and stable, for de-duplication downstream. */
-    record Notify(String id, String channel, String message, Map<String, Object> fields) implements Effect {
+    /**
+     * Send a page; {@code id} is unique and stable, for de-duplication downstream. {@code kind}
+     * says what it is about (see {@link PageKind}); {@code fields} carry cluster, node, run,
+     * playbook and what else the page is about, as JSON values.
+     */
+    record Notify(String id, String kind, String channel, String message, Map<String, Object> fields) implements Effect {
         public Notify {
+            java.util.Objects.requireNonNull(id, "id");
+            java.util.Objects.requireNonNull(kind, "kind");
+            java.util.Objects.requireNonNull(channel, "channel");
             fields = Map.copyOf(fields);
         }
     }

@@ -6,12 +6,14 @@ import dev.tend.engine.guard.Wake;
 import dev.tend.engine.run.RunHost;
 import dev.tend.engine.run.RunMachine;
 import dev.tend.engine.run.RunProcess;
+import dev.tend.engine.run.StandDown;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.Mode;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Scope;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
+import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Target;
 import dev.tend.shared.TendException;
 import dev.tend.shared.fleet.ApplyOutcome;
@@ -58,7 +60,7 @@ public final class Engine implements RunHost {
 
     private Engine(EngineSetup setup, FleetHealthView view) {
         this.setup = setup;
-        this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake()));
+        this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake(), setup.config().paging().brakeGather()));
         this.approvals = new Approvals(this);
         this.escalations = new Escalations(ctx);
     }
@@ -116,14 +118,20 @@ public final class Engine implements RunHost {
                 mattered = true;
                 if (hasLiveRun(key) || candidates.get(key) != null) continue;
                 Instant since = ctx.health.status(t.key()).map(s -> s.since()).orElse(t.at());
-                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false), null);
+                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false, null), null);
                 work.add(key.toString());
             }
         }
-        if (mattered) {
+        boolean unknown = !isKnown(t.cluster(), t.node());
+        if (mattered || unknown) {
             fx.ledger("transition", "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
-                    "state", t.state().wireName(), "at_event", t.at());
+                    "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
+    }
+
+    /** True when the cluster (and the node, if any) is in the topology: the fleet file plus topology events. */
+    private boolean isKnown(Id cluster, Id node) {
+        return UnknownTargets.describe(ctx.health.topology(), cluster, node).isEmpty();
     }
 
     private boolean hasLiveRun(Candidate.Key key) {
@@ -136,7 +144,12 @@ public final class Engine implements RunHost {
     private void onTimer(String key, Effects fx) {
         timers.remove(key);
         if (key.startsWith("recheck:")) {
+            work.addAll(candidates.dueByTime(ctx.now));
             work.add(key.substring("recheck:".length()));
+        } else if (key.equals(FleetBrake.PAGE_TIMER)) {
+            ctx.brake.pageDue(fx);
+        } else if (key.startsWith(Approvals.REMINDER_TIMER)) {
+            approvals.remind(key.substring(Approvals.REMINDER_TIMER.length()), fx);
         } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
             if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
         } else if (key.startsWith("approval:")) {
@@ -175,17 +188,32 @@ public final class Engine implements RunHost {
         work.add(key.toString());
     }
 
-    /** Evaluates every queued candidate; evaluations may queue more, until none is left. */
+    /**
+     * Evaluates every queued candidate, oldest problem first (DESIGN.md section 4: held
+     * candidates that become startable together start in the order their problems began);
+     * evaluations may queue more, until none is left.
+     */
     private void drain(Effects fx) {
         int guard = 0;
+        List<Candidates.Entry> batch = new ArrayList<>();
         while (!work.isEmpty()) {
-            String name = work.iterator().next();
-            work.remove(name);
-            Candidate.Key key = candidates.byName(name);
-            if (key != null) evaluate(key, fx);
-            if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
+            batch.clear();
+            for (String name : work) {
+                Candidate.Key key = candidates.byName(name);
+                if (key != null) batch.add(candidates.get(key));
+            }
+            work.clear();
+            if (batch.size() > 1) batch.sort(OLDEST_PROBLEM_FIRST);
+            for (Candidates.Entry e : batch) {
+                if (candidates.get(e.candidate().key()) != null) evaluate(e.candidate().key(), fx);
+                if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
+            }
         }
     }
+
+    private static final java.util.Comparator<Candidates.Entry> OLDEST_PROBLEM_FIRST = java.util.Comparator
+            .comparing((Candidates.Entry e) -> e.candidate().problemSince())
+            .thenComparing(e -> e.candidate().key().toString());
 
     private void evaluate(Candidate.Key key, Effects fx) {
         Candidates.Entry e = candidates.get(key);
@@ -195,6 +223,12 @@ public final class Engine implements RunHost {
             return;
         }
         Decision d = guards.evaluate(c, ctx);
+        if (e.decision() != null && isMaskedOrExcluded(e.decision()) && !isMaskedOrExcluded(d)) {
+            // the last mask or exclusion just lifted: confirmation starts again (DESIGN.md section 4)
+            c = c.withLiftedAt(ctx.eventTime);
+            candidates.put(c, e.decision());
+            d = guards.evaluate(c, ctx);
+        }
         boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
                 || !e.decision().reasons().equals(d.reasons());
         if (changed) ledgerVerdict(c, d, fx);
@@ -207,6 +241,10 @@ public final class Engine implements RunHost {
             }
             default -> hold(c, d, fx);
         }
+    }
+
+    private static boolean isMaskedOrExcluded(Decision d) {
+        return d.has(ReasonCode.MASKED) || d.has(ReasonCode.EXCLUDED);
     }
 
     private void hold(Candidate c, Decision d, Effects fx) {
@@ -230,7 +268,7 @@ public final class Engine implements RunHost {
         ctx.consumePermits(c.playbook());
         ctx.recordStart(c.key());
         RunProcess r = c.runId() != null ? runs.get(c.runId())
-                : newRun(c.playbook(), c.target(), RunState.RUNNING, AUTOMATION);
+                : newRun(c, RunState.RUNNING, AUTOMATION);
         if (c.playbook().mode() == Mode.SHADOW) {
             fx.ledger("run-shadowed", "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
                     "node", c.target().node(), "steps", c.playbook().steps().stream().map(s -> s.id().value()).toList());
@@ -241,9 +279,10 @@ public final class Engine implements RunHost {
         machine.start(r, fx);
     }
 
-    RunProcess newRun(Playbook p, Target target, RunState state, String requestedBy) {
+    RunProcess newRun(Candidate c, RunState state, String requestedBy) {
         String id = String.format("r%06d", ++runSeq);
-        RunProcess r = new RunProcess(id, p, target, p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
+        Playbook p = c.playbook();
+        RunProcess r = new RunProcess(id, p, c.target(), c.trigger(), p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
         runs.put(id, r);
         return r;
     }
@@ -289,9 +328,24 @@ public final class Engine implements RunHost {
                 .orElseThrow(() -> new TendException("action " + id + " is not defined; the playbook set was validated, so this is a bug"));
     }
 
+    /** Where pages go and when approvals are reminded. */
+    dev.tend.playbooks.Paging paging() {
+        return ctx.config.paging();
+    }
+
+    @Override
+    public String pageChannel() {
+        return ctx.config.paging().channel().value();
+    }
+
     @Override
     public boolean isBrakeEngaged() {
         return ctx.brake.state().engaged();
+    }
+
+    @Override
+    public Optional<StandDown> gate(RunProcess r, boolean ignoreCleared) {
+        return RunGate.check(r, ctx, ignoreCleared);
     }
 
     @Override
@@ -309,6 +363,17 @@ public final class Engine implements RunHost {
     @Override
     public void runEnded(RunProcess r, Effects fx) {
         ctx.active.remove(r.id());
+        StandDown sd = r.standDown();
+        if (r.state() == RunState.STOOD_DOWN && sd.reason() != StandDown.Reason.CLEARED && r.trigger() != null) {
+            // the problem is still there, only hands-off for now: wait (denied) for the mask or exclusion to lift,
+            // and then for confirm-for again
+            Candidate.Key key = new Candidate.Key(r.playbook().id(), r.target());
+            var status = ctx.health.status(r.trigger());
+            if (status.isPresent() && status.get().isProblem() && candidates.get(key) == null) {
+                candidates.put(new Candidate(r.playbook(), r.target(), r.trigger(), status.get().since(), ctx.now, null, false, null), null);
+                queue(key);
+            }
+        }
         queueCluster(r.target().cluster());
         queueFleet();
     }
@@ -348,7 +413,7 @@ public final class Engine implements RunHost {
         for (Candidates.Entry e : candidates.all()) {
             Candidate c = e.candidate();
             cands.add(new EngineState.CandidateMemo(c.playbook().id().value(), c.target(), c.trigger(), c.problemSince(),
-                    c.firstSeen(), c.runId(), c.approved(), e.decision()));
+                    c.firstSeen(), c.runId(), c.approved(), c.liftedAt(), e.decision()));
         }
         List<EngineState.Starts> starts = new ArrayList<>();
         ctx.starts.forEach((k, at) -> starts.add(new EngineState.Starts(k, at)));
@@ -358,7 +423,7 @@ public final class Engine implements RunHost {
         List<ApprovalSnapshot> asked = new ArrayList<>(approvals.all());
         asked.sort(java.util.Comparator.comparing(ApprovalSnapshot::runId));
         return new EngineState(ctx.now, ctx.eventTime, inputs, runSeq, armed, runMemos, List.copyOf(ctx.active.keySet()), cands,
-                candidates.agenda(), starts, loops, escalations.flapPaged(), List.copyOf(ctx.exclusions.values()),
+                candidates.eventAgenda(), candidates.timeAgenda(), starts, loops, escalations.flapPaged(), List.copyOf(ctx.exclusions.values()),
                 ctx.brake.memo(), ctx.budgets.memo(), asked, ctx.health.memo());
     }
 
@@ -385,10 +450,10 @@ public final class Engine implements RunHost {
         }
         for (EngineState.CandidateMemo c : s.candidates()) {
             Playbook p = e.playbook(c.playbook());
-            e.candidates.put(new Candidate(p, c.target(), c.trigger(), c.problemSince(), c.firstSeen(), c.runId(), c.approved()),
+            e.candidates.put(new Candidate(p, c.target(), c.trigger(), c.problemSince(), c.firstSeen(), c.runId(), c.approved(), c.liftedAt()),
                     c.decision());
         }
-        e.candidates.restoreAgenda(s.eventAgenda());
+        e.candidates.restoreAgendas(s.eventAgenda(), s.timeAgenda());
         for (EngineState.Starts st : s.starts()) ctx.starts.put(st.key(), new ArrayList<>(st.at()));
         ctx.loopStopped.addAll(s.loopStopped());
         e.escalations.restoreFlapPaged(s.flapPaged());

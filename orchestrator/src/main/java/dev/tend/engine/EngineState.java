@@ -26,6 +26,7 @@ import java.util.Objects;
  * @param activeRuns   ids of the runs holding their target, in the order they started
  * @param candidates   held, denied or waiting candidates, by key
  * @param eventAgenda  candidates waiting for event time to reach an instant, soonest first
+ * @param timeAgenda   candidates held until a processing-time instant (a rate permit, a cooldown's end), soonest first
  * @param starts       when each playbook last started on each target (cooldown and loop history)
  * @param loopStopped  playbook and target pairs stopped as loops until a person clears them
  * @param flapPaged    candidates already paged for flapping in their current episode
@@ -37,6 +38,7 @@ import java.util.Objects;
  */
 public record EngineState(Instant now, Instant eventTime, long inputs, long runSeq, List<Timer> timers, List<RunMemo> runs,
                           List<String> activeRuns, List<CandidateMemo> candidates, List<AgendaSlot> eventAgenda,
+                          List<AgendaSlot> timeAgenda,
                           List<Starts> starts, List<Candidate.Key> loopStopped, List<Candidate.Key> flapPaged,
                           List<Exclusion> exclusions, BrakeMemo brake, List<Budget> budgets, List<ApprovalSnapshot> approvals,
                           HealthMemo health) {
@@ -48,6 +50,7 @@ public record EngineState(Instant now, Instant eventTime, long inputs, long runS
         activeRuns = List.copyOf(activeRuns);
         candidates = List.copyOf(candidates);
         eventAgenda = List.copyOf(eventAgenda);
+        timeAgenda = List.copyOf(timeAgenda);
         starts = List.copyOf(starts);
         loopStopped = List.copyOf(loopStopped);
         flapPaged = List.copyOf(flapPaged);
@@ -63,7 +66,7 @@ public record EngineState(Instant now, Instant eventTime, long inputs, long runS
 
     /** A candidate: its playbook by id, the rest as in {@link Candidate}; decision null before the first verdict. */
     public record CandidateMemo(String playbook, Target target, SignalKey trigger, Instant problemSince, Instant firstSeen,
-                                String runId, boolean approved, Decision decision) {
+                                String runId, boolean approved, Instant liftedAt, Decision decision) {
     }
 
     public record AgendaSlot(Instant at, List<String> candidates) {
@@ -78,15 +81,20 @@ public record EngineState(Instant now, Instant eventTime, long inputs, long runS
         }
     }
 
-    /** The fleet brake's state and its memory: re-armed after a manual release, episodes paged, settling. */
-    public record BrakeMemo(BrakeState state, boolean armed, int episodes, boolean settling) {
+    /**
+     * The fleet brake's state and its memory: re-armed after a manual release, episodes
+     * paged, settling; and the episode's page while it gathers the event's size (pending,
+     * the peak count and fraction, pages folded into it, whether this episode pages at all).
+     */
+    public record BrakeMemo(BrakeState state, boolean armed, int episodes, boolean settling, boolean pagePending,
+                            int peakUnhealthy, double peakFraction, int folded, boolean autoPaged) {
     }
 
     /**
-     * One start budget: its name and rate ({@code count} per {@code period}), when it was
-     * first used, and its starts in the current refresh period, oldest first.
+     * One start budget, a rolling window: its name and rate ({@code count} per {@code period})
+     * and its most recent starts (at most {@code count}), oldest first.
      */
-    public record Budget(String name, int count, java.time.Duration period, Instant created, List<Instant> starts) {
+    public record Budget(String name, int count, java.time.Duration period, List<Instant> starts) {
         public Budget {
             starts = List.copyOf(starts);
         }

@@ -4,6 +4,7 @@ import dev.tend.engine.guard.Decision;
 import dev.tend.shared.ReasonCode;
 
 import java.util.HashSet;
+import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.Set;
 
@@ -43,14 +44,23 @@ final class Escalations {
     /** For a hold or deny: pages what has not been paged yet. */
     void held(Candidate c, Decision d, Effects fx) {
         if (d.has(ReasonCode.FLAPPING) && flapPaged.add(c.key())) {
-            fx.add(new Effect.Notify("flapping/" + c.key() + "/" + ctx.now, "oncall", c.trigger() + " is flapping; "
-                    + c.playbook().id() + " holds until it settles", Map.of("cluster", c.target().cluster().value())));
+            page("flapping/" + c.key() + "/" + ctx.now, PageKind.FLAPPING, c, c.trigger() + " is flapping; "
+                    + c.playbook().id() + " holds until it settles", fx);
         }
         if (d.has(ReasonCode.LOOP) && ctx.loopStopped.add(c.key())) {
             fx.ledger("loop-stopped", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
-            fx.add(new Effect.Notify("loop/" + c.key() + "/" + ctx.now, "oncall", c.playbook().id() + " keeps remediating "
-                    + c.target() + "; automation stopped there until a person clears it",
-                    Map.of("cluster", c.target().cluster().value())));
+            page("loop/" + c.key() + "/" + ctx.now, PageKind.LOOP, c, c.playbook().id() + " keeps remediating "
+                    + c.target() + "; automation stopped there until a person clears it", fx);
         }
+    }
+
+    /** Sends the page, or folds it into the brake's page while the brake is engaged (one page for a large event). */
+    private void page(String id, String kind, Candidate c, String message, Effects fx) {
+        Map<String, Object> fields = new LinkedHashMap<>();
+        fields.put("playbook", c.playbook().id().value());
+        fields.put("cluster", c.target().cluster().value());
+        if (c.target().node() != null) fields.put("node", c.target().node().value());
+        if (ctx.brake.fold(id, kind, message, fields, fx)) return;
+        fx.add(new Effect.Notify(id, kind, ctx.config.paging().channel().value(), message, fields));
     }
 }

@@ -19,9 +19,63 @@ final class FleetBrake {
     private int episodes;
     private boolean settling;
     static final String SETTLE_TIMER = "brake:settle";
+    static final String PAGE_TIMER = "brake:page";
+    private final java.time.Duration gather;
+    /** The episode's page: not sent yet while it gathers the event's size. */
+    private boolean pagePending;
+    private int peakUnhealthy;
+    private double peakFraction;
+    private int folded;
+    /** The brake engaged by itself in this episode, so it pages (an operator's own engage does not). */
+    private boolean autoPaged;
 
     FleetBrake(BrakeThresholds thresholds) {
+        this(thresholds, java.time.Duration.ZERO);
+    }
+
+    /**
+     * @param gather how long after an automatic engage its page waits, so that it carries the
+     *               size the event reached rather than the threshold's
+     */
+    FleetBrake(BrakeThresholds thresholds, java.time.Duration gather) {
         this.thresholds = thresholds;
+        this.gather = gather;
+    }
+
+    /**
+     * A page that the brake's page covers (a flapping signal, a loop) while the brake is
+     * engaged: ledgered as folded into the brake's page and counted in it, not sent. False
+     * when the brake is released (then the page goes out on its own).
+     */
+    boolean fold(String pageId, String kind, String message, Map<String, Object> fields, Effects fx) {
+        if (!state.engaged() || !autoPaged) return false;
+        folded++;
+        Map<String, Object> f = new java.util.LinkedHashMap<>(fields);
+        f.put("id", pageId);
+        f.put("page_kind", kind);
+        f.put("message", message);
+        f.put("into", "brake/" + episodes);
+        f.put("sent", !pagePending);
+        fx.add(new Effect.Ledger("page-folded", f));
+        return true;
+    }
+
+    /** The gather time is over: the episode's one page goes out, with the count and the pages folded into it. */
+    void pageDue(Effects fx) {
+        if (!pagePending) return;
+        page(fx);
+    }
+
+    private void page(Effects fx) {
+        pagePending = false;
+        String size = String.format(Locale.ROOT, "%d clusters unhealthy (%.1f%% of the fleet)", peakUnhealthy, peakFraction * 100);
+        String foldedText = folded == 0 ? "" : "; " + folded + (folded == 1 ? " other page" : " other pages") + " folded into this one";
+        Map<String, Object> f = new java.util.LinkedHashMap<>();
+        f.put("unhealthy_clusters", peakUnhealthy);
+        f.put("folded_pages", folded);
+        f.put("engaged_at", state.since() == null ? null : Effects.normalise(state.since()));
+        fx.add(new Effect.Notify("brake/" + episodes, PageKind.BRAKE, thresholds.channel(),
+                "fleet brake engaged: " + size + "; automatic remediation is on hold fleet-wide" + foldedText, f));
     }
 
     BrakeState state() {
@@ -29,7 +83,7 @@ final class FleetBrake {
     }
 
     EngineState.BrakeMemo memo() {
-        return new EngineState.BrakeMemo(state, armed, episodes, settling);
+        return new EngineState.BrakeMemo(state, armed, episodes, settling, pagePending, peakUnhealthy, peakFraction, folded, autoPaged);
     }
 
     void restore(EngineState.BrakeMemo m) {
@@ -37,6 +91,11 @@ final class FleetBrake {
         armed = m.armed();
         episodes = m.episodes();
         settling = m.settling();
+        pagePending = m.pagePending();
+        peakUnhealthy = m.peakUnhealthy();
+        peakFraction = m.peakFraction();
+        folded = m.folded();
+        autoPaged = m.autoPaged();
     }
 
     /** Looks at the fleet after a change; returns true when the brake was released. */
@@ -49,11 +108,19 @@ final class FleetBrake {
             String why = String.format(Locale.ROOT, "%d clusters unhealthy (%.1f%% of the fleet)", n, f * 100);
             state = new BrakeState(true, fx.now(), "automatic", why, false);
             fx.ledger("brake-engaged", "by", "automatic", "reason", why, "unhealthy_clusters", n);
-            fx.add(new Effect.Notify("brake/" + episodes, thresholds.channel(),
-                    "fleet brake engaged: " + why + "; automatic remediation is on hold fleet-wide",
-                    Map.of("unhealthy_clusters", n)));
+            pagePending = true;
+            autoPaged = true;
+            peakUnhealthy = n;
+            peakFraction = f;
+            folded = 0;
+            if (gather.isZero()) page(fx);
+            else fx.arm(PAGE_TIMER, fx.now().plus(gather));
             fx.add(new Effect.BrakeChanged(state));
             return false;
+        }
+        if (pagePending && n > peakUnhealthy) {
+            peakUnhealthy = n;
+            peakFraction = f;
         }
         boolean below = state.engaged() && !state.manual() && thresholds.autoRelease() && thresholds.mayRelease(n, f);
         if (below && !settling) {
@@ -99,6 +166,12 @@ final class FleetBrake {
     }
 
     private void release(String by, String reason, Effects fx) {
+        if (pagePending) {
+            // released before the page went out: a person should still hear that it engaged
+            fx.cancel(PAGE_TIMER);
+            page(fx);
+        }
+        autoPaged = false;
         if (settling) fx.cancel(SETTLE_TIMER);
         settling = false;
         fx.ledger("brake-released", "by", by, "reason", reason, "engaged_since", state.since());

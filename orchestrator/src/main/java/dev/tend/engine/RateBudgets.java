@@ -1,129 +1,83 @@
 package dev.tend.engine;
 
 import dev.tend.playbooks.RateLimit;
-import io.github.resilience4j.ratelimiter.RateLimiterConfig;
-import io.github.resilience4j.ratelimiter.internal.AtomicRateLimiter;
 
-import java.time.Duration;
 import java.time.Instant;
+import java.util.ArrayDeque;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.function.Supplier;
 
 /**
- * Start budgets: one resilience4j {@link AtomicRateLimiter} per playbook and one for the
- * fleet, fed the engine's processing time through their nano-time supplier, never the
- * system clock. Because the engine's state is rebuilt by replaying the journal, every
- * recorded start is replayed through these limiters at its recorded time: a restart never
- * grants a fresh burst.
+ * Start budgets as rolling windows: {@code rate: N/W} allows at most N starts in any
+ * half-open interval {@code [t, t + W)} of processing time, whatever {@code t} is. Each
+ * budget (one per playbook, one for the fleet) keeps the times of its last N starts; a new
+ * start is allowed once the oldest of them is at least W in the past. A limiter that refills
+ * in fixed periods would let N starts just before a period's end and N more just after it,
+ * 2N within moments, which is not what an operator reads in {@code 3/1h}.
  *
- * <p>For snapshots each budget also remembers when its limiter was made and the starts of
- * its current refresh period: a limiter refills whole at each period's start and never
- * above its limit, so those starts, taken again at their times on a limiter made at the
- * same instant, give back the same limiter.
+ * <p>Kept across restarts: the engine's state is rebuilt by replaying the journal, so every
+ * recorded start is taken again at its recorded time and a restart never grants a fresh
+ * burst. Memory is N instants per budget. Not thread-safe; the engine's thread only.
+ *
+ * <p>A snapshot keeps each budget's name, rate and its last N starts ({@link #memo}); that is
+ * all a rolling window remembers, so {@link #restore} gives back the same budgets.
  */
 final class RateBudgets {
     private final Supplier<Instant> now;
-    private final Map<String, Budget> budgets = new LinkedHashMap<>();
-    private final Map<String, AtomicRateLimiter> limiters = new LinkedHashMap<>();
-    /** Set while a snapshot's budgets are rebuilt: the time their limiters see. */
-    private Instant rebuildingAt;
-
-    /** What a snapshot keeps of one limiter: when it was made and the starts of its current period. */
-    private static final class Budget {
-        final String name;
-        final RateLimit rate;
-        final Instant created;
-        final List<Instant> thisPeriod = new ArrayList<>();
-
-        Budget(String name, RateLimit rate, Instant created) {
-            this.name = name;
-            this.rate = rate;
-            this.created = created;
-        }
-
-        long period(Instant t) {
-            return Duration.between(created, t).toNanos() / rate.period().toNanos();
-        }
-
-        void started(Instant t) {
-            if (!thisPeriod.isEmpty() && period(thisPeriod.get(thisPeriod.size() - 1)) != period(t)) thisPeriod.clear();
-            thisPeriod.add(t);
-        }
-    }
+    private final Map<String, ArrayDeque<Instant>> starts = new HashMap<>();
+    private final Map<String, EngineState.Budget> named = new HashMap<>();
 
     RateBudgets(Supplier<Instant> now) {
         this.now = now;
     }
 
-    private Instant time() {
-        return rebuildingAt != null ? rebuildingAt : now.get();
+    private static String key(String name, RateLimit rate) {
+        return name + "|" + rate;
     }
 
-    private long nanos() {
-        Instant t = time();
-        return t.getEpochSecond() * 1_000_000_000L + t.getNano();
-    }
-
-    private AtomicRateLimiter limiter(String name, RateLimit rate) {
-        String key = name + "|" + rate;
-        return limiters.computeIfAbsent(key, k -> {
-            budgets.put(k, new Budget(name, rate, time()));
-            return new AtomicRateLimiter(name, RateLimiterConfig.custom()
-                    .limitForPeriod(rate.count())
-                    .limitRefreshPeriod(rate.period())
-                    .timeoutDuration(Duration.ZERO)
-                    .build(), this::nanos);
-        });
-    }
-
-    private boolean acquireAt(String name, RateLimit rate, Instant t) {
-        boolean ok = limiter(name, rate).acquirePermission(1);
-        if (ok) budgets.get(name + "|" + rate).started(t);
-        return ok;
-    }
-
-    /** The instant a permit is available (now when one is). */
+    /** The earliest instant, now or later, at which one more start keeps {@code rate}. */
     Instant nextPermit(String name, RateLimit rate) {
-        AtomicRateLimiter l = limiter(name, rate);
-        if (l.getDetailedMetrics().getAvailablePermissions() > 0) return now.get();
-        long wait = l.getDetailedMetrics().getNanosToWait();
-        if (wait <= 0) wait = 1;
-        return now.get().plusNanos(wait);
+        Instant t = now.get();
+        ArrayDeque<Instant> recent = starts.get(key(name, rate));
+        if (recent == null || recent.size() < rate.count()) return t;
+        Instant freed = recent.peekFirst().plus(rate.period());
+        return freed.isAfter(t) ? freed : t;
     }
 
-    boolean acquire(String name, RateLimit rate) {
-        return acquireAt(name, rate, now.get());
+    /** Records a start now; the caller checked {@link #nextPermit} first. */
+    void acquire(String name, RateLimit rate) {
+        ArrayDeque<Instant> recent = starts.computeIfAbsent(key(name, rate), k -> {
+            named.put(k, new EngineState.Budget(name, rate.count(), rate.period(), List.of()));
+            return new ArrayDeque<>(rate.count() + 1);
+        });
+        recent.addLast(now.get());
+        while (recent.size() > rate.count()) recent.removeFirst();
     }
 
-    /** Every budget, in the order first used. */
+    /** Every budget used so far with its recent starts, oldest first; ordered by name and rate. */
     List<EngineState.Budget> memo() {
-        List<EngineState.Budget> out = new ArrayList<>(budgets.size());
-        for (Budget b : budgets.values()) {
-            out.add(new EngineState.Budget(b.name, b.rate.count(), b.rate.period(), b.created, b.thisPeriod));
-        }
+        List<EngineState.Budget> out = new ArrayList<>(starts.size());
+        starts.keySet().stream().sorted().forEach(k -> {
+            EngineState.Budget b = named.get(k);
+            out.add(new EngineState.Budget(b.name(), b.count(), b.period(), List.copyOf(starts.get(k))));
+        });
         return out;
     }
 
-    /** Rebuilds the budgets of a snapshot: each limiter made at its instant and given its starts again at theirs. */
+    /** Puts back the budgets of a snapshot, replacing every budget this engine holds. */
     void restore(List<EngineState.Budget> memo) {
-        budgets.clear();
-        limiters.clear();
-        try {
-            for (EngineState.Budget m : memo) {
-                RateLimit rate = new RateLimit(m.count(), m.period());
-                rebuildingAt = m.created();
-                limiter(m.name(), rate);
-                for (Instant t : m.starts()) {
-                    rebuildingAt = t;
-                    if (!acquireAt(m.name(), rate, t)) throw new IllegalStateException("the start budget " + m.name() + " refused a start at " + t
-                            + " that it had granted; the snapshot does not match this engine");
-                }
-            }
-        } finally {
-            rebuildingAt = null;
+        starts.clear();
+        named.clear();
+        for (EngineState.Budget m : memo) {
+            RateLimit rate = new RateLimit(m.count(), m.period());
+            if (m.starts().size() > rate.count()) throw new IllegalStateException("the start budget " + m.name() + " holds "
+                    + m.starts().size() + " starts, more than its rate " + rate + " allows; the snapshot does not match this engine");
+            String k = key(m.name(), rate);
+            starts.put(k, new ArrayDeque<>(m.starts()));
+            named.put(k, m);
         }
     }
 }

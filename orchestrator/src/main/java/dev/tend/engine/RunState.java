@@ -4,7 +4,7 @@ import java.util.Locale;
 
 /**
  * Where a run stands. Terminal states: {@link #SUCCEEDED}, {@link #FAILED},
- * {@link #CANCELLED}, {@link #SHADOWED}.
+ * {@link #CANCELLED}, {@link #SHADOWED}, {@link #STOOD_DOWN}.
  */
 public enum RunState {
     /** Policy asked a human; the run waits for an approval (or its expiry). */
@@ -21,10 +21,15 @@ public enum RunState {
     FAILED,
     CANCELLED,
     /** Shadow mode: decided and recorded, never executed. */
-    SHADOWED;
+    SHADOWED,
+    /**
+     * A gate found the run no longer needed before an action step (its trigger cleared, or a
+     * mask or exclusion now applies); its on-stand-down steps ran and no further action step did.
+     */
+    STOOD_DOWN;
 
     public boolean isTerminal() {
-        return this == SUCCEEDED || this == FAILED || this == CANCELLED || this == SHADOWED;
+        return this == SUCCEEDED || this == FAILED || this == CANCELLED || this == SHADOWED || this == STOOD_DOWN;
     }
 
     /** True while the run holds its target (counts for per-cluster, zone, fleet and blast-radius limits). */

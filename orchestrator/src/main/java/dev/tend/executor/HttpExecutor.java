@@ -40,7 +40,7 @@ public final class HttpExecutor implements Executor {
     public static final int BODY_LIMIT = 1024;
     private static final ObjectMapper JSON = new ObjectMapper();
 
-    private final HttpClient client;
+    private final dev.tend.http.OutgoingHttp http;
     private final Duration firstPause;
     private final Duration maxPause;
     private final ScheduledExecutorService pauses = Executors.newSingleThreadScheduledExecutor(r -> {
@@ -54,6 +54,11 @@ public final class HttpExecutor implements Executor {
      * @param maxPause   no pause is longer than this
      */
     public HttpExecutor(Duration firstPause, Duration maxPause) {
+        this(firstPause, maxPause, new dev.tend.http.OutgoingHttp());
+    }
+
+    /** As above, with the clients (TLS, headers, bearer tokens) of {@code http}, which webhooks share. */
+    public HttpExecutor(Duration firstPause, Duration maxPause, dev.tend.http.OutgoingHttp http) {
         Objects.requireNonNull(firstPause, "firstPause");
         Objects.requireNonNull(maxPause, "maxPause");
         if (firstPause.isNegative() || firstPause.isZero()) {
@@ -64,13 +69,17 @@ public final class HttpExecutor implements Executor {
         }
         this.firstPause = firstPause;
         this.maxPause = maxPause;
-        this.client = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1)
-                .followRedirects(HttpClient.Redirect.NEVER).build();
+        this.http = Objects.requireNonNull(http, "http");
     }
 
     /** Pauses of 500 ms, 1 s, 2 s ... up to 30 s between tries. */
     public static HttpExecutor withDefaults() {
-        return new HttpExecutor(Duration.ofMillis(500), Duration.ofSeconds(30));
+        return withDefaults(new dev.tend.http.OutgoingHttp());
+    }
+
+    /** The default pauses, with the given clients. */
+    public static HttpExecutor withDefaults(dev.tend.http.OutgoingHttp http) {
+        return new HttpExecutor(Duration.ofMillis(500), Duration.ofSeconds(30), http);
     }
 
     @Override
@@ -127,10 +136,17 @@ public final class HttpExecutor implements Executor {
                 finish(false, "timed out after " + call.timeout().toMillis() + " ms (" + (tries - 1) + " tries)", tries - 1, null);
                 return;
             }
-            HttpRequest.Builder b = HttpRequest.newBuilder(uri).timeout(left).header("Idempotency-Key", call.key())
-                    .method(action.method(), body);
+            HttpRequest.Builder b;
+            try {
+                b = http.authorize(HttpRequest.newBuilder(uri).timeout(left), action.client())
+                        .header("Idempotency-Key", call.key()).method(action.method(), body);
+            } catch (RuntimeException e) {
+                // a bearer token file that vanished or emptied: the message names the file, never the token
+                finish(false, "could not build the request: " + e.getMessage(), tries - 1, null);
+                return;
+            }
             if (!action.body().isEmpty()) b.header("Content-Type", "application/json");
-            client.sendAsync(b.build(), info -> FirstBytes.subscriber(BODY_LIMIT)).whenComplete((response, failure) -> {
+            http.client(action.client()).sendAsync(b.build(), info -> FirstBytes.subscriber(BODY_LIMIT)).whenComplete((response, failure) -> {
                 if (failure != null) onFailure(tries, failure);
                 else onResponse(tries, response);
             });

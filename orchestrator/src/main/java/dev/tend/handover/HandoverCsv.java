@@ -16,7 +16,7 @@ import java.util.Map;
  * <li>Summary, one number or value per row: {@code metric,playbook,reason_code,value}.
  *     Rows with an empty playbook and reason code are fleet-wide: {@code period_since},
  *     {@code period_until}, {@code runs_started}, {@code runs_succeeded}, {@code runs_failed},
- *     {@code runs_cancelled}, {@code runs_shadowed}, {@code held}, {@code denied},
+ *     {@code runs_cancelled}, {@code runs_shadowed}, {@code runs_stood_down}, {@code held}, {@code denied},
  *     {@code approvals_requested}, {@code approvals_pending}, {@code approvals_lapsed},
  *     {@code runs_needing_person}, {@code loops_stopped}, {@code brake_periods}, {@code brake_engaged_at_until},
  *     {@code ledger_entries}, {@code ledger_entries_in_period}, {@code ledger_head},
@@ -61,6 +61,8 @@ public final class HandoverCsv {
         fleet(out, "approvals_lapsed", r.lapsedApprovals().size());
         fleet(out, "runs_needing_person", r.runsNeedingPerson().size());
         fleet(out, "loops_stopped", r.loopsStopped().size());
+        fleet(out, "pages_delivered", r.deliveredPages().size());
+        fleet(out, "pages_failed", r.failedPages().size());
         fleet(out, "brake_periods", r.brakePeriods().size());
         fleet(out, "brake_engaged_at_until", r.brakeStillEngaged().isPresent());
         LedgerStatus l = r.ledger();
@@ -80,7 +82,8 @@ public final class HandoverCsv {
     private static void counts(StringBuilder out, String playbook, RunCounts c) {
         List<Object[]> rows = List.of(new Object[]{"runs_started", c.started()}, new Object[]{"runs_succeeded", c.succeeded()},
                 new Object[]{"runs_failed", c.failed()}, new Object[]{"runs_cancelled", c.cancelled()},
-                new Object[]{"runs_shadowed", c.shadowed()}, new Object[]{"held", c.held()}, new Object[]{"denied", c.denied()});
+                new Object[]{"runs_shadowed", c.shadowed()}, new Object[]{"runs_stood_down", c.stoodDown()},
+                new Object[]{"held", c.held()}, new Object[]{"denied", c.denied()});
         for (Object[] m : rows) row(out, (String) m[0], playbook, null, m[1].toString());
     }
 

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.text.HtmlText;
 
 import java.util.List;
@@ -46,6 +47,7 @@ public final class HandoverHtml {
             svg .failed { fill: #c0392b; }
             svg .cancelled { fill: #9aa3a8; }
             svg .shadowed { fill: #fff; stroke: #7d6aa8; stroke-dasharray: 3 2; }
+            svg .stood-down { fill: #c9b458; }
             svg .running, svg .approved { fill: #3f78b5; }
             svg .paused { fill: #d8b13a; }
             svg .needs-human { fill: #e07b24; }
@@ -93,6 +95,7 @@ public final class HandoverHtml {
         card(s, "failed", t.failed(), t.failed() > 0);
         card(s, "cancelled", t.cancelled(), false);
         card(s, "shadowed", t.shadowed(), false);
+        card(s, "stood down", t.stoodDown(), false);
         card(s, "held", t.held(), false);
         card(s, "denied", t.denied(), false);
         card(s, "approvals pending", r.pendingApprovals().size(), !r.pendingApprovals().isEmpty());
@@ -140,6 +143,11 @@ public final class HandoverHtml {
                     .append(" since ").append(TimeText.at(x.stoppedAt()))
                     .append("; automation stays off this target until a person clears it</li>\n");
         }
+        for (PageLine p : r.failedPages()) {
+            s.append("<li><strong>Page not delivered</strong>: ").append(esc(p.id())).append(" to ").append(esc(p.channel()))
+                    .append(", given up ").append(TimeText.at(p.at())).append(p.answer() == null ? "" : ": " + esc(p.answer()))
+                    .append("</li>\n");
+        }
         r.brakeStillEngaged().ifPresent(b -> s.append("<li><strong>Fleet brake engaged</strong> since ")
                 .append(TimeText.at(b.engagedAt())).append(" by ").append(esc(b.engagedBy()))
                 .append(b.reason() == null ? "" : ": " + esc(b.reason())).append("; automatic starts are on hold</li>\n"));
@@ -153,10 +161,11 @@ public final class HandoverHtml {
             return;
         }
         s.append("<table>\n<tr><th>playbook</th><th>started</th><th>succeeded</th><th>failed</th><th>cancelled</th>")
-                .append("<th>shadowed</th><th>held</th><th>denied</th></tr>\n");
+                .append("<th>shadowed</th><th>stood down</th><th>held</th><th>denied</th></tr>\n");
         byPlaybook.forEach((name, c) -> {
             s.append("<tr><td>").append(esc(name)).append("</td>");
-            for (int n : new int[]{c.started(), c.succeeded(), c.failed(), c.cancelled(), c.shadowed(), c.held(), c.denied()}) {
+            for (int n : new int[]{c.started(), c.succeeded(), c.failed(), c.cancelled(), c.shadowed(), c.stoodDown(), c.held(),
+                    c.denied()}) {
                 s.append("<td class=\"n\">").append(n).append("</td>");
             }
             s.append("</tr>\n");

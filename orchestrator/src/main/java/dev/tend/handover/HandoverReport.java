@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.StoreReader;
@@ -40,10 +41,11 @@ import java.util.TreeMap;
  * @param brakePeriods every brake period overlapping the period, oldest first
  * @param loopsStopped targets the loop guard stopped that no person cleared by {@code until}, oldest first
  * @param ledger       the ledger's size, head and verification
+ * @param pages        pages delivered or given up in the period, oldest first
  */
 public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlaybook, List<ReasonCount> byReason,
                              List<RunLine> runs, List<ApprovalLine> approvals, List<BrakePeriod> brakePeriods,
-                             List<LoopStop> loopsStopped, LedgerStatus ledger) {
+                             List<LoopStop> loopsStopped, LedgerStatus ledger, List<PageLine> pages) {
     public HandoverReport {
         Objects.requireNonNull(period, "HandoverReport.period must not be null");
         byPlaybook = Collections.unmodifiableMap(new TreeMap<>(Objects.requireNonNull(byPlaybook, "HandoverReport.byPlaybook must not be null")));
@@ -53,6 +55,24 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
         brakePeriods = List.copyOf(Objects.requireNonNull(brakePeriods, "HandoverReport.brakePeriods must not be null"));
         loopsStopped = List.copyOf(Objects.requireNonNull(loopsStopped, "HandoverReport.loopsStopped must not be null"));
         Objects.requireNonNull(ledger, "HandoverReport.ledger must not be null");
+        pages = List.copyOf(Objects.requireNonNull(pages, "HandoverReport.pages must not be null"));
+    }
+
+    /** A report in which no page was delivered or given up. */
+    public HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlaybook, List<ReasonCount> byReason, List<RunLine> runs,
+                          List<ApprovalLine> approvals, List<BrakePeriod> brakePeriods, List<LoopStop> loopsStopped,
+                          LedgerStatus ledger) {
+        this(period, byPlaybook, byReason, runs, approvals, brakePeriods, loopsStopped, ledger, List.of());
+    }
+
+    /** Pages given up in the period: nobody heard them. */
+    public List<PageLine> failedPages() {
+        return pages.stream().filter(p -> p.outcome().equals(PageLine.FAILED)).toList();
+    }
+
+    /** Pages delivered in the period. */
+    public List<PageLine> deliveredPages() {
+        return pages.stream().filter(p -> p.outcome().equals(PageLine.DELIVERED)).toList();
     }
 
     /**
@@ -105,7 +125,7 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
     /** True when something waits for a person: an approval, a run, a loop stop, the brake, or a ledger that failed verify. */
     public boolean needsAttention() {
         return !ledger.verified() || ledger.unreadable() > 0 || !pendingApprovals().isEmpty() || !runsNeedingPerson().isEmpty()
-                || !loopsStopped.isEmpty() || brakeStillEngaged().isPresent();
+                || !loopsStopped.isEmpty() || brakeStillEngaged().isPresent() || !failedPages().isEmpty();
     }
 
     /** Runs that ended succeeded in the period on a node, by playbook name (see the class comment). */

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import java.util.List;
 import java.util.Map;
 
@@ -22,12 +23,13 @@ public final class HandoverText {
         RunCounts t = r.totals();
         line(out, "Handover %s to %s (%s)", TimeText.at(p.since()), TimeText.at(p.until()), TimeText.span(p.length()));
         out.append('\n');
-        line(out, "Runs       %d started, %d succeeded, %d failed, %d cancelled, %d shadowed",
-                t.started(), t.succeeded(), t.failed(), t.cancelled(), t.shadowed());
+        line(out, "Runs       %d started, %d succeeded, %d failed, %d cancelled, %d shadowed, %d stood down",
+                t.started(), t.succeeded(), t.failed(), t.cancelled(), t.shadowed(), t.stoodDown());
         line(out, "Held       %d held, %d denied (distinct candidates)", t.held(), t.denied());
         line(out, "Approvals  %d asked, %d pending, %d lapsed", r.approvalsRequested(), r.pendingApprovals().size(),
                 r.lapsedApprovals().size());
         line(out, "Brake      %s", brakeHeadline(r));
+        line(out, "Pages      %d delivered, %d given up", r.deliveredPages().size(), r.failedPages().size());
         LedgerStatus l = r.ledger();
         line(out, "Ledger     %d entries (%d in the period), verify %s, head %s", l.entries(), l.entriesInPeriod(),
                 l.verified() ? "ok" : "FAILED at entry " + l.firstBrokenSeq(), l.headHash());
@@ -38,6 +40,7 @@ public final class HandoverText {
         nodes(out, r.nodesRemediated());
         brakes(out, r);
         lapsed(out, r);
+        pages(out, r);
         return out.toString();
     }
 
@@ -85,15 +88,34 @@ public final class HandoverText {
         more(out, loops.size());
         r.brakeStillEngaged().ifPresent(b -> line(out, "  ! fleet brake       engaged since %s by %s%s; automatic starts are on hold",
                 TimeText.at(b.engagedAt()), b.engagedBy(), b.reason() == null ? "" : ": " + b.reason()));
+        List<PageLine> failed = r.failedPages();
+        for (int i = 0; i < failed.size() && i < LIST_LIMIT; i++) {
+            PageLine p = failed.get(i);
+            line(out, "  ! page not delivered %s to %s, given up %s after %d attempt%s: %s", p.id(), p.channel(), TimeText.at(p.at()),
+                    p.attempts(), p.attempts() == 1 ? "" : "s", p.answer() == null ? "" : p.answer());
+        }
+        more(out, failed.size());
+        out.append('\n');
+    }
+
+    private static void pages(StringBuilder out, HandoverReport r) {
+        if (r.pages().isEmpty()) return;
+        line(out, "Pages sent and given up");
+        List<PageLine> all = r.pages();
+        for (int i = 0; i < all.size() && i < LIST_LIMIT; i++) {
+            PageLine p = all.get(i);
+            line(out, "  %s  %-9s %-10s %-20s %s", TimeText.at(p.at()), p.outcome(), p.channel(), p.kind() == null ? "" : p.kind(), p.id());
+        }
+        more(out, all.size());
         out.append('\n');
     }
 
     private static void byPlaybook(StringBuilder out, Map<String, RunCounts> byPlaybook) {
         if (byPlaybook.isEmpty()) return;
         int w = Math.max(20, byPlaybook.keySet().stream().mapToInt(String::length).max().orElse(0));
-        line(out, "By playbook%s  started succeeded failed cancelled shadowed held denied", " ".repeat(w - 9));
-        byPlaybook.forEach((name, c) -> line(out, "  %-" + w + "s %8d %9d %6d %9d %8d %4d %6d", name, c.started(), c.succeeded(),
-                c.failed(), c.cancelled(), c.shadowed(), c.held(), c.denied()));
+        line(out, "By playbook%s  started succeeded failed cancelled shadowed stood-down held denied", " ".repeat(w - 9));
+        byPlaybook.forEach((name, c) -> line(out, "  %-" + w + "s %8d %9d %6d %9d %8d %10d %4d %6d", name, c.started(), c.succeeded(),
+                c.failed(), c.cancelled(), c.shadowed(), c.stoodDown(), c.held(), c.denied()));
         out.append('\n');
     }
 

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
@@ -38,6 +39,7 @@ final class LedgerTally {
     private final Map<String, LoopStop> loops = new LinkedHashMap<>();
     private BrakePeriod openBrake;
     private long inPeriod;
+    private final List<PageLine> pages = new ArrayList<>();
     private long unreadable;
 
     LedgerTally(ReportPeriod period) {
@@ -103,12 +105,23 @@ final class LedgerTally {
             }
             case "loop-cleared" -> loops.remove(orUnknown(text(f, "playbook")) + " " + orUnknown(text(f, "cluster"))
                     + (text(f, "node") == null ? "" : "/" + text(f, "node")));
+            case "notification-delivered" -> {
+                if (counted) pages.add(page(f, at, PageLine.DELIVERED));
+            }
+            case "notification-failed" -> {
+                if (counted && f.path("final").asBoolean(false)) pages.add(page(f, at, PageLine.FAILED));
+            }
             case "brake-engaged" -> engaged(f, at);
             case "brake-released" -> released(f, at);
             default -> {
                 // every other kind is counted above and says nothing the report shows
             }
         }
+    }
+
+    private static PageLine page(JsonNode f, Instant at, String outcome) {
+        return new PageLine(at, orUnknown(text(f, "id")), orUnknown(text(f, "channel")), text(f, "page_kind"), outcome,
+                f.path("attempt").asInt(1), text(f, "answer"));
     }
 
     private RunState run(JsonNode f, Instant at) {
@@ -146,6 +159,7 @@ final class LedgerTally {
                 case RunLine.SUCCEEDED -> p.succeeded++;
                 case RunLine.FAILED -> p.failed++;
                 case RunLine.SHADOWED -> p.shadowed++;
+                case RunLine.STOOD_DOWN -> p.stoodDown++;
                 default -> p.cancelled++;
             }
         } else {
@@ -225,7 +239,7 @@ final class LedgerTally {
         LedgerStatus status = new LedgerStatus(v.entries(), inPeriod, v.headHash(), v.ok(), v.firstBrokenSeq(), v.reason(),
                 unreadable);
         return new HandoverReport(period, byPlaybook, byReason, runLines, approvalLines, brakeList, List.copyOf(loops.values()),
-                status);
+                status, pages);
     }
 
     private static int guardOrder(String code) {
@@ -317,9 +331,10 @@ final class LedgerTally {
         int failed;
         int cancelled;
         int shadowed;
+        int stoodDown;
 
         RunCounts counts() {
-            return new RunCounts(started, succeeded, failed, cancelled, shadowed, held.size(), denied.size());
+            return new RunCounts(started, succeeded, failed, cancelled, shadowed, held.size(), denied.size(), stoodDown);
         }
     }
 }

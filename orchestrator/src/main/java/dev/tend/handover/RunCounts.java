@@ -10,9 +10,11 @@ package dev.tend.handover;
  * @param shadowed  runs decided in shadow mode: recorded, never executed
  * @param held      distinct candidates (playbook, cluster, node) with a hold verdict
  * @param denied    distinct candidates with a deny verdict
+ * @param stoodDown runs that ended stood-down: a gate found them no longer needed before an action step
  */
-public record RunCounts(int started, int succeeded, int failed, int cancelled, int shadowed, int held, int denied) {
-    public static final RunCounts ZERO = new RunCounts(0, 0, 0, 0, 0, 0, 0);
+public record RunCounts(int started, int succeeded, int failed, int cancelled, int shadowed, int held, int denied,
+                        int stoodDown) {
+    public static final RunCounts ZERO = new RunCounts(0, 0, 0, 0, 0, 0, 0, 0);
 
     public RunCounts {
         requireCount(started, "started");
@@ -22,17 +24,19 @@ public record RunCounts(int started, int succeeded, int failed, int cancelled, i
         requireCount(shadowed, "shadowed");
         requireCount(held, "held");
         requireCount(denied, "denied");
+        requireCount(stoodDown, "stoodDown");
     }
 
     /** The sum of this and {@code other}, field by field. */
     public RunCounts plus(RunCounts other) {
         return new RunCounts(started + other.started, succeeded + other.succeeded, failed + other.failed,
-                cancelled + other.cancelled, shadowed + other.shadowed, held + other.held, denied + other.denied);
+                cancelled + other.cancelled, shadowed + other.shadowed, held + other.held, denied + other.denied,
+                stoodDown + other.stoodDown);
     }
 
     /** Runs that ended in the period, whatever their end. */
     public int ended() {
-        return succeeded + failed + cancelled + shadowed;
+        return succeeded + failed + cancelled + shadowed + stoodDown;
     }
 
     private static void requireCount(int n, String field) {

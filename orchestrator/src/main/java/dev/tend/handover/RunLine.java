@@ -30,9 +30,10 @@ public record RunLine(String run, String playbook, String cluster, String node, 
     public static final String FAILED = "failed";
     public static final String CANCELLED = "cancelled";
     public static final String SHADOWED = "shadowed";
-    /** Every state a run line can be in; the last four are ends. */
+    public static final String STOOD_DOWN = "stood-down";
+    /** Every state a run line can be in; the last five are ends. */
     public static final Set<String> STATES = Set.of(AWAITING_APPROVAL, APPROVED, RUNNING, PAUSED, NEEDS_HUMAN,
-            SUCCEEDED, FAILED, CANCELLED, SHADOWED);
+            SUCCEEDED, FAILED, CANCELLED, SHADOWED, STOOD_DOWN);
 
     public RunLine {
         Objects.requireNonNull(run, "RunLine.run must not be null");
@@ -42,7 +43,7 @@ public record RunLine(String run, String playbook, String cluster, String node, 
         Objects.requireNonNull(state, "RunLine.state must not be null");
         if (!STATES.contains(state)) {
             throw new IllegalArgumentException("RunLine.state must be one of awaiting-approval, approved, running, paused,"
-                    + " needs-human, succeeded, failed, cancelled, shadowed, got '" + state + "'");
+                    + " needs-human, succeeded, failed, cancelled, shadowed, stood-down, got '" + state + "'");
         }
         if (startedAt != null && startedAt.isBefore(createdAt)) {
             throw new IllegalArgumentException("RunLine.startedAt must not be before createdAt " + createdAt + ", got " + startedAt);
@@ -52,14 +53,15 @@ public record RunLine(String run, String playbook, String cluster, String node, 
         }
         if (isEnd(state) != (endedAt != null)) {
             throw new IllegalArgumentException("RunLine.endedAt must be set exactly when the state is an end (succeeded,"
-                    + " failed, cancelled, shadowed); state '" + state + "', endedAt " + endedAt);
+                    + " failed, cancelled, shadowed, stood-down); state '" + state + "', endedAt " + endedAt);
         }
         actions = List.copyOf(Objects.requireNonNull(actions, "RunLine.actions must not be null (pass an empty list)"));
     }
 
     /** True for the states a run ends in. */
     public static boolean isEnd(String state) {
-        return SUCCEEDED.equals(state) || FAILED.equals(state) || CANCELLED.equals(state) || SHADOWED.equals(state);
+        return SUCCEEDED.equals(state) || FAILED.equals(state) || CANCELLED.equals(state) || SHADOWED.equals(state)
+                || STOOD_DOWN.equals(state);
     }
 
     public boolean hasEnded() {

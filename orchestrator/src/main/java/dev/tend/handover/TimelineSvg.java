@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
@@ -180,7 +181,7 @@ final class TimelineSvg {
 
     private static void legend(StringBuilder s, int y, int hidden) {
         String[][] items = {{"run succeeded", "succeeded"}, {"run failed", "failed"}, {"run cancelled", "cancelled"},
-                {"run shadowed", "shadowed"}, {"run running", "running"}, {"run needs-human", "needs a person"},
+                {"run shadowed", "shadowed"}, {"run stood-down", "stood down"}, {"run running", "running"}, {"run needs-human", "needs a person"},
                 {"run awaiting-approval", "awaiting approval"}, {"brake", "fleet brake"}};
         double x = LABEL;
         for (String[] item : items) {

@@ -4,6 +4,7 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
 import dev.tend.runtime.CommitListener;
+import dev.tend.shared.wire.TimeRefusal;
 import dev.tend.store.Store;
 import io.prometheus.metrics.core.metrics.Counter;
 import io.prometheus.metrics.core.metrics.Gauge;
@@ -18,6 +19,7 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.List;
+import java.util.Map;
 
 /**
  * The metrics of one {@code tend serve}, in a registry of their own (several servers may
@@ -25,6 +27,7 @@ import java.util.List;
  * <pre>
  * tend_transitions_received_total           transitions and topology events accepted over HTTP
  * tend_transition_lines_rejected_total      lines of transition requests refused
+ * tend_event_time_refused_total{reason}     of those, refused for their time: before-1970, after-2200, ahead-of-clock, outside-recording
  * tend_inputs_refused_total{input}          inputs refused at commit (a value the store or engine cannot hold)
  * tend_verdicts_total{verdict,reason}       verdicts written to the ledger, once per reason code ("none" for a clean start)
  * tend_runs_started_total{playbook}
@@ -35,6 +38,7 @@ import java.util.List;
  * tend_approvals_pending                    read from the store at scrape time
  * tend_ledger_entries                       the ledger's length, read from the store at scrape time
  * tend_executor_duration_seconds{kind,success}  from call to result
+ * tend_notifications_total{channel,outcome} page delivery attempts: delivered, retry (tried again later), failed (given up)
  * </pre>
  * Thread-safe. {@link #committed} runs on the driver thread.
  */
@@ -44,6 +48,9 @@ public final class TendMetrics implements CommitListener {
             .help("Transitions and topology events accepted over HTTP").register(registry);
     private final Counter rejectedLines = Counter.builder().name("tend_transition_lines_rejected_total")
             .help("Lines of transition requests refused").register(registry);
+    private final Counter timeRefused = Counter.builder().name("tend_event_time_refused_total")
+            .help("Lines refused for their time (before 1970, after 2200, ahead of the clock by more than max-skew)")
+            .labelNames("reason").register(registry);
     private final Counter refusedInputs = Counter.builder().name("tend_inputs_refused_total")
             .help("Inputs refused because of a value the store or the engine cannot hold").labelNames("input").register(registry);
     private final Counter verdicts = Counter.builder().name("tend_verdicts_total")
@@ -62,6 +69,10 @@ public final class TendMetrics implements CommitListener {
             .help("Time from an executor call to its result").labelNames("kind", "success")
             .classicUpperBounds(0.01, 0.05, 0.1, 0.5, 1, 5, 10, 30, 60, 300, 900, 1800).classicOnly().register(registry);
 
+    private final Counter notifications = Counter.builder().name("tend_notifications_total")
+            .help("Page delivery attempts by channel and outcome (delivered, retry, failed)").labelNames("channel", "outcome")
+            .register(registry);
+
     public TendMetrics(Store store) {
         GaugeWithCallback.builder().name("tend_ledger_entries").help("Entries in the audit ledger")
                 .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
@@ -69,6 +80,11 @@ public final class TendMetrics implements CommitListener {
         GaugeWithCallback.builder().name("tend_approvals_pending").help("Approvals waiting for a person")
                 .callback(cb -> cb.call(store.read(r -> r.approvals("pending").size())))
                 .register(registry);
+    }
+
+    /** A page delivery attempt ended: outcome delivered, retry or failed. */
+    public void pageAttempted(String channel, String outcome) {
+        notifications.labelValues(channel, outcome).inc();
     }
 
     public void transitionsReceived(long n) {
@@ -82,6 +98,11 @@ public final class TendMetrics implements CommitListener {
 
     public void linesRejected(long n) {
         if (n > 0) rejectedLines.inc(n);
+    }
+
+    /** Counts lines refused for their time, by reason; every reason is shown, at 0 until one happens. */
+    public void timeRefused(Map<TimeRefusal, Long> byReason) {
+        byReason.forEach((why, n) -> timeRefused.labelValues(why.wireName()).inc(n));
     }
 
     public void executorAnswered(String kind, boolean success, Duration took) {

@@ -15,6 +15,7 @@ import dev.tend.playbooks.WaitHealthyStep;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 import dev.tend.shared.Problem;
+import dev.tend.shared.time.TimeLimits;
 import dev.tend.shared.SignalKey;
 import dev.tend.shared.SignalState;
 import dev.tend.shared.TendException;
@@ -100,7 +101,7 @@ public final class Replayer {
      */
     public ReplayReport replay(Recording recording, ReplayListener listener) {
         Run run = new Run(recording, listener);
-        ReadSummary read = ReadAhead.read(recording, run, knownIds());
+        ReadSummary read = ReadAhead.read(recording.withDeclaredSignals(policy.config().signals()), run, knownIds());
         listener.done();
         Instant horizon = run.finish();
         return run.report(read, horizon);
@@ -139,6 +140,7 @@ public final class Replayer {
         private long events;
 
         private final List<Problem> problems = new ArrayList<>();
+        private long unkeepable;
 
         Run(Recording recording, ReplayListener listener) {
             this.recording = recording;
@@ -150,6 +152,13 @@ public final class Replayer {
         public void event(WireEvent event, long line) {
             events++;
             Instant at = event.at();
+            if (!TimeLimits.isKeepable(at)) {
+                // the live store would refuse it: so does its rehearsal, by line
+                unkeepable++;
+                problem(Problem.at(recording.file().toString(), (int) Math.min(line, Integer.MAX_VALUE), 0, "at",
+                        "field 'at': " + TimeLimits.outside(at) + "; the line is skipped"));
+                return;
+            }
             if (clock == null) startAt(header != null && header.from() != null && header.from().isBefore(at) ? header.from() : at);
             runDue(at);
             advanceTo(at);
@@ -239,12 +248,13 @@ public final class Replayer {
 
         ReplayReport report(ReadSummary read, Instant horizon) {
             List<RunEntry> runs = ReportCollector.runs(engine.runs());
-            long started = 0, succeeded = 0, failed = 0, unfinished = 0;
+            long started = 0, succeeded = 0, failed = 0, unfinished = 0, stoodDown = 0;
             for (RunEntry r : runs) {
                 if (r.outcome().equals("shadowed")) continue;
                 started++;
                 if (r.outcome().equals("succeeded")) succeeded++;
                 else if (r.outcome().equals("failed")) failed++;
+                else if (r.outcome().equals("stood-down")) stoodDown++;
                 else if (r.endedAt() == null) unfinished++;
             }
             long held = 0, denied = 0;
@@ -253,10 +263,10 @@ public final class Replayer {
                 else if (d.verdict() == Verdict.DENY) denied++;
             }
             Summary summary = new Summary(started, succeeded, failed, held, denied, collector.approvalsRequested(),
-                    collector.maxConcurrent(), !collector.brakePeriods().isEmpty(), unfinished, model.hiddenEvents());
+                    collector.maxConcurrent(), !collector.brakePeriods().isEmpty(), unfinished, model.hiddenEvents(), stoodDown);
             Instant from = collector.startTime();
             RecordingInfo info = new RecordingInfo(recording.name(), header == null ? null : header.description(), from,
-                    header == null ? null : header.until(), horizon, read.events(), read.bad(), engine.health().lateEvents(), problems);
+                    header == null ? null : header.until(), horizon, read.events() - unkeepable, read.bad() + unkeepable, engine.health().lateEvents(), problems);
             List<PlaybookRef> playbooks = new ArrayList<>();
             for (Playbook p : policy.playbooks()) playbooks.add(new PlaybookRef(p.id().value(), p.version(), p.contentHash()));
             Duration interval = horizon == null ? Duration.ofMinutes(1) : collector.healthInterval(horizon);

@@ -9,7 +9,7 @@ import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.wire.Rfc3339;
-import dev.tend.simulator.report.BrakePeriod;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.simulator.report.DecisionEntry;
 import dev.tend.simulator.report.HealthPoint;
 import dev.tend.simulator.report.NotificationEntry;
@@ -19,7 +19,6 @@ import dev.tend.simulator.report.StepEntry;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.Collection;
 import java.util.HashMap;
 import java.util.List;
@@ -46,8 +45,12 @@ final class ReportCollector {
     private int maxConcurrent;
     private BrakeState engaged;
     private Instant start;
-    private int[] perMinute = new int[1024];
-    private int lastMinute = -1;
+    /**
+     * Minutes in which inputs came, from the start: the most clusters unhealthy during that
+     * minute (the count carried into it included) and the count the minute's last input left.
+     * Sparse, so that a recording with years between two events costs nothing.
+     */
+    private final java.util.TreeMap<Long, int[]> minutes = new java.util.TreeMap<>();
     private int lastCount;
 
     void start(Instant at) {
@@ -76,9 +79,10 @@ final class ReportCollector {
     /** After each input: how many runs are active and clusters unhealthy. */
     void afterInput(Instant now, int activeRuns, int unhealthyClusters) {
         if (activeRuns > maxConcurrent) maxConcurrent = activeRuns;
-        int m = minute(now);
-        fillTo(m);
-        if (unhealthyClusters > perMinute[m]) perMinute[m] = unhealthyClusters;
+        long m = minute(now);
+        int[] seen = minutes.computeIfAbsent(m, k -> new int[]{lastCount, lastCount});
+        if (unhealthyClusters > seen[0]) seen[0] = unhealthyClusters;
+        seen[1] = unhealthyClusters;
         lastCount = unhealthyClusters;
     }
 
@@ -86,7 +90,7 @@ final class ReportCollector {
         if (b.engaged()) {
             if (engaged == null) engaged = b;
         } else if (engaged != null) {
-            brakePeriods.add(new BrakePeriod(engaged.since(), now, engaged.by(), engaged.reason()));
+            brakePeriods.add(new BrakePeriod(engaged.since(), by(engaged), engaged.reason(), now, null, null));
             engaged = null;
         }
     }
@@ -128,19 +132,10 @@ final class ReportCollector {
         return ids.computeIfAbsent((String) value, Id::of);
     }
 
-    private int minute(Instant now) {
-        long m = Duration.between(start, now).toMinutes();
-        if (m < 0) return 0;
-        if (m > Integer.MAX_VALUE - 1) throw new IllegalStateException("a replay longer than 4000 years");
-        return (int) m;
+    private long minute(Instant now) {
+        return Math.max(0, Duration.between(start, now).toMinutes());
     }
 
-    /** Minutes without an input held the count the last input left. */
-    private void fillTo(int m) {
-        if (m >= perMinute.length) perMinute = Arrays.copyOf(perMinute, Math.max(perMinute.length * 2, m + 1));
-        for (int i = lastMinute + 1; i <= m; i++) perMinute[i] = lastCount;
-        if (m > lastMinute) lastMinute = m;
-    }
 
     List<DecisionEntry> decisions() {
         return decisions;
@@ -157,7 +152,7 @@ final class ReportCollector {
     /** The brake periods; one still engaged at {@code horizon} is reported without a release. */
     List<BrakePeriod> brakePeriods() {
         List<BrakePeriod> out = new ArrayList<>(brakePeriods);
-        if (engaged != null) out.add(new BrakePeriod(engaged.since(), null, engaged.by(), engaged.reason()));
+        if (engaged != null) out.add(new BrakePeriod(engaged.since(), by(engaged), engaged.reason(), null, null, null));
         return out;
     }
 
@@ -177,13 +172,14 @@ final class ReportCollector {
     /** The most clusters unhealthy at once per interval, from the start to {@code horizon}. */
     List<HealthPoint> unhealthy(Instant horizon) {
         if (start == null) return List.of();
-        int last = minute(horizon);
-        fillTo(last);
+        long last = minute(horizon);
         long step = healthInterval(horizon).toMinutes();
         List<HealthPoint> out = new ArrayList<>();
         for (long m = 0; m <= last; m += step) {
-            int max = 0;
-            for (long i = m; i < Math.min(m + step, last + 1L); i++) max = Math.max(max, perMinute[(int) i]);
+            // minutes without an input hold the count the last input before them left
+            Map.Entry<Long, int[]> before = minutes.lowerEntry(m);
+            int max = before == null ? 0 : before.getValue()[1];
+            for (int[] seen : minutes.subMap(m, true, Math.min(m + step, last + 1L), false).values()) max = Math.max(max, seen[0]);
             out.add(new HealthPoint(start.plus(Duration.ofMinutes(m)), max));
         }
         return out;
@@ -204,5 +200,10 @@ final class ReportCollector {
         }
         out.sort((a, b) -> a.run().compareTo(b.run()));
         return out;
+    }
+
+    /** Who engaged the brake: the engine names an operator or {@code automatic}; "unknown" if it named no one. */
+    private static String by(BrakeState b) {
+        return b.by() == null ? "unknown" : b.by();
     }
 }

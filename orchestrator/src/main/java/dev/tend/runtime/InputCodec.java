@@ -25,7 +25,7 @@ import java.util.Map;
  */
 public final class InputCodec {
     private static final ObjectMapper JSON = new ObjectMapper();
-    private static final WireReader WIRE = WireReader.of("journal");
+    private static final WireReader WIRE = WireReader.trusted("journal");
 
     private InputCodec() {
     }

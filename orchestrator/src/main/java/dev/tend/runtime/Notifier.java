@@ -3,14 +3,13 @@ package dev.tend.runtime;
 import dev.tend.engine.Effect;
 
 /**
- * Delivers notifications. Called after the notification's ledger entry is committed; the
- * notification id is stable, so a receiver can drop a repeat.
+ * Told about each page after its ledger entry and outbox row are committed (for a courier to
+ * look at the outbox at once). Delivery itself runs from the outbox, never from this call, so
+ * a crash between commit and delivery loses nothing. The page id is stable, so a receiver can
+ * drop a repeat.
  */
 public interface Notifier {
-    void send(Effect.Notify notification);
+    Notifier NONE = n -> { };
 
-    /** Writes each notification as one line to a stream (stderr by default). */
-    static Notifier printingTo(java.io.PrintStream out) {
-        return n -> out.println("tend: page " + n.channel() + ": " + n.message());
-    }
+    void send(Effect.Notify notification);
 }

@@ -359,13 +359,15 @@ public final class Orchestrator {
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
         try {
-            for (Input in : batch) {
+            for (int i = 0; i < batch.size(); i++) {
+                Input in = batch.get(i);
                 Instant now = clock.instant();
                 rows.add(InputCodec.encode(in, now));
                 List<Effect> fx = engine.handle(in, now);
                 all.addAll(fx);
                 times.add(now);
                 perInput.add(fx);
+                if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) reportCleared(r, batch);
             }
             long done = sourceDone + queued.cardinality();
             if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
@@ -474,13 +476,23 @@ public final class Orchestrator {
     private void dispatch(Effect.CallExecutor call) {
         callsInFlight.incrementAndGet();
         executor(call.action().kind()).execute(call, result -> {
+            // an executor's thread: it only queues; the engine is read on the driver thread alone
             urgent.add(result);
-            for (Id s : result.clears()) {
-                // the simulated fleet reports the signals the action cleared, as a health pipeline would
-                urgent.add(new Input.Transition(new HealthTransition(engine.eventTime(), call.target().cluster(),
-                        call.target().node(), s, SignalState.CLEAR, Map.of(), Map.of("origin", "simulated"))));
-            }
             callsInFlight.decrementAndGet();
+        });
+    }
+
+    /**
+     * The simulated fleet reports the signals an action cleared, as a health pipeline would:
+     * one clear transition per signal at the engine's event time, queued right behind the
+     * result in the same batch. On the driver thread, the only one that reads the engine.
+     */
+    private void reportCleared(Input.ExecutorResult r, List<Input> batch) {
+        engine.run(r.runId()).ifPresent(run -> {
+            for (Id s : r.clears()) {
+                batch.add(new Input.Transition(new HealthTransition(engine.eventTime(), run.target().cluster(),
+                        run.target().node(), s, SignalState.CLEAR, Map.of(), Map.of("origin", "simulated"))));
+            }
         });
     }
 

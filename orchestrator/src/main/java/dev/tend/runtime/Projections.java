@@ -12,6 +12,7 @@ import dev.tend.shared.TendException;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.LedgerDraft;
+import dev.tend.store.PageRow;
 import dev.tend.store.RunRow;
 import dev.tend.store.StepRow;
 import dev.tend.store.StoreTx;
@@ -24,7 +25,8 @@ import java.util.Map;
 
 /**
  * Writes the durable part of an input's effects inside the transaction that journals the
- * input: ledger entries (notifications included, as {@code notification} entries), the run,
+ * input: ledger entries (notifications included, as {@code notification} entries, each also put
+ * in the page outbox), the run,
  * step, approval, exclusion and brake projections, and the timers table.
  */
 final class Projections {
@@ -40,9 +42,19 @@ final class Projections {
             } else if (e instanceof Effect.Notify n) {
                 Map<String, Object> f = new LinkedHashMap<>(n.fields());
                 f.put("id", n.id());
+                f.put("page_kind", n.kind());
                 f.put("channel", n.channel());
                 f.put("message", n.message());
                 ledger.add(new LedgerDraft(at, "notification", f));
+                // the page enters the outbox with its ledger entry: delivered at least once, even after a crash
+                Map<String, Object> payload = new LinkedHashMap<>();
+                payload.put("id", n.id());
+                payload.put("channel", n.channel());
+                payload.put("at", dev.tend.engine.Effects.normalise(at));
+                payload.put("kind", n.kind());
+                payload.put("message", n.message());
+                n.fields().forEach(payload::putIfAbsent);
+                tx.enqueuePage(PageRow.pending(n.id(), n.channel(), at, json(payload)));
             } else if (e instanceof Effect.RunChanged r) {
                 run(tx, r.run());
             } else if (e instanceof Effect.ApprovalChanged a) {

@@ -71,14 +71,16 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
             List<FleetHealth.Signal> signals = new ArrayList<>();
             TreeSet<String> zones = new TreeSet<>();
             Map<Id, SignalStatus> own = view.activeSignals(cluster, null);
-            own.forEach((s, st) -> signals.add(signal(null, s, st)));
+            own.forEach((s, st) -> signals.add(signal(null, s, st, spec.isEmpty())));
             if (!own.isEmpty()) spec.ifPresent(c -> zones.addAll(zones(c)));
             for (Id node : view.impairedNodes(cluster)) {
-                view.activeSignals(cluster, node).forEach((s, st) -> signals.add(signal(node, s, st)));
+                boolean unknown = spec.flatMap(c -> c.node(node)).isEmpty();
+                view.activeSignals(cluster, node).forEach((s, st) -> signals.add(signal(node, s, st, unknown)));
                 zones.add(spec.flatMap(c -> c.node(node)).map(NodeSpec::zone).orElse("unknown"));
             }
             for (String z : zones) unhealthyPerZone.computeIfAbsent(z, k -> new ArrayList<>()).add(cluster.value());
-            problems.add(new FleetHealth.ClusterProblem(cluster.value(), view.health(cluster).name().toLowerCase(java.util.Locale.ROOT),
+            String health = spec.isEmpty() ? "unknown-target" : view.health(cluster).name().toLowerCase(java.util.Locale.ROOT);
+            problems.add(new FleetHealth.ClusterProblem(cluster.value(), health,
                     List.copyOf(zones), signals));
         }
         TreeSet<String> allZones = new TreeSet<>(clustersPerZone.keySet());
@@ -101,8 +103,9 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         return List.copyOf(z);
     }
 
-    private static FleetHealth.Signal signal(Id node, Id signal, SignalStatus s) {
-        return new FleetHealth.Signal(node == null ? null : node.value(), signal.value(), s.state().wireName(), s.since());
+    private static FleetHealth.Signal signal(Id node, Id signal, SignalStatus s, boolean unknownTarget) {
+        return new FleetHealth.Signal(node == null ? null : node.value(), signal.value(), s.state().wireName(), s.since(),
+                unknownTarget);
     }
 
     static BrakeView brake(BrakeState b) {

@@ -22,11 +22,14 @@ import java.util.Objects;
  * @param workDir        working directory of command actions (default: the current directory)
  * @param log            where notifications and failures are written (default: standard error)
  * @param timeScale      how processing time relates to the wall clock (default {@link TimeScale#real()})
+ * @param allowHosts     names the server answers to besides loopback and the address listened on (default none)
+ * @param wrongTokens    wrong tokens one address may send a minute before it is answered 429 (default 10)
  * @param snapshotEvery  inputs between two snapshots of the engine, 0 for none (default
  *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOT_EVERY})
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
-                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale, int snapshotEvery) {
+                            Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale,
+                            java.util.List<String> allowHosts, int wrongTokens, int snapshotEvery) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -40,6 +43,8 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         Objects.requireNonNull(workDir, "workDir");
         Objects.requireNonNull(log, "log");
         Objects.requireNonNull(timeScale, "timeScale");
+        allowHosts = java.util.List.copyOf(allowHosts);
+        if (wrongTokens < 1) throw new IllegalArgumentException("wrongTokens must be at least 1, got " + wrongTokens);
         if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
     }
 
@@ -66,6 +71,8 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private Path workDir = Path.of("").toAbsolutePath();
         private PrintWriter log = new PrintWriter(System.err, true);
         private TimeScale timeScale = TimeScale.real();
+        private java.util.List<String> allowHosts = java.util.List.of();
+        private int wrongTokens = dev.tend.api.auth.FailedTokens.LIMIT;
 
         private Builder(EngineSetup setup) {
             this.setup = setup;
@@ -122,9 +129,19 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder allowHosts(java.util.List<String> value) {
+            this.allowHosts = value;
+            return this;
+        }
+
+        public Builder wrongTokens(int value) {
+            this.wrongTokens = value;
+            return this;
+        }
+
         public ServeSettings build() {
             return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
-                    snapshotEvery);
+                    allowHosts, wrongTokens, snapshotEvery);
         }
     }
 }

@@ -8,7 +8,10 @@ import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
 import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
+import dev.tend.http.OutgoingHttp;
 import dev.tend.metrics.TendMetrics;
+import dev.tend.page.Courier;
+import dev.tend.page.Senders;
 import dev.tend.metrics.TimedExecutor;
 import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Notifier;
@@ -46,6 +49,7 @@ public final class TendServer implements AutoCloseable {
     private final CountDownLatch driverDone = new CountDownLatch(1);
     private final ScheduledExecutorService ticker;
     private final ApiServer api;
+    private final Courier courier;
     private final String host;
     /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
     private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
@@ -57,9 +61,21 @@ public final class TendServer implements AutoCloseable {
         PrintWriter log = s.log();
         TendMetrics metrics = new TendMetrics(store);
         FleetHealthPublisher health = new FleetHealthPublisher(clock);
+        OutgoingHttp http = new OutgoingHttp();
+        // every file an outgoing call or a channel needs is read now: a bad one stops tend before it serves
+        for (dev.tend.playbooks.ActionDef a : s.setup().playbooks().actions().byId().values()) {
+            if (a instanceof dev.tend.playbooks.HttpAction h) http.check(h.client());
+        }
+        dev.tend.playbooks.Paging paging = s.setup().config().paging();
+        Senders senders = Senders.from(paging, http, log);
+        if (senders.logOnly()) {
+            log.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only and reach"
+                    + " nobody else; define channels (webhook, email, command) to page people");
+            log.flush();
+        }
         executors = List.of(new TimedExecutor(new CommandExecutor(s.workDir()), metrics),
                 new TimedExecutor(new SimulatedExecutor(s.seed(), s.speedup()), metrics),
-                new TimedExecutor(HttpExecutor.withDefaults(), metrics));
+                new TimedExecutor(HttpExecutor.withDefaults(http), metrics));
         Map<String, Executor> byKind = new LinkedHashMap<>();
         for (Executor e : executors) byKind.put(e.kind(), e);
         Orchestrator[] holder = new Orchestrator[1];
@@ -82,11 +98,10 @@ public final class TendServer implements AutoCloseable {
                 }
             }
         };
+        Courier[] courierRef = new Courier[1];
         Notifier notifier = n -> {
-            synchronized (log) {
-                log.println("tend: page " + n.channel() + ": " + n.message());
-                log.flush();
-            }
+            Courier c = courierRef[0];
+            if (c != null) c.wake();
         };
         orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners, s.snapshotEvery());
         holder[0] = orchestrator;
@@ -109,14 +124,20 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
                     s.setup().playbooks()));
         } catch (RuntimeException e) {
             stopDriver();
             throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);
         }
         host = s.host();
+        Senders withLink = paging.consoleUrl() != null ? senders : Senders.from(paging.withConsoleUrl(url() + "/"), http, log);
+        courier = new Courier(store, withLink, clock, PAGE_FIRST_PAUSE, metrics::pageAttempted).start();
+        courierRef[0] = courier;
     }
+
+    /** The pause before a page is tried again after a first failed attempt (it doubles, up to 5 minutes). */
+    static final java.time.Duration PAGE_FIRST_PAUSE = java.time.Duration.ofSeconds(5);
 
     /**
      * Recovers the engine from {@code store} and starts serving. Throws {@link TendException}
@@ -178,6 +199,7 @@ public final class TendServer implements AutoCloseable {
         closed = true;
         api.close();
         stopDriver();
+        courier.close();
     }
 
     private void stopDriver() {

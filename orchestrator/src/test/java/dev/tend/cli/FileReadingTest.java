@@ -32,7 +32,7 @@ class FileReadingTest {
     /** 20,000 lines of disk-latency transitions, with one byte that is never UTF-8 (0xFF) on line 10,000. */
     private Path fileWithOneBadByte() throws Exception {
         ByteArrayOutputStream b = new ByteArrayOutputStream();
-        Instant t0 = Instant.parse("2027-03-14T02:00:00Z");
+        Instant t0 = Instant.parse("2026-03-14T02:00:00Z");
         for (int i = 1; i <= LINES; i++) {
             String state = i % 2 == 0 ? "clear" : "breach";
             String line = "{\"at\":\"" + t0.plusSeconds(i) + "\",\"cluster\":\"tickets-" + (i % 40 + 1)

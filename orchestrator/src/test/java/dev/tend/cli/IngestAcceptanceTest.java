@@ -17,14 +17,14 @@ class IngestAcceptanceTest {
     Path dir;
 
     @Test
-    void silentNodeStartsExactlyOneRunThatFinishesAndTheLedgerProvesIt() throws Exception {
+    void aSilentNodeThatComesBackWhileBeingDrainedIsNotReplacedTheRunStandsDownAndUndrainsIt() throws Exception {
         Path root = CliRun.root();
         String db = dir.resolve("tend.db").toString();
         CliRun ingest = CliRun.of("ingest", root.resolve("examples/silent-node.jsonl").toString(),
                 "--playbooks", root.resolve("playbooks/library").toString(),
                 "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
         assertThat(ingest.exit()).as(ingest.err()).isZero();
-        assertThat(ingest.out()).contains("1 started, 1 succeeded");
+        assertThat(ingest.out()).contains("1 started, 0 succeeded, 0 failed, 1 stood down");
         assertThat(ingest.err()).contains("tend: end of input after 20 events; waiting for the runs still executing");
 
         CliRun runs = CliRun.of("runs", "--db", db, "--format", "json");
@@ -32,11 +32,14 @@ class IngestAcceptanceTest {
         assertThat(list).hasSize(1);
         assertThat(list.get(0).get("cluster").asText()).isEqualTo("fares-17");
         assertThat(list.get(0).get("node").asText()).isEqualTo("n2");
-        assertThat(list.get(0).get("state").asText()).isEqualTo("succeeded");
+        assertThat(list.get(0).get("state").asText()).isEqualTo("stood-down");
+        assertThat(list.get(0).get("outcome").asText()).startsWith("stood down (cleared): heartbeat is no longer in breach or silent");
 
         CliRun audit = CliRun.of("audit", "--db", db);
         assertThat(audit.out()).contains("verdict").contains("run-started").contains("executor-call")
-                .contains("step-finished").contains("run-ended");
+                .contains("run-standing-down").contains("run-ended").contains("undrain-node").doesNotContain("replace-node");
+        CliRun text = CliRun.of("runs", "--db", db);
+        assertThat(text.out()).contains("stood-down");
         assertThat(CliRun.of("audit", "verify", "--db", db).exit()).isZero();
 
         try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + db); Statement s = c.createStatement()) {
@@ -69,8 +72,11 @@ class IngestAcceptanceTest {
         Path actions = dir.resolve("failing-replace.yaml");
         java.nio.file.Files.writeString(actions, "actions:\n  replace-node: { simulated: { duration: 5m, success: 0.0 } }\n");
         String db = dir.resolve("overlay.db").toString();
+        java.util.List<String> lines = java.nio.file.Files.readAllLines(root.resolve("examples/silent-node.jsonl"));
+        Path input = dir.resolve("unrecovered.jsonl");
+        java.nio.file.Files.write(input, lines.subList(0, lines.size() - 1)); // the node never recovers: the run reaches replace
 
-        CliRun ingest = CliRun.of("ingest", root.resolve("examples/silent-node.jsonl").toString(),
+        CliRun ingest = CliRun.of("ingest", input.toString(),
                 "--playbooks", root.resolve("playbooks/library").toString(), "--actions", actions.toString(),
                 "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "600");
 

@@ -26,7 +26,7 @@ class IngestAgainTest {
 
     private static String lines(int from, int to, int poisoned) {
         StringBuilder sb = new StringBuilder();
-        Instant t0 = Instant.parse("2027-03-14T02:00:00Z");
+        Instant t0 = Instant.parse("2026-03-14T02:00:00Z");
         for (int i = from; i <= to; i++) {
             String at = i == poisoned ? "2263-01-01T00:00:00Z" : t0.plusSeconds(i).toString();
             sb.append("{\"at\":\"").append(at).append("\",\"cluster\":\"tickets-").append(i % 30 + 1)

@@ -59,11 +59,11 @@ class RecordCommandTest {
                 "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--db", db, "--speedup", "100000");
         assertThat(ingest.exit()).as(ingest.err()).isZero();
         Path out = dir.resolve("only.jsonl");
-        CliRun r = CliRun.of("record", "--db", db, "--from", "2027-03-14T00:00:00Z", "--until", "2027-03-15T00:00:00Z",
+        CliRun r = CliRun.of("record", "--db", db, "--from", "2026-03-14T00:00:00Z", "--until", "2026-03-15T00:00:00Z",
                 "--cluster", "fares-17", "--fleet", root.resolve("playbooks/library/fleet.yaml").toString(), "--out", out.toString());
         assertThat(r.exit()).as(r.err()).isZero();
         Recording rec = Recording.open(out);
-        assertThat(rec.header().orElseThrow().from()).isEqualTo(java.time.Instant.parse("2027-03-14T00:00:00Z"));
+        assertThat(rec.header().orElseThrow().from()).isEqualTo(java.time.Instant.parse("2026-03-14T00:00:00Z"));
         assertThat(rec.headerFleet()).isPresent();
         long[] others = {0, 0};
         rec.read((e, line) -> {

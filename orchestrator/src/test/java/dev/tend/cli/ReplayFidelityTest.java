@@ -37,7 +37,7 @@ class ReplayFidelityTest {
     @TempDir
     Path dir;
 
-    private static final Instant T0 = Instant.parse("2027-03-16T01:00:00Z");
+    private static final Instant T0 = Instant.parse("2026-03-16T01:00:00Z");
     private static final ObjectMapper JSON = new ObjectMapper();
 
     private static String line(int seconds, String cluster, String node, String signal, String state) {

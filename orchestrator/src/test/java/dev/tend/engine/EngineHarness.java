@@ -28,6 +28,7 @@ final class EngineHarness {
     static final String ACTIONS = """
             actions:
               drain-node: { simulated: { duration: 1m, success: 1.0 } }
+              undrain-node: { simulated: { duration: 1m, success: 1.0 } }
               replace-node: { simulated: { duration: 2m, success: 1.0, clears: [heartbeat] } }
               restart-process: { simulated: { duration: 30s, success: 1.0, clears: [process-down] } }
             """;

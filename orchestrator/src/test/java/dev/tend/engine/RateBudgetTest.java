@@ -18,7 +18,7 @@ class RateBudgetTest {
             """;
 
     @Test
-    void fleetWideBudgetGrantsExactlyItsPermitsPerPeriodThenHoldsUntilTheNextPeriod() {
+    void fleetWideBudgetGrantsItsPermitsThenHoldsUntilAnHourAfterTheFirstStart() {
         StringBuilder clusters = new StringBuilder();
         for (int i = 1; i <= 10; i++) clusters.append(cluster("fares-" + i, "standard", 3, null));
         EngineHarness h = new EngineHarness(fleet(clusters.toString()), TEND, replacePlaybook("0s", "keep-replicas: false"));

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.engine.Input;
 import dev.tend.shared.SignalState;
 import org.junit.jupiter.api.Test;
@@ -43,7 +44,7 @@ class HandoverDecisionsTest {
                 assertThat(a.decidedAt()).isEqualTo(at("22:10"));
             });
             assertThat(r.pendingApprovals()).isEmpty();
-            assertThat(r.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 0, 0));
+            assertThat(r.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 0, 0, 0));
             assertThat(r.runs()).singleElement().satisfies(x -> {
                 assertThat(x.createdAt()).isEqualTo(SINCE);
                 assertThat(x.startedAt()).isEqualTo(at("22:10"));
@@ -67,7 +68,7 @@ class HandoverDecisionsTest {
 
             HandoverReport r = n.report(SINCE, at("23:00"));
 
-            assertThat(r.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 1, 0));
+            assertThat(r.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 1, 0, 0));
             assertThat(r.byReason()).containsExactly(new ReasonCount("fleet-brake", 1, 0));
             assertThat(r.brakePeriods()).containsExactly(new BrakePeriod(SINCE, "ana", "dispatch zone z-b flapping", at("22:25"),
                     "ana", "z-b steady again"));
@@ -88,7 +89,7 @@ class HandoverDecisionsTest {
 
             HandoverReport r = n.report(SINCE, at("06:00"));
 
-            assertThat(r.totals()).isEqualTo(new RunCounts(3, 3, 0, 0, 0, 0, 1));
+            assertThat(r.totals()).isEqualTo(new RunCounts(3, 3, 0, 0, 0, 0, 1, 0));
             assertThat(r.byReason()).containsExactly(new ReasonCount("loop", 0, 1));
             assertThat(r.loopsStopped()).containsExactly(new LoopStop("replace-silent-node", "fares-2", "n2", stopped));
             assertThat(r.needsAttention()).isTrue();
@@ -109,7 +110,7 @@ class HandoverDecisionsTest {
 
             HandoverReport r = n.report(SINCE, at("23:00"));
 
-            assertThat(r.byPlaybook().get("rebalance-under-replicated")).isEqualTo(new RunCounts(0, 0, 0, 0, 1, 0, 0));
+            assertThat(r.byPlaybook().get("rebalance-under-replicated")).isEqualTo(new RunCounts(0, 0, 0, 0, 1, 0, 0, 0));
             assertThat(r.runs()).singleElement().satisfies(x -> {
                 assertThat(x.target()).isEqualTo("fares-8");
                 assertThat(x.state()).isEqualTo("shadowed");

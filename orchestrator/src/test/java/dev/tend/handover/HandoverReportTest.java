@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
@@ -35,10 +36,10 @@ class HandoverReportTest {
     void countsMatchTheRunsOfTheNight() {
         HandoverReport r = night.report(SINCE, UNTIL);
 
-        assertThat(r.totals()).isEqualTo(new RunCounts(4, 2, 1, 1, 0, 1, 1));
+        assertThat(r.totals()).isEqualTo(new RunCounts(4, 2, 1, 1, 0, 1, 1, 0));
         assertThat(r.byPlaybook()).containsOnlyKeys("replace-silent-node", "restart-stopped-process");
-        assertThat(r.byPlaybook().get("replace-silent-node")).isEqualTo(new RunCounts(3, 2, 0, 1, 0, 1, 1));
-        assertThat(r.byPlaybook().get("restart-stopped-process")).isEqualTo(new RunCounts(1, 0, 1, 0, 0, 0, 0));
+        assertThat(r.byPlaybook().get("replace-silent-node")).isEqualTo(new RunCounts(3, 2, 0, 1, 0, 1, 1, 0));
+        assertThat(r.byPlaybook().get("restart-stopped-process")).isEqualTo(new RunCounts(1, 0, 1, 0, 0, 0, 0, 0));
         assertThat(r.byReason()).containsExactly(new ReasonCount("excluded", 0, 1), new ReasonCount("fleet-brake", 1, 0));
     }
 
@@ -119,16 +120,16 @@ class HandoverReportTest {
     @Test
     void periodFilterCountsOnlyEntriesInTheHalfOpenPeriod() {
         HandoverReport evening = night.report(at("21:00"), SINCE);
-        assertThat(evening.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 0, 0));
+        assertThat(evening.totals()).isEqualTo(new RunCounts(1, 1, 0, 0, 0, 0, 0, 0));
         assertThat(evening.runs()).extracting(RunLine::target).containsExactly("fares-1/n1");
 
         // fares-1/n1 ended at 21:05:00 exactly: an entry at until is not in the period
         HandoverReport early = night.report(at("21:00"), at("21:05"));
-        assertThat(early.totals()).isEqualTo(new RunCounts(1, 0, 0, 0, 0, 0, 0));
+        assertThat(early.totals()).isEqualTo(new RunCounts(1, 0, 0, 0, 0, 0, 0, 0));
         assertThat(early.runs()).singleElement().satisfies(x -> assertThat(x.state()).isEqualTo("running"));
 
         HandoverReport middle = night.report(at("23:00"), at("00:30"));
-        assertThat(middle.totals()).isEqualTo(new RunCounts(2, 1, 1, 0, 0, 0, 1));
+        assertThat(middle.totals()).isEqualTo(new RunCounts(2, 1, 1, 0, 0, 0, 1, 0));
         assertThat(middle.runs()).extracting(RunLine::target).containsExactly("fares-10/n1", "fares-3/n2", "fares-4/n1");
         assertThat(middle.pendingApprovals()).extracting(ApprovalLine::target).containsExactly("fares-10/n1");
         assertThat(middle.approvalsRequested()).isZero();
@@ -140,7 +141,7 @@ class HandoverReportTest {
     void aRunStartedBeforeThePeriodCountsAsEndedButNotAsStarted() {
         HandoverReport r = night.report(at("21:03"), at("21:30"));
 
-        assertThat(r.totals()).isEqualTo(new RunCounts(0, 1, 0, 0, 0, 0, 0));
+        assertThat(r.totals()).isEqualTo(new RunCounts(0, 1, 0, 0, 0, 0, 0, 0));
         assertThat(r.runs()).singleElement().satisfies(x -> assertThat(x.startedAt()).isEqualTo(at("21:00")));
     }
 

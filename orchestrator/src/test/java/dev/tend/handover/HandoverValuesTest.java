@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.function.Executable;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -34,13 +35,13 @@ class HandoverValuesTest {
                         "ReportPeriod.until must be after since 2027-03-14T02:00:00Z, got 2027-03-14T02:00:00Z"),
                 bad("period backwards", () -> new ReportPeriod(T, EARLIER), IAE,
                         "ReportPeriod.until must be after since 2027-03-14T02:00:00Z, got 2027-03-14T01:59:00Z"),
-                bad("negative started", () -> new RunCounts(-1, 0, 0, 0, 0, 0, 0), IAE, "RunCounts.started must be 0 or more, got -1"),
-                bad("negative succeeded", () -> new RunCounts(0, -1, 0, 0, 0, 0, 0), IAE, "RunCounts.succeeded must be 0 or more, got -1"),
-                bad("negative failed", () -> new RunCounts(0, 0, -1, 0, 0, 0, 0), IAE, "RunCounts.failed must be 0 or more, got -1"),
-                bad("negative cancelled", () -> new RunCounts(0, 0, 0, -1, 0, 0, 0), IAE, "RunCounts.cancelled must be 0 or more, got -1"),
-                bad("negative shadowed", () -> new RunCounts(0, 0, 0, 0, -1, 0, 0), IAE, "RunCounts.shadowed must be 0 or more, got -1"),
-                bad("negative held", () -> new RunCounts(0, 0, 0, 0, 0, -1, 0), IAE, "RunCounts.held must be 0 or more, got -1"),
-                bad("negative denied", () -> new RunCounts(0, 0, 0, 0, 0, 0, -1), IAE, "RunCounts.denied must be 0 or more, got -1"),
+                bad("negative started", () -> new RunCounts(-1, 0, 0, 0, 0, 0, 0, 0), IAE, "RunCounts.started must be 0 or more, got -1"),
+                bad("negative succeeded", () -> new RunCounts(0, -1, 0, 0, 0, 0, 0, 0), IAE, "RunCounts.succeeded must be 0 or more, got -1"),
+                bad("negative failed", () -> new RunCounts(0, 0, -1, 0, 0, 0, 0, 0), IAE, "RunCounts.failed must be 0 or more, got -1"),
+                bad("negative cancelled", () -> new RunCounts(0, 0, 0, -1, 0, 0, 0, 0), IAE, "RunCounts.cancelled must be 0 or more, got -1"),
+                bad("negative shadowed", () -> new RunCounts(0, 0, 0, 0, -1, 0, 0, 0), IAE, "RunCounts.shadowed must be 0 or more, got -1"),
+                bad("negative held", () -> new RunCounts(0, 0, 0, 0, 0, -1, 0, 0), IAE, "RunCounts.held must be 0 or more, got -1"),
+                bad("negative denied", () -> new RunCounts(0, 0, 0, 0, 0, 0, -1, 0), IAE, "RunCounts.denied must be 0 or more, got -1"),
                 bad("reason without code", () -> new ReasonCount(null, 0, 0), NPE, "ReasonCount.code must not be null"),
                 bad("reason with blank code", () -> new ReasonCount(" ", 0, 0), IAE, "ReasonCount.code must not be blank"),
                 bad("reason negative held", () -> new ReasonCount("quorum", -2, 0), IAE, "ReasonCount.held must be 0 or more, got -2"),
@@ -55,16 +56,16 @@ class HandoverValuesTest {
                 bad("run without state", () -> run("r1", "p", "c", T, null, null, null, List.of()), NPE, "RunLine.state must not be null"),
                 bad("run in an unknown state", () -> run("r1", "p", "c", T, null, null, "done", List.of()), IAE,
                         "RunLine.state must be one of awaiting-approval, approved, running, paused, needs-human, succeeded,"
-                                + " failed, cancelled, shadowed, got 'done'"),
+                                + " failed, cancelled, shadowed, stood-down, got 'done'"),
                 bad("run started before created", () -> run("r1", "p", "c", T, EARLIER, null, "running", List.of()), IAE,
                         "RunLine.startedAt must not be before createdAt 2027-03-14T02:00:00Z, got 2027-03-14T01:59:00Z"),
                 bad("run ended before created", () -> run("r1", "p", "c", T, null, EARLIER, "failed", List.of()), IAE,
                         "RunLine.endedAt must not be before createdAt 2027-03-14T02:00:00Z, got 2027-03-14T01:59:00Z"),
                 bad("run ended but running", () -> run("r1", "p", "c", T, T, T, "running", List.of()), IAE,
-                        "RunLine.endedAt must be set exactly when the state is an end (succeeded, failed, cancelled, shadowed);"
+                        "RunLine.endedAt must be set exactly when the state is an end (succeeded, failed, cancelled, shadowed, stood-down);"
                                 + " state 'running', endedAt 2027-03-14T02:00:00Z"),
                 bad("run succeeded without an end", () -> run("r1", "p", "c", T, T, null, "succeeded", List.of()), IAE,
-                        "RunLine.endedAt must be set exactly when the state is an end (succeeded, failed, cancelled, shadowed);"
+                        "RunLine.endedAt must be set exactly when the state is an end (succeeded, failed, cancelled, shadowed, stood-down);"
                                 + " state 'succeeded', endedAt null"),
                 bad("run without actions", () -> run("r1", "p", "c", T, null, null, "running", null), NPE,
                         "RunLine.actions must not be null (pass an empty list)"),
@@ -153,10 +154,10 @@ class HandoverValuesTest {
 
     @Test
     void countsAddUpFieldByField() {
-        RunCounts sum = new RunCounts(1, 2, 3, 4, 5, 6, 7).plus(new RunCounts(10, 20, 30, 40, 50, 60, 70));
+        RunCounts sum = new RunCounts(1, 2, 3, 4, 5, 6, 7, 8).plus(new RunCounts(10, 20, 30, 40, 50, 60, 70, 80));
 
-        assertThat(sum).isEqualTo(new RunCounts(11, 22, 33, 44, 55, 66, 77));
-        assertThat(sum.ended()).isEqualTo(22 + 33 + 44 + 55);
+        assertThat(sum).isEqualTo(new RunCounts(11, 22, 33, 44, 55, 66, 77, 88));
+        assertThat(sum.ended()).isEqualTo(22 + 33 + 44 + 55 + 88);
     }
 
     @Test

@@ -56,7 +56,7 @@ class DemoRecordingsTest {
         ReplayReport r = replay("zone-outage");
         assertThat(r.summary().brakeEngaged()).isTrue();
         assertThat(r.brakePeriods()).singleElement().satisfies(b -> {
-            assertThat(b.by()).isEqualTo("automatic");
+            assertThat(b.engagedBy()).isEqualTo("automatic");
             assertThat(b.releasedAt()).as("released once the zone was back and the fleet settled").isNotNull();
         });
         assertThat(r.notifications()).singleElement().satisfies(n -> assertThat(n.message()).startsWith("fleet brake engaged"));

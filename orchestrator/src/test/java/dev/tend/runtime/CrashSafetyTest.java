@@ -192,9 +192,9 @@ class CrashSafetyTest {
     private Path writeInput() throws IOException {
         StringBuilder sb = new StringBuilder();
         for (int c = 1; c <= CLUSTERS; c++) {
-            sb.append("{\"at\":\"2027-03-14T02:").append(String.format("%02d", c % 60)).append(":00Z\",\"cluster\":\"fares-").append(c)
+            sb.append("{\"at\":\"2026-03-14T02:").append(String.format("%02d", c % 60)).append(":00Z\",\"cluster\":\"fares-").append(c)
                     .append("\",\"node\":\"n1\",\"signal\":\"heartbeat\",\"state\":\"breach\"}\n");
-            if (c <= PLAIN) sb.append("{\"at\":\"2027-03-14T02:").append(String.format("%02d", c % 60)).append(":30Z\",\"cluster\":\"fares-").append(c)
+            if (c <= PLAIN) sb.append("{\"at\":\"2026-03-14T02:").append(String.format("%02d", c % 60)).append(":30Z\",\"cluster\":\"fares-").append(c)
                     .append("\",\"node\":\"n2\",\"signal\":\"process-down\",\"state\":\"breach\"}\n");
         }
         Path input = dir.resolve("input.jsonl");

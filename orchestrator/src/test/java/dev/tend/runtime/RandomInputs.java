@@ -29,7 +29,9 @@ import java.util.TreeMap;
  * timers it armed fire at their time, its executor calls are answered (mostly with
  * success), its approval requests are approved or rejected, and operators exclude, brake
  * and abort now and then. Transitions fall on a few dozen clusters of the fleet so that the
- * fleet brake, caps and loops come into play. Seeded: the same seed, the same inputs.
+ * fleet brake, caps and loops come into play; now and then the trigger of a running run
+ * clears, a mask or an exclusion lands on its target (its gate may stand it down), and a few
+ * nodes flap. Seeded: the same seed, the same inputs.
  */
 final class RandomInputs {
     /** One input and the processing time it is handled at. */
@@ -37,6 +39,10 @@ final class RandomInputs {
     }
 
     private static final String[] SIGNALS = {"heartbeat", "process-down", "replica-lag", "cert-expiry", "storage-full"};
+    /** The trigger signal of each playbook of the bundled library, by playbook id. */
+    private static final Map<String, String> TRIGGERS = Map.of("replace-silent-node", "heartbeat",
+            "restart-stopped-process", "process-down", "move-leadership-off-lagging-node", "replica-lag",
+            "rotate-expiring-certificate", "cert-expiry");
 
     private final Random random;
     private final List<ClusterSpec> clusters;
@@ -46,6 +52,10 @@ final class RandomInputs {
     private final Map<String, Effect.CallExecutor> calls = new LinkedHashMap<>();
     private final Map<String, ApprovalSnapshot> pending = new LinkedHashMap<>();
     private final Map<String, RunSnapshot> active = new LinkedHashMap<>();
+    /** Inputs left in the current burst of flaps, and the node that flaps. */
+    private int flapsLeft;
+    private ClusterSpec flapping;
+    private SignalState flapState = SignalState.CLEAR;
 
     RandomInputs(long seed, Fleet fleet, int clusterCount, Instant start) {
         this.random = new Random(seed);
@@ -74,6 +84,10 @@ final class RandomInputs {
     /** The next input, given what the engine has done so far. */
     Step next() {
         now = now.plusSeconds(random.nextInt(45));
+        if (flapsLeft > 0) {
+            flapsLeft--;
+            return new Step(Input.Transition.withWire(flap()), now);
+        }
         int roll = random.nextInt(100);
         if (roll < 12 && !timers.isEmpty()) {
             Map.Entry<String, Instant> first = timers.firstEntry();
@@ -96,6 +110,15 @@ final class RandomInputs {
             now = now.plus(Duration.ofSeconds(random.nextInt(900)));
             return new Step(new Input.Tick(), now);
         }
+        if (roll < 45) {
+            List<RunSnapshot> running = active.values().stream().filter(r -> r.state() == dev.tend.engine.RunState.RUNNING).toList();
+            if (!running.isEmpty()) return new Step(gateInput(pick(running)), now);
+        }
+        if (roll < 47) {
+            flapping = clusters.get(random.nextInt(Math.min(3, clusters.size())));
+            flapsLeft = 8;
+            return new Step(Input.Transition.withWire(flap()), now);
+        }
         return new Step(Input.Transition.withWire(transition()), now);
     }
 
@@ -113,6 +136,28 @@ final class RandomInputs {
         int s = random.nextInt(10);
         SignalState state = s < 4 ? SignalState.CLEAR : signal.equals("heartbeat") || s < 6 ? SignalState.SILENT : SignalState.BREACH;
         return HealthTransition.of(at, c.id().value(), n.id().value(), signal, state);
+    }
+
+    /** Something that a running run's gate looks at before its next action step. */
+    private Input gateInput(RunSnapshot run) {
+        eventAt = eventAt.plusSeconds(random.nextInt(30));
+        if (eventAt.isAfter(now)) eventAt = now;
+        Target t = run.target();
+        String node = t.node() == null ? null : t.node().value();
+        int r = random.nextInt(4);
+        if (r == 0) return new Input.Exclude(t, "checking by hand", "ops", now.plusSeconds(300 + random.nextInt(3600)), "olga", "127.0.0.1");
+        if (r == 1 && node != null) {
+            return Input.Transition.withWire(HealthTransition.of(eventAt, t.cluster().value(), node, "storage-full", SignalState.BREACH));
+        }
+        String signal = TRIGGERS.getOrDefault(run.playbook(), SIGNALS[random.nextInt(SIGNALS.length)]);
+        return Input.Transition.withWire(HealthTransition.of(eventAt, t.cluster().value(), node, signal, SignalState.CLEAR));
+    }
+
+    /** The next state change of process-down in a burst on one node, back and forth: the node flaps. */
+    private HealthTransition flap() {
+        eventAt = now;
+        flapState = flapState == SignalState.CLEAR ? SignalState.BREACH : SignalState.CLEAR;
+        return HealthTransition.of(eventAt, flapping.id().value(), flapping.nodes().get(0).id().value(), "process-down", flapState);
     }
 
     private TopologyEvent topology() {
@@ -139,7 +184,9 @@ final class RandomInputs {
             case 3 -> new Input.Exclude(t, "vendor maintenance", "ops", random.nextBoolean() ? null : now.plusSeconds(600 + random.nextInt(7200)),
                     by, from);
             case 4 -> new Input.Unexclude(t, by, from);
-            case 5 -> new Input.EngageBrake("storm drill", by, from);
+            // a drill now and then only: an engaged brake would hide the automatic one most of the time
+            case 5 -> random.nextInt(4) == 0 ? new Input.EngageBrake("storm drill", by, from)
+                    : new Input.ClearLoop(Id.of("replace-silent-node"), t, by, from);
             case 6 -> new Input.ReleaseBrake("drill over", by, from);
             default -> new Input.ClearLoop(Id.of("replace-silent-node"), t, by, from);
         };

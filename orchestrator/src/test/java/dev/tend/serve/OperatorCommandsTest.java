@@ -110,6 +110,25 @@ class OperatorCommandsTest {
     }
 
     @Test
+    void excludingAnUnknownClusterOrNodeIsRefusedWithASuggestionExitTwoAndHttp400() {
+        serve.start(dir);
+
+        Run cluster = tend(OLGA, "exclude", "add", "dispatch-11", "--reason", "disk swap", "--owner", "team-operations");
+        Run node = tend(OLGA, "exclude", "add", "dispatch-1", "n22", "--reason", "disk swap", "--owner", "team-operations");
+        ServeFixture.Response http = serve.post("/api/v1/exclusions", OLGA,
+                "{\"cluster\":\"dispatch-11\",\"reason\":\"disk swap\",\"owner\":\"team-operations\"}");
+
+        assertThat(cluster.exit()).isEqualTo(2);
+        assertThat(cluster.err()).contains("cluster dispatch-11 is not in the topology (did you mean 'dispatch-1'?)");
+        assertThat(node.exit()).isEqualTo(2);
+        assertThat(node.err()).contains("node n22 is not in the topology of cluster dispatch-1 (did you mean 'n2'?)");
+        assertThat(http.status()).isEqualTo(400);
+        assertThat(http.json().get("error").asText()).isEqualTo("invalid-input");
+        assertThat(http.json().get("message").asText()).contains("did you mean 'dispatch-1'?");
+        assertThat(tend(VERA, "exclude", "list").out()).isEqualTo("no exclusions\n");
+    }
+
+    @Test
     void brakeEngageStatusRelease() {
         serve.start(dir);
 

@@ -37,6 +37,29 @@ class ServeApiTest {
     }
 
     @Test
+    void linesAheadOfTheClockOrAfter2200AreRefusedLocatedAndCountedAndAnUnknownNodeIsShownAsSuch() {
+        serve.start(dir);
+        String ahead = "{\"at\":\"" + Instant.now().plus(Duration.ofHours(1)) + "\",\"cluster\":\"tickets-12\",\"node\":\"n1\","
+                + "\"signal\":\"disk-latency\",\"state\":\"breach\"}";
+        String typo = "{\"at\":\"2261-03-14T02:17:00Z\",\"cluster\":\"tickets-12\",\"node\":\"n1\",\"signal\":\"disk-latency\",\"state\":\"breach\"}";
+        String body = transition("tickets-12", "n9", "disk-latency", "breach") + "\n" + ahead + "\n" + typo + "\n";
+
+        ServeFixture.Response r = serve.post("/api/v1/transitions", OLGA, body);
+
+        assertThat(r.status()).as(r.text()).isEqualTo(207);
+        assertThat(r.json().get("problems")).extracting(p -> p.get("line").asLong() + " " + p.get("field").asText())
+                .containsExactly("2 at", "3 at");
+        assertThat(r.json().at("/problems/0/message").asText()).contains("ahead of this clock").contains("max-skew");
+        assertThat(r.json().at("/problems/1/message").asText()).contains("2261-03-14T02:17:00Z is after 2200");
+        String metrics = serve.get("/metrics", null).text();
+        assertThat(metrics).contains("tend_event_time_refused_total{reason=\"ahead-of-clock\"} 1.0")
+                .contains("tend_event_time_refused_total{reason=\"after-2200\"} 1.0");
+        JsonNode health = serve.get("/api/v1/health", VERA).json();
+        assertThat(health.at("/unhealthy_clusters/0/signals/0/node").asText()).isEqualTo("n9");
+        assertThat(health.at("/unhealthy_clusters/0/signals/0/unknown_target").asBoolean()).isTrue();
+    }
+
+    @Test
     void transitionsAppliesGoodLinesAndAnswersBadOnesWithTheirLineNumbers() {
         serve.start(dir);
         String body = transition("tickets-12", "n1", "disk-latency", "breach") + "\n"

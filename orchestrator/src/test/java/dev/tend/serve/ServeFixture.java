@@ -74,6 +74,8 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
     private Duration stepTimeout = Duration.ofMinutes(5);
     private Duration confirmFor = Duration.ZERO;
     private Duration eventTimeLag = Duration.ofMinutes(2);
+    /** The access tests send many wrong tokens on purpose; ServeEdgesTest sets the default back. */
+    private int wrongTokens = 10_000;
     private Store store;
     private TendServer server;
 
@@ -107,6 +109,12 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
     /** confirm-for of the replace-standard playbook (default 0s). */
     ServeFixture confirmFor(Duration d) {
         confirmFor = d;
+        return this;
+    }
+
+    /** Wrong tokens one address may send a minute before 429 (the server's default is 10; the fixture's 10,000). */
+    ServeFixture wrongTokens(int n) {
+        wrongTokens = n;
         return this;
     }
 
@@ -157,7 +165,7 @@ final class ServeFixture implements AfterEachCallback, AfterAllCallback, TestWat
         Tokens tokens = TokenFile.load(dir.resolve("tokens.yaml"));
         store = Store.openSqlite(dir.resolve("tend.db"));
         server = TendServer.start(store, ServeSettings.builder(setup).listen("127.0.0.1", 0).tokens(tokens)
-                .speedup(4).tick(Duration.ofMillis(500)).workDir(dir).log(new PrintWriter(log, true)).build());
+                .speedup(4).tick(Duration.ofMillis(500)).wrongTokens(wrongTokens).workDir(dir).log(new PrintWriter(log, true)).build());
         return this;
     }
 

@@ -4,10 +4,6 @@ import dev.tend.shared.Id;
 import dev.tend.shared.JsonValues;
 
 import java.time.Duration;
-import java.util.ArrayList;
-import java.util.Collections;
-import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import java.util.Set;
@@ -21,9 +17,10 @@ import java.util.Set;
  *                are allowed in string values. Unmodifiable, never null (empty: no body)
  * @param timeout limit for one attempt, or null
  * @param retries transport-level retries within one attempt, with the same key, 0 to 10
+ * @param client  headers, bearer token, CA bundle and client certificate of the call
  */
-public record HttpAction(Id id, Template url, String method, Map<String, Object> body, Duration timeout, int retries)
-        implements ActionDef {
+public record HttpAction(Id id, Template url, String method, Map<String, Object> body, Duration timeout, int retries,
+                         HttpClientSettings client) implements ActionDef {
     public static final Set<String> METHODS = Set.of("POST", "PUT", "PATCH", "DELETE", "GET");
 
     public HttpAction {
@@ -43,6 +40,12 @@ public record HttpAction(Id id, Template url, String method, Map<String, Object>
         if (retries < 0 || retries > 10) {
             throw new IllegalArgumentException("action " + id + " retries must be between 0 and 10, got " + retries);
         }
+        client = client == null ? HttpClientSettings.none() : client;
+    }
+
+    /** An action with no extra client settings. */
+    public HttpAction(Id id, Template url, String method, Map<String, Object> body, Duration timeout, int retries) {
+        this(id, url, method, body, timeout, retries, HttpClientSettings.none());
     }
 
     @Override
@@ -52,39 +55,11 @@ public record HttpAction(Id id, Template url, String method, Map<String, Object>
 
     @Override
     public boolean uses(String placeholder) {
-        return url.uses(placeholder) || usesIn(body, placeholder);
+        return url.uses(placeholder) || new JsonTemplate(body).uses(placeholder);
     }
 
     /** The body with placeholders in string values filled in. */
     public Map<String, Object> renderBody(Map<String, String> values) {
-        @SuppressWarnings("unchecked")
-        Map<String, Object> out = (Map<String, Object>) render(body, values);
-        return out;
-    }
-
-    private static Object render(Object v, Map<String, String> values) {
-        if (v instanceof String s) return new Template(s).render(values);
-        if (v instanceof Map<?, ?> m) {
-            Map<String, Object> out = new LinkedHashMap<>();
-            for (Map.Entry<?, ?> e : m.entrySet()) out.put((String) e.getKey(), render(e.getValue(), values));
-            return Collections.unmodifiableMap(out);
-        }
-        if (v instanceof List<?> l) {
-            List<Object> out = new ArrayList<>();
-            for (Object o : l) out.add(render(o, values));
-            return Collections.unmodifiableList(out);
-        }
-        return v;
-    }
-
-    private static boolean usesIn(Object v, String placeholder) {
-        if (v instanceof String s) return new Template(s).uses(placeholder);
-        if (v instanceof Map<?, ?> m) {
-            for (Object o : m.values()) if (usesIn(o, placeholder)) return true;
-        }
-        if (v instanceof List<?> l) {
-            for (Object o : l) if (usesIn(o, placeholder)) return true;
-        }
-        return false;
+        return new JsonTemplate(body).render(values);
     }
 }

@@ -33,12 +33,15 @@ import java.util.TreeMap;
  * @param column      column of the {@code playbook:} key
  * @param positions   where parts were written, by path ({@code trigger}, {@code trigger.clusters},
  *                    {@code limits.impaired-fraction}, {@code window}, {@code steps.<id>},
- *                    {@code on-failure.<id>}); see {@link #position(String)}
+ *                    {@code on-failure.<id>}, {@code on-stand-down.<id>}); see {@link #position(String)}
+ * @param onStandDown steps run when a run stands down because its problem went away or a
+ *                    mask or exclusion now applies (DESIGN.md section 4), in order (possibly none):
+ *                    undo what the steps so far began, such as a drain
  */
 public record Playbook(Id id, int version, String description, Mode mode, Trigger trigger, List<MaskRule> unless,
                        Limits limits, ChangeWindow window, ApprovalPolicy approval, List<Step> steps,
                        List<Step> onFailure, String source, String contentHash, int line, int column,
-                       Map<String, Position> positions) {
+                       Map<String, Position> positions, List<Step> onStandDown) {
     public Playbook {
         Objects.requireNonNull(id, "playbook");
         if (version < 1) throw new IllegalArgumentException("playbook " + id + " version must be at least 1, got " + version);
@@ -49,10 +52,12 @@ public record Playbook(Id id, int version, String description, Mode mode, Trigge
         limits = limits == null ? Limits.none() : limits;
         steps = List.copyOf(steps);
         onFailure = List.copyOf(onFailure);
+        onStandDown = onStandDown == null ? List.of() : List.copyOf(onStandDown);
         if (steps.isEmpty()) throw new IllegalArgumentException("playbook " + id + " needs at least one step");
         Set<Id> ids = new HashSet<>();
         for (Step s : steps) if (!ids.add(s.id())) throw new IllegalArgumentException("playbook " + id + " uses step id " + s.id() + " twice");
         for (Step s : onFailure) if (!ids.add(s.id())) throw new IllegalArgumentException("playbook " + id + " uses step id " + s.id() + " twice");
+        for (Step s : onStandDown) if (!ids.add(s.id())) throw new IllegalArgumentException("playbook " + id + " uses step id " + s.id() + " twice");
         Objects.requireNonNull(source, "source");
         Objects.requireNonNull(contentHash, "contentHash");
         positions = Collections.unmodifiableMap(new TreeMap<>(positions));
@@ -73,10 +78,11 @@ public record Playbook(Id id, int version, String description, Mode mode, Trigge
         return Optional.empty();
     }
 
-    /** Steps, then on-failure steps, in order. */
+    /** Steps, then on-failure steps, then on-stand-down steps, in order. */
     public List<Step> allSteps() {
         List<Step> all = new ArrayList<>(steps);
         all.addAll(onFailure);
+        all.addAll(onStandDown);
         return List.copyOf(all);
     }
 

@@ -19,6 +19,9 @@ import java.util.regex.Pattern;
 public record Template(String text) {
     /** Placeholders a page message may use. */
     public static final Set<String> MESSAGE_PLACEHOLDERS = Set.of("cluster", "node", "run", "step", "playbook");
+    /** Placeholders a channel's webhook body, command argument or mail subject may use: the page's fields. */
+    public static final Set<String> PAGE_PLACEHOLDERS = Set.of("id", "channel", "at", "kind", "cluster", "node", "run",
+            "playbook", "message", "link");
     /** Placeholders a command argument, an HTTP URL or an HTTP body value may use. */
     public static final Set<String> ACTION_PLACEHOLDERS = Set.of("cluster", "node", "run", "key", "step", "attempt");
 

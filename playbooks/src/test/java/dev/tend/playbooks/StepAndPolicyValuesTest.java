@@ -105,7 +105,7 @@ class StepAndPolicyValuesTest {
     void playbookPositionFallsBackToWhereThePlaybookStarts() {
         Playbook p = new Playbook(Id.of("p"), 1, null, Mode.LIVE, Trigger.of("heartbeat", SignalState.SILENT, Scope.NODE), List.of(),
                 null, null, null, List.of(new ActionStep(STEP, Id.of("drain-node"), null, 0)), List.of(), "p.yaml", "00", 1, 11,
-                Map.of("trigger", new Position(2, 1)));
+                Map.of("trigger", new Position(2, 1)), List.of());
 
         assertThat(p.position("trigger")).isEqualTo(new Position(2, 1));
         assertThat(p.position("window")).isEqualTo(new Position(1, 11));

@@ -50,9 +50,15 @@ public record Id(String value) implements Comparable<Id> {
     private static String abbreviate(String v) {
         String shown = v.length() > 40 ? v.substring(0, 40) + "..." : v;
         StringBuilder sb = new StringBuilder();
-        for (char c : shown.toCharArray()) {
-            if (c < 0x20 || c == 0x7f) sb.append(String.format("\\u%04x", (int) c));
-            else sb.append(c);
+        for (int i = 0; i < shown.length(); i++) {
+            char c = shown.charAt(i);
+            boolean pair = Character.isHighSurrogate(c) && i + 1 < shown.length() && Character.isLowSurrogate(shown.charAt(i + 1));
+            if (c < 0x20 || c == 0x7f || Character.isSurrogate(c) && !pair) {
+                sb.append(String.format("\\u%04x", (int) c)); // a lone surrogate cannot be written as UTF-8
+            } else {
+                sb.append(c);
+                if (pair) sb.append(shown.charAt(++i));
+            }
         }
         return sb.toString();
     }

@@ -7,6 +7,7 @@ import java.util.Locale;
  * run. Each code names the verdict it gives when its guard objects.
  */
 public enum ReasonCode {
+    UNKNOWN_TARGET(Verdict.DENY),
     EXCLUDED(Verdict.DENY),
     MASKED(Verdict.DENY),
     UNCONFIRMED(Verdict.HOLD),

@@ -2,6 +2,7 @@ package dev.tend.simulator;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
 import dev.tend.shared.WireEvent;
@@ -21,6 +22,8 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.Collection;
+import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
 
@@ -40,11 +43,21 @@ public final class Recording {
     private final Path file;
     private final RecordingHeader header;
     private final long size;
+    private final Collection<Id> signals;
 
-    private Recording(Path file, RecordingHeader header, long size) {
+    private Recording(Path file, RecordingHeader header, long size, Collection<Id> signals) {
         this.file = file;
         this.header = header;
         this.size = size;
+        this.signals = List.copyOf(signals);
+    }
+
+    /**
+     * A copy whose {@link #read} refuses transitions of a signal not in {@code declared}
+     * (tend.yaml {@code signals:}); empty accepts every signal.
+     */
+    public Recording withDeclaredSignals(Collection<Id> declared) {
+        return new Recording(file, header, size, declared);
     }
 
     /** Receives what {@link #read} finds, in file order. */
@@ -81,7 +94,7 @@ public final class Recording {
                 if (reader.parseLine(line, n) instanceof LineResult.Header h) header = h.header();
                 break;
             }
-            return new Recording(file, header, Files.size(file));
+            return new Recording(file, header, Files.size(file), List.of());
         } catch (NoSuchFileException e) {
             throw new InvalidInputException(Problem.at(file.toString(), 0, 0, "", "no such recording"));
         } catch (IOException e) {
@@ -152,7 +165,7 @@ public final class Recording {
         Objects.requireNonNull(sink, "sink");
         try (CountingStream counted = new CountingStream(Files.newInputStream(file))) {
             long[] lastReported = {0};
-            return WireReader.of(file.toString()).readAll(counted, r -> {
+            return WireReader.of(file.toString()).withSignals(signals).readAll(counted, r -> {
                 if (r instanceof LineResult.Event e) sink.event(e.event(), e.line());
                 else if (r instanceof LineResult.Bad b) sink.problem(b.problem());
                 if (counted.count - lastReported[0] >= 1 << 20) {

@@ -82,4 +82,12 @@ public interface StoreReader {
 
     /** The seq of the first input the journal still holds; 0 when it is empty (rows before it were archived). */
     long firstInputSeq();
+
+    /** Pending pages due at {@code now} or before, soonest first, at most {@code limit}. */
+    List<PageRow> pagesDue(Instant now, int limit);
+
+    /** Pages in one of {@code states} (each from {@link PageRow#STATES}), newest first, at most {@code limit}. */
+    List<PageRow> pages(Set<String> states, int limit);
+
+    Optional<PageRow> page(String id);
 }

@@ -73,4 +73,10 @@ public interface StoreTx extends StoreReader {
      * from); returns how many were deleted. The ledger is not touched.
      */
     long deleteInputs(long throughSeq, Instant before);
+
+    /** Puts a page in the outbox, unless a page with its id is there already (then nothing changes). */
+    void enqueuePage(PageRow page);
+
+    /** Replaces the outbox row of the page with the same id (after a delivery attempt). */
+    void updatePage(PageRow page);
 }

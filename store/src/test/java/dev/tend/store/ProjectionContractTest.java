@@ -198,6 +198,41 @@ abstract class ProjectionContractTest extends StoreTestBase {
     }
 
     @Test
+    void aPageEntersTheOutboxOnceComesDueInOrderAndKeepsItsAttempts() {
+        store.useTransaction(tx -> {
+            tx.enqueuePage(PageRow.pending("brake/1", "oncall", T0, "{\"id\":\"brake/1\"}"));
+            tx.enqueuePage(PageRow.pending("brake/1", "platform-mail", T0.plusSeconds(5), "{}")); // the same id again: nothing changes
+            tx.enqueuePage(PageRow.pending("r000001/needs-human", "oncall", T0.plusSeconds(1), "{}"));
+        });
+        assertThat(due(T0)).extracting(PageRow::id).containsExactly("brake/1");
+        assertThat(due(T0.plusSeconds(1))).extracting(PageRow::id)
+                .containsExactly("brake/1", "r000001/needs-human");
+        PageRow first = store.read(r -> r.page("brake/1")).orElseThrow();
+        assertThat(first.channel()).isEqualTo("oncall");
+        assertThat(first.payload()).isEqualTo("{\"id\":\"brake/1\"}");
+        store.useTransaction(tx -> tx.updatePage(first.retryAt(T0.plusSeconds(60), "HTTP 503: busy")));
+        assertThat(due(T0.plusSeconds(30))).extracting(PageRow::id).containsExactly("r000001/needs-human");
+        PageRow retried = store.read(r -> r.page("brake/1")).orElseThrow();
+        assertThat(retried.attempts()).isEqualTo(1);
+        assertThat(retried.lastAnswer()).isEqualTo("HTTP 503: busy");
+        store.useTransaction(tx -> tx.updatePage(retried.ended(PageRow.DELIVERED, T0.plusSeconds(61), "HTTP 200")));
+        assertThat(due(T0.plusSeconds(120))).extracting(PageRow::id).containsExactly("r000001/needs-human");
+        List<PageRow> undelivered = store.read(r -> r.pages(Set.of(PageRow.PENDING, PageRow.FAILED), 10));
+        assertThat(undelivered).extracting(PageRow::id)
+                .containsExactly("r000001/needs-human");
+        PageRow delivered = store.read(r -> r.page("brake/1")).orElseThrow();
+        assertThat(delivered).satisfies(p -> {
+            assertThat(p.state()).isEqualTo(PageRow.DELIVERED);
+            assertThat(p.attempts()).isEqualTo(2);
+            assertThat(p.endedAt()).isEqualTo(T0.plusSeconds(61));
+        });
+    }
+
+    private List<PageRow> due(Instant now) {
+        return store.read(r -> r.pagesDue(now, 10));
+    }
+
+    @Test
     void reopeningMigratesNothingAgainAndKeepsEverything() {
         store.useTransaction(tx -> {
             tx.appendInput(transition(T0, T0, "fares-3"));
@@ -207,10 +242,10 @@ abstract class ProjectionContractTest extends StoreTestBase {
         store = db.open();
         store.close();
         store = db.open();
-        // one row per migration script (V1 schema, V2_11 snapshots), each applied once however often the store is opened
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("2");
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history")).isEqualTo("2");
-        assertThat(db.queryText("SELECT MAX(installed_rank) FROM flyway_schema_history")).isEqualTo("2");
+        // version 1 (journal, projections, ledger), 2.16 (the page outbox) and 2.17 (snapshots), each applied once
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("3");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?)", "1", "2.16", "2.17"))
+                .isEqualTo("3");
         assertThat(lastInputSeq()).isEqualTo(1);
         LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
         assertThat(second.seq()).isEqualTo(2);

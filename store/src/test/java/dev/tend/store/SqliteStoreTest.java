@@ -74,7 +74,7 @@ class SqliteStoreTest {
         Store.openSqlite(file).close();
         SqliteTestDatabase db = new SqliteTestDatabase(file);
         db.execute("INSERT INTO flyway_schema_history (installed_rank, version, description, type, script, checksum, "
-                + "installed_by, execution_time, success) VALUES (99, '99', 'from a newer tend', 'SQL', 'V99__newer.sql', 0, 'tend', 1, 1)");
+                + "installed_by, execution_time, success) VALUES (99, '999', 'from a newer tend', 'SQL', 'V999__newer.sql', 0, 'tend', 1, 1)");
         assertThatThrownBy(() -> Store.openSqlite(file))
                 .isInstanceOf(StoreException.class)
                 .hasMessageStartingWith("cannot bring the store at " + file + " to this tend's schema: ")

@@ -45,7 +45,8 @@ public record FleetHealth(Instant at, Instant eventTime, String fleet, int clust
     /**
      * An unhealthy cluster.
      *
-     * @param health impaired (fewer impaired nodes than it tolerates) or unhealthy
+     * @param health impaired (fewer impaired nodes than it tolerates), unhealthy, or unknown-target
+     *               (the cluster is not in the topology: shown, never remediated)
      * @param zones  the zones its problems are in
      */
     public record ClusterProblem(String cluster, String health, List<String> zones, List<Signal> signals) {
@@ -55,7 +56,11 @@ public record FleetHealth(Instant at, Instant eventTime, String fleet, int clust
         }
     }
 
-    /** A signal in breach or silent; node null for a cluster-level signal. */
-    public record Signal(String node, String signal, String state, Instant since) {
+    /**
+     * A signal in breach or silent; node null for a cluster-level signal.
+     *
+     * @param unknownTarget its cluster or node is not in the topology: shown, never remediated
+     */
+    public record Signal(String node, String signal, String state, Instant since, boolean unknownTarget) {
     }
 }

@@ -1,10 +1,11 @@
 package dev.tend.api.view;
 
 import dev.tend.handover.ApprovalLine;
-import dev.tend.handover.BrakePeriod;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.handover.HandoverReport;
 import dev.tend.handover.LedgerStatus;
 import dev.tend.handover.LoopStop;
+import dev.tend.handover.PageLine;
 import dev.tend.handover.ReasonCount;
 import dev.tend.handover.RunCounts;
 import dev.tend.handover.RunLine;
@@ -23,11 +24,11 @@ public record HandoverView(Instant since, Instant until, boolean needsAttention,
                            Map<String, List<RunLine>> nodesRemediated, int approvalsRequested,
                            List<ApprovalLine> pendingApprovals, List<ApprovalLine> lapsedApprovals,
                            List<RunLine> runsNeedingPerson, List<BrakePeriod> brakePeriods, List<LoopStop> loopsStopped,
-                           List<RunLine> runs, List<ApprovalLine> approvals, LedgerStatus ledger) {
+                           List<RunLine> runs, List<ApprovalLine> approvals, LedgerStatus ledger, List<PageLine> pages) {
     /** The view of {@code r}. */
     public static HandoverView of(HandoverReport r) {
         return new HandoverView(r.period().since(), r.period().until(), r.needsAttention(), r.totals(), r.byPlaybook(),
                 r.byReason(), r.nodesRemediated(), r.approvalsRequested(), r.pendingApprovals(), r.lapsedApprovals(),
-                r.runsNeedingPerson(), r.brakePeriods(), r.loopsStopped(), r.runs(), r.approvals(), r.ledger());
+                r.runsNeedingPerson(), r.brakePeriods(), r.loopsStopped(), r.runs(), r.approvals(), r.ledger(), r.pages());
     }
 }

@@ -7,7 +7,7 @@ import java.util.List;
 import java.util.Optional;
 
 /**
- * The guards in their fixed, documented order (DESIGN.md section 4): excluded, masked,
+ * The guards in their fixed, documented order (DESIGN.md section 4): unknown-target, excluded, masked,
  * unconfirmed, flapping, fleet-brake, window-closed, cooldown, loop, cluster-busy,
  * blast-radius, quorum, replication, rate-limit, approval-required. Every guard runs, so a
  * verdict lists every reason that applies, not only the first.
@@ -21,7 +21,7 @@ public final class GuardChain {
 
     public static GuardChain standard() {
         return new GuardChain(List.of(
-                new ExcludedGuard(), new MaskedGuard(), new UnconfirmedGuard(), new FlappingGuard(),
+                new UnknownTargetGuard(), new ExcludedGuard(), new MaskedGuard(), new UnconfirmedGuard(), new FlappingGuard(),
                 new FleetBrakeGuard(), new WindowGuard(), new CooldownGuard(), new LoopGuard(),
                 new ClusterBusyGuard(), new BlastRadiusGuard(), new QuorumGuard(), new ReplicationGuard(),
                 new RateLimitGuard(), new ApprovalGuard()));

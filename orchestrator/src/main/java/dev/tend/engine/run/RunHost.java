@@ -13,6 +13,15 @@ public interface RunHost {
 
     boolean isBrakeEngaged();
 
+    /**
+     * The run's gate: empty while the run is still needed (its trigger holds, no mask or
+     * exclusion applies); else why it must stand down. {@code ignoreCleared} leaves out the
+     * trigger check, for a step written {@code if-cleared: continue}.
+     */
+    java.util.Optional<StandDown> gate(RunProcess run, boolean ignoreCleared);
+    /** The channel of tend's own pages (a run that needs a person). */
+    String pageChannel();
+
     /** True when none of {@code signals} is in breach or silent on the target. */
     boolean allClear(Target target, List<Id> signals);
 

@@ -2,6 +2,7 @@ package dev.tend.engine.run;
 
 import dev.tend.engine.Effect;
 import dev.tend.engine.Effects;
+import dev.tend.engine.PageKind;
 import dev.tend.engine.RunState;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
@@ -20,7 +21,9 @@ import java.util.Map;
 /**
  * Moves runs through their steps: action (an executor call with a timeout and retries),
  * wait-healthy (continue once the signals clear on the target, within a limit), page;
- * the on-failure steps when a step fails or times out. Pauses at step boundaries while the
+ * the on-failure steps when a step fails or times out. Before each attempt of an action step
+ * the run's gate asks the host whether the run is still needed; if not, the run stands down:
+ * its on-stand-down steps run and it ends {@link RunState#STOOD_DOWN}. Pauses at step boundaries while the
  * fleet brake is engaged. Deterministic: timers and calls are effects with stable keys.
  */
 public final class RunMachine {
@@ -53,27 +56,29 @@ public final class RunMachine {
     /** Moves to the next step, executing pages and already-satisfied waits inline. */
     public void advance(RunProcess r, Effects fx) {
         while (true) {
-            if (host.isBrakeEngaged() && !r.failing && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
+            if (host.isBrakeEngaged() && !r.failing && r.standDown == null && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
                 r.state = RunState.PAUSED;
                 fx.ledger("run-paused", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "reason", "fleet brake engaged; paused at a step boundary");
                 changed(r, fx);
                 return;
             }
-            List<Step> list = r.failing ? r.playbook.onFailure() : r.playbook.steps();
+            List<Step> list = r.steps();
             r.index++;
             r.attempt = 0;
             if (r.index >= list.size()) {
-                finish(r, r.failing ? RunState.FAILED : RunState.SUCCEEDED,
-                        r.failing ? "failed at " + r.failedStep : "all steps succeeded", fx);
+                if (r.failing) finish(r, RunState.FAILED, "failed at " + r.failedStep, fx);
+                else if (r.standDown != null) finish(r, RunState.STOOD_DOWN, "stood down (" + r.standDown.reason().code() + "): "
+                        + r.standDown.message(), fx);
+                else finish(r, RunState.SUCCEEDED, "all steps succeeded", fx);
                 return;
             }
             r.stepStartedAt = fx.now();
             Step s = list.get(r.index);
             if (s instanceof PageStep n) {
                 String msg = render(n.message(), r);
-                fx.add(new Effect.Notify(r.id + "/" + n.id(), n.channel().value(), msg,
-                        Map.of("run", r.id, "cluster", r.target.cluster().value())));
+                fx.add(new Effect.Notify(r.id + "/" + n.id(), PageKind.PLAYBOOK, n.channel().value(), msg,
+                        pageFields(r)));
                 r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
                 fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);
@@ -93,9 +98,28 @@ public final class RunMachine {
                 changed(r, fx);
                 return;
             }
-            call((ActionStep) s, r, fx, 1);
+            ActionStep a = (ActionStep) s;
+            if (standsDown(a, r, fx)) return;
+            call(a, r, fx, 1);
             return;
         }
+    }
+
+    /**
+     * The gate before an action step of the main steps (each attempt): when the run is no
+     * longer needed, it stands down, runs its on-stand-down steps, and true is returned.
+     */
+    private boolean standsDown(ActionStep a, RunProcess r, Effects fx) {
+        if (r.failing || r.standDown != null) return false;
+        java.util.Optional<StandDown> why = host.gate(r, a.continueIfCleared());
+        if (why.isEmpty()) return false;
+        r.standDown = why.get();
+        fx.ledger("run-standing-down", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "node", r.target.node(), "before_step", a.id(), "reason", why.get().reason().code(), "message", why.get().message(),
+                "steps", r.playbook.onStandDown().stream().map(st -> st.id().value()).toList());
+        r.index = -1;
+        advance(r, fx);
+        return true;
     }
 
     private void call(ActionStep a, RunProcess r, Effects fx, int attempt) {
@@ -169,9 +193,19 @@ public final class RunMachine {
         fx.ledger("run-needs-human", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt,
                 "reason", "the call was in flight when tend stopped and its action cannot be asked again by key");
-        fx.add(new Effect.Notify(r.id + "/needs-human", "oncall", "run " + r.id + " on " + r.target
-                + " needs a person: the outcome of step " + stepId + " is unknown", Map.of("run", r.id)));
+        fx.add(new Effect.Notify(r.id + "/needs-human", PageKind.NEEDS_HUMAN, host.pageChannel(), "run " + r.id + " on " + r.target
+                + " needs a person: the outcome of step " + stepId + " is unknown", pageFields(r)));
         changed(r, fx);
+    }
+
+    /** What a page about run {@code r} carries besides its message. */
+    static Map<String, Object> pageFields(RunProcess r) {
+        Map<String, Object> f = new java.util.LinkedHashMap<>();
+        f.put("run", r.id);
+        f.put("playbook", r.playbook.id().value());
+        f.put("cluster", r.target.cluster().value());
+        if (r.target.node() != null) f.put("node", r.target.node().value());
+        return f;
     }
 
     /** Releases a run paused by the brake. */
@@ -198,6 +232,7 @@ public final class RunMachine {
     private void retryOrFail(ActionStep a, RunProcess r, String why, Effects fx) {
         if (r.attempt <= a.retries()) {
             r.recordStep("failed", why, fx.now());
+            if (standsDown(a, r, fx)) return;
             call(a, r, fx, r.attempt + 1);
             return;
         }
@@ -222,7 +257,8 @@ public final class RunMachine {
         r.endedAt = fx.now();
         r.outcome = outcome;
         fx.ledger("run-ended", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                "node", r.target.node(), "state", end.wireName(), "outcome", outcome);
+                "node", r.target.node(), "state", end.wireName(), "outcome", outcome,
+                "stand_down", end == RunState.STOOD_DOWN ? r.standDown.reason().code() : null);
         changed(r, fx);
         host.runEnded(r, fx);
     }

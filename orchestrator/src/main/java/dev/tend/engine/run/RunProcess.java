@@ -7,6 +7,7 @@ import dev.tend.playbooks.ActionStep;
 import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Step;
+import dev.tend.shared.SignalKey;
 import dev.tend.shared.Target;
 
 import java.time.Instant;
@@ -22,6 +23,8 @@ public final class RunProcess {
     final String id;
     final Playbook playbook;
     final Target target;
+    /** The signal whose problem the run remedies: the gate checks it still holds. */
+    final SignalKey trigger;
     final boolean shadow;
     final Instant createdAt;
     final String requestedBy;
@@ -29,18 +32,22 @@ public final class RunProcess {
     Instant startedAt;
     Instant endedAt;
     String outcome;
-    /** Index into the main steps, or into on-failure steps once {@link #failing}. */
+    /** Index into the main steps, into on-stand-down steps once {@link #standDown} is set, or into on-failure steps once {@link #failing}. */
     int index = -1;
     boolean failing;
+    /** Why the gate stood the run down, or null while it has not. */
+    StandDown standDown;
     String failedStep;
     int attempt;
     Instant stepStartedAt;
     final List<StepSnapshot> record = new ArrayList<>();
 
-    public RunProcess(String id, Playbook playbook, Target target, boolean shadow, Instant createdAt, String requestedBy, RunState state) {
+    public RunProcess(String id, Playbook playbook, Target target, SignalKey trigger, boolean shadow, Instant createdAt,
+                      String requestedBy, RunState state) {
         this.id = id;
         this.playbook = playbook;
         this.target = target;
+        this.trigger = trigger;
         this.shadow = shadow;
         this.createdAt = createdAt;
         this.requestedBy = requestedBy;
@@ -59,6 +66,15 @@ public final class RunProcess {
         return target;
     }
 
+    public SignalKey trigger() {
+        return trigger;
+    }
+
+    /** Why the gate stood the run down, or null while it has not. */
+    public StandDown standDown() {
+        return standDown;
+    }
+
     public RunState state() {
         return state;
     }
@@ -73,8 +89,13 @@ public final class RunProcess {
 
     /** The step being executed, or null between steps. */
     public Step currentStep() {
-        List<Step> list = failing ? playbook.onFailure() : playbook.steps();
+        List<Step> list = steps();
         return index >= 0 && index < list.size() ? list.get(index) : null;
+    }
+
+    /** The list of steps being worked through: on-failure, on-stand-down, or the main steps. */
+    List<Step> steps() {
+        return failing ? playbook.onFailure() : standDown != null ? playbook.onStandDown() : playbook.steps();
     }
 
     public int attempt() {
@@ -108,18 +129,19 @@ public final class RunProcess {
 
     /** This run as plain values, for an engine snapshot. */
     public RunMemo memo() {
-        return new RunMemo(id, playbook.id().value(), playbook.version(), target, shadow, createdAt, requestedBy, state,
-                startedAt, endedAt, outcome, index, failing, failedStep, attempt, stepStartedAt, record);
+        return new RunMemo(id, playbook.id().value(), playbook.version(), target, trigger, shadow, createdAt, requestedBy, state,
+                startedAt, endedAt, outcome, index, failing, standDown, failedStep, attempt, stepStartedAt, record);
     }
 
     /** The run of {@code m}, on {@code playbook} (the one {@code m} names, at its version). */
     public static RunProcess fromMemo(RunMemo m, Playbook playbook) {
-        RunProcess r = new RunProcess(m.id(), playbook, m.target(), m.shadow(), m.createdAt(), m.requestedBy(), m.state());
+        RunProcess r = new RunProcess(m.id(), playbook, m.target(), m.trigger(), m.shadow(), m.createdAt(), m.requestedBy(), m.state());
         r.startedAt = m.startedAt();
         r.endedAt = m.endedAt();
         r.outcome = m.outcome();
         r.index = m.index();
         r.failing = m.failing();
+        r.standDown = m.standDown();
         r.failedStep = m.failedStep();
         r.attempt = m.attempt();
         r.stepStartedAt = m.stepStartedAt();

@@ -29,6 +29,9 @@ import java.util.TreeSet;
  *   <li>{@code unsafe-limits} (fleet only): impaired-fraction lets more nodes of a cluster be
  *       impaired than its quorum or replication bears; one finding per playbook.</li>
  *   <li>{@code unmatched} (fleet only, warning): the cluster selector matches no cluster.</li>
+ *   <li>{@code undeclared-signal}: a trigger or mask signal outside tend.yaml's {@code signals:};
+ *       {@code signal-typo} (warning, without {@code signals:}): a trigger signal named nowhere
+ *       else and one edit from one that is ({@link SignalCheck}).</li>
  * </ul>
  * Findings are sorted by file, line, column, code, playbook and message. Stateless.
  */
@@ -38,6 +41,8 @@ public final class Lint {
     public static final String NO_EXECUTOR = "no-executor";
     public static final String UNSAFE_LIMITS = "unsafe-limits";
     public static final String UNMATCHED = "unmatched";
+    public static final String UNDECLARED_SIGNAL = "undeclared-signal";
+    public static final String SIGNAL_TYPO = "signal-typo";
 
     private Lint() {
     }
@@ -47,6 +52,7 @@ public final class Lint {
         Objects.requireNonNull(set, "set");
         Objects.requireNonNull(executorKinds, "executorKinds");
         List<Finding> out = new ArrayList<>(OverlapCheck.check(set.playbooks(), fleetOrNull));
+        SignalCheck.check(set, out);
         for (Playbook p : set.playbooks()) {
             steps(set, p, executorKinds, out);
             if (fleetOrNull != null) FleetCheck.check(set, p, fleetOrNull, out);
@@ -64,7 +70,8 @@ public final class Lint {
         for (Step s : p.allSteps()) {
             if (!(s instanceof ActionStep step)) continue;
             ActionDef def = set.actions().get(step.action()).orElseThrow();
-            Position at = p.position((p.steps().contains(s) ? "steps." : "on-failure.") + s.id());
+            Position at = p.position((p.steps().contains(s) ? "steps." : p.onStandDown().contains(s) ? "on-stand-down." : "on-failure.")
+                    + s.id());
             if (step.timeout() == null && def.timeout() == null) {
                 out.add(finding(Severity.ERROR, NO_TIMEOUT, p, at, "step '" + s.id() + "' has no timeout and its action '"
                         + def.id() + "' defines none, so a hung " + def.kind() + " action would hold the run forever;"

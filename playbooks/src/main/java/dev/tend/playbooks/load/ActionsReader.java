@@ -3,6 +3,7 @@ package dev.tend.playbooks.load;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.CommandAction;
 import dev.tend.playbooks.HttpAction;
+import dev.tend.playbooks.HttpClientSettings;
 import dev.tend.playbooks.SimulatedAction;
 import dev.tend.playbooks.Template;
 import dev.tend.shared.Id;
@@ -17,13 +18,11 @@ import java.net.URISyntaxException;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.HashMap;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
-import java.util.regex.Pattern;
 
 /** Reads {@code actions.yaml}. Records every problem; keeps the ids of broken actions as declared. */
 final class ActionsReader {
@@ -32,11 +31,10 @@ final class ActionsReader {
     private static final List<String> COMMAND_KEYS = List.of("command", "timeout", "idempotent", "output-limit", "description");
     private static final List<String> HTTP_ACTION_KEYS = List.of("http", "description");
     private static final List<String> SIMULATED_ACTION_KEYS = List.of("simulated", "description");
-    private static final List<String> HTTP_KEYS = List.of("url", "method", "body", "timeout", "retries");
+    private static final List<String> HTTP_KEYS = List.of("url", "method", "body", "timeout", "retries", "headers",
+            "bearer-token-file", "ca-bundle", "client-cert", "client-key");
     private static final List<String> SIMULATED_KEYS = List.of("duration", "success", "clears");
     private static final List<String> RANGE_KEYS = List.of("min", "max");
-    private static final Pattern INTEGER = Pattern.compile("-?\\d{1,18}");
-    private static final Pattern DECIMAL = Pattern.compile("-?\\d+\\.\\d+([eE][-+]?\\d+)?");
 
     private final Fields f;
 
@@ -148,14 +146,13 @@ final class ActionsReader {
             if (!HttpAction.METHODS.contains(up)) throw new IllegalArgumentException("must be one of DELETE, GET, PATCH, POST, PUT, got '" + v + "'");
             return up;
         });
-        Map<String, Object> body = h.get("body").map(n -> {
-            YMap b = f.asMap(n, label + ".body");
-            return b == null ? null : jsonMap(b, label + ".body");
-        }).orElse(Map.of());
+        Map<String, Object> body = h.get("body").map(n -> JsonBodyReader.read(f, n, label + ".body", Template.ACTION_PLACEHOLDERS))
+                .orElse(Map.of());
+        HttpClientSettings client = HttpClientReader.read(f, h, label);
         Duration timeout = Read.positiveDuration(f, h, "timeout", label, label + ".timeout", false);
         Integer retries = Read.integer(f, h, "retries", label, label + ".retries", false, 0, 10);
         if (f.problems().size() > before) return null;
-        return new HttpAction(id, url, method, body, timeout, retries == null ? 0 : retries);
+        return new HttpAction(id, url, method, body, timeout, retries == null ? 0 : retries, client);
     }
 
     private void checkUrl(YNode at, String label, Template url) {
@@ -169,40 +166,6 @@ final class ActionsReader {
         } catch (URISyntaxException e) {
             f.add(at, "url", label + " is not a URL: " + e.getMessage());
         }
-    }
-
-    private Map<String, Object> jsonMap(YMap m, String label) {
-        Map<String, Object> out = new LinkedHashMap<>();
-        for (YMap.Entry e : m.entries()) out.put(e.key().value(), json(e.value(), label + "." + e.key().value()));
-        return out;
-    }
-
-    private Object json(YNode n, String label) {
-        if (n instanceof YScalar s) {
-            if (s.quoted()) return checked(s, label);
-            if (s.plainNull()) return null;
-            String v = s.value();
-            if (v.equals("true") || v.equals("false")) return Boolean.valueOf(v);
-            if (INTEGER.matcher(v).matches()) return Long.valueOf(v);
-            if (DECIMAL.matcher(v).matches()) return Double.valueOf(v);
-            return checked(s, label);
-        }
-        if (n instanceof YList l) {
-            List<Object> out = new ArrayList<>();
-            for (int i = 0; i < l.items().size(); i++) out.add(json(l.items().get(i), label + "[" + i + "]"));
-            return out;
-        }
-        YMap m = (YMap) n;
-        if (m.entries().size() == 1 && m.entries().get(0).value() instanceof YScalar v && v.plainNull()) {
-            Read.template(f, m, label, Template.ACTION_PLACEHOLDERS); // reports the unquoted placeholder
-            return null;
-        }
-        return jsonMap(m, label);
-    }
-
-    private String checked(YScalar s, String label) {
-        Template t = Read.template(f, s, label, Template.ACTION_PLACEHOLDERS);
-        return t == null ? null : t.text();
     }
 
     private ActionDef simulated(Id id, YMap m, String where, int before) {

@@ -1,6 +1,8 @@
 package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.BrakePolicy;
+import dev.tend.playbooks.ChannelDef;
+import dev.tend.playbooks.Paging;
 import dev.tend.playbooks.BrakeThreshold;
 import dev.tend.playbooks.EffectiveLimits;
 import dev.tend.playbooks.Freeze;
@@ -21,11 +23,15 @@ import java.time.OffsetDateTime;
 import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.HashMap;
+import java.util.LinkedHashSet;
 import java.util.List;
+import java.util.Map;
+import java.util.Set;
 
 /** Reads {@code tend.yaml}, the fleet-wide policy. */
 final class ConfigReader {
-    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate");
+    private static final List<String> TOP = List.of("defaults", "brake", "freezes", "rate", "channels", "pages", "max-skew",
+            "signals");
     private static final List<String> BRAKE = List.of("engage-at", "release-below", "auto-release", "page", "release-after");
     private static final RenamedKeys RENAMED_BRAKE = RenamedKeys.of("notify", "page");
     private static final List<String> THRESHOLD = List.of("clusters", "fraction");
@@ -51,9 +57,43 @@ final class ConfigReader {
         BrakePolicy brake = m.get("brake").map(this::brake).orElse(BrakePolicy.builtIn());
         List<Freeze> freezes = m.get("freezes").map(this::freezes).orElse(List.of());
         RateLimit rate = Read.value(f, m, "rate", "tend.yaml", "rate", false, RateLimit::parse);
+        java.time.Duration maxSkew = Read.duration(f, m, "max-skew", "tend.yaml", "max-skew", false);
+        Set<Id> signals = m.get("signals").map(this::signals).orElse(Set.of());
+        Map<Id, ChannelDef> channels = m.get("channels").map(n -> ChannelsReader.channels(f, n)).orElse(Map.of());
+        if (brake != null && m.get("brake").orElse(null) instanceof YMap b) {
+            b.get("page").ifPresent(n -> ChannelsReader.checkNamed(f, n, "brake.page", brake.pageChannel(), channels));
+            if (!b.has("page") && m.get("channels").isPresent()) {
+                ChannelsReader.checkNamed(f, b, "brake.page", brake.pageChannel(), channels);
+            }
+        }
+        Paging paging = ChannelsReader.pages(f, m.get("pages").orElse(null), channels);
+        if (paging == null && m.get("pages").isEmpty() && m.get("channels").isPresent()) {
+            f.add(m.get("channels").get(), "channels", "tend's own pages (flapping, loops, runs that need a person, approvals)"
+                    + " go to '" + Paging.DEFAULT_CHANNEL + "', which is not defined here; define it, or name another with pages.channel");
+        }
         if (f.hasProblems()) return null;
         EffectiveLimits merged = EffectiveLimits.builtIn().withOverrides(defaults);
-        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate, f.source(), contentHash);
+        return new TendConfig(merged, brake, freezes, rate == null ? TendConfig.BUILT_IN_FLEET_RATE : rate,
+                maxSkew == null ? TendConfig.DEFAULT_MAX_SKEW : maxSkew, signals, f.source(), contentHash, paging);
+    }
+
+    /** {@code signals: [heartbeat, ...]}: the declared vocabulary; at least one, each an id, none twice. */
+    private Set<Id> signals(YNode node) {
+        Set<Id> out = new LinkedHashSet<>();
+        YList list = f.asList(node, "signals");
+        if (list == null) return out;
+        if (list.items().isEmpty()) {
+            f.add(node, "signals", "signals is empty; list the signals this fleet sends (like [heartbeat, storage-full]),"
+                    + " or leave the key out to accept any signal");
+            return out;
+        }
+        int n = 0;
+        for (YNode item : list.items()) {
+            n++;
+            Id id = f.parsedNode(item, "signals[" + n + "]", Id::of);
+            if (id != null && !out.add(id)) f.add(item, "signals", "signal '" + id + "' is listed twice in signals");
+        }
+        return out;
     }
 
     private BrakePolicy brake(YNode node) {

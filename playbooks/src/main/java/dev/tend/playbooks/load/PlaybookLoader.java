@@ -1,7 +1,10 @@
 package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.Actions;
+import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
+import dev.tend.playbooks.Position;
+import dev.tend.playbooks.Step;
 import dev.tend.playbooks.PlaybookInvalidException;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.TendConfig;
@@ -96,8 +99,30 @@ public final class PlaybookLoader {
             problems.put(dir.toString(), List.of(Problem.at(dir.toString(), 0, 0, "",
                     "holds no playbook: no .yaml or .yml file other than actions.yaml, tend.yaml and fleet.yaml")));
         }
+        for (Playbook p : playbooks) checkChannels(p, config, problems);
         throwIfAny(problems);
         return PlaybookSet.of(playbooks, catalog.actions(), config);
+    }
+
+    /** A step that pages a channel tend.yaml does not define is an error, with the nearest defined name. */
+    private static void checkChannels(Playbook p, TendConfig config, Map<String, List<Problem>> problems) {
+        for (Step s : p.allSteps()) {
+            if (!(s instanceof PageStep n)) continue;
+            String problem = ChannelsReader.unknownChannel(n.channel(), config.paging().channels());
+            if (problem == null) continue;
+            String section = p.steps().contains(s) ? "steps." : "on-failure.";
+            Position at = p.position(section + s.id());
+            problems.computeIfAbsent(p.source(), k -> new ArrayList<>())
+                    .add(Problem.at(p.source(), at.line(), at.column(), s.kind(), "step " + s.id() + ": " + problem));
+        }
+    }
+
+    /**
+     * Null when a page may go to channel {@code name} under {@code config}; otherwise the
+     * sentence that says it is not defined, with the nearest defined name.
+     */
+    public static String unknownChannel(TendConfig config, Id name) {
+        return ChannelsReader.unknownChannel(name, config.paging().channels());
     }
 
     /** Parses one playbook; action steps are checked against {@code actions}. For tests and tools. */

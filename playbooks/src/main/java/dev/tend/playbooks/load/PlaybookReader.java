@@ -35,7 +35,7 @@ import java.util.Set;
 /** Reads one playbook document into a {@link Playbook}, recording every problem in {@link Fields}. */
 final class PlaybookReader {
     private static final List<String> TOP = List.of("playbook", "version", "description", "mode", "trigger", "unless",
-            "limits", "window", "approval", "steps", "on-failure");
+            "limits", "window", "approval", "steps", "on-failure", "on-stand-down");
     private static final List<String> TRIGGER = List.of("signal", "state", "scope", "confirm-for", "clusters");
     private static final List<String> UNLESS = List.of("signal", "on");
     private static final List<String> WINDOW = List.of("days", "from", "until", "zone");
@@ -89,10 +89,12 @@ final class PlaybookReader {
             f.add(l, "steps", "steps is empty; a playbook needs at least one step");
         }
         List<Step> onFailure = m.get("on-failure").map(n -> steps.read(n, "on-failure")).orElse(List.of());
+        List<Step> onStandDown = m.get("on-stand-down").map(n -> steps.read(n, "on-stand-down")).orElse(List.of());
         if (f.hasProblems()) return null;
         try {
             return new Playbook(id, version == null ? 1 : version, description, mode == null ? Mode.LIVE : mode, trigger, unless,
-                    limits, window, approval, main, onFailure, f.source(), contentHash, at.line(), at.column(), positions);
+                    limits, window, approval, main, onFailure, f.source(), contentHash, at.line(), at.column(), positions,
+                    onStandDown);
         } catch (IllegalArgumentException e) {
             f.add(m, "", e.getMessage());
             return null;

@@ -2,6 +2,7 @@ package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.Position;
 import dev.tend.playbooks.TagSelector;
+import dev.tend.shared.NearestName;
 import dev.tend.playbooks.Template;
 import dev.tend.shared.time.Durations;
 import dev.tend.shared.yaml.Fields;
@@ -47,36 +48,11 @@ final class Read {
         }
     }
 
-    private static String nearest(String key, Collection<String> allowed) {
+    /** The allowed value nearest to {@code key} (edit distance under 3), or null. */
+    static String nearest(String key, Collection<String> allowed) {
         String normal = key.toLowerCase(Locale.ROOT).replace('_', '-').replace(' ', '-');
-        String best = null;
-        int bestDistance = 3;
-        for (String a : new TreeSet<>(allowed)) {
-            int d = a.equals(normal) ? 0 : distance(normal, a);
-            if (d < bestDistance) {
-                best = a;
-                bestDistance = d;
-            }
-        }
-        return best;
-    }
-
-    /** Levenshtein edit distance. */
-    private static int distance(String a, String b) {
-        int[] prev = new int[b.length() + 1];
-        int[] cur = new int[b.length() + 1];
-        for (int j = 0; j <= b.length(); j++) prev[j] = j;
-        for (int i = 1; i <= a.length(); i++) {
-            cur[0] = i;
-            for (int j = 1; j <= b.length(); j++) {
-                int cost = a.charAt(i - 1) == b.charAt(j - 1) ? 0 : 1;
-                cur[j] = Math.min(Math.min(cur[j - 1] + 1, prev[j] + 1), prev[j - 1] + cost);
-            }
-            int[] t = prev;
-            prev = cur;
-            cur = t;
-        }
-        return prev[b.length()];
+        if (allowed.contains(normal)) return normal;
+        return NearestName.among(normal, allowed, 2).orElse(null);
     }
 
     /** Parses {@code map.key} with {@code parser}, naming it {@code label} in problems. */

@@ -25,10 +25,10 @@ import java.util.Map;
 /** Reads {@code steps:} and {@code on-failure:}. One instance per playbook, so step ids are checked across both. */
 final class StepReader {
     private static final List<String> KINDS = List.of("action", "wait-healthy", "page");
-    private static final List<String> ACTION_KEYS = List.of("id", "action", "timeout", "retries");
+    private static final List<String> ACTION_KEYS = List.of("id", "action", "timeout", "retries", "if-cleared");
     private static final List<String> WAIT_KEYS = List.of("id", "wait-healthy", "within");
     private static final List<String> PAGE_KEYS = List.of("id", "page", "message");
-    private static final List<String> ALL_KEYS = List.of("id", "action", "timeout", "retries", "wait-healthy", "within", "page", "message");
+    private static final List<String> ALL_KEYS = List.of("id", "action", "timeout", "retries", "if-cleared", "wait-healthy", "within", "page", "message");
     private static final RenamedKeys RENAMED = RenamedKeys.of("notify", "page");
 
     private final Fields f;
@@ -45,7 +45,10 @@ final class StepReader {
         this.positions = positions;
     }
 
-    /** {@code section} is {@code steps} or {@code on-failure}; in on-failure a step without id gets {@code on-failure-N}. */
+    /**
+     * {@code section} is {@code steps}, {@code on-failure} or {@code on-stand-down}; in on-failure a step
+     * without id gets {@code on-failure-N}.
+     */
     List<Step> read(YNode node, String section) {
         List<Step> out = new ArrayList<>();
         YList list = f.asList(node, section);
@@ -113,6 +116,7 @@ final class StepReader {
         Id action = Read.value(f, m, "action", label, label + ".action", true, Id::of);
         Duration timeout = Read.positiveDuration(f, m, "timeout", label, label + ".timeout", false);
         Integer retries = Read.integer(f, m, "retries", label, label + ".retries", false, 0, ActionStep.MAX_RETRIES);
+        Boolean continueIfCleared = Read.value(f, m, "if-cleared", label, label + ".if-cleared", false, StepReader::ifCleared);
         if (action != null) {
             YNode at = m.get("action").orElse(m);
             if (!actions.isDeclared(action)) {
@@ -127,7 +131,17 @@ final class StepReader {
             }
         }
         if (id == null || action == null) return null;
-        return new ActionStep(id, action, timeout, retries == null ? 0 : retries);
+        return new ActionStep(id, action, timeout, retries == null ? 0 : retries, Boolean.TRUE.equals(continueIfCleared));
+    }
+
+    /** {@code if-cleared: continue | stand-down}: whether the step runs once the run's trigger has cleared. */
+    private static Boolean ifCleared(String v) {
+        return switch (v.strip()) {
+            case "continue" -> true;
+            case "stand-down" -> false;
+            default -> throw new IllegalArgumentException("if-cleared must be continue (run this step even when the problem"
+                    + " went away) or stand-down (the default), got '" + v + "'");
+        };
     }
 
     private Step waitStep(YMap m, Id id, String label) {

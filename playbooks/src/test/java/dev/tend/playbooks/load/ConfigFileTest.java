@@ -232,8 +232,8 @@ class ConfigFileTest {
                 "tend.yaml:2:16: defaults.per-cluster: must be between 1 and 1000, got 0",
                 "tend.yaml:3:13: defaults.cooldown: a duration looks like 30s, 5m, 6h or 1d, got '1 hour'",
                 "tend.yaml:4:22: defaults.impaired-fraction: must be more than 0 and at most 1, got 1.5",
-                "tend.yaml:5:1: unknown key 'brakes' in tend.yaml (did you mean 'brake'?); the keys allowed here are: brake,"
-                        + " defaults, freezes, rate");
+                "tend.yaml:5:1: unknown key 'brakes' in tend.yaml (did you mean 'brake'?); the keys allowed here are: brake, channels,"
+                        + " defaults, freezes, max-skew, pages, rate, signals");
     }
 
     @Test
@@ -244,5 +244,24 @@ class ConfigFileTest {
         dir.write("p.yaml", "playbook: p\n");
         assertThat(TestDir.problems(() -> PlaybookLoader.load(tmp))).extracting(Problem::source)
                 .containsExactly(dir.source("tend.yaml"), dir.source("p.yaml"), dir.source("p.yaml"));
+    }
+
+    @Test
+    void maxSkewIsFiveMinutesUnlessTendYamlSaysOtherwise() {
+        assertThat(PlaybookLoader.parseConfig("tend.yaml", "rate: 10/1h\n").maxSkew()).isEqualTo(java.time.Duration.ofMinutes(5));
+        assertThat(PlaybookLoader.parseConfig("tend.yaml", "max-skew: 90s\n").maxSkew()).isEqualTo(java.time.Duration.ofSeconds(90));
+        assertThat(problems("max-skew: soon\n")).singleElement().asString().startsWith("tend.yaml:1:11: max-skew: ");
+    }
+
+    @Test
+    void declaredSignalsAreIdsListedOnceAndNotEmpty() {
+        TendConfig c = PlaybookLoader.parseConfig("tend.yaml", "signals: [heartbeat, storage-full]\n");
+        assertThat(c.declaresSignals()).isTrue();
+        assertThat(c.signals()).extracting(dev.tend.shared.Id::value).containsExactly("heartbeat", "storage-full");
+        assertThat(PlaybookLoader.parseConfig("tend.yaml", "rate: 10/1h\n").declaresSignals()).isFalse();
+        assertThat(problems("signals: []\n")).singleElement().asString().contains("signals is empty");
+        assertThat(problems("signals: [heartbeat, heartbeat]\n")).singleElement().asString()
+                .contains("signal 'heartbeat' is listed twice in signals");
+        assertThat(problems("signals: [\"heart beat\"]\n")).singleElement().asString().startsWith("tend.yaml:1:11: signals[1]: ");
     }
 }

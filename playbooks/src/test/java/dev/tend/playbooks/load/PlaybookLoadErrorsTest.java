@@ -65,7 +65,7 @@ class PlaybookLoadErrorsTest {
                   - { id: drain, action: drain-node, timeout: 10m }
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 3, 1, "unknown key 'owner' in a playbook; the keys allowed here are:"
-                + " approval, description, limits, mode, on-failure, playbook, steps, trigger, unless, version, window");
+                + " approval, description, limits, mode, on-failure, on-stand-down, playbook, steps, trigger, unless, version, window");
     }
 
     @Test

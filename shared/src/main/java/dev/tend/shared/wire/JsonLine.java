@@ -212,6 +212,7 @@ final class JsonLine {
         if (nl >= 0) m = m.substring(0, nl);
         int at = m.indexOf(" at [Source");
         if (at >= 0) m = m.substring(0, at);
+        m = m.replaceAll(", from `[^`]*`", "").replaceAll("`[^`]*`", "a limit of the reader");
         return m.strip();
     }
 

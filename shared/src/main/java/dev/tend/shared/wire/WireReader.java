@@ -1,16 +1,31 @@
 package dev.tend.shared.wire;
 
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.NearestName;
 import dev.tend.shared.Problem;
+import dev.tend.shared.WireEvent;
+import dev.tend.shared.time.Durations;
 
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.Reader;
+import java.time.Duration;
+import java.time.Instant;
 import java.util.ArrayList;
+import java.util.Collection;
+import java.util.Collections;
+import java.util.EnumMap;
 import java.util.List;
+import java.util.Map;
 import java.util.Objects;
+import java.util.Set;
+import java.util.TreeSet;
+import java.util.concurrent.atomic.AtomicLongArray;
 import java.util.function.Consumer;
+import java.util.function.Supplier;
 
 /**
  * Reads wire format v1 (DESIGN.md section 3): JSON Lines of health transitions and
@@ -41,6 +56,14 @@ import java.util.function.Consumer;
  * A line is checked field by field in written order (at, cluster, node, signal, state,
  * detail); the first problem rejects it.
  *
+ * <p>Times are bounded (DESIGN.md section 3), so that one mistyped year cannot move event
+ * time anywhere: a time before 1970 or after 2200 is refused; after a recording header with
+ * {@code from} or {@code until}, an event outside that period is refused; a reader for a live
+ * input ({@link #withLiveClock}) refuses an event more than {@code max-skew} ahead of its clock. Each
+ * refusal is a {@link LineResult.Bad} naming field {@code at}, and is counted by
+ * {@link TimeRefusal} ({@link #timeRefusals()}). Only what tend wrote itself (its journal)
+ * is read without these bounds ({@link #trusted}).
+ *
  * <p>The reader does not order events: late and out-of-order lines are handed on in line
  * order, and ordering by event time is the fleet view's job.
  *
@@ -56,17 +79,71 @@ public final class WireReader {
 
     private static final char BYTE_ORDER_MARK = '\uFEFF';
 
+    /** The first instant accepted at the wire. */
+    public static final Instant EARLIEST = Instant.parse("1970-01-01T00:00:00Z");
+    /** The first instant refused at the wire: every time of the year 2200 is still accepted. */
+    public static final Instant BEYOND = Instant.parse("2201-01-01T00:00:00Z");
+
     private final String source;
+    private final boolean bounded;
+    private final Supplier<Instant> clock;
+    private final Duration maxSkew;
+    private final Set<String> signals;
+    private final AtomicLongArray refusals = new AtomicLongArray(TimeRefusal.values().length);
     private volatile long headerLine;
     private volatile long firstEventLine;
+    private volatile RecordingHeader header;
 
-    private WireReader(String source) {
+    private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals) {
         this.source = Objects.requireNonNull(source, "source");
+        this.bounded = bounded;
+        this.clock = clock;
+        this.maxSkew = maxSkew;
+        this.signals = signals;
     }
 
     /** A reader for one input; {@code source} (a file name, or "-" for standard input) names it in problems. */
     public static WireReader of(String source) {
-        return new WireReader(source);
+        return new WireReader(source, true, null, null, Set.of());
+    }
+
+    /**
+     * A reader of lines tend accepted and stored itself (its journal): no time bounds and no
+     * vocabulary, since refusing what was once accepted would lose it.
+     */
+    public static WireReader trusted(String source) {
+        return new WireReader(source, false, null, null, Set.of());
+    }
+
+    /**
+     * A copy for a live input (ingest, HTTP, standard input): it also refuses an event whose
+     * time is more than {@code maxSkew} ahead of {@code clock} at the moment its line is read.
+     * Call before reading the first line.
+     */
+    public WireReader withLiveClock(Supplier<Instant> newClock, Duration newMaxSkew) {
+        Objects.requireNonNull(newClock, "clock");
+        if (newMaxSkew == null || newMaxSkew.isNegative()) {
+            throw new IllegalArgumentException("maxSkew must be zero or longer, got " + newMaxSkew);
+        }
+        return new WireReader(source, bounded, newClock, newMaxSkew, signals);
+    }
+
+    /**
+     * A copy that refuses a transition whose signal is not one of {@code declared}
+     * (tend.yaml {@code signals:}), suggesting the nearest declared one; an empty collection
+     * accepts every signal. Call before reading the first line.
+     */
+    public WireReader withSignals(Collection<Id> declared) {
+        Set<String> names = new TreeSet<>();
+        for (Id id : declared) names.add(id.value());
+        return new WireReader(source, bounded, clock, maxSkew, Collections.unmodifiableSet(names));
+    }
+
+    /** Lines refused for their time so far, by reason; every reason present (0 when none). */
+    public Map<TimeRefusal, Long> timeRefusals() {
+        Map<TimeRefusal, Long> out = new EnumMap<>(TimeRefusal.class);
+        for (TimeRefusal r : TimeRefusal.values()) out.put(r, refusals.get(r.ordinal()));
+        return out;
     }
 
     public String source() {
@@ -93,9 +170,9 @@ public final class WireReader {
             }
             LineResult result;
             if (topology >= 0) {
-                result = new LineResult.Event(LineDecoder.topology(fields), lineNumber);
+                result = new LineResult.Event(checked(fields, LineDecoder.topology(fields)), lineNumber);
             } else if (transition || fields.has("state")) {
-                result = new LineResult.Event(LineDecoder.transition(fields), lineNumber);
+                result = new LineResult.Event(checked(fields, LineDecoder.transition(fields)), lineNumber);
             } else {
                 throw new LineRejected(0, "", "this line is neither a health transition (it needs 'signal' and 'state')"
                         + " nor a topology event (it needs 'topology') nor a recording header (it needs 'recording')");
@@ -190,9 +267,60 @@ public final class WireReader {
         if (headerLine != 0) {
             throw new LineRejected(column, "recording", "a recording has one header; the first is at line " + headerLine);
         }
-        RecordingHeader header = LineDecoder.header(fields);
+        RecordingHeader h = LineDecoder.header(fields);
+        if (bounded) {
+            if (h.from() != null) refuseOutsideWire(fields, "from", h.from());
+            if (h.until() != null) refuseOutsideWire(fields, "until", h.until());
+        }
         headerLine = lineNumber;
-        return new LineResult.Header(header, lineNumber);
+        header = h;
+        return new LineResult.Header(h, lineNumber);
+    }
+
+    private WireEvent checked(JsonLine fields, WireEvent e) throws LineRejected {
+        if (!signals.isEmpty() && e instanceof HealthTransition t && !signals.contains(t.signal().value())) {
+            String name = t.signal().value();
+            int i = fields.indexOf("signal");
+            throw new LineRejected(fields.column(i), "signal", "field 'signal': '" + name + "' is not one of the signals"
+                    + " tend.yaml declares" + NearestName.among(name, signals, 2).map(n -> " (did you mean '" + n + "'?)").orElse("")
+                    + "; declared: " + String.join(", ", signals));
+        }
+        if (!bounded) return e;
+        Instant at = e.at();
+        refuseOutsideWire(fields, "at", at);
+        RecordingHeader h = header;
+        if (h != null && (h.from() != null && at.isBefore(h.from()) || h.until() != null && at.isAfter(h.until()))) {
+            throw refuse(fields, "at", TimeRefusal.OUTSIDE_RECORDING, Rfc3339.format(at) + " is outside the recorded period of its header ("
+                    + (h.from() == null ? "open" : Rfc3339.format(h.from())) + " to "
+                    + (h.until() == null ? "open" : Rfc3339.format(h.until())) + ", line " + headerLine + ")");
+        }
+        if (clock != null) {
+            Instant now = clock.get();
+            if (at.isAfter(now.plus(maxSkew))) {
+                throw refuse(fields, "at", TimeRefusal.AHEAD_OF_CLOCK, Rfc3339.format(at) + " is "
+                        + Durations.format(Duration.between(now, at).withNanos(0)) + " ahead of this clock ("
+                        + Rfc3339.format(now.with(java.time.temporal.ChronoField.NANO_OF_SECOND, 0)) + "); a live input refuses times more than "
+                        + Durations.format(maxSkew) + " ahead (tend.yaml max-skew): is the year or the source's clock wrong?");
+            }
+        }
+        return e;
+    }
+
+    private void refuseOutsideWire(JsonLine fields, String field, Instant t) throws LineRejected {
+        if (t.isBefore(EARLIEST)) {
+            throw refuse(fields, field, TimeRefusal.BEFORE_1970, Rfc3339.format(t)
+                    + " is before 1970; tend accepts times from 1970 to 2200: is the year mistyped?");
+        }
+        if (!t.isBefore(BEYOND)) {
+            throw refuse(fields, field, TimeRefusal.AFTER_2200, Rfc3339.format(t)
+                    + " is after 2200; tend accepts times from 1970 to 2200: is the year mistyped?");
+        }
+    }
+
+    private LineRejected refuse(JsonLine fields, String field, TimeRefusal why, String message) {
+        refusals.incrementAndGet(why.ordinal());
+        int i = fields.indexOf(field);
+        return new LineRejected(i < 0 ? 0 : fields.column(i), field, "field '" + field + "': " + message);
     }
 
     private LineResult bad(long lineNumber, int column, String field, String message) {

@@ -17,7 +17,9 @@ final class WireText {
         StringBuilder sb = null;
         for (int i = 0; i < part.length(); i++) {
             char c = part.charAt(i);
-            if (c < 0x20 || c == 0x7f) {
+            boolean lone = Character.isHighSurrogate(c) ? i + 1 >= part.length() || !Character.isLowSurrogate(part.charAt(i + 1))
+                    : Character.isLowSurrogate(c) && (i == 0 || !Character.isHighSurrogate(part.charAt(i - 1)));
+            if (c < 0x20 || c == 0x7f || lone) { // a lone surrogate cannot be written as UTF-8
                 if (sb == null) sb = new StringBuilder(part.length() + 8).append(part, 0, i);
                 sb.append(String.format("\\u%04x", (int) c));
             } else if (sb != null) {

@@ -59,6 +59,7 @@ public final class StreamedDocument {
         Reader reader;
         try {
             size = Files.size(file);
+            Utf8Check.check(source, file);
             reader = Files.newBufferedReader(file, StandardCharsets.UTF_8);
         } catch (IOException e) {
             throw new InvalidInputException(Problem.at(source, 0, 0, "", "cannot read the file: " + e.getMessage()));

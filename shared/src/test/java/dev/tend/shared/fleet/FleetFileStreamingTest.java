@@ -46,6 +46,24 @@ class FleetFileStreamingTest {
     }
 
     @Test
+    void aByteThatIsNotUtf8IsRefusedAtItsLineAndColumnLikeTheWholeTextReaderRefusesIt() throws Exception {
+        byte[] good = "fleet: larkspur\nclusters:\n  - id: fares-1\n    nodes: [{ id: n1, zone: z-a }]\n".getBytes(
+                java.nio.charset.StandardCharsets.UTF_8);
+        // 0xFF never occurs in UTF-8 (RFC 3629, section 1); placed on line 3, after "  - id: fa"
+        int at = "fleet: larkspur\nclusters:\n  - id: fa".length();
+        byte[] bad = good.clone();
+        bad[at] = (byte) 0xFF;
+        Path file = Files.write(dir.resolve("fleet.yaml"), bad);
+        InvalidInputException streamed = catchThrowableOfType(InvalidInputException.class, () -> FleetFile.load(file));
+        assertThat(streamed.problems()).extracting(Problem::toString).containsExactly(
+                file + ":3:11: this file is not valid UTF-8: the byte here cannot start or continue a character");
+        InvalidInputException whole = catchThrowableOfType(InvalidInputException.class,
+                () -> dev.tend.shared.yaml.YamlDocument.decode(file.toString(), bad));
+        assertThat(whole.problems()).extracting(Problem::toString).isEqualTo(
+                streamed.problems().stream().map(Problem::toString).toList());
+    }
+
+    @Test
     void jsonMistakesAreLocatedLikeYamlOnes() throws Exception {
         Path file = Files.writeString(dir.resolve("fleet.json"),
                 "{\"fleet\": \"larkspur\",\n \"clusters\": [\n  {\"id\": \"fares-1\", \"quorum\": \"maybe\"},\n  {\"id\": \"fares-1\"}\n ]\n}\n");

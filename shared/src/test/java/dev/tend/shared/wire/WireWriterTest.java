@@ -75,7 +75,7 @@ class WireWriterTest {
         extra.put("probe", "p-7");
         extra.put("nested", Map.of("deep", Map.of("deeper", List.of(true, false))));
         RecordingHeader header = new RecordingHeader("fares-3 night", null, Map.of("fleet", "larkspur"),
-                Instant.parse("2027-03-14T00:00:00Z"), Instant.parse("2027-03-14T06:00:00.5Z"), "invented", Map.of("v", 1));
+                Instant.parse("1999-12-31T00:00:00Z"), Instant.parse("2027-03-14T06:00:00.5Z"), "invented", Map.of("v", 1));
         List<WireEvent> events = List.of(
                 new HealthTransition(Instant.parse("2027-03-14T02:17:00.123456789Z"), Id.of("fares-3"), Id.of("n2"),
                         Id.of("storage-full"), SignalState.BREACH, detail, extra),

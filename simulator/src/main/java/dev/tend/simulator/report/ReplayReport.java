@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import java.util.List;
 import java.util.Objects;
 

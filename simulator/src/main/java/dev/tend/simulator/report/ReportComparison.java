@@ -71,6 +71,7 @@ public record ReportComparison(String labelA, String labelB, ReplayReport a, Rep
                 new SummaryDelta("max_concurrent_runs", a.maxConcurrentRuns(), b.maxConcurrentRuns(), false),
                 new SummaryDelta("brake_engaged", a.brakeEngaged() ? 1 : 0, b.brakeEngaged() ? 1 : 0, true),
                 new SummaryDelta("runs_unfinished", a.runsUnfinished(), b.runsUnfinished(), false),
+                new SummaryDelta("runs_stood_down", a.runsStoodDown(), b.runsStoodDown(), false),
                 new SummaryDelta("hidden_events", a.hiddenEvents(), b.hiddenEvents(), false));
     }
 

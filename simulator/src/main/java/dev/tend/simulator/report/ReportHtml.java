@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.time.Durations;
@@ -44,6 +45,7 @@ public final class ReportHtml {
         Html.tile(sb, "runs started", s.runsStarted(), null);
         Html.tile(sb, "succeeded", s.runsSucceeded(), "ok");
         Html.tile(sb, "failed", s.runsFailed(), s.runsFailed() > 0 ? "bad" : null);
+        Html.tile(sb, "stood down", s.runsStoodDown(), null);
         Html.tile(sb, "held (decisions)", s.held(), null);
         Html.tile(sb, "denied (decisions)", s.denied(), null);
         Html.tile(sb, "approvals requested", s.approvalsRequested(), null);
@@ -70,7 +72,7 @@ public final class ReportHtml {
                 sb.append("<tr><td>").append(time(b.engagedAt())).append("</td><td>")
                         .append(b.releasedAt() == null ? "still engaged" : time(b.releasedAt())).append("</td><td>")
                         .append(b.releasedAt() == null ? "" : Durations.format(Duration.between(b.engagedAt(), b.releasedAt())))
-                        .append("</td><td>").append(esc(b.by())).append("</td><td>").append(esc(b.reason())).append("</td></tr>\n");
+                        .append("</td><td>").append(esc(b.engagedBy())).append("</td><td>").append(esc(b.reason())).append("</td></tr>\n");
             }
             sb.append("</table>\n");
         }

@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonGenerator;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.TendException;
@@ -20,7 +21,7 @@ import java.io.Writer;
  * recording       {name, description, from, until, horizon, events, bad_lines, late_events}
  * replay          {seed, playbooks:[{id, version, sha256}], actions_sha256, fleet, clusters, health_interval}
  * summary         {runs_started, runs_succeeded, runs_failed, held, denied, approvals_requested,
- *                  max_concurrent_runs, brake_engaged, runs_unfinished, hidden_events}
+ *                  max_concurrent_runs, brake_engaged, runs_unfinished, hidden_events, runs_stood_down}
  * runs            [{run, playbook, cluster, node, started_at, ended_at, outcome, steps:[{step, kind,
  *                  state, attempt, started_at, ended_at, outcome}], detail}]
  * decisions       [{at, playbook, cluster, node, verdict, reasons:[codes], signal, hold_until}]
@@ -63,7 +64,7 @@ public final class ReportJson {
                 g.writeStartObject();
                 JsonOutput.time(g, "engaged_at", b.engagedAt());
                 JsonOutput.time(g, "released_at", b.releasedAt());
-                JsonOutput.text(g, "by", b.by());
+                JsonOutput.text(g, "by", b.engagedBy());
                 JsonOutput.text(g, "reason", b.reason());
                 g.writeEndObject();
             }
@@ -154,6 +155,7 @@ public final class ReportJson {
         g.writeBooleanField("brake_engaged", s.brakeEngaged());
         g.writeNumberField("runs_unfinished", s.runsUnfinished());
         g.writeNumberField("hidden_events", s.hiddenEvents());
+        g.writeNumberField("runs_stood_down", s.runsStoodDown());
         g.writeEndObject();
     }
 

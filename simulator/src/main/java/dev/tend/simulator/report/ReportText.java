@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
 import dev.tend.shared.time.Durations;
@@ -40,8 +41,9 @@ public final class ReportText {
         sb.append('\n');
 
         sb.append("what would have happened\n");
-        sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished)\n", s.runsStarted(),
-                s.runsSucceeded(), s.runsFailed(), s.runsUnfinished()));
+        sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished%s)\n", s.runsStarted(),
+                s.runsSucceeded(), s.runsFailed(), s.runsUnfinished(),
+                s.runsStoodDown() == 0 ? "" : ", " + s.runsStoodDown() + " stood down: no longer needed before an action step"));
         sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested%s\n",
                 s.held(), s.denied(), s.approvalsRequested(), approvalNote(r.decisions(), s.approvalsRequested())));
         sb.append(String.format(Locale.ROOT, "  most runs at once  %d\n", s.maxConcurrentRuns()));
@@ -64,7 +66,7 @@ public final class ReportText {
                 sb.append("  ").append(time(b.engagedAt())).append(" to ")
                         .append(b.releasedAt() == null ? "the end (still engaged)" : time(b.releasedAt()));
                 if (b.releasedAt() != null) sb.append(" (").append(Durations.format(Duration.between(b.engagedAt(), b.releasedAt()))).append(')');
-                sb.append(", ").append(b.by()).append(": ").append(b.reason()).append('\n');
+                sb.append(", ").append(b.engagedBy()).append(": ").append(b.reason()).append('\n');
             }
         }
         if (!r.notifications().isEmpty()) {

@@ -14,10 +14,12 @@ package dev.tend.simulator.report;
  * @param brakeEngaged       whether the fleet brake engaged at any time
  * @param runsUnfinished     started runs still not ended when the replay stopped
  * @param hiddenEvents       recorded events hidden by counterfactual masks
+ * @param runsStoodDown      of the started runs, those a gate stood down before an action step
+ *                           (their problem went away, or a mask or exclusion came to apply)
  */
 public record Summary(long runsStarted, long runsSucceeded, long runsFailed, long held, long denied,
                       long approvalsRequested, int maxConcurrentRuns, boolean brakeEngaged,
-                      long runsUnfinished, long hiddenEvents) {
+                      long runsUnfinished, long hiddenEvents, long runsStoodDown) {
     public Summary {
         check("runs_started", runsStarted);
         check("runs_succeeded", runsSucceeded);
@@ -28,9 +30,10 @@ public record Summary(long runsStarted, long runsSucceeded, long runsFailed, lon
         check("max_concurrent_runs", maxConcurrentRuns);
         check("runs_unfinished", runsUnfinished);
         check("hidden_events", hiddenEvents);
-        if (runsSucceeded + runsFailed + runsUnfinished > runsStarted) {
-            throw new IllegalArgumentException("runs_succeeded + runs_failed + runs_unfinished (" + (runsSucceeded + runsFailed + runsUnfinished)
-                    + ") must not exceed runs_started (" + runsStarted + ")");
+        check("runs_stood_down", runsStoodDown);
+        if (runsSucceeded + runsFailed + runsUnfinished + runsStoodDown > runsStarted) {
+            throw new IllegalArgumentException("runs_succeeded + runs_failed + runs_unfinished + runs_stood_down ("
+                    + (runsSucceeded + runsFailed + runsUnfinished + runsStoodDown) + ") must not exceed runs_started (" + runsStarted + ")");
         }
     }
 

@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.wire.Rfc3339;
 
 import java.time.Duration;

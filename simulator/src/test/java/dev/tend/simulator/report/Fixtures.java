@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
@@ -39,7 +40,7 @@ final class Fixtures {
         long unfinished = runs.stream().filter(r -> r.endedAt() == null).count();
         long held = decisions.stream().filter(d -> d.verdict() == Verdict.HOLD).count();
         long denied = decisions.stream().filter(d -> d.verdict() == Verdict.DENY).count();
-        Summary s = new Summary(started, ok, failed, held, denied, 0, runs.isEmpty() ? 0 : 1, !brakes.isEmpty(), unfinished, 3);
+        Summary s = new Summary(started, ok, failed, held, denied, 0, runs.isEmpty() ? 0 : 1, !brakes.isEmpty(), unfinished, 3, 0);
         return new ReplayReport(
                 new RecordingInfo("quiet-night", "two silent nodes <and> a \"quote\"", T0, at(300), at(300), 111, 0, 0),
                 new ReplayInfo(7, List.of(new PlaybookRef("replace-silent-node", 1, "ab".repeat(32))), "cd".repeat(32), "larkspur", 300,
@@ -57,6 +58,6 @@ final class Fixtures {
                 List.of(decision(0, "tickets-12", "n2", Verdict.HOLD, ReasonCode.UNCONFIRMED),
                         decision(5, "tickets-12", "n2", Verdict.START),
                         decision(60, "tickets-13", "n2", Verdict.DENY, ReasonCode.MASKED, ReasonCode.UNCONFIRMED)),
-                List.of(new BrakePeriod(at(40), at(80), "automatic", "24 clusters unhealthy (8.0% of the fleet)")));
+                List.of(new BrakePeriod(at(40), "automatic", "24 clusters unhealthy (8.0% of the fleet)", at(80), null, null)));
     }
 }

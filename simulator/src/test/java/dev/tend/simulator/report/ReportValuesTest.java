@@ -1,5 +1,6 @@
 package dev.tend.simulator.report;
 
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import org.junit.jupiter.api.function.Executable;
@@ -19,14 +20,14 @@ class ReportValuesTest {
         Id c = Id.of("tickets-12");
         RunEntry run = Fixtures.run("r000001", "tickets-12", "n2", 5, 26, "succeeded");
         return Stream.of(
-                Arguments.of("negative held", (Executable) () -> new Summary(0, 0, 0, -1, 0, 0, 0, false, 0, 0),
+                Arguments.of("negative held", (Executable) () -> new Summary(0, 0, 0, -1, 0, 0, 0, false, 0, 0, 0),
                         "held must be at least 0, got -1"),
-                Arguments.of("more ended than started", (Executable) () -> new Summary(1, 1, 1, 0, 0, 0, 0, false, 0, 0),
-                        "runs_succeeded + runs_failed + runs_unfinished (2) must not exceed runs_started (1)"),
+                Arguments.of("more ended than started", (Executable) () -> new Summary(1, 1, 1, 0, 0, 0, 0, false, 0, 0, 0),
+                        "runs_succeeded + runs_failed + runs_unfinished + runs_stood_down (2) must not exceed runs_started (1)"),
                 Arguments.of("run ends before it starts", (Executable) () -> new RunEntry("r1", c, c, null, at(10), at(5), "succeeded", null, List.of()),
                         "run r1: endedAt (2027-03-16T01:05:00Z) must not be before startedAt (2027-03-16T01:10:00Z)"),
-                Arguments.of("brake released before engaged", (Executable) () -> new BrakePeriod(at(10), at(5), "automatic", "x"),
-                        "releasedAt (2027-03-16T01:05:00Z) must not be before engagedAt (2027-03-16T01:10:00Z)"),
+                Arguments.of("brake released before engaged", (Executable) () -> new BrakePeriod(at(10), "automatic", "x", at(5), null, null),
+                        "BrakePeriod.releasedAt must not be before engagedAt 2027-03-16T01:10:00Z, got 2027-03-16T01:05:00Z"),
                 Arguments.of("mask lifted before it began", (Executable) () -> new HiddenMask(c, null, c, at(10), "r1", "a", at(5), 0),
                         "liftedAt (2027-03-16T01:05:00Z) must not be before maskedAt (2027-03-16T01:10:00Z)"),
                 Arguments.of("negative hidden count", (Executable) () -> new HiddenMask(c, null, c, at(10), "r1", "a", null, -2),

@@ -6,6 +6,7 @@ import dev.tend.store.InputRow;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
+import dev.tend.store.PageRow;
 import dev.tend.store.RunFilter;
 import dev.tend.store.RunRow;
 import dev.tend.store.StepRow;
@@ -138,6 +139,38 @@ public class JdbiReader implements StoreReader {
         return List.copyOf(handle.createQuery("SELECT " + Rows.EXCLUSION_COLUMNS + " FROM exclusions ORDER BY cluster, node")
                 .map((rs, ctx) -> Rows.exclusion(rs))
                 .list());
+    }
+
+    @Override
+    public List<PageRow> pagesDue(Instant now, int limit) {
+        beforeRead();
+        return List.copyOf(handle.createQuery("SELECT " + Rows.PAGE_COLUMNS + " FROM page_outbox WHERE state = :state"
+                        + " AND next_ns <= :now ORDER BY next_ns, id LIMIT :limit")
+                .bind("state", PageRow.PENDING)
+                .bind("now", Times.toNanos(now, "now"))
+                .bind("limit", limit)
+                .map((rs, ctx) -> Rows.page(rs)).list());
+    }
+
+    @Override
+    public List<PageRow> pages(Set<String> states, int limit) {
+        for (String s : states) {
+            if (!PageRow.STATES.contains(s)) throw new IllegalArgumentException("pages(states) takes pending, delivered or failed, got '" + s + "'");
+        }
+        if (states.isEmpty()) return List.of();
+        beforeRead();
+        return List.copyOf(handle.createQuery("SELECT " + Rows.PAGE_COLUMNS + " FROM page_outbox WHERE state IN (<states>)"
+                        + " ORDER BY created_ns DESC, id LIMIT :limit")
+                .bindList("states", new ArrayList<>(new java.util.TreeSet<>(states)))
+                .bind("limit", limit)
+                .map((rs, ctx) -> Rows.page(rs)).list());
+    }
+
+    @Override
+    public Optional<PageRow> page(String id) {
+        beforeRead();
+        return handle.createQuery("SELECT " + Rows.PAGE_COLUMNS + " FROM page_outbox WHERE id = :id")
+                .bind("id", id).map((rs, ctx) -> Rows.page(rs)).findOne();
     }
 
     @Override

@@ -1,6 +1,7 @@
 package dev.tend.store.internal;
 
 import dev.tend.store.ApprovalRow;
+import dev.tend.store.PageRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerDraft;
@@ -311,6 +312,16 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     }
 
     @Override
+    public void enqueuePage(PageRow p) {
+        requireOpen();
+        Objects.requireNonNull(p, "page");
+        handle.createUpdate("INSERT INTO page_outbox (" + Rows.PAGE_COLUMNS + ") VALUES (:id, :channel, :created_ns, :payload,"
+                        + " :state, :attempts, :next_ns, :last_answer, :ended_ns) ON CONFLICT (id) DO NOTHING")
+                .bindMap(pageColumns(p))
+                .execute();
+    }
+
+    @Override
     public long deleteInputs(long throughSeq, Instant before) {
         requireOpen();
         Objects.requireNonNull(before, "before");
@@ -320,5 +331,30 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
                 .bind("through", throughSeq)
                 .bind("before", Times.toNanos(before, "before"))
                 .execute();
+    }
+
+    @Override
+    public void updatePage(PageRow p) {
+        requireOpen();
+        Objects.requireNonNull(p, "page");
+        handle.createUpdate("UPDATE page_outbox SET channel = :channel, created_ns = :created_ns, payload = :payload,"
+                        + " state = :state, attempts = :attempts, next_ns = :next_ns, last_answer = :last_answer,"
+                        + " ended_ns = :ended_ns WHERE id = :id")
+                .bindMap(pageColumns(p))
+                .execute();
+    }
+
+    private static java.util.Map<String, Object> pageColumns(PageRow p) {
+        java.util.Map<String, Object> m = new java.util.HashMap<>();
+        m.put("id", p.id());
+        m.put("channel", p.channel());
+        m.put("created_ns", Times.toNanos(p.createdAt(), "PageRow.createdAt"));
+        m.put("payload", p.payload());
+        m.put("state", p.state());
+        m.put("attempts", p.attempts());
+        m.put("next_ns", Times.toNanos(p.nextAt(), "PageRow.nextAt"));
+        m.put("last_answer", p.lastAnswer());
+        m.put("ended_ns", p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt"));
+        return m;
     }
 }

@@ -1,6 +1,7 @@
 package dev.tend.store.internal;
 
 import dev.tend.store.ApprovalRow;
+import dev.tend.store.PageRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerEntry;
@@ -59,6 +60,13 @@ public final class Rows {
         return new ApprovalRow(rs.getString(1), rs.getString(2), rs.getString(3), rs.getString(4), rs.getString(5),
                 Times.fromNanos(rs.getLong(6)), Times.fromNanos(rs.getLong(7)), rs.getString(8), rs.getString(9),
                 instant(rs, 10), rs.getString(11));
+    }
+
+    public static final String PAGE_COLUMNS = "id, channel, created_ns, payload, state, attempts, next_ns, last_answer, ended_ns";
+
+    public static PageRow page(ResultSet rs) throws SQLException {
+        return new PageRow(rs.getString(1), rs.getString(2), Times.fromNanos(rs.getLong(3)), rs.getString(4), rs.getString(5),
+                rs.getInt(6), Times.fromNanos(rs.getLong(7)), rs.getString(8), instant(rs, 9));
     }
 
     public static LedgerEntry ledger(ResultSet rs) throws SQLException {

@@ -1,11 +1,11 @@
-package dev.tend.handover;
+package dev.tend.shared.fleet;
 
 import java.time.Instant;
 import java.util.Objects;
 
 /**
- * A time the fleet brake was engaged that overlaps a report's period; it may have begun
- * before the period.
+ * A time the fleet brake was engaged, as the handover report (from the ledger) and the
+ * replay report (from a replay) show it; it may have begun before the report's period.
  *
  * @param engagedAt     when it was engaged
  * @param engagedBy     who engaged it: an operator's name, or {@code automatic}
