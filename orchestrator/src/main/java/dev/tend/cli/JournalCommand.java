@@ -2,6 +2,7 @@ package dev.tend.cli;
 
 import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.LedgerKind;
 import dev.tend.shared.TendException;
 import dev.tend.store.InputRow;
 import dev.tend.store.SnapshotRow;
@@ -101,7 +102,7 @@ public final class JournalCommand implements Runnable {
                         fields.put("before", until.toString());
                         fields.put("snapshot_seq", snapshot.seq());
                         fields.put("to", to.toAbsolutePath().toString());
-                        tx.appendLedger(clock.instant(), "journal-archived", fields);
+                        tx.appendLedger(clock.instant(), LedgerKind.JOURNAL_ARCHIVED.wire(), LedgerKind.JOURNAL_ARCHIVED.check(fields));
                     });
                 } catch (RuntimeException e) {
                     truncateQuietly(to, keptBytes);

@@ -106,8 +106,8 @@ class SnapshotEquivalenceTest {
         void count(List<Effect> effects) {
             for (Effect e : effects) {
                 if (e instanceof Effect.Ledger l) {
-                    add(l.kind());
-                    if (l.kind().equals("brake-engaged")) add("brake-engaged:" + l.fields().get("by"));
+                    add(l.type().wire());
+                    if (l.type() == dev.tend.engine.LedgerKind.BRAKE_ENGAGED) add("brake-engaged:" + l.fields().get("by"));
                     Object reasons = l.fields().get("reasons");
                     if (reasons instanceof java.util.Collection<?> c) for (Object r : c) add("reason:" + r);
                 } else if (e instanceof Effect.Notify n) add("page:" + n.kind());
