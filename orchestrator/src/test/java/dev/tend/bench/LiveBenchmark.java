@@ -31,7 +31,15 @@ public final class LiveBenchmark {
     }
 
     /** What one measurement found. */
-    record Figures(long requests, long failures, double seconds, long[] latencyNanos) {
+    record Figures(long requests, long failures, double seconds, long[] latencyNanos, long serverCpuNanos) {
+        Figures withServerCpu(long nanos) {
+            return new Figures(requests, failures, seconds, latencyNanos, nanos);
+        }
+
+        double cpuMicrosPerRequest() {
+            return serverCpuNanos < 0 ? Double.NaN : serverCpuNanos / 1e3 / requests;
+        }
+
         double rate() {
             return requests / seconds;
         }
@@ -69,8 +77,13 @@ public final class LiveBenchmark {
         try (ChildProcess floor = ChildProcess.startAndAwait(ChildProcess.javaCommand(jvm, "-cp", jar + java.io.File.pathSeparator
                 + testClasses, BareEndpoint.class.getName(), String.valueOf(floorPort)), dir.resolve("floor.log"), "listening on", 120)) {
             load(floorPort, null, connections, 3, clusters);
+            long c0 = floor.cpuNanos();
             floorIdle = idle(floorPort, null, idleRequests, clusters);
+            long c1 = floor.cpuNanos();
             floorLoad = load(floorPort, null, connections, seconds, clusters);
+            long c2 = floor.cpuNanos();
+            floorIdle = floorIdle.withServerCpu(c1 - c0);
+            floorLoad = floorLoad.withServerCpu(c2 - c1);
         }
         int tendPort = ChildProcess.freePort();
         Figures tendIdle, tendLoad;
@@ -78,10 +91,15 @@ public final class LiveBenchmark {
                 "--playbooks", library.toString(), "--fleet", fleet.toString(), "--db", dir.resolve("live.db").toString(),
                 "--listen", "127.0.0.1:" + tendPort, "--tokens", tokens.toString()), dir.resolve("serve.log"), "tend: serving", 180)) {
             load(tendPort, token, connections, 3, clusters);
+            long c0 = tend.cpuNanos();
             tendIdle = idle(tendPort, token, idleRequests, clusters);
+            long c1 = tend.cpuNanos();
             tendLoad = load(tendPort, token, connections, seconds, clusters);
+            long c2 = tend.cpuNanos();
+            tendIdle = tendIdle.withServerCpu(c1 - c0);
+            tendLoad = tendLoad.withServerCpu(c2 - c1);
         }
-        System.out.printf("%-44s %12s %9s %9s %9s%n", "", "requests/s", "p50 ms", "p99 ms", "failed");
+        System.out.printf("%-44s %12s %9s %9s %14s %7s%n", "", "requests/s", "p50 ms", "p99 ms", "server CPU/req", "failed");
         row("floor, idle (one request at a time)", floorIdle);
         row("tend,  idle (one request at a time)", tendIdle);
         row("floor, " + connections + " connections, one line per request", floorLoad);
@@ -98,7 +116,8 @@ public final class LiveBenchmark {
     }
 
     private static void row(String what, Figures f) {
-        System.out.printf("%-44s %12.0f %9.2f %9.2f %9d%n", what, f.rate(), f.percentileMs(0.5), f.percentileMs(0.99), f.failures());
+        System.out.printf("%-44s %12.0f %9.2f %9.2f %11.0f µs %7d%n", what, f.rate(), f.percentileMs(0.5), f.percentileMs(0.99),
+                f.cpuMicrosPerRequest(), f.failures());
     }
 
     /** One connection, one one-line request at a time with a pause of 5 ms between: the server is idle at each. */
@@ -118,7 +137,7 @@ public final class LiveBenchmark {
             }
         }
         Arrays.sort(lat);
-        return new Figures(n, failures, (System.nanoTime() - t0) / 1e9, lat);
+        return new Figures(n, failures, (System.nanoTime() - t0) / 1e9, lat, -1);
     }
 
     /** {@code connections} connections, each posting one line per request, answered before the next, for {@code seconds}. */
@@ -166,7 +185,7 @@ public final class LiveBenchmark {
             at += counts[t];
         }
         Arrays.sort(all);
-        return new Figures(total, failures.get(), elapsed, all);
+        return new Figures(total, failures.get(), elapsed, all, -1);
     }
 
     /** One wire line: a noise signal of a random node, mostly clear, now. */
