@@ -1,5 +1,6 @@
 package dev.tend.api;
 
+import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.api.auth.Caller;
@@ -78,7 +79,8 @@ final class TransitionRoutes {
             fields.put("from", Requests.from(ctx));
             fields.put("accepted", events.size());
             fields.put("rejected", summary.bad());
-            LedgerDraft receipt = new LedgerDraft(clock.instant(), "transitions-received", fields);
+            LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
+                    LedgerKind.TRANSITIONS_RECEIVED.check(fields));
             // committed with the events it names (no commit of its own), or alone when every line was refused
             if (!events.isEmpty()) gateway.events(events, receipt);
             else store.useTransaction(tx -> tx.appendLedger(List.of(receipt)));

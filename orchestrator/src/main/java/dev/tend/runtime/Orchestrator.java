@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
@@ -359,7 +360,7 @@ public final class Orchestrator {
             store.useTransaction(tx -> {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
                 List<LedgerDraft> entries = new ArrayList<>(2);
-                entries.add(new LedgerDraft(now, "input-refused", InputRefusal.fields(in, reason)));
+                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason))));
                 receipt(in, now, entries);
                 tx.appendLedger(entries);
             });
