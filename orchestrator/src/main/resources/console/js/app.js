@@ -31,6 +31,14 @@ const ctx = {
     const h = await api.health();
     serverNow = h.at;
     $("server-time").textContent = h.at ? "server time " + h.at.slice(0, 19).replace("T", " ") + "Z" : "";
+    // instances sharing a PostgreSQL store: which one leads, and this one's part
+    const l = h.leader, who = $("leader");
+    who.hidden = !l;
+    if (l) {
+      who.textContent = l.role === "leader" ? "this instance leads (lease epoch " + l.epoch + ")"
+        : "standby, " + (l.leader ? "leader: " + l.leader + " at " + l.leader_url : "no leader at the moment")
+          + (l.journal_lag > 0 ? ", " + l.journal_lag + " inputs behind" : "");
+    }
     const n = await api.approvals("pending");
     const c = $("approval-count");
     c.textContent = String(n.length);

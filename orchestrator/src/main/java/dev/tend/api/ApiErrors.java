@@ -26,6 +26,7 @@ import java.util.List;
  * RefusedException           409 refused, with the engine's reason
  * TooManyFailuresException   429 too-many-attempts (with Retry-After), after repeated wrong tokens
  * a Host not served          421 misdirected
+ * NotLeaderException         503 not-leader (with X-Tend-Leader: the leader's URL), a write sent to a standby
  * DriverUnavailableException,
  * StoreException             503 unavailable
  * Javalin's own (no route, wrong method), body too large (413 too-large): their status
@@ -53,6 +54,10 @@ final class ApiErrors {
                 null, problems(e.problems()))));
         app.exception(IllegalArgumentException.class, (e, ctx) -> answer(ctx, 400, ErrorBody.of("invalid-input", e.getMessage())));
         app.exception(RefusedException.class, (e, ctx) -> answer(ctx, 409, ErrorBody.of("refused", e.getMessage())));
+        app.exception(NotLeaderException.class, (e, ctx) -> {
+            if (e.leaderUrl() != null) ctx.header(NotLeaderException.HEADER, e.leaderUrl());
+            answer(ctx, 503, ErrorBody.of("not-leader", e.getMessage()));
+        });
         app.exception(DriverUnavailableException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(StoreException.class, (e, ctx) -> answer(ctx, 503, ErrorBody.of("unavailable", e.getMessage())));
         app.exception(HttpResponseException.class, (e, ctx) -> answer(ctx, e.getStatus(),

@@ -5,6 +5,7 @@ import dev.tend.api.auth.TokenFile;
 import dev.tend.api.auth.Tokens;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
+import dev.tend.serve.LeaderLoop;
 import dev.tend.serve.ServeSettings;
 import dev.tend.serve.TendServer;
 import dev.tend.store.Store;
@@ -67,6 +68,16 @@ public final class ServeCommand implements Callable<Integer> {
                     + " repeat for several")
     java.util.List<String> allowHosts = new java.util.ArrayList<>();
 
+    @Option(names = "--lease", defaultValue = "6s", paramLabel = "DURATION",
+            description = "with a PostgreSQL --db: how long the leader lease lasts unless renewed (renewed every third of it);"
+                    + " a standby takes over once it lapsed (default: ${DEFAULT-VALUE})")
+    String lease;
+
+    @Option(names = "--advertise", paramLabel = "URL",
+            description = "with a PostgreSQL --db: the URL other instances and clients reach this one at, named by standbys"
+                    + " when they refuse writes (default: the address listened on)")
+    String advertise;
+
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
@@ -78,6 +89,7 @@ public final class ServeCommand implements Callable<Integer> {
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
                 .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every()).build();
+        if (db.address().isPostgres()) return serveShared(err, settings, listen, tokens, key, setup, clock);
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {
@@ -106,6 +118,48 @@ public final class ServeCommand implements Callable<Integer> {
                 }
                 stopped.print();
             }
+        }
+        return ExitCodes.OK;
+    }
+
+    /**
+     * Several instances on one PostgreSQL store: this one is a standby until it holds the
+     * leader lease, then leads; see {@link LeaderLoop}.
+     */
+    private Integer serveShared(PrintWriter err, ServeSettings settings, Listen listen, Tokens tokens, LedgerKey key,
+                                EngineSetup setup, Clock clock) throws InterruptedException {
+        Duration ttl = dev.tend.shared.time.Durations.parse(lease);
+        if (listen.port() == 0) {
+            err.println("tend: with a PostgreSQL --db, give a fixed port (--listen HOST:PORT): standbys name the leader's address");
+            return ExitCodes.USAGE;
+        }
+        String host = listen.host().contains(":") ? "[" + listen.host() + "]" : listen.host();
+        String address = advertise != null ? advertise : "http://" + host + ":" + listen.port();
+        String instance = java.net.URI.create(address).getAuthority() + "/" + ProcessHandle.current().pid();
+        try (Store store = db.open()) {
+            LeaderLoop loop = new LeaderLoop(store, settings, ttl, instance, address, server -> {
+                server.store().useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
+                if (key != null) server.checkpointWith(server.store(), key);
+                err.println("tend: serving " + server.url() + "/api/v1, the console on " + server.url() + "/"
+                        + " (tokens: " + String.join(", ", tokens.names()) + "); stop with Ctrl-C or SIGTERM");
+                err.flush();
+            });
+            StopLine stopped = new StopLine(err, "tend: stopped; everything resumes from " + db.describe() + " on the next start");
+            Thread hook = new Thread(() -> {
+                try {
+                    loop.close();
+                } finally {
+                    stopped.print();
+                }
+            }, "tend-serve-stop");
+            Runtime.getRuntime().addShutdownHook(hook);
+            loop.run();
+            try {
+                Runtime.getRuntime().removeShutdownHook(hook);
+            } catch (IllegalStateException shuttingDown) {
+                // a signal stopped us
+            }
+            stopped.print();
         }
         return ExitCodes.OK;
     }

@@ -67,7 +67,9 @@ public enum LedgerKind {
             "attempt", "answer", "tries", "final", "retry_at"),
     CHECKPOINT("checkpoint", "covers_seq", "covers_hash", "key_id", "hmac"),
     /** Journal rows moved out to a file by {@code tend journal archive}; the ledger keeps every entry. */
-    JOURNAL_ARCHIVED("journal-archived", "inputs", "first_seq", "last_seq", "before", "snapshot_seq", "to");
+    JOURNAL_ARCHIVED("journal-archived", "inputs", "first_seq", "last_seq", "before", "snapshot_seq", "to"),
+    /** An instance took the leader lease of a shared PostgreSQL store and leads from here on. */
+    LEADER_ELECTED("leader-elected", "instance", "address", "epoch");
 
     private static final Map<String, LedgerKind> BY_WIRE = Arrays.stream(values())
             .collect(Collectors.toUnmodifiableMap(LedgerKind::wire, Function.identity()));

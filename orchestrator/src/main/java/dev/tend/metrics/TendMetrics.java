@@ -69,6 +69,15 @@ public final class TendMetrics implements CommitListener {
             .help("Time from an executor call to its result").labelNames("kind", "success")
             .classicUpperBounds(0.01, 0.05, 0.1, 0.5, 1, 5, 10, 30, 60, 300, 900, 1800).classicOnly().register(registry);
 
+    private final Gauge leader = Gauge.builder().name("tend_leader")
+            .help("1 while this instance holds the leader lease, else 0").register(registry);
+    private final Gauge leaseEpoch = Gauge.builder().name("tend_lease_epoch")
+            .help("The leader lease's epoch as this instance last saw it (rises at every takeover)").register(registry);
+    private final Counter takeovers = Counter.builder().name("tend_takeovers_total")
+            .help("Times this instance took the leader lease over from another instance").register(registry);
+    private final Gauge journalLag = Gauge.builder().name("tend_standby_journal_lag")
+            .help("Journaled inputs a standby has not read into its engine yet (0 on the leader)").register(registry);
+
     private final Counter notifications = Counter.builder().name("tend_notifications_total")
             .help("Page delivery attempts by channel and outcome (delivered, retry, failed)").labelNames("channel", "outcome")
             .register(registry);
@@ -83,6 +92,18 @@ public final class TendMetrics implements CommitListener {
     }
 
     /** A page delivery attempt ended: outcome delivered, retry or failed. */
+    /** This instance's part among instances sharing one store. */
+    public void leadership(dev.tend.api.view.LeaderView v) {
+        leader.set(v.role().equals("leader") ? 1 : 0);
+        leaseEpoch.set(v.epoch());
+        journalLag.set(v.journalLag());
+    }
+
+    /** This instance took the lease over from another instance. */
+    public void tookOver() {
+        takeovers.inc();
+    }
+
     public void pageAttempted(String channel, String outcome) {
         notifications.labelValues(channel, outcome).inc();
     }

@@ -56,6 +56,8 @@ public final class Orchestrator {
      */
     private volatile Engine engine;
     private String fingerprint;
+    /** A warm engine to start from at the next {@link #loadState}, or null. */
+    private JournalTail warm;
     private long sinceSnapshot;
     private final Map<String, Executor> executors;
     private final Timers timers;
@@ -160,41 +162,22 @@ public final class Orchestrator {
      */
     long[] loadState() {
         if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
-        long first = store.read(StoreReader::firstInputSeq);
-        java.util.Optional<SnapshotRow> snapshot = store.read(StoreReader::latestSnapshot);
-        boolean wholeJournal = first <= 1;
-        engine = new Engine(setup);
+        JournalTail tail = warm != null ? warm : JournalTail.open(store, setup, fingerprint);
+        warm = null;
+        long before = tail.replayed();
+        tail.catchUp();
+        engine = tail.engine();
         progressFound.clear();
-        long after = 0;
-        if (snapshot.isPresent()) {
-            SnapshotRow row = snapshot.get();
-            SnapshotCodec.Decoded d = SnapshotCodec.decode(row);
-            if (row.setup().equals(fingerprint) || !wholeJournal) {
-                engine = Engine.restore(setup, d.state());
-                progressFound.putAll(d.sources());
-                after = row.seq();
-            }
-        }
-        if (!wholeJournal && after + 1 < first) {
-            throw new TendException("the journal of " + store.location() + " starts at input " + first + " (older inputs were "
-                    + "archived) but no snapshot covers the inputs before it" + (after > 0 ? " (the newest ends at " + after + ")" : "")
-                    + "; restore the archived inputs or a store backup");
-        }
-        long from = after;
-        long[] n = {0};
-        store.read(r -> {
-            r.forEachInput(from, row -> {
-                if (row.kind().equals(SourceProgress.KIND)) {
-                    SourceProgress p = SourceProgress.decode(row);
-                    progressFound.put(p.source(), p.events());
-                    return;
-                }
-                engine.handle(InputCodec.decode(row), row.now());
-                n[0]++;
-            });
-            return null;
-        });
-        return new long[]{after, n[0]};
+        progressFound.putAll(tail.sources());
+        return new long[]{tail.snapshotSeq(), tail.replayed() - before};
+    }
+
+    /**
+     * Starts the next {@link #recover()} from {@code tail}, an engine a standby kept warm
+     * (built on this store and setup): only what was journaled since it last read is read.
+     */
+    public void adopt(JournalTail tail) {
+        this.warm = java.util.Objects.requireNonNull(tail, "tail");
     }
 
     /**

@@ -138,7 +138,7 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         java.time.Instant eventTime = engine.eventTime().equals(java.time.Instant.EPOCH) ? null : engine.eventTime();
         current.set(new FleetHealth(clock.instant(), eventTime, view.topology().name(), view.topology().size(),
                 view.unhealthyClusterCount(), view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()),
-                zones, problems));
+                zones, problems, null));
     }
 
     private static List<String> zones(ClusterSpec c) {

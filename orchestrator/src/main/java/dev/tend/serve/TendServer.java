@@ -42,6 +42,7 @@ import java.util.concurrent.atomic.AtomicLong;
  */
 public final class TendServer implements AutoCloseable {
     private final Orchestrator orchestrator;
+    private final Store store;
     private final Orchestrator.Recovery recovery;
     private final QuartzTimers timers;
     private final List<Executor> executors;
@@ -56,10 +57,11 @@ public final class TendServer implements AutoCloseable {
     private volatile Throwable driverFailure;
     private volatile boolean closed;
 
-    private TendServer(Store store, ServeSettings s) {
+    private TendServer(Store store, ServeSettings s, Leadership leadership, TendMetrics shared, dev.tend.runtime.JournalTail warm) {
+        this.store = store;
         Clock clock = s.timeScale().clock();
         PrintWriter log = s.log();
-        TendMetrics metrics = new TendMetrics(store);
+        TendMetrics metrics = shared != null ? shared : new TendMetrics(store);
         FleetHealthPublisher health = new FleetHealthPublisher(clock);
         OutgoingHttp http = new OutgoingHttp();
         // every file an outgoing call or a channel needs is read now: a bad one stops tend before it serves
@@ -105,6 +107,7 @@ public final class TendServer implements AutoCloseable {
         };
         orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners, s.snapshotEvery());
         holder[0] = orchestrator;
+        if (warm != null) orchestrator.adopt(warm);
         recovery = orchestrator.recover();
         // the driver thread has not started: this thread may still read the engine
         health.publish(orchestrator.engine());
@@ -124,7 +127,8 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(),
+                    leadership == null ? health : () -> health.get().withLeader(leadership.view()), metrics, clock, log,
                     s.setup().playbooks()));
         } catch (RuntimeException e) {
             stopDriver();
@@ -144,7 +148,17 @@ public final class TendServer implements AutoCloseable {
      * when the port cannot be bound (nothing keeps running then).
      */
     public static TendServer start(Store store, ServeSettings settings) {
-        return new TendServer(store, settings);
+        return new TendServer(store, settings, null, null, null);
+    }
+
+    /**
+     * Starts leading: as {@link #start}, with the engine {@code warm} a standby kept (null:
+     * built from the store), the metrics kept across this instance's roles, and its part
+     * shown by the health route. The caller fenced the store with the lease's epoch.
+     */
+    static TendServer lead(Store store, ServeSettings settings, Leadership leadership, TendMetrics metrics,
+                           dev.tend.runtime.JournalTail warm) {
+        return new TendServer(store, settings, leadership, metrics, warm);
     }
 
     private void drive() {
@@ -155,6 +169,11 @@ public final class TendServer implements AutoCloseable {
         } finally {
             driverDone.countDown();
         }
+    }
+
+    /** The store this server commits to. */
+    public Store store() {
+        return store;
     }
 
     public int port() {

@@ -31,6 +31,8 @@ public final class Store implements AutoCloseable {
     private final HeadCache heads;
     private final ThreadLocal<Boolean> inWrite = ThreadLocal.withInitial(() -> false);
     private volatile boolean closed;
+    /** The epoch every write transaction checks (see {@link #fence}); -1: none. */
+    private volatile long fence = -1;
 
     private Store(Database db) {
         this.db = db;
@@ -96,7 +98,9 @@ public final class Store implements AutoCloseable {
         try {
             requireOpen();
             JdbiTx[] done = new JdbiTx[1];
+            long epoch = fence;
             T result = db.writeJdbi().inTransaction(handle -> {
+                if (epoch >= 0) LeaderLease.check(handle, location(), epoch);
                 JdbiTx tx = new JdbiTx(handle, location(), heads);
                 try {
                     T r = work.apply(tx);
@@ -146,6 +150,29 @@ public final class Store implements AutoCloseable {
         } catch (RuntimeException e) {
             throw Failures.ofTransaction(location(), e);
         }
+    }
+
+    /**
+     * The leader lease on this store's database (PostgreSQL only: instances that share a
+     * SQLite file are refused by its lock instead). Throws {@link StoreException} on SQLite.
+     */
+    public LeaderLease lease() {
+        if (db.dialect() != dev.tend.store.internal.Dialect.POSTGRESQL) {
+            throw new StoreException(location(), "the store at " + location() + " is a SQLite file, which one process writes; "
+                    + "a leader lease needs PostgreSQL");
+        }
+        return new LeaderLease(db);
+    }
+
+    /**
+     * From now on every write transaction first checks, in the same transaction, that the
+     * leader lease is still at {@code epoch} and fails with {@link LeaseLostException}
+     * (nothing written) when it is not: fencing a leader that was deposed. PostgreSQL only.
+     */
+    public void fence(long epoch) {
+        if (epoch < 1) throw new IllegalArgumentException("a lease epoch is 1 or more, got " + epoch);
+        lease();
+        this.fence = epoch;
     }
 
     /** Closes the store's connections, after a write transaction in progress ends. Idempotent. */

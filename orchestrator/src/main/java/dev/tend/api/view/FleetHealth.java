@@ -12,10 +12,11 @@ import java.util.List;
  * @param unhealthy          clusters with any signal in breach or silent
  * @param unhealthyClusters  those clusters, by id
  * @param zones              every zone of the topology, by name
+ * @param leader             which instance leads, when instances share a PostgreSQL store; null for one instance alone
  */
 public record FleetHealth(Instant at, Instant eventTime, String fleet, int clusters, int unhealthy,
                           double unhealthyFraction, int activeRuns, BrakeView brake, List<Zone> zones,
-                          List<ClusterProblem> unhealthyClusters) {
+                          List<ClusterProblem> unhealthyClusters, LeaderView leader) {
     public FleetHealth {
         zones = List.copyOf(zones);
         unhealthyClusters = List.copyOf(unhealthyClusters);
@@ -23,13 +24,19 @@ public record FleetHealth(Instant at, Instant eventTime, String fleet, int clust
 
     /** Before the engine was recovered. */
     public static FleetHealth empty() {
-        return new FleetHealth(null, null, null, 0, 0, 0, 0, BrakeView.released(), List.of(), List.of());
+        return new FleetHealth(null, null, null, 0, 0, 0, 0, BrakeView.released(), List.of(), List.of(), null);
     }
 
     /** A copy with other run and brake figures, the health itself unchanged. */
     public FleetHealth withRuns(Instant newAt, int newActiveRuns, BrakeView newBrake) {
         return new FleetHealth(newAt, eventTime, fleet, clusters, unhealthy, unhealthyFraction, newActiveRuns, newBrake,
-                zones, unhealthyClusters);
+                zones, unhealthyClusters, leader);
+    }
+
+    /** A copy that says which instance leads. */
+    public FleetHealth withLeader(LeaderView newLeader) {
+        return new FleetHealth(at, eventTime, fleet, clusters, unhealthy, unhealthyFraction, activeRuns, brake, zones,
+                unhealthyClusters, newLeader);
     }
 
     /**

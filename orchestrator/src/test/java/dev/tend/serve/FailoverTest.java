@@ -1,0 +1,394 @@
+package dev.tend.serve;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.api.auth.Tokens;
+import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerFilter;
+import dev.tend.store.LedgerVerification;
+import dev.tend.store.Store;
+import dev.tend.testing.EmbeddedPostgres;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.io.IOException;
+import java.net.ServerSocket;
+import java.net.URI;
+import java.net.http.HttpClient;
+import java.net.http.HttpRequest;
+import java.net.http.HttpResponse;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.concurrent.TimeUnit;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+/**
+ * Leader and standby on one PostgreSQL (DESIGN.md section 9), as separate {@code tend serve}
+ * processes: a storm of transitions over HTTP to whichever instance leads, every run's
+ * steps calling a loopback receiver that logs idempotency keys, and the leader killed with
+ * SIGKILL mid-storm several times (a new standby started each time); then a leader paused
+ * with SIGSTOP past its lease and resumed, which must step down and say so. Prints and
+ * asserts: each takeover within 15 s of the kill, no step executed under two keys and no
+ * key done twice, no posted transition missing from the journal, the fleet cap and the brake
+ * never exceeded, and {@code tend audit verify} passing. Runs with {@code -Pfailover}
+ * (kills: {@code tend.failover.kills}, 0 in the default build, which skips it).
+ */
+class FailoverTest {
+    static final int KILLS = Integer.getInteger("tend.failover.kills", 0);
+    private static final int CLUSTERS = 40;
+    private static final int FLEET_CAP = 6;
+    private static final String LEASE = "3s";
+    private static final String TOKEN = "tok-failover-operator";
+    private static final ObjectMapper JSON = new ObjectMapper();
+
+    @TempDir
+    Path dir;
+
+    private final HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1)
+            .connectTimeout(Duration.ofSeconds(2)).build();
+    private String url;
+    private String user;
+    private final List<Instance> instances = new ArrayList<>();
+    private int started;
+
+    private record Instance(String name, int port, Process process) {
+    }
+
+    @Test
+    void killedLeadersAreReplacedWithinFifteenSecondsAndNothingIsLostOrDoneTwice() throws Exception {
+        assumeTrue(KILLS > 0, "the failover test runs with -Pfailover");
+        EmbeddedPostgres pg = EmbeddedPostgres.get();
+        url = pg.createDatabase();
+        user = pg.user();
+        try (KeyReceiver receiver = KeyReceiver.start(Duration.ofMillis(400))) {
+            writePolicy(receiver.url());
+            Instance first = start();
+            assertThat(awaitRole(first, "leader", 90)).as(log(first)).isTrue();
+            Instance second = start();
+            assertThat(awaitRole(second, "standby", 90)).as(log(second)).isTrue();
+            HttpResponse<String> refused = postTo(second, "fares-1");
+            assertThat(refused.statusCode()).as(refused.body()).isEqualTo(503);
+            assertThat(refused.body()).contains("not-leader");
+            assertThat(refused.headers().firstValue("X-Tend-Leader")).contains("http://127.0.0.1:" + first.port());
+
+            Random random = new Random(20271202L);
+            List<String> storm = new ArrayList<>();
+            for (int c = 1; c <= CLUSTERS; c++) storm.add("fares-" + c);
+            int posted = 0;
+            List<Long> takeoverMs = new ArrayList<>();
+            for (int k = 0; k < KILLS; k++) {
+                int until = Math.min(storm.size(), posted + 2 + random.nextInt(CLUSTERS / (KILLS + 1) + 2));
+                for (; posted < until; posted++) postToLeader(storm.get(posted));
+                Thread.sleep(300 + random.nextInt(700));
+                Instance leader = leader();
+                long killedAt = System.nanoTime();
+                leader.process().destroyForcibly(); // SIGKILL
+                leader.process().waitFor(30, TimeUnit.SECONDS);
+                instances.remove(leader);
+                Instance standby = instances.get(0);
+                assertThat(awaitRole(standby, "leader", 60)).as(log(standby)).isTrue();
+                takeoverMs.add(TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - killedAt));
+                Instance fresh = start();
+                assertThat(awaitRole(fresh, "standby", 90)).as(log(fresh)).isTrue();
+            }
+            for (; posted < storm.size(); posted++) postToLeader(storm.get(posted));
+
+            // a leader paused past its lease: the standby takes over; resumed, it cannot commit and says so
+            Instance paused = leader();
+            Instance other = instances.stream().filter(i -> i != paused).findFirst().orElseThrow();
+            signal("STOP", paused);
+            long pausedAt = System.nanoTime();
+            assertThat(awaitRole(other, "leader", 60)).as(log(other)).isTrue();
+            long pauseTakeoverMs = TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - pausedAt);
+            signal("CONT", paused);
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(30);
+            while (!stepsDown(paused) && System.nanoTime() < deadline) Thread.sleep(200);
+            String pausedLog = log(paused);
+            assertThat(stepsDown(paused)).as(pausedLog).isTrue();
+
+            Instance last = leader();
+            // the storm engaged the brake (30 of 40 clusters silent), which holds until a person releases it
+            HttpResponse<String> released = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + last.port()
+                            + "/api/v1/brake/release")).header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(30))
+                    .POST(HttpRequest.BodyPublishers.ofString("{\"reason\":\"storm over\"}")).build(), HttpResponse.BodyHandlers.ofString());
+            assertThat(released.statusCode()).as(released.body()).isEqualTo(200);
+            deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(180);
+            while (activeRuns(last) > 0 && System.nanoTime() < deadline) Thread.sleep(300);
+            // the standby answers reads from the shared store; both say who leads in /metrics
+            Instance standbyNow = instances.stream().filter(i -> i != last).findFirst().orElseThrow();
+            assertThat(awaitRole(standbyNow, "standby", 60)).as(log(standbyNow)).isTrue();
+            HttpResponse<String> runsOnStandby = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + standbyNow.port()
+                    + "/api/v1/runs")).header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(10)).build(),
+                    HttpResponse.BodyHandlers.ofString());
+            assertThat(runsOnStandby.statusCode()).isEqualTo(200);
+            assertThat(JSON.readTree(runsOnStandby.body()).size()).isGreaterThanOrEqualTo(CLUSTERS);
+            String leaderMetrics = metrics(last);
+            String standbyMetrics = metrics(standbyNow);
+            System.out.println("failover: leader metrics " + metricLines(leaderMetrics) + "; standby " + metricLines(standbyMetrics));
+            assertThat(leaderMetrics).contains("tend_leader 1.0").contains("tend_takeovers_total 1.0");
+            assertThat(standbyMetrics).contains("tend_leader 0.0").contains("tend_standby_journal_lag ");
+            assertThat(metricValue(leaderMetrics, "tend_lease_epoch")).isGreaterThanOrEqualTo(KILLS + 2);
+            for (Instance i : List.copyOf(instances)) {
+                i.process().destroy(); // SIGTERM: a clean stop
+                assertThat(i.process().waitFor(60, TimeUnit.SECONDS)).isTrue();
+            }
+
+            Figures f = figures(storm, receiver);
+            int audit = auditVerify();
+            System.out.printf("failover: %d SIGKILLs of the leader, takeover after %s ms (max %d ms), SIGSTOP past the lease: "
+                            + "taken over after %d ms, the paused leader stepped down; %d transitions posted, %d missing from the "
+                            + "journal; %d runs, %d keys done, %d asked again by key and answered from the log, %d steps done under "
+                            + "two keys; at most %d runs at once (cap %d), %d runs started while the brake was engaged; "
+                            + "tend audit verify exit %d%n",
+                    KILLS, takeoverMs, takeoverMs.stream().mapToLong(Long::longValue).max().orElse(0), pauseTakeoverMs,
+                    storm.size(), f.missing, f.runs, receiver.done().size(), receiver.repeats(), f.stepsTwice,
+                    f.maxActive, FLEET_CAP, f.startsWhileBraked, audit);
+            assertThat(takeoverMs).allSatisfy(ms -> assertThat(ms).isLessThan(15_000));
+            assertThat(pauseTakeoverMs).isLessThan(15_000);
+            assertThat(f.missing).isZero();
+            assertThat(f.stepsTwice).isZero();
+            assertThat(receiver.done()).isNotEmpty();
+            assertThat(f.maxActive).isLessThanOrEqualTo(FLEET_CAP);
+            assertThat(f.startsWhileBraked).isZero();
+            assertThat(f.ledger.ok()).as(f.ledger.reason()).isTrue();
+            assertThat(audit).isZero();
+        } finally {
+            for (Instance i : instances) i.process().destroyForcibly();
+        }
+    }
+
+    /** What the store and the receiver hold after the storm. */
+    private record Figures(long missing, int runs, long stepsTwice, int maxActive, int startsWhileBraked, LedgerVerification ledger) {
+    }
+
+    private Figures figures(List<String> storm, KeyReceiver receiver) {
+        try (Store store = Store.openJdbc(url, user, null)) {
+            Set<String> journaled = new HashSet<>();
+            store.read(r -> {
+                r.forEachInput(0, row -> {
+                    if (row.kind().equals("transition") && row.cluster() != null) journaled.add(row.cluster());
+                });
+                return null;
+            });
+            long missing = storm.stream().filter(c -> !journaled.contains(c)).count();
+            List<LedgerEntry> entries = new ArrayList<>();
+            store.read(r -> {
+                r.forEachLedger(new LedgerFilter(null, null, null, null, null, null), entries::add);
+                return null;
+            });
+            Set<String> active = new HashSet<>();
+            Set<String> runs = new HashSet<>();
+            int maxActive = 0, whileBraked = 0;
+            boolean braked = false;
+            for (LedgerEntry e : entries) {
+                switch (e.kind()) {
+                    case "run-started" -> {
+                        active.add(e.run());
+                        runs.add(e.run());
+                        if (braked) whileBraked++;
+                        maxActive = Math.max(maxActive, active.size());
+                    }
+                    case "run-ended" -> active.remove(e.run());
+                    case "brake-engaged" -> braked = true;
+                    case "brake-released" -> braked = false;
+                    default -> {
+                    }
+                }
+            }
+            // a key is RUN/STEP/ATTEMPT: a step done under two keys was started again instead of asked again
+            Map<String, Set<String>> keysByStep = new TreeMap<>();
+            for (String key : receiver.done()) {
+                String step = key.substring(0, key.lastIndexOf('/'));
+                keysByStep.computeIfAbsent(step, s -> new HashSet<>()).add(key);
+            }
+            long twice = keysByStep.values().stream().filter(s -> s.size() > 1).count();
+            return new Figures(missing, runs.size(), twice, maxActive, whileBraked, store.read(r -> r.verifyLedger()));
+        }
+    }
+
+    private Instance start() throws IOException {
+        int port = freePort();
+        String name = "tend-" + (++started);
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        List<String> cmd = new ArrayList<>(List.of(java, "-Xmx256m", "-XX:TieredStopAtLevel=1", "-cp", System.getProperty("java.class.path"),
+                "dev.tend.cli.TendMain", "serve", "--playbooks", dir.resolve("policy").toString(),
+                "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
+                "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port, "--lease", LEASE,
+                "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200"));
+        Process p = new ProcessBuilder(cmd).directory(dir.toFile())
+                .redirectOutput(dir.resolve(name + ".out").toFile())
+                .redirectError(dir.resolve(name + ".err").toFile()).start();
+        Instance i = new Instance(name, port, p);
+        instances.add(i);
+        return i;
+    }
+
+    private String log(Instance i) throws IOException {
+        return i.name() + ":\n" + Files.readString(dir.resolve(i.name() + ".err"));
+    }
+
+    private boolean stepsDown(Instance i) throws IOException {
+        String text = Files.readString(dir.resolve(i.name() + ".err"));
+        return text.contains(" steps down: ") || text.contains(" lost the leader lease ");
+    }
+
+    private static void signal(String sig, Instance i) throws Exception {
+        Process kill = new ProcessBuilder("kill", "-" + sig, String.valueOf(i.process().pid())).inheritIO().start();
+        assertThat(kill.waitFor(10, TimeUnit.SECONDS)).isTrue();
+        assertThat(kill.exitValue()).isZero();
+    }
+
+    private JsonNode health(Instance i) {
+        try {
+            HttpResponse<String> r = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/health"))
+                    .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(2)).build(), HttpResponse.BodyHandlers.ofString());
+            return r.statusCode() == 200 ? JSON.readTree(r.body()) : null;
+        } catch (IOException | InterruptedException e) {
+            return null;
+        }
+    }
+
+    private boolean awaitRole(Instance i, String role, int seconds) throws Exception {
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(seconds);
+        while (i.process().isAlive() && System.nanoTime() < deadline) {
+            JsonNode h = health(i);
+            if (h != null && role.equals(h.path("leader").path("role").asText())) return true;
+            Thread.sleep(50);
+        }
+        return false;
+    }
+
+    private Instance leader() {
+        for (Instance i : instances) {
+            JsonNode h = health(i);
+            if (h != null && "leader".equals(h.path("leader").path("role").asText())) return i;
+        }
+        throw new AssertionError("no instance leads");
+    }
+
+    private HttpResponse<String> postTo(Instance i, String cluster) throws Exception {
+        return http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/transitions"))
+                .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(30))
+                .POST(HttpRequest.BodyPublishers.ofString(line(cluster))).build(), HttpResponse.BodyHandlers.ofString());
+    }
+
+    private static String line(String cluster) {
+        return "{\"at\":\"" + Instant.now() + "\",\"cluster\":\"" + cluster + "\",\"node\":\"n1\",\"signal\":\"heartbeat\","
+                + "\"state\":\"silent\"}";
+    }
+
+    /** Posts one transition to the instance that leads, trying again (across a takeover) until it is committed. */
+    private void postToLeader(String cluster) throws Exception {
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+        while (System.nanoTime() < deadline) {
+            for (Instance i : instances) {
+                try {
+                    HttpResponse<String> r = postTo(i, cluster);
+                    if (r.statusCode() == 200) return;
+                    assertThat(r.statusCode()).as(r.body()).isEqualTo(503);
+                } catch (IOException down) {
+                    // that instance is gone or starting
+                }
+            }
+            Thread.sleep(100);
+        }
+        throw new AssertionError("no instance took the transition of " + cluster + " within 60s");
+    }
+
+    private String metrics(Instance i) throws Exception {
+        return http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/metrics")).timeout(Duration.ofSeconds(10))
+                .build(), HttpResponse.BodyHandlers.ofString()).body();
+    }
+
+    private static String metricLines(String text) {
+        return text.lines().filter(l -> l.startsWith("tend_leader") || l.startsWith("tend_lease_epoch")
+                || l.startsWith("tend_takeovers_total") || l.startsWith("tend_standby_journal_lag")).toList().toString();
+    }
+
+    private static double metricValue(String text, String name) {
+        return text.lines().filter(l -> l.startsWith(name + " ")).mapToDouble(l -> Double.parseDouble(l.substring(name.length() + 1)))
+                .findFirst().orElse(-1);
+    }
+
+    private int activeRuns(Instance i) throws Exception {
+        HttpResponse<String> r = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/runs?active=true"))
+                .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(10)).build(), HttpResponse.BodyHandlers.ofString());
+        int n = 0;
+        for (JsonNode run : JSON.readTree(r.body())) if (!run.path("state").asText().equals("needs-human")) n++;
+        return n;
+    }
+
+    /** {@code tend audit verify} on the store, as a person would run it; returns its exit code. */
+    private int auditVerify() throws Exception {
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        Process p = new ProcessBuilder(java, "-cp", System.getProperty("java.class.path"), "dev.tend.cli.TendMain", "audit", "verify",
+                "--db", url, "--db-user", user, "--ledger-key", dir.resolve("ledger.key").toString())
+                .redirectErrorStream(true).redirectOutput(dir.resolve("audit.out").toFile()).start();
+        assertThat(p.waitFor(120, TimeUnit.SECONDS)).isTrue();
+        System.out.println("tend audit verify: " + Files.readString(dir.resolve("audit.out")).strip());
+        return p.exitValue();
+    }
+
+    private static int freePort() throws IOException {
+        try (ServerSocket s = new ServerSocket(0, 1, java.net.InetAddress.getLoopbackAddress())) {
+            return s.getLocalPort();
+        }
+    }
+
+    private void writePolicy(String receiverUrl) throws IOException {
+        Path policy = Files.createDirectories(dir.resolve("policy"));
+        Files.writeString(policy.resolve("actions.yaml"), """
+                actions:
+                  fix-by-call:
+                    http:
+                      url: %s/fix/{cluster}
+                      body: { run: "{run}" }
+                      timeout: 1m
+                      retries: 3
+                """.formatted(receiverUrl));
+        Files.writeString(policy.resolve("tend.yaml"), """
+                defaults:
+                  fleet: %d
+                  per-zone: 16
+                  rate: 1000/1h
+                rate: 1000/1h
+                brake:
+                  engage-at: { clusters: 30 }
+                  release-below: { clusters: 20 }
+                  auto-release: false
+                """.formatted(FLEET_CAP));
+        Files.writeString(policy.resolve("fix-heartbeat.yaml"), """
+                playbook: fix-heartbeat
+                version: 1
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
+                limits: { impaired-fraction: 1.0, keep-replicas: false, keep-quorum: false }
+                steps:
+                  - { id: first, action: fix-by-call, timeout: 1m }
+                  - { id: second, action: fix-by-call, timeout: 1m }
+                """);
+        StringBuilder fleet = new StringBuilder("fleet: larkspur-failover\nclusters:\n");
+        for (int c = 1; c <= CLUSTERS; c++) {
+            fleet.append("  - id: fares-").append(c).append("\n    nodes:\n");
+            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
+        }
+        Files.writeString(policy.resolve("fleet.yaml"), fleet);
+        Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n  - { name: failover, roles: [operator, viewer], sha256: "
+                + Tokens.hash(TOKEN) + " }\n");
+        byte[] key = new byte[32];
+        new Random(11).nextBytes(key);
+        Path k = dir.resolve("ledger.key");
+        Files.write(k, key);
+        Files.setPosixFilePermissions(k, java.nio.file.attribute.PosixFilePermissions.fromString("rw-------"));
+    }
+}
