@@ -19,9 +19,18 @@ const REASONS = {
   "rate-limit": "the start budget is spent",
 };
 
-function reasonList(codes) {
-  return el("ul", { class: "reasons" }, codes.map((c) => el("li", {},
-    el("code", { class: "reason", text: c }), REASONS[c] ? " " + REASONS[c] : "")));
+/**
+ * Each reason once: its code and the guard's own sentence from the verdict that asked a person
+ * (ledgered as "code: sentence"), or a short gloss of the code when that verdict is not at hand.
+ */
+function reasonList(codes, verdict) {
+  const said = new Map();
+  for (const m of (verdict && verdict.messages) || []) {
+    const i = m.indexOf(": ");
+    if (i > 0 && !said.has(m.slice(0, i))) said.set(m.slice(0, i), m.slice(i + 2));
+  }
+  return el("ul", { class: "reasons" }, codes.map((c) => el("li", { dataset: { reason: c } },
+    el("code", { class: "reason", text: c }), " ", said.get(c) || REASONS[c] || "")));
 }
 
 function decisionControls(ctx, a, after) {
@@ -109,9 +118,7 @@ export default {
                 el("dt", { text: "asked by" }), el("dd", {}, a.requested_by, " at ", time(a.requested_at, now)),
                 el("dt", { text: "lapses" }), el("dd", {}, time(a.expires_at, now), " ", left)),
               el("h4", { text: "Why a person is asked" }),
-              reasonList(a.reasons),
-              verdict && verdict.messages && verdict.messages.length
-                ? el("ul", { class: "messages" }, verdict.messages.map((m) => el("li", { text: m }))) : null,
+              reasonList(a.reasons, verdict),
               decisionControls(ctx, a, () => view.refresh()));
           }));
         }

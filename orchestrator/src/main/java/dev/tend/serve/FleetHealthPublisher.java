@@ -33,9 +33,11 @@ import java.util.function.Supplier;
 final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth> {
     private final AtomicReference<FleetHealth> current = new AtomicReference<>(FleetHealth.empty());
     private final Clock clock;
+    private final double timeScale;
 
-    FleetHealthPublisher(Clock clock) {
+    FleetHealthPublisher(Clock clock, double timeScale) {
         this.clock = clock;
+        this.timeScale = timeScale;
     }
 
     @Override
@@ -60,10 +62,12 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     void publish(Engine engine) {
         FleetHealthView view = engine.health();
         Map<String, int[]> clustersPerZone = new TreeMap<>();
+        Map<String, int[]> nodesPerZone = new TreeMap<>();
         Map<String, List<String>> unhealthyPerZone = new TreeMap<>();
         Map<String, Integer> impaired = view.impairedPerZone();
         for (ClusterSpec c : view.topology().clusters()) {
             for (String z : zones(c)) clustersPerZone.computeIfAbsent(z, k -> new int[1])[0]++;
+            for (NodeSpec n : c.nodes()) nodesPerZone.computeIfAbsent(n.zone() == null ? "unknown" : n.zone(), k -> new int[1])[0]++;
         }
         List<FleetHealth.ClusterProblem> problems = new ArrayList<>();
         for (Id cluster : view.unhealthyClusters()) {
@@ -87,14 +91,14 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         allZones.addAll(unhealthyPerZone.keySet());
         List<FleetHealth.Zone> zones = new ArrayList<>();
         for (String z : allZones) {
-            zones.add(new FleetHealth.Zone(z, clustersPerZone.getOrDefault(z, new int[1])[0],
+            zones.add(new FleetHealth.Zone(z, nodesPerZone.getOrDefault(z, new int[1])[0], clustersPerZone.getOrDefault(z, new int[1])[0],
                     unhealthyPerZone.getOrDefault(z, List.of()), impaired.getOrDefault(z, 0)));
         }
         // before the first event the engine's event time is the epoch: "none yet"
         java.time.Instant eventTime = engine.eventTime().equals(java.time.Instant.EPOCH) ? null : engine.eventTime();
         current.set(new FleetHealth(clock.instant(), eventTime, view.topology().name(), view.topology().size(),
                 view.unhealthyClusterCount(), view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()),
-                zones, problems));
+                zones, problems, timeScale));
     }
 
     private static List<String> zones(ClusterSpec c) {
