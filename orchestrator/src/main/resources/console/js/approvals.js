@@ -2,26 +2,12 @@
 import { api } from "./api.js";
 import { el, replace, pill, table, time, empty, span, target } from "./dom.js";
 
-const REASONS = {
-  "approval-required": "the playbook asks a person for this cluster",
-  "excluded": "the target is excluded",
-  "masked": "an owner-caused signal explains the problem",
-  "unconfirmed": "the problem has not lasted its confirm-for yet",
-  "flapping": "the signal changes too often",
-  "fleet-brake": "the fleet brake is engaged",
-  "window-closed": "outside the change window",
-  "cooldown": "the target was remediated recently",
-  "loop": "the target was remediated too often",
-  "cluster-busy": "another run is active on the cluster",
-  "blast-radius": "too many runs at once",
-  "quorum": "the cluster would lose its quorum",
-  "replication": "some data would fall below its minimum of healthy copies",
-  "rate-limit": "the start budget is spent",
-};
+// what each reason code means, as the server says (GET vocabulary); filled before the first list is drawn
+let meanings = {};
 
 /**
  * Each reason once: its code and the guard's own sentence from the verdict that asked a person
- * (ledgered as "code: sentence"), or a short gloss of the code when that verdict is not at hand.
+ * (ledgered as "code: sentence"), or the code's meaning (GET vocabulary) when that verdict is not at hand.
  */
 function reasonList(codes, verdict) {
   const said = new Map();
@@ -30,7 +16,7 @@ function reasonList(codes, verdict) {
     if (i > 0 && !said.has(m.slice(0, i))) said.set(m.slice(0, i), m.slice(i + 2));
   }
   return el("ul", { class: "reasons" }, codes.map((c) => el("li", { dataset: { reason: c } },
-    el("code", { class: "reason", text: c }), " ", said.get(c) || REASONS[c] || "")));
+    el("code", { class: "reason", text: c }), " ", said.get(c) || meanings[c] || "")));
 }
 
 function decisionControls(ctx, a, after) {
@@ -99,6 +85,8 @@ export default {
     const view = {
       async refresh() {
         const now = ctx.now();
+        const vocabulary = await api.vocabulary();
+        meanings = Object.fromEntries(vocabulary.reason_codes.map((r) => [r.code, r.meaning]));
         const list = await api.approvals("pending");
         const key = list.map((a) => a.run).join(",");
         if (key !== shown) {

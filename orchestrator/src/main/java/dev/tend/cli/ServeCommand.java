@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.TokenFile;
 import dev.tend.api.auth.Tokens;
 import dev.tend.engine.EngineSetup;
@@ -75,7 +76,7 @@ public final class ServeCommand implements Callable<Integer> {
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
                 .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).build();
         try (Store store = db.open()) {
-            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {
                 if (key != null) server.checkpointWith(store, key);
                 var rec = server.recovery();

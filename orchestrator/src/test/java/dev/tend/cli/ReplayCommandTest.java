@@ -32,9 +32,9 @@ class ReplayCommandTest {
         assertThat(r.out()).contains("replay of zone-outage").contains("runs started       0").contains("fleet brake        engaged 1 time")
                 .contains("holds by reason").contains("fleet-brake").contains("notifications: 1 (oncall 1)");
         // "0 approvals requested" beside approval-required holds is explained, and each reason names targets
-        assertThat(r.out()).containsPattern("approval-required +\\d+  policy asks a person to approve\n.*\n +0 approvals requested: these"
+        assertThat(r.out()).containsPattern("approval-required +\\d+  the playbook asks a person for this cluster\n.*\n +0 approvals requested: these"
                         + " decisions were also held by another guard, and a person is asked only once approval is the last reason left")
-                .containsPattern("fleet-brake +\\d+  too many clusters unhealthy at once\n +[a-z]+-\\d+(/n\\d+)?, [a-z]+-\\d+(/n\\d+)?,"
+                .containsPattern("fleet-brake +\\d+  the fleet brake is engaged\n +[a-z]+-\\d+(/n\\d+)?, [a-z]+-\\d+(/n\\d+)?,"
                         + " [a-z]+-\\d+(/n\\d+)? and \\d+ more \\(\\d+ targets\\)");
         assertThat(r.out().lines().count()).isLessThan(50);
         assertThat(r.err()).as("no bar when standard error is not a terminal: at most plain progress lines")

@@ -116,7 +116,7 @@ public final class ReportHtml {
         sb.append("<h2>").append(esc(title)).append("</h2>\n<table><tr><th>reason code</th><th>meaning</th><th>decisions</th>"
                 + "<th>targets (the first ones and how many)</th></tr>\n");
         counts.forEach((c, n) -> {
-            sb.append("<tr><td><code>").append(c.code()).append("</code></td><td>").append(esc(ReasonText.gloss(c)))
+            sb.append("<tr><td><code>").append(c.code()).append("</code></td><td>").append(esc(c.meaning()))
                     .append("</td><td class=\"n\">").append(n).append("</td><td>")
                     .append(esc(ReportText.targets(r.decisions(), verdict, c)));
             if (c == ReasonCode.APPROVAL_REQUIRED) {

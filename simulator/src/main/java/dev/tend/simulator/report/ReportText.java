@@ -101,7 +101,7 @@ public final class ReportText {
         if (counts.isEmpty()) return;
         sb.append('\n').append(title).append(", with the first targets\n");
         counts.forEach((c, n) -> {
-            sb.append(String.format(Locale.ROOT, "  %-18s %6d  %s\n", c.code(), n, ReasonText.gloss(c)));
+            sb.append(String.format(Locale.ROOT, "  %-18s %6d  %s\n", c.code(), n, c.meaning()));
             sb.append(String.format(Locale.ROOT, "  %-18s %6s  %s\n", "", "", targets(r.decisions(), verdict, c)));
             if (c == ReasonCode.APPROVAL_REQUIRED) {
                 sb.append(String.format(Locale.ROOT, "  %-18s %6s  %s\n", "", "", approvalNote(r.summary().approvalsRequested())));

@@ -17,9 +17,9 @@ class ReportRenderTest {
                 .contains("replace-silent-node")
                 .contains("holds by reason")
                 // each reason with the targets it held or denied, not a count alone
-                .containsPattern("unconfirmed +1  the problem had not lasted confirm-for yet\n +[a-z]+-\\d+(/n\\d)? \\(1 target\\)")
+                .containsPattern("unconfirmed +1  the problem has not lasted its confirm-for yet\n +[a-z]+-\\d+(/n\\d)? \\(1 target\\)")
                 .contains("denials by reason")
-                .containsPattern("masked +1  another active signal on the target explains this one\n +[a-z]+-\\d+(/n\\d)? \\(1 target\\)")
+                .containsPattern("masked +1  an owner-caused signal explains the problem\n +[a-z]+-\\d+(/n\\d)? \\(1 target\\)")
                 .contains("2027-03-16T01:40:00Z to 2027-03-16T02:20:00Z (40m)")
                 .contains("3 recorded events hidden after 1 simulated fix")
                 .contains("no approval arrives in a replay");
@@ -54,7 +54,7 @@ class ReportRenderTest {
                 Fixtures.decision(1, "fares-4", "n2", Verdict.HOLD, ReasonCode.FLEET_BRAKE, ReasonCode.APPROVAL_REQUIRED)), List.of());
         String why = "0 approvals requested: these decisions were also held by another guard, and a person is asked only once"
                 + " approval is the last reason left";
-        assertThat(ReportText.render(r)).containsPattern("approval-required +2  policy asks a person to approve\n"
+        assertThat(ReportText.render(r)).containsPattern("approval-required +2  the playbook asks a person for this cluster\n"
                 + " +fares-3/n1, fares-4/n2 \\(2 targets\\)\n +" + java.util.regex.Pattern.quote(why));
         assertThat(ReportHtml.render(r)).containsPattern("<code>approval-required</code></td><td>[^<]*</td><td class=\"n\">2</td>"
                 + "<td>fares-3/n1, fares-4/n2 \\(2 targets\\)<br><span class=\"muted\">" + java.util.regex.Pattern.quote(why));
@@ -67,10 +67,10 @@ class ReportRenderTest {
         decisions.add(Fixtures.decision(9, "dispatch-1", null, Verdict.DENY, ReasonCode.EXCLUDED));
         String html = ReportHtml.render(Fixtures.report(List.of(), decisions, List.of()));
         assertThat(html).contains("<h2>Holds by reason</h2>")
-                .contains("<td><code>fleet-brake</code></td><td>too many clusters unhealthy at once</td><td class=\"n\">7</td>"
+                .contains("<td><code>fleet-brake</code></td><td>the fleet brake is engaged</td><td class=\"n\">7</td>"
                         + "<td>fares-1/n1, fares-2/n1, fares-3/n1 and 4 more (7 targets)</td>")
                 .contains("<h2>Denials by reason</h2>")
-                .contains("<td><code>excluded</code></td><td>the target is on the exclusion list</td><td class=\"n\">1</td>"
+                .contains("<td><code>excluded</code></td><td>the target is excluded</td><td class=\"n\">1</td>"
                         + "<td>dispatch-1 (1 target)</td>");
     }
 
