@@ -6,8 +6,8 @@ import { el, replace, pill, table, time, empty, span, target } from "./dom.js";
 let meanings = {};
 
 /**
- * Each reason once: its code and the guard's own sentence from the verdict that asked a person
- * (ledgered as "code: sentence"), or the code's meaning (GET vocabulary) when that verdict is not at hand.
+ * Each reason once: its code and what it means (GET vocabulary), or, for a code the server did
+ * not explain, the guard's own sentence from the verdict that asked a person ("code: sentence").
  */
 function reasonList(codes, verdict) {
   const said = new Map();
@@ -16,7 +16,7 @@ function reasonList(codes, verdict) {
     if (i > 0 && !said.has(m.slice(0, i))) said.set(m.slice(0, i), m.slice(i + 2));
   }
   return el("ul", { class: "reasons" }, codes.map((c) => el("li", { dataset: { reason: c } },
-    el("code", { class: "reason", text: c }), " ", said.get(c) || meanings[c] || "")));
+    el("code", { class: "reason", text: c }), " ", meanings[c] || said.get(c) || "")));
 }
 
 function decisionControls(ctx, a, after) {

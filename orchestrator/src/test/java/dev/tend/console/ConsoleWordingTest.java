@@ -112,6 +112,9 @@ class ConsoleWordingTest {
         handover(d, wait, server, replacing);
         chromium.screenshot("wording-handover");
 
+        abortWithAReason(d, wait, server, replacing);
+        chromium.screenshot("wording-abort");
+
         handoverPage(d, server);
         chromium.screenshot("wording-handover-html");
         replayPage(d);
@@ -163,6 +166,19 @@ class ConsoleWordingTest {
         WebElement whole = wait.until(ExpectedConditions.presenceOfElementLocated(By.id("handover-timeline")));
         Duration all = Duration.between(Instant.parse(whole.getAttribute("data-from")), Instant.parse(whole.getAttribute("data-to")));
         assertThat(all).as("the whole period once picked").isGreaterThanOrEqualTo(Duration.ofHours(11));
+    }
+
+    /** The runs page's Abort asks for a reason, and the reason typed is the one the ledger keeps. */
+    private static void abortWithAReason(WebDriver d, WebDriverWait wait, ConsoleServer server, String run) {
+        d.get(server.url() + "/#runs");
+        wait.until(ExpectedConditions.elementToBeClickable(By.cssSelector("button[data-action='abort'][data-run='" + run + "']"))).click();
+        org.openqa.selenium.Alert ask = wait.until(ExpectedConditions.alertIsPresent());
+        assertThat(ask.getText()).contains("Abort " + run, "Say why");
+        ask.sendKeys("owner is replacing the node by hand");
+        ask.accept();
+        wait.until(ExpectedConditions.textToBePresentInElementLocated(By.id("notice"), "Aborted " + run));
+        JsonNode aborted = json(server.get("/api/v1/ledger?run=" + run + "&kind=run-ended", VERA)).get("entries").get(0);
+        assertThat(aborted.toString()).contains("owner is replacing the node by hand").contains("anna");
     }
 
     /** The printable handover page: its legend entries sit side by side without overlapping. */
