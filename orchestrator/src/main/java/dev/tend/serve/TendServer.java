@@ -1,6 +1,7 @@
 package dev.tend.serve;
 
 import dev.tend.api.ApiServer;
+import dev.tend.api.ServerTls;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
@@ -50,6 +51,7 @@ public final class TendServer implements AutoCloseable {
     private final ScheduledExecutorService ticker;
     private final ApiServer api;
     private final Courier courier;
+    private final ServerTls tls;
     private final String host;
     /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
     private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
@@ -124,9 +126,16 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
-                    s.setup().playbooks()));
+            tls = s.tls() == null ? null : ServerTls.watch(s.tls().cert(), s.tls().key(), s.tls().checkEvery(), log);
         } catch (RuntimeException e) {
+            stopDriver();
+            throw e;
+        }
+        try {
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), tls, new ApiServer.Parts(store, gateway, s.tokens(),
+                    health, metrics, clock, log, s.setup().playbooks()));
+        } catch (RuntimeException e) {
+            if (tls != null) tls.close();
             stopDriver();
             throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);
         }
@@ -161,10 +170,10 @@ public final class TendServer implements AutoCloseable {
         return api.port();
     }
 
-    /** The base URL, e.g. {@code http://127.0.0.1:7420}. */
+    /** The base URL, e.g. {@code http://127.0.0.1:7420}, or {@code https://...} when serving over TLS. */
     public String url() {
         String h = host.contains(":") ? "[" + host + "]" : host;
-        return "http://" + h + ":" + port();
+        return (tls == null ? "http://" : "https://") + h + ":" + port();
     }
 
     /**
@@ -198,6 +207,7 @@ public final class TendServer implements AutoCloseable {
         if (closed) return;
         closed = true;
         api.close();
+        if (tls != null) tls.close();
         stopDriver();
         courier.close();
     }

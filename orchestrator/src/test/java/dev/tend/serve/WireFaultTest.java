@@ -160,8 +160,9 @@ class WireFaultTest {
         Set<String> good = goodKeys(corpus);
         Set<String> journaled = journaledKeys(serve.store());
         long lost = good.stream().filter(k -> !journaled.contains(k)).count();
-        System.out.printf("fault suite, serve: %d lines (%d good) in %d requests, %d lines refused, %d good lines lost,"
-                + " %d refusals without a line, %d server errors%n", corpus.size(), good.size(), (corpus.size() + chunk - 1) / chunk,
+        System.out.printf("fault suite, serve: %d lines (%d good, %d mutated) in %d requests, %d lines refused, %d good lines lost,"
+                + " %d refusals without a line, %d server errors%n", corpus.size(), good.size(),
+                corpus.stream().filter(l -> !l.good()).count(), (corpus.size() + chunk - 1) / chunk,
                 refusedLines, lost, unlocated, serverErrors);
         assertThat(lost).isZero();
         assertThat(unlocated).isZero();
@@ -182,8 +183,8 @@ class WireFaultTest {
         long good = corpus.stream().filter(WireMutator.Line::good).count();
         long unlocated = 0;
         for (JsonNode p : rec.get("bad_line_problems")) if (p.path("line").asInt() <= 0) unlocated++;
-        System.out.printf("fault suite, replay: %d lines (%d good), %d events read, %d bad lines listed of %d, %d without a line%n",
-                corpus.size(), good, rec.get("events").asLong(), rec.get("bad_line_problems").size(), rec.get("bad_lines").asLong(),
+        System.out.printf("fault suite, replay: %d lines (%d good, %d mutated), %d events read, %d bad lines listed of %d,"
+                + " %d without a line%n", corpus.size(), good, corpus.size() - good, rec.get("events").asLong(), rec.get("bad_line_problems").size(), rec.get("bad_lines").asLong(),
                 unlocated);
         assertThat(rec.get("events").asLong()).isGreaterThanOrEqualTo(good);
         assertThat(rec.get("bad_line_problems").size()).isEqualTo(rec.get("bad_lines").asInt());
