@@ -11,7 +11,7 @@ import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.metrics.TendMetrics;
-import dev.tend.page.Courier;
+import dev.tend.page.PageDelivery;
 import dev.tend.page.Senders;
 import dev.tend.metrics.TimedExecutor;
 import dev.tend.runtime.CommitListener;
@@ -50,7 +50,7 @@ public final class TendServer implements AutoCloseable {
     private final CountDownLatch driverDone = new CountDownLatch(1);
     private final ScheduledExecutorService ticker;
     private final ApiServer api;
-    private final Courier courier;
+    private final PageDelivery pages;
     private final ServerTls tls;
     private final String host;
     /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
@@ -100,10 +100,10 @@ public final class TendServer implements AutoCloseable {
                 }
             }
         };
-        Courier[] courierRef = new Courier[1];
+        PageDelivery[] pagesRef = new PageDelivery[1];
         Notifier notifier = n -> {
-            Courier c = courierRef[0];
-            if (c != null) c.wake();
+            PageDelivery p = pagesRef[0];
+            if (p != null) p.wake();
         };
         orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners);
         holder[0] = orchestrator;
@@ -141,8 +141,10 @@ public final class TendServer implements AutoCloseable {
         }
         host = s.host();
         Senders withLink = paging.consoleUrl() != null ? senders : Senders.from(paging.withConsoleUrl(url() + "/"), http, log);
-        courier = new Courier(store, withLink, clock, PAGE_FIRST_PAUSE, metrics::pageAttempted).start();
-        courierRef[0] = courier;
+        pages = new PageDelivery(store, withLink, clock, PAGE_FIRST_PAUSE, metrics::pageAttempted);
+        pagesRef[0] = pages;
+        // this process owns the engine (it opened the store and runs the driver), so it delivers the outbox
+        pages.start();
     }
 
     /** The pause before a page is tried again after a first failed attempt (it doubles, up to 5 minutes). */
@@ -184,6 +186,15 @@ public final class TendServer implements AutoCloseable {
         orchestrator.checkpointWith(new dev.tend.audit.CheckpointWriter(store, key, dev.tend.audit.CheckpointWriter.EVERY));
     }
 
+    /**
+     * The page outbox's delivery, the one seam that decides whether this process sends pages:
+     * started with the server, which owns the engine; stop it when another process takes the
+     * engine over, start it again when this one takes it back.
+     */
+    public PageDelivery pageDelivery() {
+        return pages;
+    }
+
     /** What the start found in the store. */
     public Orchestrator.Recovery recovery() {
         return recovery;
@@ -209,7 +220,7 @@ public final class TendServer implements AutoCloseable {
         api.close();
         if (tls != null) tls.close();
         stopDriver();
-        courier.close();
+        pages.close();
     }
 
     private void stopDriver() {
