@@ -52,8 +52,15 @@ async function send(method, path, params, body, withToken) {
   return json === null ? text : json;
 }
 
+let vocabulary = null;
+
 export const api = {
   me: (withToken) => send("GET", "me", null, undefined, withToken),
+  // the server's ledger kinds and reason codes; they do not change while it runs, so asked once
+  vocabulary: () => {
+    if (!vocabulary) vocabulary = send("GET", "vocabulary").catch((err) => { vocabulary = null; throw err; });
+    return vocabulary;
+  },
   health: () => send("GET", "health"),
   approvals: (state) => send("GET", "approvals", { state }),
   approve: (run) => send("POST", "approvals/" + encodeURIComponent(run) + "/approve", null, {}),

@@ -2,26 +2,12 @@
 import { api } from "./api.js";
 import { el, replace, pill, table, time, empty, span, target } from "./dom.js";
 
-const REASONS = {
-  "approval-required": "the playbook asks a person for this cluster",
-  "excluded": "the target is excluded",
-  "masked": "an owner-caused signal explains the problem",
-  "unconfirmed": "the problem has not lasted its confirm-for yet",
-  "flapping": "the signal changes too often",
-  "fleet-brake": "the fleet brake is engaged",
-  "window-closed": "outside the change window",
-  "cooldown": "the target was remediated recently",
-  "loop": "the target was remediated too often",
-  "cluster-busy": "another run is active on the cluster",
-  "blast-radius": "too many runs at once",
-  "quorum": "the cluster would lose its quorum",
-  "replication": "some data would fall below its minimum of healthy copies",
-  "rate-limit": "the start budget is spent",
-};
+// what each reason code means, as the server says (GET vocabulary); filled before the first list is drawn
+let meanings = {};
 
 function reasonList(codes) {
   return el("ul", { class: "reasons" }, codes.map((c) => el("li", {},
-    el("code", { class: "reason", text: c }), REASONS[c] ? " " + REASONS[c] : "")));
+    el("code", { class: "reason", text: c }), meanings[c] ? " " + meanings[c] : "")));
 }
 
 function decisionControls(ctx, a, after) {
@@ -90,6 +76,8 @@ export default {
     const view = {
       async refresh() {
         const now = ctx.now();
+        const vocabulary = await api.vocabulary();
+        meanings = Object.fromEntries(vocabulary.reason_codes.map((r) => [r.code, r.meaning]));
         const list = await api.approvals("pending");
         const key = list.map((a) => a.run).join(",");
         if (key !== shown) {

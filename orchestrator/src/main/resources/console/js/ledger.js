@@ -2,11 +2,6 @@
 import { api } from "./api.js";
 import { el, replace, pill, time, empty, target } from "./dom.js";
 
-const KINDS = ["verdict", "transition", "transitions-received", "approval-requested", "approval-granted", "approval-rejected", "approval-lapsed",
-  "approval-refused", "run-started", "run-ended", "run-needs-human", "run-paused", "run-resumed", "run-shadowed", "run-standing-down",
-  "step-started", "step-finished", "step-failed", "step-timed-out", "executor-call", "executor-result",
-  "brake-engaged", "brake-released", "exclusion-added", "exclusion-removed", "loop-stopped", "loop-cleared",
-  "operator-command", "policy-loaded", "topology"];
 const SINCE = [["15m", 15], ["1h", 60], ["6h", 360], ["24h", 1440], ["everything", 0]];
 const INSTANT = /^\d{4}-\d\d-\d\dT\d\d:\d\d/;
 const SHOWN = new Set(["seq", "at", "kind", "cluster", "node", "playbook", "run", "hash"]);
@@ -35,8 +30,16 @@ export default {
   id: "ledger",
   title: "Ledger",
   mount(root, ctx) {
-    const kind = el("select", { id: "filter-kind", name: "kind" }, el("option", { value: "", text: "any kind" }),
-      KINDS.map((k) => el("option", { value: k, text: k })));
+    // the kinds come from the server (GET vocabulary), so the filter offers every kind it writes
+    const kind = el("select", { id: "filter-kind", name: "kind" }, el("option", { value: "", text: "any kind" }));
+    let kindsShown = false;
+    async function showKinds() {
+      if (kindsShown) return;
+      const v = await api.vocabulary();
+      if (kindsShown) return;
+      kind.append(...v.ledger_kinds.map((k) => el("option", { value: k.kind, text: k.kind })));
+      kindsShown = true;
+    }
     const cluster = el("input", { id: "filter-cluster", name: "cluster", type: "text", placeholder: "e.g. fares-3" });
     const playbook = el("input", { id: "filter-playbook", name: "playbook", type: "text", placeholder: "e.g. replace-silent-node" });
     const since = el("select", { id: "filter-since", name: "since" },
@@ -65,6 +68,7 @@ export default {
 
     const view = {
       async refresh() {
+        await showKinds();
         const now = ctx.now();
         const page = await api.ledger({ kind: kind.value, cluster: cluster.value.trim(), playbook: playbook.value.trim(),
           since: sinceValue(), limit: 300 });

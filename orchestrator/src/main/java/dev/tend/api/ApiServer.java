@@ -103,6 +103,7 @@ public final class ApiServer implements AutoCloseable {
                 new PageRoutes(parts.store()).mount(r);
                 new HandoverRoutes(parts.store(), parts.clock()).mount(r);
                 new PlaybookRoutes(parts.playbooks()).mount(r);
+                new VocabularyRoutes().mount(r);
                 new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 new HealthRoutes(parts.health(), parts.metrics()).mount(r);
             });

@@ -1,5 +1,6 @@
 package dev.tend.api;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ApprovalOutcome;
@@ -60,8 +61,8 @@ final class ApprovalRoutes {
         List<String> reasons = List.of();
         for (Effect e : fx) {
             if (!(e instanceof Effect.Ledger l)) continue;
-            if (l.kind().equals("approval-refused")) throw new RefusedException(String.valueOf(l.fields().get("reason")));
-            if (l.kind().equals("verdict") && run.equals(l.fields().get("run"))) {
+            if (l.type() == LedgerKind.APPROVAL_REFUSED) throw new RefusedException(String.valueOf(l.fields().get("reason")));
+            if (l.type() == LedgerKind.VERDICT && run.equals(l.fields().get("run"))) {
                 verdict = String.valueOf(l.fields().get("verdict"));
                 reasons = strings(l.fields().get("reasons"));
             }

@@ -1,5 +1,6 @@
 package dev.tend.api;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ExclusionRequest;
@@ -68,7 +69,7 @@ final class ExclusionRoutes {
         List<Effect> effects = gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(), Requests.from(ctx)));
         for (Effect e : effects) {
             // an unknown cluster or node is a mistake in the request (a typo, most often): 400, with the engine's suggestion
-            if (e instanceof Effect.Ledger l && l.kind().equals("command-refused")
+            if (e instanceof Effect.Ledger l && l.type() == LedgerKind.COMMAND_REFUSED
                     && ReasonCode.UNKNOWN_TARGET.code().equals(l.fields().get("code"))) {
                 throw Requests.invalid(target.node() != null && l.fields().get("reason").toString().startsWith("node")
                         ? "node" : "cluster", String.valueOf(l.fields().get("reason")));

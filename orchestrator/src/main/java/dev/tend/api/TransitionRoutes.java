@@ -1,5 +1,6 @@
 package dev.tend.api;
 
+import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.api.auth.Caller;
@@ -78,7 +79,7 @@ final class TransitionRoutes {
             fields.put("from", Requests.from(ctx));
             fields.put("accepted", events.size());
             fields.put("rejected", summary.bad());
-            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "transitions-received", fields));
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(), LedgerKind.TRANSITIONS_RECEIVED.check(fields)));
         }
         metrics.transitionsReceived(events.size());
         metrics.linesRejected(summary.bad());

@@ -17,7 +17,7 @@ import java.util.Map;
  * @param hmac       HMAC-SHA-256 of {@link #message}, hex
  */
 public record Checkpoint(long coversSeq, String coversHash, String keyId, String hmac) {
-    public static final String KIND = "checkpoint";
+    public static final String KIND = dev.tend.engine.LedgerKind.CHECKPOINT.wire();
     private static final ObjectMapper JSON = new ObjectMapper();
 
     /** What is signed: a fixed label, so a checkpoint's HMAC can never be taken for another's. */

@@ -1,5 +1,6 @@
 package dev.tend.audit;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.Store;
 
@@ -42,7 +43,7 @@ public final class CheckpointWriter {
             Optional<LedgerEntry> head = tx.ledgerHead();
             if (head.isEmpty() || head.get().kind().equals(Checkpoint.KIND)) return;
             LedgerEntry h = head.get();
-            tx.appendLedger(now, Checkpoint.KIND, Checkpoint.make(key, h.seq(), h.hash()).fields());
+            tx.appendLedger(now, Checkpoint.KIND, LedgerKind.CHECKPOINT.check(Checkpoint.make(key, h.seq(), h.hash()).fields()));
         });
     }
 }

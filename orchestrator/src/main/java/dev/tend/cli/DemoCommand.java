@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.TokenFile;
 import dev.tend.demo.DemoFeeder;
 import dev.tend.demo.DemoLibrary;
@@ -96,7 +97,7 @@ public final class DemoCommand implements Callable<Integer> {
         try (Store store = Store.openSqlite(storeFile)) {
             Instant start = demoStart(store);
             TimeScale scale = TimeScale.accelerated(start, speedup);
-            store.useTransaction(tx -> tx.appendLedger(start, "policy-loaded", PolicyOptions.loaded(setup)));
+            store.useTransaction(tx -> tx.appendLedger(start, LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port())
                     .tokens(TokenFile.load(home.resolve("tokens.yaml"))).speedup(speedup).seed(seed).timeScale(scale)
                     .tick(Duration.ofSeconds(1)).workDir(home).log(err).build();

@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
@@ -97,7 +98,7 @@ public final class IngestCommand implements Callable<Integer> {
              Executor simulated = new SimulatedExecutor(seed, speedup);
              Executor http = HttpExecutor.withDefaults(outgoing);
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
-            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             CommitRefusals refusals = new CommitRefusals(input, err);
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));

@@ -1,12 +1,14 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import org.apache.commons.text.similarity.LevenshteinDistance;
 
+import java.util.Arrays;
 import java.util.Collection;
-import java.util.List;
 import java.util.Optional;
 import java.util.Set;
 import java.util.TreeSet;
+import java.util.stream.Collectors;
 
 /**
  * The kinds of ledger entries {@code tend audit --kind} can filter on: those tend writes,
@@ -14,14 +16,9 @@ import java.util.TreeSet;
  * kind outside both is a typing mistake, answered with the nearest known kind.
  */
 final class LedgerKinds {
-    /** The kinds the engine, the driver and the API write. */
-    static final Set<String> WRITTEN = Set.copyOf(List.of(
-            "policy-loaded", "transition", "topology", "transitions-received", "verdict", "candidate-dropped",
-            "approval-requested", "approval-granted", "approval-rejected", "approval-lapsed",
-            "approval-refused", "run-started", "run-shadowed", "run-paused", "run-resumed", "run-needs-human", "run-ended",
-            "step-started", "step-finished", "step-failed", "step-timed-out", "executor-call", "executor-result",
-            "executor-result-ignored", "exclusion-added", "exclusion-removed", "brake-engaged", "brake-released",
-            "operator-command", "command-refused", "loop-stopped", "loop-cleared", "notification"));
+    /** The kinds tend writes (the engine, the driver, the courier, the API). */
+    static final Set<String> WRITTEN = Arrays.stream(LedgerKind.values()).map(LedgerKind::wire)
+            .collect(Collectors.toUnmodifiableSet());
 
     /** Edits at most this far from a known kind are offered as "did you mean". */
     private static final int NEAR = 3;

@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
@@ -46,7 +47,7 @@ final class LedgerText {
         }
         StringBuilder sb = new StringBuilder(String.format("%6d %s %-21s %-16s %-30s %-8s", e.seq(), TIME.format(e.at()), e.kind(),
                 target(n), n.path("playbook").asText("-"), n.path("run").asText("-")));
-        if (e.kind().equals("policy-loaded")) return policy(sb, n);
+        if (e.kind().equals(LedgerKind.POLICY_LOADED.wire())) return policy(sb, n);
         for (String first : FIRST) {
             if (n.has(first)) append(sb, first, n.get(first));
         }

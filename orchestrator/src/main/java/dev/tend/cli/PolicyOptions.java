@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.BrakeThresholds;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
@@ -53,6 +54,6 @@ final class PolicyOptions {
         m.put("playbooks", hashes);
         m.put("actions", "sha256:" + setup.playbooks().actions().contentHash());
         m.put("clusters", setup.fleet().size());
-        return m;
+        return LedgerKind.POLICY_LOADED.check(m);
     }
 }

@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.TokenFile;
 import dev.tend.api.auth.Tokens;
 import dev.tend.engine.EngineSetup;
@@ -106,7 +107,7 @@ public final class ServeCommand implements Callable<Integer> {
                 .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts)
                 .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).build();
         try (Store store = db.open()) {
-            store.useTransaction(tx -> tx.appendLedger(clock.instant(), "policy-loaded", PolicyOptions.loaded(setup)));
+            store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {
                 if (key != null) server.checkpointWith(store, key);
                 var rec = server.recovery();

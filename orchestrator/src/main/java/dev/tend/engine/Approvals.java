@@ -33,7 +33,7 @@ final class Approvals {
                 fx.now(), expires, "pending", null, null, d.reasonCodes());
         byRun.put(r.id(), a);
         fx.arm("approval:" + r.id(), expires);
-        fx.ledger("approval-requested", "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
+        fx.ledger(LedgerKind.APPROVAL_REQUESTED, "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
                 "node", c.target().node(), "expires_at", expires, "reasons", d.reasonCodes());
         fx.add(new Effect.ApprovalChanged(a));
         fx.add(new Effect.RunChanged(r.snapshot()));
@@ -70,7 +70,7 @@ final class Approvals {
         else if (cmd instanceof Input.Exclude e) {
             java.util.Optional<String> unknown = UnknownTargets.describe(engine.context().health.topology(), e.target());
             if (unknown.isPresent()) {
-                fx.ledger("command-refused", "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
+                fx.ledger(LedgerKind.COMMAND_REFUSED, "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
                         "by", e.by(), "from", e.from(), "code", ReasonCode.UNKNOWN_TARGET.code(),
                         "reason", unknown.get() + "; only a cluster or node in the topology can be excluded");
                 return;
@@ -80,32 +80,32 @@ final class Approvals {
                 ex = new Exclusion(e.target(), e.reason(), e.owner(), fx.now(), e.until(), e.by());
             } catch (IllegalArgumentException | NullPointerException bad) {
                 // a command that cannot be carried out is refused on the record, never thrown at the driver
-                fx.ledger("command-refused", "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
+                fx.ledger(LedgerKind.COMMAND_REFUSED, "command", e.kind(), "cluster", e.target().cluster(), "node", e.target().node(),
                         "by", e.by(), "from", e.from(), "reason", bad.getMessage());
                 return;
             }
             engine.context().exclusions.put(e.target(), ex);
-            fx.ledger("exclusion-added", "cluster", e.target().cluster(), "node", e.target().node(), "reason", e.reason(),
+            fx.ledger(LedgerKind.EXCLUSION_ADDED, "cluster", e.target().cluster(), "node", e.target().node(), "reason", e.reason(),
                     "owner", e.owner(), "until", e.until(), "by", e.by(), "from", e.from());
             fx.add(new Effect.ExclusionsChanged(e.target(), ex));
             engine.queueCluster(e.target().cluster());
         } else if (cmd instanceof Input.Unexclude u) {
             Exclusion gone = engine.context().exclusions.remove(u.target());
-            fx.ledger("exclusion-removed", "cluster", u.target().cluster(), "node", u.target().node(),
+            fx.ledger(LedgerKind.EXCLUSION_REMOVED, "cluster", u.target().cluster(), "node", u.target().node(),
                     "by", u.by(), "from", u.from(), "existed", gone != null);
             fx.add(new Effect.ExclusionsChanged(u.target(), null));
             engine.queueCluster(u.target().cluster());
         } else if (cmd instanceof Input.EngageBrake b) {
-            fx.ledger("operator-command", "command", "brake-engage", "by", b.by(), "from", b.from());
+            fx.ledger(LedgerKind.OPERATOR_COMMAND, "command", b.kind(), "by", b.by(), "from", b.from());
             engine.context().brake.engage(b.by(), b.reason(), fx);
         } else if (cmd instanceof Input.ReleaseBrake b) {
-            fx.ledger("operator-command", "command", "brake-release", "by", b.by(), "from", b.from());
+            fx.ledger(LedgerKind.OPERATOR_COMMAND, "command", b.kind(), "by", b.by(), "from", b.from());
             if (engine.context().brake.releaseByHand(b.by(), b.reason(), engine.context().health, fx)) engine.onBrakeReleased(fx);
         } else if (cmd instanceof Input.ClearLoop l) {
             Candidate.Key key = new Candidate.Key(l.playbook(), l.target());
             boolean was = engine.context().loopStopped.remove(key);
             engine.context().starts.remove(key);
-            fx.ledger("loop-cleared", "playbook", l.playbook(), "cluster", l.target().cluster(), "node", l.target().node(),
+            fx.ledger(LedgerKind.LOOP_CLEARED, "playbook", l.playbook(), "cluster", l.target().cluster(), "node", l.target().node(),
                     "by", l.by(), "from", l.from(), "was_stopped", was);
             engine.queue(key);
         }
@@ -114,12 +114,12 @@ final class Approvals {
     private void approve(Input.Approve a, Effects fx) {
         ApprovalSnapshot s = byRun.get(a.runId());
         if (s == null || !s.state().equals("pending")) {
-            fx.ledger("approval-refused", "run", a.runId(), "by", a.by(), "from", a.from(),
+            fx.ledger(LedgerKind.APPROVAL_REFUSED, "run", a.runId(), "by", a.by(), "from", a.from(),
                     "reason", notPending(s));
             return;
         }
         if (a.by().equals(s.requestedBy())) {
-            fx.ledger("approval-refused", "run", a.runId(), "by", a.by(), "from", a.from(),
+            fx.ledger(LedgerKind.APPROVAL_REFUSED, "run", a.runId(), "by", a.by(), "from", a.from(),
                     "reason", "two-person rule: whoever requested a run cannot approve it");
             return;
         }
@@ -129,7 +129,7 @@ final class Approvals {
     private void decide(String runId, String state, String by, String from, String reason, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
         if (s == null || !s.state().equals("pending")) {
-            fx.ledger("approval-refused", "run", runId, "by", by, "from", from,
+            fx.ledger(LedgerKind.APPROVAL_REFUSED, "run", runId, "by", by, "from", from,
                     "reason", notPending(s));
             return;
         }
@@ -138,7 +138,7 @@ final class Approvals {
         byRun.put(runId, d);
         fx.cancel("approval:" + runId);
         fx.cancel(REMINDER_TIMER + runId);
-        fx.ledger(state.equals("approved") ? "approval-granted" : "approval-rejected", "run", runId, "playbook", s.playbook(),
+        fx.ledger(state.equals("approved") ? LedgerKind.APPROVAL_GRANTED : LedgerKind.APPROVAL_REJECTED, "run", runId, "playbook", s.playbook(),
                 "cluster", s.target().cluster(), "node", s.target().node(), "by", by, "from", from, "reason", reason);
         fx.add(new Effect.ApprovalChanged(d));
         Candidate.Key key = keyOf(s);
@@ -172,7 +172,7 @@ final class Approvals {
                 s.expiresAt(), "lapsed", null, fx.now(), s.reasons());
         byRun.put(runId, d);
         fx.cancel(REMINDER_TIMER + runId);
-        fx.ledger("approval-lapsed", "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
+        fx.ledger(LedgerKind.APPROVAL_LAPSED, "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
                 "node", s.target().node(), "expired_at", s.expiresAt());
         fx.add(new Effect.ApprovalChanged(d));
         cancelRun(runId, "the approval lapsed at " + s.expiresAt(), fx);
@@ -207,7 +207,7 @@ final class Approvals {
 
     private void abort(Input.AbortRun a, Effects fx) {
         RunProcess r = engine.runById(a.runId());
-        fx.ledger("operator-command", "command", "abort", "run", a.runId(), "by", a.by(), "from", a.from(), "reason", a.reason());
+        fx.ledger(LedgerKind.OPERATOR_COMMAND, "command", "abort", "run", a.runId(), "by", a.by(), "from", a.from(), "reason", a.reason());
         if (r == null || r.state().isTerminal()) return;
         ApprovalSnapshot s = byRun.get(r.id());
         if (s != null && s.state().equals("pending")) {

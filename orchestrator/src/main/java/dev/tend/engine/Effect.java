@@ -13,10 +13,20 @@ import java.util.Map;
  * (executor calls, notifications), so an intent is always durable before its act.
  */
 public sealed interface Effect {
-    /** Append to the audit ledger. {@code fields} are JSON values; "cluster", "playbook", "run" are indexed. */
-    record Ledger(String kind, Map<String, Object> fields) implements Effect {
+    /**
+     * Append to the audit ledger. {@code fields} are JSON values, among those {@code type}
+     * declares (checked when assertions are on, as in every test); "cluster", "playbook",
+     * "run" are indexed.
+     */
+    record Ledger(LedgerKind type, Map<String, Object> fields) implements Effect {
         public Ledger {
-            fields = Map.copyOf(fields);
+            java.util.Objects.requireNonNull(type, "type");
+            fields = Map.copyOf(type.check(fields));
+        }
+
+        /** The kind as the ledger stores it. */
+        public String kind() {
+            return type.wire();
         }
     }
 

@@ -26,7 +26,7 @@ public final class Effects {
     }
 
     /** A ledger entry; {@code kv} alternates keys and values; null values are left out. */
-    public void ledger(String kind, Object... kv) {
+    public void ledger(LedgerKind kind, Object... kv) {
         Map<String, Object> fields = new LinkedHashMap<>();
         for (int i = 0; i + 1 < kv.length; i += 2) {
             if (kv[i + 1] != null) fields.put((String) kv[i], normalise(kv[i + 1]));

@@ -72,7 +72,7 @@ public final class Engine implements RunHost {
             if (ctx.health.apply(t.event()) != ApplyOutcome.LATE) {
                 advanceEventTime(t.event().at());
                 queueCluster(t.event().cluster());
-                fx.ledger("topology", "cluster", t.event().cluster(), "node", t.event().node(),
+                fx.ledger(LedgerKind.TOPOLOGY, "cluster", t.event().cluster(), "node", t.event().node(),
                         "change", t.event().change().wireName(), "at_event", t.event().at());
             }
         } else if (in instanceof Input.TimerFired t) onTimer(t.key(), fx);
@@ -121,7 +121,7 @@ public final class Engine implements RunHost {
         }
         boolean unknown = !isKnown(t.cluster(), t.node());
         if (mattered || unknown) {
-            fx.ledger("transition", "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
+            fx.ledger(LedgerKind.TRANSITION, "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
                     "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
     }
@@ -161,7 +161,7 @@ public final class Engine implements RunHost {
     private void onResult(Input.ExecutorResult res, Effects fx) {
         RunProcess r = runs.get(res.runId());
         if (r == null) {
-            fx.ledger("executor-result-ignored", "run", res.runId(), "reason", "no such run");
+            fx.ledger(LedgerKind.EXECUTOR_RESULT_IGNORED, "run", res.runId(), "reason", "no such run");
             return;
         }
         machine.onResult(r, res.stepId(), res.attempt(), res.success(), res.message(), res.detail(), fx);
@@ -267,7 +267,7 @@ public final class Engine implements RunHost {
         RunProcess r = c.runId() != null ? runs.get(c.runId())
                 : newRun(c, RunState.RUNNING, AUTOMATION);
         if (c.playbook().mode() == Mode.SHADOW) {
-            fx.ledger("run-shadowed", "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
+            fx.ledger(LedgerKind.RUN_SHADOWED, "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
                     "node", c.target().node(), "steps", c.playbook().steps().stream().map(s -> s.id().value()).toList());
             machine.finish(r, RunState.SHADOWED, "shadow mode: decided and recorded, not executed", fx);
             return;
@@ -290,7 +290,7 @@ public final class Engine implements RunHost {
         candidates.remove(key);
         fx.cancel("recheck:" + key);
         if (e.decision() != null) {
-            fx.ledger("candidate-dropped", "playbook", key.playbook(), "cluster", key.target().cluster(),
+            fx.ledger(LedgerKind.CANDIDATE_DROPPED, "playbook", key.playbook(), "cluster", key.target().cluster(),
                     "node", key.target().node(), "reason", why, "run", e.candidate().runId());
         }
         if (e.candidate().runId() != null) approvals.withdraw(e.candidate().runId(), why, fx);
@@ -299,7 +299,7 @@ public final class Engine implements RunHost {
     private void ledgerVerdict(Candidate c, Decision d, Effects fx) {
         List<String> messages = new ArrayList<>();
         d.objections().forEach(o -> messages.add(o.code().code() + ": " + o.message()));
-        fx.ledger("verdict", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node(),
+        fx.ledger(LedgerKind.VERDICT, "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node(),
                 "verdict", d.verdict().wireName(), "reasons", d.reasonCodes(), "messages", messages,
                 "hold_until", d.retryAt(), "hold_until_event_time", d.retryAtEventTime(),
                 "signal", c.trigger().signal(), "problem_since", c.problemSince(), "run", c.runId());

@@ -37,7 +37,7 @@ final class Escalations {
                     + c.playbook().id() + " holds until it settles", fx);
         }
         if (d.has(ReasonCode.LOOP) && ctx.loopStopped.add(c.key())) {
-            fx.ledger("loop-stopped", "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
+            fx.ledger(LedgerKind.LOOP_STOPPED, "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node());
             page("loop/" + c.key() + "/" + ctx.now, PageKind.LOOP, c, c.playbook().id() + " keeps remediating "
                     + c.target() + "; automation stopped there until a person clears it", fx);
         }

@@ -56,7 +56,7 @@ final class FleetBrake {
         f.put("message", message);
         f.put("into", "brake/" + episodes);
         f.put("sent", !pagePending);
-        fx.add(new Effect.Ledger("page-folded", f));
+        fx.add(new Effect.Ledger(LedgerKind.PAGE_FOLDED, f));
         return true;
     }
 
@@ -91,7 +91,7 @@ final class FleetBrake {
             episodes++;
             String why = String.format(Locale.ROOT, "%d clusters unhealthy (%.1f%% of the fleet)", n, f * 100);
             state = new BrakeState(true, fx.now(), "automatic", why, false);
-            fx.ledger("brake-engaged", "by", "automatic", "reason", why, "unhealthy_clusters", n);
+            fx.ledger(LedgerKind.BRAKE_ENGAGED, "by", "automatic", "reason", why, "unhealthy_clusters", n);
             pagePending = true;
             autoPaged = true;
             peakUnhealthy = n;
@@ -132,13 +132,13 @@ final class FleetBrake {
         if (state.engaged()) {
             // already engaged (perhaps automatically): a person now holds it, so it releases only by hand
             state = new BrakeState(true, state.since(), by, reason, true);
-            fx.ledger("brake-engaged", "by", by, "reason", reason, "manual", true, "already_engaged_since", state.since());
+            fx.ledger(LedgerKind.BRAKE_ENGAGED, "by", by, "reason", reason, "manual", true, "already_engaged_since", state.since());
             fx.add(new Effect.BrakeChanged(state));
             return;
         }
         episodes++;
         state = new BrakeState(true, fx.now(), by, reason, true);
-        fx.ledger("brake-engaged", "by", by, "reason", reason, "manual", true);
+        fx.ledger(LedgerKind.BRAKE_ENGAGED, "by", by, "reason", reason, "manual", true);
         fx.add(new Effect.BrakeChanged(state));
     }
 
@@ -158,7 +158,7 @@ final class FleetBrake {
         autoPaged = false;
         if (settling) fx.cancel(SETTLE_TIMER);
         settling = false;
-        fx.ledger("brake-released", "by", by, "reason", reason, "engaged_since", state.since());
+        fx.ledger(LedgerKind.BRAKE_RELEASED, "by", by, "reason", reason, "engaged_since", state.since());
         state = BrakeState.released();
         fx.add(new Effect.BrakeChanged(state));
     }

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
@@ -62,57 +63,59 @@ final class LedgerTally {
             return;
         }
         Instant at = e.at();
-        switch (e.kind()) {
-            case "run-started" -> {
+        LedgerKind kind = LedgerKind.of(e.kind()).orElse(null);
+        if (kind == null) return; // a kind this version does not write says nothing the report shows
+        switch (kind) {
+            case RUN_STARTED -> {
                 RunState r = run(f, at);
                 r.startedAt = at;
                 r.state = RunLine.RUNNING;
                 r.note = null;
                 if (counted) playbook(r.playbook).started++;
             }
-            case "run-shadowed" -> run(f, at);
-            case "run-paused" -> setState(f, RunLine.PAUSED, text(f, "reason"));
-            case "run-resumed" -> setState(f, RunLine.RUNNING, null);
-            case "run-needs-human" -> setState(f, RunLine.NEEDS_HUMAN,
+            case RUN_SHADOWED -> run(f, at);
+            case RUN_PAUSED -> setState(f, RunLine.PAUSED, text(f, "reason"));
+            case RUN_RESUMED -> setState(f, RunLine.RUNNING, null);
+            case RUN_NEEDS_HUMAN -> setState(f, RunLine.NEEDS_HUMAN,
                     "step " + text(f, "step") + ": " + text(f, "reason"));
-            case "run-ended" -> ended(f, at, counted);
-            case "approval-requested" -> {
+            case RUN_ENDED -> ended(f, at, counted);
+            case APPROVAL_REQUESTED -> {
                 RunState r = run(f, at);
                 r.state = RunLine.AWAITING_APPROVAL;
                 ApprovalState a = new ApprovalState(r, at, instant(f, "expires_at", at));
                 approvals.put(r.run, a);
             }
-            case "approval-granted" -> settle(f, ApprovalLine.APPROVED, at, RunLine.APPROVED);
-            case "approval-rejected" -> settle(f, ApprovalLine.REJECTED, at, null);
-            case "approval-lapsed" -> settle(f, ApprovalLine.LAPSED, at, null);
-            case "executor-call" -> {
+            case APPROVAL_GRANTED -> settle(f, ApprovalLine.APPROVED, at, RunLine.APPROVED);
+            case APPROVAL_REJECTED -> settle(f, ApprovalLine.REJECTED, at, null);
+            case APPROVAL_LAPSED -> settle(f, ApprovalLine.LAPSED, at, null);
+            case EXECUTOR_CALL -> {
                 RunState r = runs.get(text(f, "run"));
                 if (r != null) r.calls.put(text(f, "step") + "/" + f.path("attempt").asText(), text(f, "action"));
             }
-            case "executor-result" -> {
+            case EXECUTOR_RESULT -> {
                 RunState r = runs.get(text(f, "run"));
                 if (r != null && f.path("success").asBoolean(false)) {
                     String action = r.calls.get(text(f, "step") + "/" + f.path("attempt").asText());
                     if (action != null) r.actions.add(action);
                 }
             }
-            case "verdict" -> {
+            case VERDICT -> {
                 if (counted) verdict(f);
             }
-            case "loop-stopped" -> {
+            case LOOP_STOPPED -> {
                 LoopStop l = new LoopStop(orUnknown(text(f, "playbook")), orUnknown(text(f, "cluster")), text(f, "node"), at);
                 loops.putIfAbsent(l.playbook() + " " + l.target(), l);
             }
-            case "loop-cleared" -> loops.remove(orUnknown(text(f, "playbook")) + " " + orUnknown(text(f, "cluster"))
+            case LOOP_CLEARED -> loops.remove(orUnknown(text(f, "playbook")) + " " + orUnknown(text(f, "cluster"))
                     + (text(f, "node") == null ? "" : "/" + text(f, "node")));
-            case "notification-delivered" -> {
+            case NOTIFICATION_DELIVERED -> {
                 if (counted) pages.add(page(f, at, PageLine.DELIVERED));
             }
-            case "notification-failed" -> {
+            case NOTIFICATION_FAILED -> {
                 if (counted && f.path("final").asBoolean(false)) pages.add(page(f, at, PageLine.FAILED));
             }
-            case "brake-engaged" -> engaged(f, at);
-            case "brake-released" -> released(f, at);
+            case BRAKE_ENGAGED -> engaged(f, at);
+            case BRAKE_RELEASED -> released(f, at);
             default -> {
                 // every other kind is counted above and says nothing the report shows
             }

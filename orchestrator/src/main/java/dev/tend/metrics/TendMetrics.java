@@ -120,8 +120,8 @@ public final class TendMetrics implements CommitListener {
     public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
         for (Effect e : effects) {
             if (!(e instanceof Effect.Ledger l)) continue;
-            switch (l.kind()) {
-                case "verdict" -> {
+            switch (l.type()) {
+                case VERDICT -> {
                     String verdict = String.valueOf(l.fields().get("verdict"));
                     Object reasons = l.fields().get("reasons");
                     if (reasons instanceof List<?> list && !list.isEmpty()) {
@@ -130,8 +130,8 @@ public final class TendMetrics implements CommitListener {
                         verdicts.labelValues(verdict, "none").inc();
                     }
                 }
-                case "run-started" -> runsStarted.labelValues(String.valueOf(l.fields().get("playbook"))).inc();
-                case "run-ended" -> runsEnded.labelValues(String.valueOf(l.fields().get("playbook")),
+                case RUN_STARTED -> runsStarted.labelValues(String.valueOf(l.fields().get("playbook"))).inc();
+                case RUN_ENDED -> runsEnded.labelValues(String.valueOf(l.fields().get("playbook")),
                         String.valueOf(l.fields().get("state"))).inc();
                 default -> { }
             }

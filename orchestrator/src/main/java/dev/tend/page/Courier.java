@@ -1,5 +1,6 @@
 package dev.tend.page;
 
+import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.type.TypeReference;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.shared.TendException;
@@ -165,17 +166,17 @@ public final class Courier implements AutoCloseable {
         f.put("answer", answer.text());
         if (!answer.tries().isEmpty()) f.put("tries", answer.tries());
         PageRow next;
-        String kind;
+        LedgerKind kind;
         String outcome;
         if (answer.outcome() == Answer.Outcome.ACCEPTED) {
             next = row.ended(PageRow.DELIVERED, now, answer.text());
-            kind = "notification-delivered";
+            kind = LedgerKind.NOTIFICATION_DELIVERED;
             outcome = "delivered";
         } else {
             Instant retryAt = now.plus(pause(attempt));
             boolean giveUp = answer.outcome() == Answer.Outcome.REFUSED
                     || retryAt.isAfter(row.createdAt().plus(senders.giveUpAfter(row.channel())));
-            kind = "notification-failed";
+            kind = LedgerKind.NOTIFICATION_FAILED;
             f.put("final", giveUp);
             if (giveUp) {
                 next = row.ended(PageRow.FAILED, now, answer.text());
@@ -188,7 +189,7 @@ public final class Courier implements AutoCloseable {
         }
         store.useTransaction(tx -> {
             tx.updatePage(next);
-            tx.appendLedger(now, kind, f);
+            tx.appendLedger(now, kind.wire(), kind.check(f));
         });
         listener.attempted(row.channel(), outcome);
     }

@@ -1,5 +1,6 @@
 package dev.tend.replay;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.BrakeState;
 import dev.tend.engine.Effect;
 import dev.tend.engine.RunSnapshot;
@@ -66,8 +67,8 @@ final class ReportCollector {
     void observe(List<Effect> effects, Instant now) {
         for (Effect e : effects) {
             if (e instanceof Effect.Ledger l) {
-                if (l.kind().equals("verdict")) decisions.add(decision(l.fields(), now));
-                else if (l.kind().equals("approval-requested")) approvalsRequested++;
+                if (l.type() == LedgerKind.VERDICT) decisions.add(decision(l.fields(), now));
+                else if (l.type() == LedgerKind.APPROVAL_REQUESTED) approvalsRequested++;
             } else if (e instanceof Effect.BrakeChanged b) {
                 brake(b.brake(), now);
             } else if (e instanceof Effect.Notify n) {

@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
@@ -356,7 +357,7 @@ public final class Orchestrator {
         try {
             store.useTransaction(tx -> {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
-                tx.appendLedger(now, "input-refused", InputRefusal.fields(in, reason));
+                tx.appendLedger(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason)));
             });
         } catch (RuntimeException e) {
             stopOn(rest, e);

@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.engine.ApprovalSnapshot;
@@ -45,7 +46,7 @@ final class Projections {
                 f.put("page_kind", n.kind());
                 f.put("channel", n.channel());
                 f.put("message", n.message());
-                ledger.add(new LedgerDraft(at, "notification", f));
+                ledger.add(new LedgerDraft(at, LedgerKind.NOTIFICATION.wire(), LedgerKind.NOTIFICATION.check(f)));
                 // the page enters the outbox with its ledger entry: delivered at least once, even after a crash
                 Map<String, Object> payload = new LinkedHashMap<>();
                 payload.put("id", n.id());

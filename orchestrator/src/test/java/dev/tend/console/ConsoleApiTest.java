@@ -2,6 +2,7 @@ package dev.tend.console;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.api.ApiJson;
+import dev.tend.engine.LedgerKind;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -13,6 +14,8 @@ import java.nio.file.Path;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.List;
 
 import static dev.tend.console.ConsoleServer.VERA;
 import static org.assertj.core.api.Assertions.assertThat;
@@ -88,6 +91,32 @@ class ConsoleApiTest {
             assertThat(replace.get("steps").toString()).isEqualTo("[{\"step\":\"drain\",\"kind\":\"action\",\"detail\":\"drain-node\"},"
                     + "{\"step\":\"replace\",\"kind\":\"action\",\"detail\":\"replace-node\"},"
                     + "{\"step\":\"settle\",\"kind\":\"wait-healthy\",\"detail\":\"heartbeat\"}]");
+        }
+    }
+
+    @Test
+    void theVocabularyListsEveryLedgerKindWithItsFieldsAndEveryReasonCodeInGuardOrder() {
+        try (ConsoleServer server = ConsoleServer.start(dir)) {
+            assertThat(server.get("/api/v1/vocabulary", null).status()).isEqualTo(401);
+            ConsoleServer.Response r = server.get("/api/v1/vocabulary", VERA);
+            assertThat(r.status()).isEqualTo(200);
+            JsonNode v = parse(r.body());
+            List<String> kinds = new ArrayList<>();
+            for (JsonNode k : v.get("ledger_kinds")) kinds.add(k.get("kind").asText());
+            // among them the four an earlier console filter lacked
+            assertThat(kinds).contains("candidate-dropped", "command-refused", "executor-result-ignored", "notification")
+                    .doesNotHaveDuplicates().hasSize(LedgerKind.values().length);
+            JsonNode runStarted = null;
+            for (JsonNode k : v.get("ledger_kinds")) if (k.get("kind").asText().equals("run-started")) runStarted = k;
+            assertThat(runStarted.get("fields").toString()).isEqualTo("[\"run\",\"playbook\",\"version\",\"cluster\",\"node\"]");
+            List<String> codes = new ArrayList<>();
+            for (JsonNode c : v.get("reason_codes")) codes.add(c.get("code").asText());
+            // DESIGN.md section 4: unknown-target first, approval-required last
+            assertThat(codes).first().isEqualTo("unknown-target");
+            assertThat(codes).last().isEqualTo("approval-required");
+            assertThat(v.get("reason_codes").get(codes.indexOf("fleet-brake")).get("verdict").asText()).isEqualTo("hold");
+            assertThat(v.get("reason_codes").get(codes.indexOf("fleet-brake")).get("meaning").asText())
+                    .isEqualTo("the fleet brake is engaged");
         }
     }
 

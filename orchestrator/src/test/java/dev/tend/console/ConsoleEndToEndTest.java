@@ -2,6 +2,8 @@ package dev.tend.console;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.api.ApiJson;
+import dev.tend.engine.LedgerKind;
+import dev.tend.shared.ReasonCode;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.openqa.selenium.By;
@@ -15,6 +17,8 @@ import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.file.Path;
 import java.time.Duration;
+import java.util.Arrays;
+import java.util.List;
 
 import static dev.tend.console.ConsoleServer.ANNA;
 import static dev.tend.console.ConsoleServer.VERA;
@@ -55,6 +59,8 @@ class ConsoleEndToEndTest {
         d.get(server.url() + "/#approvals");
         WebElement card = wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("article.approval[data-run='" + run + "']")));
         assertThat(card.getText()).contains("fares-3/n2", "replace-silent-node", "approval-required");
+        // the code's meaning is the server's (GET /api/v1/vocabulary), not a copy kept in the page
+        assertThat(card.getText()).contains(ReasonCode.APPROVAL_REQUIRED.meaning());
         assertThat(d.findElements(By.cssSelector("button[data-action='approve']"))).isEmpty();
         assertThat(d.findElements(By.cssSelector("button[data-action='reject']"))).isEmpty();
         assertThat(card.getText()).contains("Deciding needs the approver role.");
@@ -97,6 +103,10 @@ class ConsoleEndToEndTest {
 
         d.get(server.url() + "/#ledger");
         wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#timeline li[data-kind='approval-granted']")));
+        // the kind filter offers every kind the server writes, from the server's own list
+        List<String> offered = d.findElements(By.cssSelector("#filter-kind option")).stream()
+                .map(o -> o.getAttribute("value")).filter(v -> !v.isEmpty()).toList();
+        assertThat(offered).containsExactlyElementsOf(Arrays.stream(LedgerKind.values()).map(LedgerKind::wire).toList());
         chromium.screenshot("ledger");
         d.get(server.url() + "/#handover");
         WebElement ledgerStatus = wait.until(ExpectedConditions.presenceOfElementLocated(By.id("ledger-status")));

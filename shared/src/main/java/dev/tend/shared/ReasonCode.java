@@ -7,26 +7,33 @@ import java.util.Locale;
  * run. Each code names the verdict it gives when its guard objects.
  */
 public enum ReasonCode {
-    UNKNOWN_TARGET(Verdict.DENY),
-    EXCLUDED(Verdict.DENY),
-    MASKED(Verdict.DENY),
-    UNCONFIRMED(Verdict.HOLD),
-    FLAPPING(Verdict.HOLD),
-    FLEET_BRAKE(Verdict.HOLD),
-    WINDOW_CLOSED(Verdict.HOLD),
-    COOLDOWN(Verdict.HOLD),
-    LOOP(Verdict.DENY),
-    CLUSTER_BUSY(Verdict.HOLD),
-    BLAST_RADIUS(Verdict.HOLD),
-    QUORUM(Verdict.HOLD),
-    REPLICATION(Verdict.HOLD),
-    RATE_LIMIT(Verdict.HOLD),
-    APPROVAL_REQUIRED(Verdict.AWAIT_APPROVAL);
+    UNKNOWN_TARGET(Verdict.DENY, "the cluster or node is not in the topology"),
+    EXCLUDED(Verdict.DENY, "the target is excluded"),
+    MASKED(Verdict.DENY, "an owner-caused signal explains the problem"),
+    UNCONFIRMED(Verdict.HOLD, "the problem has not lasted its confirm-for yet"),
+    FLAPPING(Verdict.HOLD, "the signal changes too often"),
+    FLEET_BRAKE(Verdict.HOLD, "the fleet brake is engaged"),
+    WINDOW_CLOSED(Verdict.HOLD, "outside the change window"),
+    COOLDOWN(Verdict.HOLD, "the target was remediated recently"),
+    LOOP(Verdict.DENY, "the target was remediated too often"),
+    CLUSTER_BUSY(Verdict.HOLD, "another run is active on the cluster"),
+    BLAST_RADIUS(Verdict.HOLD, "too many runs at once"),
+    QUORUM(Verdict.HOLD, "the cluster would lose its quorum"),
+    REPLICATION(Verdict.HOLD, "some data would fall below its minimum of healthy copies"),
+    RATE_LIMIT(Verdict.HOLD, "the start budget is spent"),
+    APPROVAL_REQUIRED(Verdict.AWAIT_APPROVAL, "the playbook asks a person for this cluster");
 
     private final Verdict verdict;
+    private final String meaning;
 
-    ReasonCode(Verdict verdict) {
+    ReasonCode(Verdict verdict, String meaning) {
         this.verdict = verdict;
+        this.meaning = meaning;
+    }
+
+    /** What the code means, in a few plain words for a person deciding (the console shows it beside the code). */
+    public String meaning() {
+        return meaning;
     }
 
     /** The verdict this guard gives when it objects. */

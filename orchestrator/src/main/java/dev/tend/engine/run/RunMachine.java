@@ -2,6 +2,7 @@ package dev.tend.engine.run;
 
 import dev.tend.engine.Effect;
 import dev.tend.engine.Effects;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.PageKind;
 import dev.tend.engine.RunState;
 import dev.tend.playbooks.ActionDef;
@@ -48,7 +49,7 @@ public final class RunMachine {
     public void start(RunProcess r, Effects fx) {
         r.state = RunState.RUNNING;
         r.startedAt = fx.now();
-        fx.ledger("run-started", "run", r.id, "playbook", r.playbook.id(), "version", r.playbook.version(),
+        fx.ledger(LedgerKind.RUN_STARTED, "run", r.id, "playbook", r.playbook.id(), "version", r.playbook.version(),
                 "cluster", r.target.cluster(), "node", r.target.node());
         advance(r, fx);
     }
@@ -58,7 +59,7 @@ public final class RunMachine {
         while (true) {
             if (host.isBrakeEngaged() && !r.failing && r.standDown == null && r.index + 1 < r.playbook.steps().size() && r.index >= 0) {
                 r.state = RunState.PAUSED;
-                fx.ledger("run-paused", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                fx.ledger(LedgerKind.RUN_PAUSED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "reason", "fleet brake engaged; paused at a step boundary");
                 changed(r, fx);
                 return;
@@ -84,20 +85,20 @@ public final class RunMachine {
                 fx.add(new Effect.Notify(r.id + "/" + n.id(), standingDown ? PageKind.STOOD_DOWN : PageKind.PLAYBOOK, n.channel().value(),
                         msg, fields));
                 r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
-                fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);
                 continue;
             }
             if (s instanceof WaitHealthyStep w) {
                 if (host.allClear(r.target, w.signals())) {
                     r.recordStep("succeeded", "signals already clear", fx.now());
-                    fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                    fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                             "step", w.id(), "state", "succeeded", "outcome", "signals already clear");
                     continue;
                 }
                 r.recordStep("running", null, fx.now());
                 fx.arm(waitTimer(r), fx.now().plus(w.within()));
-                fx.ledger("step-started", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                fx.ledger(LedgerKind.STEP_STARTED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", w.id(), "step_kind", "wait-healthy", "signals", w.signals(), "within", Durations.format(w.within()));
                 changed(r, fx);
                 return;
@@ -118,7 +119,7 @@ public final class RunMachine {
         java.util.Optional<StandDown> why = host.gate(r, a.continueIfCleared());
         if (why.isEmpty()) return false;
         r.standDown = why.get();
-        fx.ledger("run-standing-down", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.RUN_STANDING_DOWN, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "node", r.target.node(), "before_step", a.id(), "reason", why.get().reason().code(), "message", why.get().message(),
                 "steps", r.playbook.onStandDown().stream().map(st -> st.id().value()).toList());
         r.index = -1;
@@ -133,7 +134,7 @@ public final class RunMachine {
         Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : DEFAULT_TIMEOUT;
         String key = r.id + "/" + a.id() + "/" + attempt;
         r.recordStep("running", null, fx.now());
-        fx.ledger("executor-call", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.EXECUTOR_CALL, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "node", r.target.node(), "step", a.id(), "attempt", attempt, "key", key, "action", a.action(),
                 "executor", def.kind(), "timeout", Durations.format(timeout));
         fx.arm(stepTimer(r), fx.now().plus(timeout));
@@ -147,13 +148,13 @@ public final class RunMachine {
         Step s = r.currentStep();
         if (r.state != RunState.RUNNING || !(s instanceof ActionStep a) || !a.id().value().equals(stepId)
                 || r.attempt != attempt || !r.lastRecordState().equals("running")) {
-            fx.ledger("executor-result-ignored", "run", r.id, "step", stepId, "attempt", attempt,
+            fx.ledger(LedgerKind.EXECUTOR_RESULT_IGNORED, "run", r.id, "step", stepId, "attempt", attempt,
                     "reason", "the run is no longer waiting for this attempt");
             return;
         }
         fx.cancel(stepTimer(r));
         Map<String, Object> fields = new LinkedHashMap<>(detail);
-        fx.ledger("executor-result", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.EXECUTOR_RESULT, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt, "success", success, "message", message, "detail", fields);
         if (success) {
             r.recordStep("succeeded", message, fx.now());
@@ -168,7 +169,7 @@ public final class RunMachine {
         Step s = r.currentStep();
         if (r.state != RunState.RUNNING || s == null) return;
         if (s instanceof ActionStep a && key.equals(stepTimer(r)) && r.lastRecordState().equals("running")) {
-            fx.ledger("step-timed-out", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+            fx.ledger(LedgerKind.STEP_TIMED_OUT, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                     "step", a.id(), "attempt", r.attempt);
             retryOrFail(a, r, "timed out", fx);
         } else if (s instanceof WaitHealthyStep w && key.equals(waitTimer(r))) {
@@ -183,7 +184,7 @@ public final class RunMachine {
         if (!host.allClear(r.target, w.signals())) return;
         fx.cancel(waitTimer(r));
         r.recordStep("succeeded", "signals cleared", fx.now());
-        fx.ledger("step-finished", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", w.id(), "state", "succeeded", "outcome", "signals cleared");
         advance(r, fx);
     }
@@ -194,7 +195,7 @@ public final class RunMachine {
         fx.cancel(stepTimer(r));
         r.recordStep("unknown", "outcome unknown after a restart", fx.now());
         r.state = RunState.NEEDS_HUMAN;
-        fx.ledger("run-needs-human", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.RUN_NEEDS_HUMAN, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt,
                 "reason", "the call was in flight when tend stopped and its action cannot be asked again by key");
         fx.add(new Effect.Notify(r.id + "/needs-human", PageKind.NEEDS_HUMAN, host.pageChannel(), "run " + r.id + " on " + r.target
@@ -216,7 +217,7 @@ public final class RunMachine {
     public void resume(RunProcess r, Effects fx) {
         if (r.state != RunState.PAUSED) return;
         r.state = RunState.RUNNING;
-        fx.ledger("run-resumed", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster());
+        fx.ledger(LedgerKind.RUN_RESUMED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster());
         advance(r, fx);
     }
 
@@ -245,7 +246,7 @@ public final class RunMachine {
     }
 
     private void fail(RunProcess r, Id step, Effects fx) {
-        fx.ledger("step-failed", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(), "step", step);
+        fx.ledger(LedgerKind.STEP_FAILED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(), "step", step);
         if (r.failing) {
             advance(r, fx);
             return;
@@ -260,7 +261,7 @@ public final class RunMachine {
         r.state = end;
         r.endedAt = fx.now();
         r.outcome = outcome;
-        fx.ledger("run-ended", "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+        fx.ledger(LedgerKind.RUN_ENDED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "node", r.target.node(), "state", end.wireName(), "outcome", outcome,
                 "stand_down", end == RunState.STOOD_DOWN ? r.standDown.reason().code() : null);
         changed(r, fx);
