@@ -24,12 +24,13 @@ import java.util.Objects;
  * @param timeScale      how processing time relates to the wall clock (default {@link TimeScale#real()})
  * @param allowHosts     names the server answers to besides loopback and the address listened on (default none)
  * @param wrongTokens    wrong tokens one address may send a minute before it is answered 429 (default 10)
+ * @param tls            the certificate and key to listen with over HTTPS, or null for plain HTTP (default null)
  * @param snapshotEvery  inputs between two snapshots of the engine, 0 for none (default
  *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOT_EVERY})
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
                             Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale,
-                            java.util.List<String> allowHosts, int wrongTokens, int snapshotEvery) {
+                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls, int snapshotEvery) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -73,6 +74,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private TimeScale timeScale = TimeScale.real();
         private java.util.List<String> allowHosts = java.util.List.of();
         private int wrongTokens = dev.tend.api.auth.FailedTokens.LIMIT;
+        private TlsFiles tls;
 
         private Builder(EngineSetup setup) {
             this.setup = setup;
@@ -139,9 +141,14 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder tls(TlsFiles value) {
+            this.tls = value;
+            return this;
+        }
+
         public ServeSettings build() {
             return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
-                    allowHosts, wrongTokens, snapshotEvery);
+                    allowHosts, wrongTokens, tls, snapshotEvery);
         }
     }
 }

@@ -3,6 +3,7 @@ package dev.tend.serve;
 import dev.tend.api.ApiServer;
 import dev.tend.api.Gateway;
 import dev.tend.api.NotLeaderException;
+import dev.tend.api.ServerTls;
 import dev.tend.api.view.LeaderView;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
@@ -38,6 +39,7 @@ final class Standby implements AutoCloseable {
     private final JournalTail tail;
     private final FleetHealthPublisher health;
     private final ApiServer api;
+    private final ServerTls tls;
 
     private Standby(Store store, ServeSettings s, Leadership leadership, TendMetrics metrics, JournalTail tail) {
         this.store = store;
@@ -45,7 +47,7 @@ final class Standby implements AutoCloseable {
         this.metrics = metrics;
         this.tail = tail;
         Clock clock = s.timeScale().clock();
-        this.health = new FleetHealthPublisher(clock);
+        this.health = new FleetHealthPublisher(clock, s.timeScale().factor());
         tail.catchUp();
         health.publish(tail.engine());
         metrics.observe(tail.engine());
@@ -60,10 +62,12 @@ final class Standby implements AutoCloseable {
                 throw notLeader();
             }
         };
+        tls = s.tls() == null ? null : ServerTls.watch(s.tls().cert(), s.tls().key(), s.tls().checkEvery(), s.log());
         try {
-            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, refuse, s.tokens(),
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), tls, new ApiServer.Parts(store, refuse, s.tokens(),
                     () -> health.get().withLeader(leadership.view()), metrics, clock, s.log(), s.setup().playbooks()));
         } catch (RuntimeException e) {
+            if (tls != null) tls.close();
             throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);
         }
     }
@@ -125,5 +129,6 @@ final class Standby implements AutoCloseable {
     @Override
     public void close() {
         api.close();
+        if (tls != null) tls.close();
     }
 }

@@ -44,7 +44,10 @@ final class ConsoleServer implements AutoCloseable {
     }
 
     private ConsoleServer(Path dir) throws IOException {
-        Path library = library();
+        this(dir, 600, dev.tend.serve.TimeScale.real(), copyWithChannels(library(), dir.resolve("library")));
+    }
+
+    private ConsoleServer(Path dir, double speedup, dev.tend.serve.TimeScale timeScale, Path library) throws IOException {
         Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n"
                 + "  - { name: anna, roles: [approver, operator], sha256: " + Tokens.hash(ANNA) + " }\n"
                 + "  - { name: vera, roles: [viewer], sha256: " + Tokens.hash(VERA) + " }\n");
@@ -54,7 +57,7 @@ final class ConsoleServer implements AutoCloseable {
         store = Store.openSqlite(dir.resolve("tend.db"));
         // simulated actions 600 times faster: the library's 8-20 minute node replacement takes a second or two
         server = TendServer.start(store, ServeSettings.builder(setup).listen("127.0.0.1", 0)
-                .tokens(TokenFile.load(dir.resolve("tokens.yaml"))).speedup(600).tick(Duration.ofMillis(500))
+                .tokens(TokenFile.load(dir.resolve("tokens.yaml"))).speedup(speedup).timeScale(timeScale).tick(Duration.ofMillis(500))
                 .workDir(dir).log(new PrintWriter(log, true)).build());
     }
 
@@ -64,6 +67,40 @@ final class ConsoleServer implements AutoCloseable {
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    /**
+     * A server whose processing time runs {@code factor} times faster than the wall clock, as in
+     * {@code tend demo}, its simulated actions as fast; the bundled library as it is (pages go
+     * to the log), so that nothing but what a test does waits for a person.
+     */
+    static ConsoleServer accelerated(Path dir, double factor) {
+        try {
+            return new ConsoleServer(dir, factor, dev.tend.serve.TimeScale.accelerated(Instant.now(), factor), library());
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /**
+     * The library with channels, so that pages have somewhere to go: {@code oncall} (tend's own
+     * pages, such as an approval request) runs a command that never succeeds, so its pages stay
+     * undelivered and the fleet page lists them; {@code platform-oncall} writes to the log.
+     */
+    private static Path copyWithChannels(Path from, Path to) throws IOException {
+        Files.createDirectories(to);
+        try (var files = Files.list(from)) {
+            for (Path f : files.filter(Files::isRegularFile).toList()) Files.copy(f, to.resolve(f.getFileName()));
+        }
+        Files.writeString(to.resolve("tend.yaml"), Files.readString(to.resolve("tend.yaml")) + """
+
+                channels:
+                  oncall:
+                    command: ["false"]
+                  platform-oncall:
+                    log: {}
+                """);
+        return to;
     }
 
     /** playbooks/library of the repository (tests run in the module's folder). */
