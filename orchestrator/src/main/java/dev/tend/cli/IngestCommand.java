@@ -1,11 +1,13 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.audit.LedgerKey;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
@@ -14,8 +16,6 @@ import dev.tend.executor.SimulatedExecutor;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
-import dev.tend.engine.Effect;
-import dev.tend.engine.Engine;
 import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.ScheduledTimers;
@@ -30,10 +30,10 @@ import dev.tend.shared.wire.WireReader;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
 import java.io.FilterInputStream;
 import java.io.IOException;

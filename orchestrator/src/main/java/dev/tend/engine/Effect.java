@@ -67,4 +67,12 @@ public sealed interface Effect {
 
     record BrakeChanged(BrakeState brake) implements Effect {
     }
+
+    /** The answer to the operator command {@code command} (its {@code Input.kind()}); exactly one per command. */
+    record Answered(String command, CommandAnswer answer) implements Effect {
+        public Answered {
+            java.util.Objects.requireNonNull(command, "command");
+            java.util.Objects.requireNonNull(answer, "answer");
+        }
+    }
 }

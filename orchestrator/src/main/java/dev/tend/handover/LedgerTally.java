@@ -1,11 +1,11 @@
 package dev.tend.handover;
 
-import dev.tend.engine.LedgerKind;
-import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.LedgerKind;
 import dev.tend.shared.ReasonCode;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerVerification;
 

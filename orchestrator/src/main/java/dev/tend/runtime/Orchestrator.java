@@ -1,11 +1,11 @@
 package dev.tend.runtime;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.executor.Executor;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;

@@ -1,12 +1,12 @@
 package dev.tend.runtime;
 
-import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.engine.ApprovalSnapshot;
 import dev.tend.engine.BrakeState;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Exclusion;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.TendException;
