@@ -17,7 +17,6 @@ import java.util.Map;
  * {@link OperatorCommands}'. It reaches the engine around it only through {@link ApprovalHost}.
  */
 final class Approvals {
-    static final String REMINDER_TIMER = "approval-reminder:";
     private final ApprovalHost host;
     private final Candidates candidates;
     private final RunMachine machine;
@@ -36,7 +35,7 @@ final class Approvals {
         ApprovalSnapshot a = new ApprovalSnapshot(r.id(), c.playbook().id().value(), c.target(), ApprovalHost.AUTOMATION,
                 fx.now(), expires, "pending", null, null, d.reasonCodes());
         byRun.put(r.id(), a);
-        fx.arm("approval:" + r.id(), expires);
+        fx.arm(new TimerKey.ApprovalExpiry(r.id()), expires);
         fx.ledger(LedgerKind.APPROVAL_REQUESTED, "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
                 "node", c.target().node(), "expires_at", expires, "reasons", d.reasonCodes());
         fx.add(new Effect.ApprovalChanged(a));
@@ -45,7 +44,7 @@ final class Approvals {
                 c.playbook().id() + " on " + c.target() + " waits for an approval until " + expires, pageFields(a)));
         java.time.Duration before = host.approvalReminder();
         Instant remindAt = expires.minus(before);
-        if (!before.isZero() && remindAt.isAfter(fx.now())) fx.arm(REMINDER_TIMER + r.id(), remindAt);
+        if (!before.isZero() && remindAt.isAfter(fx.now())) fx.arm(new TimerKey.ApprovalReminder(r.id()), remindAt);
         return r.id();
     }
 
@@ -95,8 +94,8 @@ final class Approvals {
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
                 s.expiresAt(), state, by, fx.now(), s.reasons());
         byRun.put(runId, d);
-        fx.cancel("approval:" + runId);
-        fx.cancel(REMINDER_TIMER + runId);
+        fx.cancel(new TimerKey.ApprovalExpiry(runId));
+        fx.cancel(new TimerKey.ApprovalReminder(runId));
         fx.ledger(state.equals("approved") ? LedgerKind.APPROVAL_GRANTED : LedgerKind.APPROVAL_REJECTED, "run", runId, "playbook", s.playbook(),
                 "cluster", s.target().cluster(), "node", s.target().node(), "by", by, "from", from, "reason", reason);
         fx.add(new Effect.ApprovalChanged(d));
@@ -131,7 +130,7 @@ final class Approvals {
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
                 s.expiresAt(), "lapsed", null, fx.now(), s.reasons());
         byRun.put(runId, d);
-        fx.cancel(REMINDER_TIMER + runId);
+        fx.cancel(new TimerKey.ApprovalReminder(runId));
         fx.ledger(LedgerKind.APPROVAL_LAPSED, "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
                 "node", s.target().node(), "expired_at", s.expiresAt());
         fx.add(new Effect.ApprovalChanged(d));
@@ -146,8 +145,8 @@ final class Approvals {
             ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
                     s.expiresAt(), "withdrawn", null, fx.now(), s.reasons());
             byRun.put(runId, d);
-            fx.cancel("approval:" + runId);
-            fx.cancel(REMINDER_TIMER + runId);
+            fx.cancel(new TimerKey.ApprovalExpiry(runId));
+            fx.cancel(new TimerKey.ApprovalReminder(runId));
             fx.add(new Effect.ApprovalChanged(d));
         }
         cancelRun(runId, why, fx);

@@ -140,23 +140,26 @@ public final class Engine implements RunHost {
         return false;
     }
 
-    private void onTimer(String key, Effects fx) {
-        timers.remove(key);
-        if (key.startsWith("recheck:")) {
+    private void onTimer(String wire, Effects fx) {
+        timers.remove(wire);
+        TimerKey key = TimerKey.parse(wire).orElse(null);
+        if (key instanceof TimerKey.Recheck k) {
             work.addAll(candidates.dueByTime(ctx.now));
-            work.add(key.substring("recheck:".length()));
-        } else if (key.equals(FleetBrake.PAGE_TIMER)) {
+            work.add(k.candidate());
+        } else if (key instanceof TimerKey.BrakePage) {
             ctx.brake.pageDue(fx);
-        } else if (key.startsWith(Approvals.REMINDER_TIMER)) {
-            approvals.remind(key.substring(Approvals.REMINDER_TIMER.length()), fx);
-        } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
+        } else if (key instanceof TimerKey.ApprovalReminder k) {
+            approvals.remind(k.run(), fx);
+        } else if (key instanceof TimerKey.BrakeSettle) {
             if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
-        } else if (key.startsWith("approval:")) {
-            approvals.expire(key.substring("approval:".length()), fx);
-        } else if (key.startsWith("step:") || key.startsWith("wait:")) {
-            String runId = key.split(":", 3)[1];
-            RunProcess r = runs.get(runId);
-            if (r != null) machine.onTimer(r, key, fx);
+        } else if (key instanceof TimerKey.ApprovalExpiry k) {
+            approvals.expire(k.run(), fx);
+        } else if (key instanceof TimerKey.StepTimeout k) {
+            RunProcess r = runs.get(k.run());
+            if (r != null) machine.onTimer(r, k, fx);
+        } else if (key instanceof TimerKey.WaitTimeout k) {
+            RunProcess r = runs.get(k.run());
+            if (r != null) machine.onTimer(r, k, fx);
         }
     }
 
@@ -255,7 +258,7 @@ public final class Engine implements RunHost {
             retry = retry == null || p.isAfter(retry) ? p : retry;
         }
         if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
-            fx.arm("recheck:" + c.key(), retry);
+            fx.arm(new TimerKey.Recheck(c.key().toString()), retry);
         }
         escalations.held(c, d, fx);
         if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
@@ -290,7 +293,7 @@ public final class Engine implements RunHost {
         Candidates.Entry e = candidates.get(key);
         if (e == null) return;
         candidates.remove(key);
-        fx.cancel("recheck:" + key);
+        fx.cancel(new TimerKey.Recheck(key.toString()));
         if (e.decision() != null) {
             fx.ledger(LedgerKind.CANDIDATE_DROPPED, "playbook", key.playbook(), "cluster", key.target().cluster(),
                     "node", key.target().node(), "reason", why, "run", e.candidate().runId());
@@ -442,12 +445,7 @@ public final class Engine implements RunHost {
     public List<Effect.CallExecutor> inFlightCalls() {
         List<Effect.CallExecutor> out = new ArrayList<>();
         for (RunProcess r : ctx.active.values()) {
-            if (!r.isCalling()) continue;
-            dev.tend.playbooks.ActionStep a = (dev.tend.playbooks.ActionStep) r.currentStep();
-            ActionDef def = action(a.action());
-            java.time.Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : RunMachine.DEFAULT_TIMEOUT;
-            out.add(new Effect.CallExecutor(r.id(), a.id().value(), r.attempt(), r.id() + "/" + a.id() + "/" + r.attempt(),
-                    def, r.target(), r.playbook().id().value(), timeout));
+            if (r.isCalling()) out.add(machine.callInFlight(r));
         }
         return out;
     }
