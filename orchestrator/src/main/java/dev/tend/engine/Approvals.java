@@ -3,6 +3,7 @@ package dev.tend.engine;
 import dev.tend.engine.guard.Decision;
 import dev.tend.engine.run.RunMachine;
 import dev.tend.engine.run.RunProcess;
+import dev.tend.shared.ApprovalState;
 import dev.tend.shared.Verdict;
 
 import java.time.Instant;
@@ -33,7 +34,7 @@ final class Approvals {
         RunProcess r = host.newRun(c, RunState.AWAITING_APPROVAL, ApprovalHost.AUTOMATION);
         Instant expires = fx.now().plus(c.playbook().approval().expiresAfter());
         ApprovalSnapshot a = new ApprovalSnapshot(r.id(), c.playbook().id().value(), c.target(), ApprovalHost.AUTOMATION,
-                fx.now(), expires, "pending", null, null, d.reasonCodes());
+                fx.now(), expires, ApprovalState.PENDING, null, null, d.reasonCodes());
         byRun.put(r.id(), a);
         fx.arm(new TimerKey.ApprovalExpiry(r.id()), expires);
         fx.ledger(LedgerKind.APPROVAL_REQUESTED, "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
@@ -51,7 +52,7 @@ final class Approvals {
     /** The reminder timer fired: pages once more while the approval is still pending. */
     void remind(String runId, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
-        if (s == null || !s.state().equals("pending")) return;
+        if (s == null || s.state() != ApprovalState.PENDING) return;
         fx.add(new Effect.Notify(runId + "/approval-lapsing", PageKind.APPROVAL_LAPSING, host.pageChannel(),
                 s.playbook() + " on " + s.target() + " still waits for an approval; it lapses at " + s.expiresAt(), pageFields(s)));
     }
@@ -68,17 +69,17 @@ final class Approvals {
 
     CommandAnswer approve(Input.Approve a, Effects fx) {
         ApprovalSnapshot s = byRun.get(a.runId());
-        if (s == null || !s.state().equals("pending")) return notPending(a.runId(), s, a.by(), a.from(), fx);
+        if (s == null || s.state() != ApprovalState.PENDING) return notPending(a.runId(), s, a.by(), a.from(), fx);
         if (a.by().equals(s.requestedBy())) {
             String why = "two-person rule: whoever requested a run cannot approve it";
             fx.ledger(LedgerKind.APPROVAL_REFUSED, "run", a.runId(), "by", a.by(), "from", a.from(), "reason", why);
             return new CommandAnswer.Refused(CommandAnswer.Refusal.TWO_PERSON_RULE, why);
         }
-        return decide(a.runId(), "approved", a.by(), a.from(), null, fx);
+        return decide(a.runId(), ApprovalState.APPROVED, a.by(), a.from(), null, fx);
     }
 
     CommandAnswer reject(Input.Reject r, Effects fx) {
-        return decide(r.runId(), "rejected", r.by(), r.from(), r.reason(), fx);
+        return decide(r.runId(), ApprovalState.REJECTED, r.by(), r.from(), r.reason(), fx);
     }
 
     /** Refuses to decide an approval that is not pending, on the record. */
@@ -88,20 +89,20 @@ final class Approvals {
                 : new CommandAnswer.Refused(CommandAnswer.Refusal.NOT_PENDING, notPending(s));
     }
 
-    private CommandAnswer decide(String runId, String state, String by, String from, String reason, Effects fx) {
+    private CommandAnswer decide(String runId, ApprovalState state, String by, String from, String reason, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
-        if (s == null || !s.state().equals("pending")) return notPending(runId, s, by, from, fx);
+        if (s == null || s.state() != ApprovalState.PENDING) return notPending(runId, s, by, from, fx);
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
                 s.expiresAt(), state, by, fx.now(), s.reasons());
         byRun.put(runId, d);
         fx.cancel(new TimerKey.ApprovalExpiry(runId));
         fx.cancel(new TimerKey.ApprovalReminder(runId));
-        fx.ledger(state.equals("approved") ? LedgerKind.APPROVAL_GRANTED : LedgerKind.APPROVAL_REJECTED, "run", runId, "playbook", s.playbook(),
+        fx.ledger(state == ApprovalState.APPROVED ? LedgerKind.APPROVAL_GRANTED : LedgerKind.APPROVAL_REJECTED, "run", runId, "playbook", s.playbook(),
                 "cluster", s.target().cluster(), "node", s.target().node(), "by", by, "from", from, "reason", reason);
         fx.add(new Effect.ApprovalChanged(d));
         Candidate.Key key = keyOf(s);
         Candidates.Entry e = candidates.get(key);
-        if (state.equals("approved")) {
+        if (state == ApprovalState.APPROVED) {
             if (e != null) {
                 candidates.put(e.candidate().withApproved(), e.decision());
                 host.queue(key);
@@ -118,17 +119,17 @@ final class Approvals {
         if (s == null) return "no approval was requested for this run";
         String when = s.decidedAt() == null ? "" : " at " + s.decidedAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
         return switch (s.state()) {
-            case "approved", "rejected" -> "the run was already " + s.state() + (s.decidedBy() == null ? "" : " by " + s.decidedBy()) + when;
-            case "lapsed" -> "the approval lapsed" + when + " (it expired at " + s.expiresAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + ")";
-            default -> "the approval is " + s.state() + when;
+            case APPROVED, REJECTED -> "the run was already " + s.state().wireName() + (s.decidedBy() == null ? "" : " by " + s.decidedBy()) + when;
+            case LAPSED -> "the approval lapsed" + when + " (it expired at " + s.expiresAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + ")";
+            default -> "the approval is " + s.state().wireName() + when;
         };
     }
 
     void expire(String runId, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
-        if (s == null || !s.state().equals("pending")) return;
+        if (s == null || s.state() != ApprovalState.PENDING) return;
         ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
-                s.expiresAt(), "lapsed", null, fx.now(), s.reasons());
+                s.expiresAt(), ApprovalState.LAPSED, null, fx.now(), s.reasons());
         byRun.put(runId, d);
         fx.cancel(new TimerKey.ApprovalReminder(runId));
         fx.ledger(LedgerKind.APPROVAL_LAPSED, "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
@@ -141,9 +142,9 @@ final class Approvals {
     /** The problem went away while a person was asked. */
     void withdraw(String runId, String why, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
-        if (s != null && s.state().equals("pending")) {
+        if (s != null && s.state() == ApprovalState.PENDING) {
             ApprovalSnapshot d = new ApprovalSnapshot(runId, s.playbook(), s.target(), s.requestedBy(), s.requestedAt(),
-                    s.expiresAt(), "withdrawn", null, fx.now(), s.reasons());
+                    s.expiresAt(), ApprovalState.WITHDRAWN, null, fx.now(), s.reasons());
             byRun.put(runId, d);
             fx.cancel(new TimerKey.ApprovalExpiry(runId));
             fx.cancel(new TimerKey.ApprovalReminder(runId));
@@ -167,7 +168,7 @@ final class Approvals {
     /** An abort of run {@code runId} while its approval is pending: withdraws the approval (and so cancels the run); false when none is pending. */
     boolean withdrawPending(String runId, String why, Effects fx) {
         ApprovalSnapshot s = byRun.get(runId);
-        if (s == null || !s.state().equals("pending")) return false;
+        if (s == null || s.state() != ApprovalState.PENDING) return false;
         withdraw(runId, why, fx);
         candidates.remove(keyOf(s));
         return true;

@@ -1,5 +1,7 @@
 package dev.tend.handover;
 
+import dev.tend.shared.ApprovalState;
+
 import java.time.Instant;
 import java.util.Objects;
 import java.util.Set;
@@ -20,12 +22,13 @@ import java.util.Set;
  */
 public record ApprovalLine(String run, String playbook, String cluster, String node, Instant requestedAt, Instant expiresAt,
                            String state, String decidedBy, Instant decidedAt) {
-    public static final String PENDING = "pending";
-    public static final String APPROVED = "approved";
-    public static final String REJECTED = "rejected";
-    public static final String LAPSED = "lapsed";
-    public static final String WITHDRAWN = "withdrawn";
-    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
+    // the states are defined once, by ApprovalState; these are their wire names
+    public static final String PENDING = ApprovalState.PENDING.wireName();
+    public static final String APPROVED = ApprovalState.APPROVED.wireName();
+    public static final String REJECTED = ApprovalState.REJECTED.wireName();
+    public static final String LAPSED = ApprovalState.LAPSED.wireName();
+    public static final String WITHDRAWN = ApprovalState.WITHDRAWN.wireName();
+    public static final Set<String> STATES = ApprovalState.wireNames();
 
     public ApprovalLine {
         Objects.requireNonNull(run, "ApprovalLine.run must not be null");
