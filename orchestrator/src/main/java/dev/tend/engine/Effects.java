@@ -1,6 +1,7 @@
 package dev.tend.engine;
 
 import dev.tend.shared.Target;
+import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
 import java.util.ArrayList;
