@@ -2,6 +2,7 @@ package dev.tend.api;
 
 import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
+import dev.tend.store.LedgerDraft;
 
 import java.util.List;
 
@@ -14,6 +15,10 @@ public interface Gateway {
     /** Applies an operator command; returns its effects once committed. */
     List<Effect> command(Input.Command command);
 
-    /** Queues transitions and topology events in order; returns once all are committed. */
-    void events(List<Input> events);
+    /**
+     * Queues transitions and topology events in order; returns once all are committed, with
+     * {@code receipt} (who sent them) in the ledger right after the last one's entries, in
+     * the same transaction.
+     */
+    void events(List<Input> events, LedgerDraft receipt);
 }

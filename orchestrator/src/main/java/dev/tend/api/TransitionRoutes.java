@@ -15,6 +15,7 @@ import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
 import dev.tend.shared.wire.WireReader;
+import dev.tend.store.LedgerDraft;
 import dev.tend.store.Store;
 import io.javalin.http.Context;
 import io.javalin.router.JavalinDefaultRouting;
@@ -70,7 +71,6 @@ final class TransitionRoutes {
                 problems.add(new LineProblem(b.problem().line(), b.problem().column(), b.problem().field(), b.problem().message()));
             }
         });
-        if (!events.isEmpty()) gateway.events(events);
         if (!events.isEmpty() || summary.bad() > 0) {
             // who fed the engine, from where: one entry per request, not per line
             Caller caller = Requests.caller(ctx);
@@ -79,7 +79,11 @@ final class TransitionRoutes {
             fields.put("from", Requests.from(ctx));
             fields.put("accepted", events.size());
             fields.put("rejected", summary.bad());
-            store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(), LedgerKind.TRANSITIONS_RECEIVED.check(fields)));
+            LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
+                    LedgerKind.TRANSITIONS_RECEIVED.check(fields));
+            // committed with the events it names (no commit of its own), or alone when every line was refused
+            if (!events.isEmpty()) gateway.events(events, receipt);
+            else store.useTransaction(tx -> tx.appendLedger(List.of(receipt)));
         }
         metrics.transitionsReceived(events.size());
         metrics.linesRejected(summary.bad());

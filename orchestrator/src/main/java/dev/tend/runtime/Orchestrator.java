@@ -19,11 +19,7 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import java.util.concurrent.ArrayBlockingQueue;
-import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.LinkedBlockingQueue;
-import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.BooleanSupplier;
 
@@ -36,8 +32,11 @@ import java.util.function.BooleanSupplier;
  */
 public final class Orchestrator {
     private static final int BATCH = 2000;
-    /** Group commit: a small batch waits this long for more inputs before it is committed. */
-    private static final long GATHER_NANOS = 10_000_000;
+    /**
+     * How long the idle driver sleeps before it looks at {@code done} and the checkpoints
+     * again; any input wakes it at once (see {@link Inbox}).
+     */
+    private static final long IDLE_NANOS = 20_000_000;
 
     private final Store store;
     private final EngineSetup setup;
@@ -48,8 +47,7 @@ public final class Orchestrator {
     private final Notifier notifier;
     private final Clock clock;
     private final CommitListener listener;
-    private final BlockingQueue<Input> urgent = new LinkedBlockingQueue<>();
-    private final BlockingQueue<Input> events = new ArrayBlockingQueue<>(20_000);
+    private final Inbox inbox = new Inbox();
     private final AtomicInteger callsInFlight = new AtomicInteger();
     private volatile boolean stopping;
     /** The input the events queue is fed from (see {@link #readingFrom}); null when it has no identity. */
@@ -60,6 +58,8 @@ public final class Orchestrator {
     /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
     private volatile CheckpointWriter checkpoints;
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
+    /** Ledger entries to append right after an input's own, in the transaction that commits it (see {@link #submitEventAndWait(Input, LedgerDraft)}). */
+    private final Map<Input, LedgerDraft> receipts = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
@@ -103,7 +103,7 @@ public final class Orchestrator {
                 dispatch(call);
                 again++;
             } else {
-                urgent.add(new Input.OutcomeUnknown(call.runId(), call.stepId(), call.attempt()));
+                inbox.add(new Input.OutcomeUnknown(call.runId(), call.stepId(), call.attempt()));
                 unknown++;
             }
         }
@@ -153,7 +153,7 @@ public final class Orchestrator {
 
     /** Queues a transition or topology event; blocks while the queue is full. */
     public void submitEvent(Input in) throws InterruptedException {
-        events.put(in);
+        inbox.putEvent(in);
     }
 
     /**
@@ -165,7 +165,7 @@ public final class Orchestrator {
         CompletableFuture<List<Effect>> f = new CompletableFuture<>();
         waiting.put(in, f);
         try {
-            events.put(in);
+            inbox.putEvent(in);
         } catch (InterruptedException e) {
             waiting.remove(in);
             throw e;
@@ -173,9 +173,24 @@ public final class Orchestrator {
         return f;
     }
 
+    /**
+     * As {@link #submitEventAndWait(Input)}, and appends {@code receipt} to the ledger right
+     * after the input's own entries, in the transaction that commits it (stamped with the
+     * input's processing time): a record of who sent it that costs no commit of its own.
+     */
+    public CompletableFuture<List<Effect>> submitEventAndWait(Input in, LedgerDraft receipt) throws InterruptedException {
+        receipts.put(in, java.util.Objects.requireNonNull(receipt, "receipt"));
+        try {
+            return submitEventAndWait(in);
+        } catch (InterruptedException e) {
+            receipts.remove(in);
+            throw e;
+        }
+    }
+
     /** Queues a timer firing, executor result or operator command; never blocks. */
     public void submit(Input in) {
-        urgent.add(in);
+        inbox.add(in);
     }
 
     /**
@@ -185,17 +200,18 @@ public final class Orchestrator {
     public CompletableFuture<List<Effect>> submitAndWait(Input in) {
         CompletableFuture<List<Effect>> f = new CompletableFuture<>();
         waiting.put(in, f);
-        urgent.add(in);
+        inbox.add(in);
         return f;
     }
 
     public void stop() {
         stopping = true;
+        inbox.wake();
     }
 
     /** True when no run is executing and no call is in flight. */
     public boolean isIdle() {
-        if (callsInFlight.get() > 0 || !urgent.isEmpty() || !events.isEmpty()) return false;
+        if (callsInFlight.get() > 0 || !inbox.isEmpty()) return false;
         return !engine.isExecuting();
     }
 
@@ -211,58 +227,30 @@ public final class Orchestrator {
         }
     }
 
+    /**
+     * Group commit that waits on work, not on timers: a batch is whatever waits when the
+     * driver looks (up to {@link #BATCH}), committed at once. An input arriving at an idle
+     * driver is committed alone, without delay; inputs arriving while a batch is decided and
+     * committed wait for that commit and then go together in the next one.
+     */
     private void loop(BooleanSupplier done) throws InterruptedException {
         List<Input> batch = new ArrayList<>(BATCH);
         java.util.BitSet queued = new java.util.BitSet(BATCH);
         while (!stopping) {
             batch.clear();
             queued.clear();
-            urgent.drainTo(batch, BATCH);
-            if (batch.size() < BATCH) fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
+            inbox.drainTo(batch, queued, BATCH);
             if (batch.isEmpty()) {
-                if (done.getAsBoolean() && urgent.isEmpty() && events.isEmpty()) return;
+                if (done.getAsBoolean() && inbox.isEmpty()) return;
                 CheckpointWriter w = checkpoints;
                 if (w != null) w.maybeWrite(clock.instant());
-                Input next = urgent.poll(20, TimeUnit.MILLISECONDS);
-                boolean event = false;
-                if (next == null) {
-                    next = events.poll();
-                    event = true;
-                }
-                if (next == null) continue;
-                batch.add(next);
-                if (event) queued.set(0);
+                inbox.awaitInput(IDLE_NANOS);
+                if (Thread.interrupted()) throw new InterruptedException("the driver was interrupted");
+                continue;
             }
-            gather(batch, queued);
             process(batch, queued);
             CheckpointWriter w = checkpoints;
             if (w != null) w.maybeWrite(clock.instant());
-        }
-    }
-
-    /** Marks the last {@code n} inputs of {@code batch} as taken from the events queue. */
-    private static void fromEvents(List<Input> batch, java.util.BitSet queued, int n) {
-        if (n > 0) queued.set(batch.size() - n, batch.size());
-    }
-
-    /**
-     * Lets a small batch fill up for a few milliseconds, so that a steady trickle of events
-     * is committed in groups rather than a transaction per event.
-     */
-    private void gather(List<Input> batch, java.util.BitSet queued) throws InterruptedException {
-        long deadline = System.nanoTime() + GATHER_NANOS;
-        while (batch.size() < BATCH) {
-            long left = deadline - System.nanoTime();
-            if (left <= 0) return;
-            Input next = events.poll(left, TimeUnit.NANOSECONDS);
-            if (next == null) {
-                urgent.drainTo(batch, BATCH - batch.size());
-                return;
-            }
-            batch.add(next);
-            queued.set(batch.size() - 1);
-            fromEvents(batch, queued, events.drainTo(batch, BATCH - batch.size()));
-            urgent.drainTo(batch, BATCH - batch.size());
         }
     }
 
@@ -287,7 +275,10 @@ public final class Orchestrator {
             if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
             store.useTransaction(tx -> {
                 tx.appendInputs(rows);
-                for (int i = 0; i < perInput.size(); i++) Projections.apply(tx, times.get(i), perInput.get(i), ledger);
+                for (int i = 0; i < perInput.size(); i++) {
+                    Projections.apply(tx, times.get(i), perInput.get(i), ledger);
+                    if (!receipts.isEmpty()) receipt(batch.get(i), times.get(i), ledger);
+                }
                 tx.appendLedger(ledger);
             });
             sourceDone = done;
@@ -299,12 +290,21 @@ public final class Orchestrator {
         }
         for (Effect e : all) perform(e);
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
+        if (!receipts.isEmpty()) {
+            for (Input in : batch) receipts.remove(in);
+        }
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {
                 CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
                 if (f != null) f.complete(perInput.get(i));
             }
         }
+    }
+
+    /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
+    private void receipt(Input in, Instant at, List<LedgerDraft> ledger) {
+        LedgerDraft r = receipts.get(in);
+        if (r != null) ledger.add(new LedgerDraft(at, r.kind(), r.fields()));
     }
 
     /**
@@ -329,6 +329,7 @@ public final class Orchestrator {
                 store.useTransaction(tx -> {
                     tx.appendInputs(rows);
                     Projections.apply(tx, now, fx, ledger);
+                    receipt(in, now, ledger);
                     tx.appendLedger(ledger);
                 });
             } catch (RuntimeException e) {
@@ -338,6 +339,7 @@ public final class Orchestrator {
                 continue;
             }
             if (source != null && queued.get(i)) sourceDone++;
+            receipts.remove(in);
             for (Effect e : fx) perform(e);
             listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
             CompletableFuture<List<Effect>> f = waiting.remove(in);
@@ -355,12 +357,16 @@ public final class Orchestrator {
         try {
             store.useTransaction(tx -> {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
-                tx.appendLedger(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason)));
+                List<LedgerDraft> entries = new ArrayList<>(2);
+                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason))));
+                receipt(in, now, entries);
+                tx.appendLedger(entries);
             });
         } catch (RuntimeException e) {
             stopOn(rest, e);
         }
         if (ofSource) sourceDone++;
+        receipts.remove(in);
         listener.refused(in, reason);
         CompletableFuture<List<Effect>> f = waiting.remove(in);
         if (f != null) f.completeExceptionally(InputRefusal.asInvalidInput(in, reason));
@@ -370,6 +376,7 @@ public final class Orchestrator {
     private void stopOn(List<Input> batch, RuntimeException e) {
         stopping = true;
         for (Input in : batch) {
+            receipts.remove(in);
             CompletableFuture<List<Effect>> f = waiting.remove(in);
             if (f != null) f.completeExceptionally(e);
         }
@@ -388,7 +395,7 @@ public final class Orchestrator {
         callsInFlight.incrementAndGet();
         executor(call.action().kind()).execute(call, result -> {
             // an executor's thread: it only queues; the engine is read on the driver thread alone
-            urgent.add(result);
+            inbox.add(result);
             callsInFlight.decrementAndGet();
         });
     }

@@ -6,6 +6,7 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.shared.InvalidInputException;
+import dev.tend.store.LedgerDraft;
 
 import java.time.Duration;
 import java.util.List;
@@ -36,12 +37,12 @@ final class OrchestratorGateway implements Gateway {
     }
 
     @Override
-    public void events(List<Input> events) {
+    public void events(List<Input> events, LedgerDraft receipt) {
         if (events.isEmpty()) return;
         requireRunning();
         try {
             for (int i = 0; i < events.size() - 1; i++) orchestrator.submitEvent(events.get(i));
-            await(orchestrator.submitEventAndWait(events.get(events.size() - 1)), events.size() + " event(s)");
+            await(orchestrator.submitEventAndWait(events.get(events.size() - 1), receipt), events.size() + " event(s)");
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             throw new DriverUnavailableException("interrupted while queueing events; some may have been applied", e);

@@ -113,6 +113,8 @@ public final class FleetHealthView {
         int total;
         int clusterLevel;
         final Map<Id, Integer> perNode = new HashMap<>(4);
+        /** The active signals themselves, so that a cluster's are listed without looking at every signal of the fleet. */
+        final Set<SignalKey> active = new java.util.HashSet<>(4);
     }
 
     // one lookup per change instead of seven: every state change of every signal comes here
@@ -123,6 +125,8 @@ public final class FleetHealthView {
             problems.put(key.cluster(), p);
         }
         p.total += delta;
+        if (delta > 0) p.active.add(key);
+        else p.active.remove(key);
         if (key.node() == null) {
             p.clusterLevel += delta;
         } else if (p.perNode.merge(key.node(), delta, Integer::sum) == 0) {
@@ -145,11 +149,10 @@ public final class FleetHealthView {
     /** The signals in breach or silent on a node (or on the cluster itself when node is null), by name. */
     public Map<Id, SignalStatus> activeSignals(Id cluster, Id node) {
         Map<Id, SignalStatus> out = new TreeMap<>();
-        for (Map.Entry<SignalKey, Slot> e : signals.entrySet()) {
-            SignalKey k = e.getKey();
-            if (k.cluster().equals(cluster) && java.util.Objects.equals(k.node(), node) && e.getValue().status.isProblem()) {
-                out.put(k.signal(), e.getValue().status);
-            }
+        Problems p = problems.get(cluster);
+        if (p == null) return out;
+        for (SignalKey k : p.active) {
+            if (java.util.Objects.equals(k.node(), node)) out.put(k.signal(), signals.get(k).status);
         }
         return out;
     }

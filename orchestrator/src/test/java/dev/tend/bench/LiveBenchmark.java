@@ -1,0 +1,207 @@
+package dev.tend.bench;
+
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HexFormat;
+import java.util.List;
+import java.util.SplittableRandom;
+import java.util.concurrent.atomic.AtomicBoolean;
+import java.util.concurrent.atomic.AtomicLong;
+
+/**
+ * The live path as a health pipeline feels it, over real HTTP on loopback, in one run:
+ * {@code tend serve} as its own process (the jar, the bundled playbooks, a SQLite store) and
+ * the floor, a bare endpoint on the same server stack that only parses the body
+ * ({@link BareEndpoint}, also its own process). For each: a warm-up, then an idle server
+ * answering one one-line {@code POST /api/v1/transitions} at a time (p50/p99), then 16
+ * keep-alive connections posting one line per request as fast as they are answered (rate,
+ * p50/p99). Prints the figures, the ratio tend/floor and the load. Not a test: run it with
+ * {@code -Pbench} (see DEVELOPERS.md).
+ *
+ * <p>Arguments: {@code --jar FILE --test-classes DIR --library DIR [--seconds S]
+ * [--connections C] [--idle-requests N] [--clusters N]}.
+ */
+public final class LiveBenchmark {
+    private LiveBenchmark() {
+    }
+
+    /** What one measurement found. */
+    record Figures(long requests, long failures, double seconds, long[] latencyNanos, long serverCpuNanos) {
+        Figures withServerCpu(long nanos) {
+            return new Figures(requests, failures, seconds, latencyNanos, nanos);
+        }
+
+        double cpuMicrosPerRequest() {
+            return serverCpuNanos < 0 ? Double.NaN : serverCpuNanos / 1e3 / requests;
+        }
+
+        double rate() {
+            return requests / seconds;
+        }
+
+        double percentileMs(double p) {
+            if (latencyNanos.length == 0) return Double.NaN;
+            int i = (int) Math.ceil(p * latencyNanos.length) - 1;
+            return latencyNanos[Math.max(0, Math.min(latencyNanos.length - 1, i))] / 1e6;
+        }
+    }
+
+    public static void main(String[] args) throws Exception {
+        Path jar = Path.of(arg(args, "--jar", "orchestrator/target/tend.jar"));
+        Path testClasses = Path.of(arg(args, "--test-classes", "orchestrator/target/test-classes"));
+        Path library = Path.of(arg(args, "--library", "playbooks/library"));
+        int seconds = Integer.parseInt(arg(args, "--seconds", "8"));
+        int connections = Integer.parseInt(arg(args, "--connections", "16"));
+        int idleRequests = Integer.parseInt(arg(args, "--idle-requests", "400"));
+        int clusters = Integer.parseInt(arg(args, "--clusters", "300"));
+        Path dir = Files.createTempDirectory("tend-live-bench");
+        Path fleet = dir.resolve("fleet.yaml");
+        IngestBenchmark.writeFleet(fleet, clusters);
+        String token = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(dir.toString().getBytes(StandardCharsets.UTF_8)));
+        String hash = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(token.getBytes(StandardCharsets.UTF_8)));
+        Path tokens = dir.resolve("tokens.yaml");
+        Files.writeString(tokens, "tokens:\n  - { name: bench-feed, roles: [operator], sha256: " + hash + " }\n");
+        System.out.printf("live benchmark: %d connections, %d s each, %d idle requests, %d clusters, in %s; %s%n",
+                connections, seconds, idleRequests, clusters, dir, ChildProcess.load());
+        List<String> jvm = List.of();
+        String extra = arg(args, "--serve-java-options", "");
+        List<String> serveJvm = extra.isBlank() ? jvm : List.of(extra.trim().split("\\s+"));
+
+        int floorPort = ChildProcess.freePort();
+        Figures floorIdle, floorLoad;
+        try (ChildProcess floor = ChildProcess.startAndAwait(ChildProcess.javaCommand(jvm, "-cp", jar + java.io.File.pathSeparator
+                + testClasses, BareEndpoint.class.getName(), String.valueOf(floorPort)), dir.resolve("floor.log"), "listening on", 120)) {
+            load(floorPort, null, connections, 3, clusters);
+            long c0 = floor.cpuNanos();
+            floorIdle = idle(floorPort, null, idleRequests, clusters);
+            long c1 = floor.cpuNanos();
+            floorLoad = load(floorPort, null, connections, seconds, clusters);
+            long c2 = floor.cpuNanos();
+            floorIdle = floorIdle.withServerCpu(c1 - c0);
+            floorLoad = floorLoad.withServerCpu(c2 - c1);
+        }
+        int tendPort = ChildProcess.freePort();
+        Figures tendIdle, tendLoad;
+        try (ChildProcess tend = ChildProcess.startAndAwait(ChildProcess.javaCommand(serveJvm, "-jar", jar.toString(), "serve",
+                "--playbooks", library.toString(), "--fleet", fleet.toString(), "--db", dir.resolve("live.db").toString(),
+                "--listen", "127.0.0.1:" + tendPort, "--tokens", tokens.toString()), dir.resolve("serve.log"), "tend: serving", 180)) {
+            load(tendPort, token, connections, 3, clusters);
+            long c0 = tend.cpuNanos();
+            tendIdle = idle(tendPort, token, idleRequests, clusters);
+            long c1 = tend.cpuNanos();
+            tendLoad = load(tendPort, token, connections, seconds, clusters);
+            long c2 = tend.cpuNanos();
+            tendIdle = tendIdle.withServerCpu(c1 - c0);
+            tendLoad = tendLoad.withServerCpu(c2 - c1);
+        }
+        System.out.printf("%-44s %12s %9s %9s %14s %7s%n", "", "requests/s", "p50 ms", "p99 ms", "server CPU/req", "failed");
+        row("floor, idle (one request at a time)", floorIdle);
+        row("tend,  idle (one request at a time)", tendIdle);
+        row("floor, " + connections + " connections, one line per request", floorLoad);
+        row("tend,  " + connections + " connections, one line per request", tendLoad);
+        System.out.printf("idle tend p99 = %.2f ms (target < 5 ms): %s%n", tendIdle.percentileMs(0.99),
+                tendIdle.percentileMs(0.99) < 5 ? "met" : "NOT met");
+        double ratio = tendLoad.rate() / floorLoad.rate();
+        System.out.printf("ratio tend/floor, %d connections = %.2f (target >= 0.50): %s; tend %,.0f transitions/s (target >= 2,000): %s%n",
+                connections, ratio, ratio >= 0.5 ? "met" : "NOT met", tendLoad.rate(), tendLoad.rate() >= 2000 ? "met" : "NOT met");
+        System.out.printf("after: %s%n", ChildProcess.load());
+        if (floorIdle.failures() + floorLoad.failures() + tendIdle.failures() + tendLoad.failures() > 0) {
+            throw new IllegalStateException("some requests failed; see the logs in " + dir);
+        }
+    }
+
+    private static void row(String what, Figures f) {
+        System.out.printf("%-44s %12.0f %9.2f %9.2f %11.0f µs %7d%n", what, f.rate(), f.percentileMs(0.5), f.percentileMs(0.99),
+                f.cpuMicrosPerRequest(), f.failures());
+    }
+
+    /** One connection, one one-line request at a time with a pause of 5 ms between: the server is idle at each. */
+    static Figures idle(int port, String token, int n, int clusters) throws Exception {
+        SplittableRandom random = new SplittableRandom(11);
+        long[] lat = new long[n];
+        long failures = 0;
+        long t0 = System.nanoTime();
+        try (LoopbackClient c = new LoopbackClient(port, "/api/v1/transitions", token)) {
+            for (int i = 0; i < n; i++) {
+                Thread.sleep(5);
+                String line = line(random, clusters);
+                long s = System.nanoTime();
+                int status = c.post(line);
+                lat[i] = System.nanoTime() - s;
+                if (status != 200) failures++;
+            }
+        }
+        Arrays.sort(lat);
+        return new Figures(n, failures, (System.nanoTime() - t0) / 1e9, lat, -1);
+    }
+
+    /** {@code connections} connections, each posting one line per request, answered before the next, for {@code seconds}. */
+    static Figures load(int port, String token, int connections, int seconds, int clusters) throws Exception {
+        AtomicBoolean stop = new AtomicBoolean();
+        AtomicLong failures = new AtomicLong();
+        List<long[]> perThread = new ArrayList<>();
+        int[] counts = new int[connections];
+        List<Thread> threads = new ArrayList<>();
+        List<Throwable> errors = java.util.Collections.synchronizedList(new ArrayList<>());
+        for (int t = 0; t < connections; t++) {
+            long[] lat = new long[1 << 20];
+            perThread.add(lat);
+            int me = t;
+            Thread th = new Thread(() -> {
+                SplittableRandom random = new SplittableRandom(100 + me);
+                try (LoopbackClient c = new LoopbackClient(port, "/api/v1/transitions", token)) {
+                    int k = 0;
+                    while (!stop.get() && k < lat.length) {
+                        String line = line(random, clusters);
+                        long s = System.nanoTime();
+                        int status = c.post(line);
+                        lat[k++] = System.nanoTime() - s;
+                        if (status != 200) failures.incrementAndGet();
+                    }
+                    counts[me] = k;
+                } catch (Exception e) {
+                    errors.add(e);
+                }
+            }, "bench-client-" + t);
+            threads.add(th);
+        }
+        long t0 = System.nanoTime();
+        for (Thread th : threads) th.start();
+        Thread.sleep(seconds * 1000L);
+        stop.set(true);
+        for (Thread th : threads) th.join();
+        double elapsed = (System.nanoTime() - t0) / 1e9;
+        if (!errors.isEmpty()) throw new IllegalStateException("a client failed: " + errors.get(0), errors.get(0));
+        int total = Arrays.stream(counts).sum();
+        long[] all = new long[total];
+        int at = 0;
+        for (int t = 0; t < connections; t++) {
+            System.arraycopy(perThread.get(t), 0, all, at, counts[t]);
+            at += counts[t];
+        }
+        Arrays.sort(all);
+        return new Figures(total, failures.get(), elapsed, all, -1);
+    }
+
+    /** One wire line: a noise signal of a random node, mostly clear, now. */
+    static String line(SplittableRandom random, int clusters) {
+        String[] signals = {"disk-latency", "gc-pause", "request-errors", "cpu-high"};
+        int c = 1 + random.nextInt(clusters);
+        int node = 1 + random.nextInt(4);
+        String state = random.nextInt(10) == 0 ? "breach" : "clear";
+        return "{\"at\":\"" + Instant.now() + "\",\"cluster\":\"bench-" + c + "\",\"node\":\"n" + node + "\",\"signal\":\""
+                + signals[random.nextInt(signals.length)] + "\",\"state\":\"" + state + "\"}";
+    }
+
+    static String arg(String[] args, String name, String fallback) {
+        for (int i = 0; i < args.length - 1; i++) {
+            if (args[i].equals(name)) return args[i + 1];
+        }
+        return fallback;
+    }
+}
