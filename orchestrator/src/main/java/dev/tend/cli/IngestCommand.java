@@ -2,8 +2,6 @@ package dev.tend.cli;
 
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.audit.LedgerKey;
-import dev.tend.engine.Effect;
-import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
@@ -13,7 +11,6 @@ import dev.tend.executor.ExecutorRegistry;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
-import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.QuartzTimers;
 import dev.tend.runtime.SourceProgress;
@@ -41,7 +38,6 @@ import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Duration;
-import java.util.List;
 import java.util.concurrent.Callable;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
@@ -94,21 +90,10 @@ public final class IngestCommand implements Callable<Integer> {
                      new ExecutorRegistry.Settings(Path.of("").toAbsolutePath(), seed, speedup, outgoing));
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
-            java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
+            CommitRefusals refusals = new CommitRefusals(input, err);
             QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, executors.byKind(), timers,
-                    n -> courier.wake(), clock, new CommitListener() {
-                        @Override
-                        public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
-                        }
-
-                        @Override
-                        public void refused(Input in, String reason) {
-                            refused.incrementAndGet();
-                            err.println("tend: refused a " + in.kind() + " input" + (in.cluster() == null ? "" : " of " + in.cluster())
-                                    + " (a ledger entry input-refused names it): " + reason);
-                        }
-                    });
+                    n -> courier.wake(), clock, refusals);
             courier.start();
             timers.fireInto(key -> orch.submit(new Input.TimerFired(key)));
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
@@ -136,8 +121,10 @@ public final class IngestCommand implements Callable<Integer> {
                     summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
-                                orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
-                                        : new Input.Topology((TopologyEvent) e.event()));
+                                Input next = e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
+                                        : new Input.Topology((TopologyEvent) e.event());
+                                refusals.submitted(next, e.line());
+                                orch.submitEvent(next);
                                 if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);
                             } else if (r instanceof LineResult.Bad b && seen[0] >= skip) {
                                 err.println(b.problem() + " (line skipped)");
@@ -190,7 +177,7 @@ public final class IngestCommand implements Callable<Integer> {
             out.flush();
             reported.countDown();
             if (readFailure.get() != null) return ExitCodes.USAGE;
-            if (refused.get() > 0) return ExitCodes.FINDINGS;
+            if (refusals.count() > 0) return ExitCodes.FINDINGS;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }
