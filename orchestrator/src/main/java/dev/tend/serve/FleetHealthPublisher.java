@@ -41,6 +41,10 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     /** The topology the zone counts below were made for; driver thread only, like everything below. */
     private Fleet topology;
     private Map<String, int[]> clustersPerZone = new TreeMap<>();
+    /** Each zone's own nodes (a cluster usually has nodes in several zones). */
+    private Map<String, int[]> nodesPerZone = new TreeMap<>();
+    /** How many times faster than the wall clock processing time runs (1 live; more under tend demo). */
+    private final double timeScale;
     /** Unhealthy clusters, by id, with what the picture shows of each. */
     private final TreeMap<Id, Unhealthy> unhealthy = new TreeMap<>();
 
@@ -49,7 +53,12 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     }
 
     FleetHealthPublisher(Clock clock) {
+        this(clock, 1);
+    }
+
+    FleetHealthPublisher(Clock clock, double timeScale) {
         this.clock = clock;
+        this.timeScale = timeScale;
     }
 
     @Override
@@ -83,8 +92,10 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         FleetHealthView view = engine.health();
         topology = view.topology();
         clustersPerZone = new TreeMap<>();
+        nodesPerZone = new TreeMap<>();
         for (ClusterSpec c : topology.clusters()) {
             for (String z : zones(c)) clustersPerZone.computeIfAbsent(z, k -> new int[1])[0]++;
+            for (NodeSpec n : c.nodes()) nodesPerZone.computeIfAbsent(n.zone() == null ? "unknown" : n.zone(), k -> new int[1])[0]++;
         }
         unhealthy.clear();
         for (Id cluster : view.unhealthyClusters()) refresh(view, cluster);
@@ -131,14 +142,14 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         allZones.addAll(unhealthyPerZone.keySet());
         List<FleetHealth.Zone> zones = new ArrayList<>();
         for (String z : allZones) {
-            zones.add(new FleetHealth.Zone(z, clustersPerZone.getOrDefault(z, new int[1])[0],
+            zones.add(new FleetHealth.Zone(z, nodesPerZone.getOrDefault(z, new int[1])[0], clustersPerZone.getOrDefault(z, new int[1])[0],
                     unhealthyPerZone.getOrDefault(z, List.of()), impaired.getOrDefault(z, 0)));
         }
         // before the first event the engine's event time is the epoch: "none yet"
         java.time.Instant eventTime = engine.eventTime().equals(java.time.Instant.EPOCH) ? null : engine.eventTime();
         current.set(new FleetHealth(clock.instant(), eventTime, view.topology().name(), view.topology().size(),
                 view.unhealthyClusterCount(), view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()),
-                zones, problems));
+                zones, problems, timeScale));
     }
 
     private static List<String> zones(ClusterSpec c) {

@@ -59,7 +59,7 @@ public final class TendServer implements AutoCloseable {
         Clock clock = s.timeScale().clock();
         PrintWriter log = s.log();
         TendMetrics metrics = new TendMetrics(store);
-        FleetHealthPublisher health = new FleetHealthPublisher(clock);
+        FleetHealthPublisher health = new FleetHealthPublisher(clock, s.timeScale().factor());
         OutgoingHttp http = new OutgoingHttp();
         // every file an outgoing call or a channel needs is read now: a bad one stops tend before it serves
         for (dev.tend.playbooks.ActionDef a : s.setup().playbooks().actions().byId().values()) {
