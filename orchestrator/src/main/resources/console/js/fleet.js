@@ -93,6 +93,7 @@ export default {
         const delivered = await api.pages({ state: "delivered", limit: 10 });
         const pageRow = (p) => el("tr", { dataset: { page: p.id } },
           el("td", {}, el("code", { text: p.id })),
+          el("td", { text: p.kind || "" }),
           el("td", { text: p.channel }),
           el("td", {}, pill(p.state)),
           el("td", { text: p.message || "" }),
@@ -103,9 +104,9 @@ export default {
           el("div", { class: "card-head" }, el("h2", { text: "Pages" }),
             pill(undelivered.length === 0 ? "all delivered" : undelivered.length + " not delivered", "pages-state")),
           undelivered.length === 0 ? el("p", { class: "muted", text: "Every page reached its channel." })
-            : table(["page", "channel", "state", "message", "delivery"], undelivered.map(pageRow)),
+            : table(["page", "kind", "channel", "state", "message", "delivery"], undelivered.map(pageRow)),
           delivered.length > 0 && el("h3", { text: "Latest delivered" }),
-          delivered.length > 0 && table(["page", "channel", "state", "message", "delivery"], delivered.map(pageRow)));
+          delivered.length > 0 && table(["page", "kind", "channel", "state", "message", "delivery"], delivered.map(pageRow)));
       },
     };
     return view;

@@ -67,6 +67,11 @@ public final class ApiServer implements AutoCloseable {
      * answering 429 to an address after {@code wrongTokens} wrong tokens in a minute.
      */
     public static ApiServer start(String host, int port, List<String> allowHosts, int wrongTokens, Parts parts) {
+        return start(host, port, allowHosts, wrongTokens, null, parts);
+    }
+
+    /** As above, over TLS with {@code tls} when it is not null (HTTPS only; no plain listener then). */
+    public static ApiServer start(String host, int port, List<String> allowHosts, int wrongTokens, ServerTls tls, Parts parts) {
         HostCheck hosts = new HostCheck(host, allowHosts);
         FailedTokens failed = FailedTokens.systemClock(wrongTokens);
         RunRoutes runs = new RunRoutes(parts.store(), parts.gateway());
@@ -75,6 +80,7 @@ public final class ApiServer implements AutoCloseable {
             cfg.startupWatcherEnabled = false;
             cfg.http.maxRequestSize = MAX_BODY;
             cfg.jsonMapper(new JavalinJackson(ApiJson.MAPPER, false));
+            if (tls != null) cfg.jetty.addConnector((server, http) -> TlsConnector.of(server, http, tls, host, port));
             if (ApiServer.class.getResource("/console/index.html") != null || ApiServer.class.getResource("/console") != null) {
                 cfg.staticFiles.add(sf -> {
                     sf.hostedPath = "/";

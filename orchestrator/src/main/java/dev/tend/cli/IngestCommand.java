@@ -99,22 +99,11 @@ public final class IngestCommand implements Callable<Integer> {
              Executor http = HttpExecutor.withDefaults(outgoing);
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
-            java.util.concurrent.atomic.AtomicLong refused = new java.util.concurrent.atomic.AtomicLong();
+            CommitRefusals refusals = new CommitRefusals(input, err);
             Orchestrator[] holder = new Orchestrator[1];
             ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
             Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
-                    n -> courier.wake(), clock, new CommitListener() {
-                        @Override
-                        public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
-                        }
-
-                        @Override
-                        public void refused(Input in, String reason) {
-                            refused.incrementAndGet();
-                            err.println("tend: refused a " + in.kind() + " input" + (in.cluster() == null ? "" : " of " + in.cluster())
-                                    + " (a ledger entry input-refused names it): " + reason);
-                        }
-                    });
+                    n -> courier.wake(), clock, refusals);
             courier.start();
             holder[0] = orch;
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
@@ -142,8 +131,10 @@ public final class IngestCommand implements Callable<Integer> {
                     summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
-                                orch.submitEvent(e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
-                                        : new Input.Topology((TopologyEvent) e.event()));
+                                Input next = e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
+                                        : new Input.Topology((TopologyEvent) e.event());
+                                refusals.submitted(next, e.line());
+                                orch.submitEvent(next);
                                 if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);
                             } else if (r instanceof LineResult.Bad b && seen[0] >= skip) {
                                 err.println(b.problem() + " (line skipped)");
@@ -196,7 +187,7 @@ public final class IngestCommand implements Callable<Integer> {
             out.flush();
             reported.countDown();
             if (readFailure.get() != null) return ExitCodes.USAGE;
-            if (refused.get() > 0) return ExitCodes.FINDINGS;
+            if (refusals.count() > 0) return ExitCodes.FINDINGS;
             return summary[0] != null && summary[0].bad() > 0 ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
     }

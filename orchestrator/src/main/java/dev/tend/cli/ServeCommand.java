@@ -7,6 +7,8 @@ import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.serve.ServeSettings;
 import dev.tend.serve.TendServer;
+import dev.tend.serve.TlsFiles;
+import picocli.CommandLine;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -64,17 +66,46 @@ public final class ServeCommand implements Callable<Integer> {
                     + " repeat for several")
     java.util.List<String> allowHosts = new java.util.ArrayList<>();
 
+    @Option(names = "--tls-cert", paramLabel = "FILE",
+            description = "serve HTTPS with this PEM certificate chain (the server's first); read again when it changes")
+    Path tlsCert;
+
+    @Option(names = "--tls-key", paramLabel = "FILE",
+            description = "the unencrypted PKCS#8 PEM key of --tls-cert (readable by its owner only); read again when it changes")
+    Path tlsKey;
+
+    @Option(names = "--tls-check-every", paramLabel = "D", defaultValue = "10s",
+            description = "how often the TLS files are looked at for a change (default: ${DEFAULT-VALUE})")
+    String tlsCheckEvery;
+
+    @Option(names = "--insecure-http",
+            description = "allow plain HTTP on an address other than loopback (bearer tokens then cross the network in clear text)")
+    boolean insecureHttp;
+
     @Override
     public Integer call() throws Exception {
         PrintWriter err = spec.commandLine().getErr();
         Listen listen = listenOptions.resolve();
+        if ((tlsCert == null) != (tlsKey == null)) {
+            throw new CommandLine.ParameterException(spec.commandLine(), "--tls-cert and --tls-key go together; give both or neither");
+        }
+        Duration checkEvery;
+        try {
+            checkEvery = dev.tend.shared.time.Durations.parse(tlsCheckEvery);
+        } catch (IllegalArgumentException e) {
+            throw new CommandLine.ParameterException(spec.commandLine(), "--tls-check-every: " + e.getMessage());
+        }
+        if (checkEvery.isZero()) throw new CommandLine.ParameterException(spec.commandLine(), "--tls-check-every must be longer than 0s");
+        String warning = ListenSecurity.check(listen, tlsCert != null, insecureHttp);
+        if (warning != null) err.println(warning);
         EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
         Tokens tokens = tokensFile == null ? Tokens.none() : TokenFile.load(tokensFile);
         LedgerKey key = ledgerKey.load();
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).build();
+                .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts)
+                .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).build();
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             try (TendServer server = TendServer.start(store, settings)) {

@@ -119,6 +119,6 @@ public enum LedgerKind {
     /** Held apart so the constants' constructor can read it (an enum's own statics are not set yet then). */
     private static final class Page {
         static final List<String> FIELDS = List.of("run", "playbook", "cluster", "node", "expires_at",
-                "unhealthy_clusters", "folded_pages", "engaged_at");
+                "unhealthy_clusters", "folded_pages", "engaged_at", "stand_down");
     }
 }

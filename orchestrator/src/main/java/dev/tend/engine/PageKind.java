@@ -10,6 +10,8 @@ public final class PageKind {
     public static final String LOOP = "loop";
     /** A playbook's own page step (often in on-failure). */
     public static final String PLAYBOOK = "playbook";
+    /** A page step of a playbook's {@code on-stand-down}: the run found itself no longer needed (or no longer allowed) and stood down. */
+    public static final String STOOD_DOWN = "stood-down";
     /** A run stopped for a person. */
     public static final String NEEDS_HUMAN = "needs-human";
     /** A run waits for an approval. */

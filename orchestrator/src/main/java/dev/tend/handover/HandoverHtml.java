@@ -144,7 +144,8 @@ public final class HandoverHtml {
                     .append("; automation stays off this target until a person clears it</li>\n");
         }
         for (PageLine p : r.failedPages()) {
-            s.append("<li><strong>Page not delivered</strong>: ").append(esc(p.id())).append(" to ").append(esc(p.channel()))
+            s.append("<li><strong>Page not delivered</strong>: ").append(esc(p.id()))
+                    .append(p.kind() == null ? "" : " (" + esc(p.kind()) + ")").append(" to ").append(esc(p.channel()))
                     .append(", given up ").append(TimeText.at(p.at())).append(p.answer() == null ? "" : ": " + esc(p.answer()))
                     .append("</li>\n");
         }

@@ -61,23 +61,36 @@ public final class OutgoingHttp {
         return b.build();
     }
 
-    private static SSLContext sslContext(HttpClientSettings s) {
+    /**
+     * Trust in the PEM certificates of {@code caBundle} only, or in the JDK's trust store when
+     * it is null; {@code what} names the file in a message (a {@link TendException}).
+     */
+    public static TrustManagerFactory trust(java.nio.file.Path caBundle, String what) {
         try {
             TrustManagerFactory tmf = TrustManagerFactory.getInstance(TrustManagerFactory.getDefaultAlgorithm());
-            if (s.caBundle() != null) {
-                KeyStore trust = KeyStore.getInstance("PKCS12");
-                trust.load(null, null);
-                int i = 0;
-                for (Certificate c : PemFiles.certificates(s.caBundle(), "ca-bundle")) trust.setCertificateEntry("ca-" + i++, c);
-                tmf.init(trust);
-            } else {
+            if (caBundle == null) {
                 tmf.init((KeyStore) null);
+                return tmf;
             }
+            KeyStore trust = KeyStore.getInstance("PKCS12");
+            trust.load(null, null);
+            int i = 0;
+            for (Certificate c : PemFiles.certificates(caBundle, what)) trust.setCertificateEntry("ca-" + i++, c);
+            tmf.init(trust);
+            return tmf;
+        } catch (GeneralSecurityException | java.io.IOException e) {
+            throw new TendException("cannot trust the certificates of " + what + " " + caBundle + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static SSLContext sslContext(HttpClientSettings s) {
+        try {
+            TrustManagerFactory tmf = trust(s.caBundle(), "ca-bundle");
             KeyManagerFactory kmf = null;
             if (s.clientCert() != null) {
                 PrivateFiles.check(s.clientKey(), "client-key");
                 List<Certificate> chain = PemFiles.certificates(s.clientCert(), "client-cert");
-                PrivateKey key = PemFiles.privateKey(s.clientKey());
+                PrivateKey key = PemFiles.privateKey(s.clientKey(), "client-key");
                 char[] pass = new char[0];
                 KeyStore ks = KeyStore.getInstance("PKCS12");
                 ks.load(null, null);

@@ -1,5 +1,6 @@
 package dev.tend.page;
 
+import dev.tend.http.OutgoingHttp;
 import dev.tend.http.PrivateFiles;
 import dev.tend.playbooks.EmailChannel;
 import dev.tend.shared.TendException;
@@ -22,7 +23,8 @@ import java.util.Properties;
 
 /**
  * Mails a page as plain text over SMTP (Jakarta Mail through Eclipse Angus), with STARTTLS
- * (required, not merely tried), TLS from the first byte, or none. The message id is made
+ * (required, not merely tried), TLS from the first byte, or none; the server's certificate must
+ * name the host and chain to the JDK's trust store or to the channel's {@code ca-bundle}. The message id is made
  * from the page id, so a mail system can drop a repeat; the header {@code X-Tend-Page} holds
  * the page id as well. The server's acceptance is delivery; a 5xx reply (a refused recipient
  * or sender) refuses the page; anything else is tried again later.
@@ -36,6 +38,8 @@ public final class EmailSender implements PageSender {
         Properties p = new Properties();
         String proto = channel.security() == EmailChannel.Security.TLS ? "smtps" : "smtp";
         p.put("mail.transport.protocol", proto);
+        // Transport.send picks the transport by the recipients' address type, which is plain smtp unless told
+        p.put("mail.transport.protocol.rfc822", proto);
         p.put("mail." + proto + ".host", channel.host());
         p.put("mail." + proto + ".port", String.valueOf(channel.port()));
         String ms = String.valueOf(channel.timeout().toMillis());
@@ -47,6 +51,16 @@ public final class EmailSender implements PageSender {
             p.put("mail.smtp.starttls.required", "true");
         }
         if (channel.security() != EmailChannel.Security.NONE) p.put("mail." + proto + ".ssl.checkserveridentity", "true");
+        if (channel.caBundle() != null) {
+            // trust the bundle's certificates instead of the JDK's, for TLS from the first byte and for STARTTLS alike
+            try {
+                javax.net.ssl.SSLContext tls = javax.net.ssl.SSLContext.getInstance("TLS");
+                tls.init(null, OutgoingHttp.trust(channel.caBundle(), "ca-bundle").getTrustManagers(), null);
+                p.put("mail." + proto + ".ssl.socketFactory", tls.getSocketFactory());
+            } catch (java.security.GeneralSecurityException e) {
+                throw new TendException("channel " + channel.name() + ": cannot use ca-bundle " + channel.caBundle() + ": " + e.getMessage(), e);
+            }
+        }
         Authenticator auth = null;
         if (channel.credentialsFile() != null) {
             PrivateFiles.check(channel.credentialsFile(), "credentials-file");

@@ -24,10 +24,11 @@ import java.util.Objects;
  * @param timeScale      how processing time relates to the wall clock (default {@link TimeScale#real()})
  * @param allowHosts     names the server answers to besides loopback and the address listened on (default none)
  * @param wrongTokens    wrong tokens one address may send a minute before it is answered 429 (default 10)
+ * @param tls            the certificate and key to listen with over HTTPS, or null for plain HTTP (default null)
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
                             Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale,
-                            java.util.List<String> allowHosts, int wrongTokens) {
+                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -69,6 +70,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private TimeScale timeScale = TimeScale.real();
         private java.util.List<String> allowHosts = java.util.List.of();
         private int wrongTokens = dev.tend.api.auth.FailedTokens.LIMIT;
+        private TlsFiles tls;
 
         private Builder(EngineSetup setup) {
             this.setup = setup;
@@ -130,9 +132,14 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder tls(TlsFiles value) {
+            this.tls = value;
+            return this;
+        }
+
         public ServeSettings build() {
             return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
-                    allowHosts, wrongTokens);
+                    allowHosts, wrongTokens, tls);
         }
     }
 }

@@ -1,6 +1,7 @@
 package dev.tend.serve;
 
 import dev.tend.api.ApiServer;
+import dev.tend.api.ServerTls;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
@@ -10,7 +11,7 @@ import dev.tend.executor.HttpExecutor;
 import dev.tend.executor.SimulatedExecutor;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.metrics.TendMetrics;
-import dev.tend.page.Courier;
+import dev.tend.page.PageDelivery;
 import dev.tend.page.Senders;
 import dev.tend.metrics.TimedExecutor;
 import dev.tend.runtime.CommitListener;
@@ -49,7 +50,8 @@ public final class TendServer implements AutoCloseable {
     private final CountDownLatch driverDone = new CountDownLatch(1);
     private final ScheduledExecutorService ticker;
     private final ApiServer api;
-    private final Courier courier;
+    private final PageDelivery pages;
+    private final ServerTls tls;
     private final String host;
     /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
     private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
@@ -98,10 +100,10 @@ public final class TendServer implements AutoCloseable {
                 }
             }
         };
-        Courier[] courierRef = new Courier[1];
+        PageDelivery[] pagesRef = new PageDelivery[1];
         Notifier notifier = n -> {
-            Courier c = courierRef[0];
-            if (c != null) c.wake();
+            PageDelivery p = pagesRef[0];
+            if (p != null) p.wake();
         };
         orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners);
         holder[0] = orchestrator;
@@ -124,16 +126,25 @@ public final class TendServer implements AutoCloseable {
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
         OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
         try {
-            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), new ApiServer.Parts(store, gateway, s.tokens(), health, metrics, clock, log,
-                    s.setup().playbooks()));
+            tls = s.tls() == null ? null : ServerTls.watch(s.tls().cert(), s.tls().key(), s.tls().checkEvery(), log);
         } catch (RuntimeException e) {
+            stopDriver();
+            throw e;
+        }
+        try {
+            api = ApiServer.start(s.host(), s.port(), s.allowHosts(), s.wrongTokens(), tls, new ApiServer.Parts(store, gateway, s.tokens(),
+                    health, metrics, clock, log, s.setup().playbooks()));
+        } catch (RuntimeException e) {
+            if (tls != null) tls.close();
             stopDriver();
             throw new TendException("could not listen on " + s.host() + ":" + s.port() + ": " + e.getMessage(), e);
         }
         host = s.host();
         Senders withLink = paging.consoleUrl() != null ? senders : Senders.from(paging.withConsoleUrl(url() + "/"), http, log);
-        courier = new Courier(store, withLink, clock, PAGE_FIRST_PAUSE, metrics::pageAttempted).start();
-        courierRef[0] = courier;
+        pages = new PageDelivery(store, withLink, clock, PAGE_FIRST_PAUSE, metrics::pageAttempted);
+        pagesRef[0] = pages;
+        // this process owns the engine (it opened the store and runs the driver), so it delivers the outbox
+        pages.start();
     }
 
     /** The pause before a page is tried again after a first failed attempt (it doubles, up to 5 minutes). */
@@ -161,10 +172,10 @@ public final class TendServer implements AutoCloseable {
         return api.port();
     }
 
-    /** The base URL, e.g. {@code http://127.0.0.1:7420}. */
+    /** The base URL, e.g. {@code http://127.0.0.1:7420}, or {@code https://...} when serving over TLS. */
     public String url() {
         String h = host.contains(":") ? "[" + host + "]" : host;
-        return "http://" + h + ":" + port();
+        return (tls == null ? "http://" : "https://") + h + ":" + port();
     }
 
     /**
@@ -173,6 +184,15 @@ public final class TendServer implements AutoCloseable {
      */
     public void checkpointWith(Store store, dev.tend.audit.LedgerKey key) {
         orchestrator.checkpointWith(new dev.tend.audit.CheckpointWriter(store, key, dev.tend.audit.CheckpointWriter.EVERY));
+    }
+
+    /**
+     * The page outbox's delivery, the one seam that decides whether this process sends pages:
+     * started with the server, which owns the engine; stop it when another process takes the
+     * engine over, start it again when this one takes it back.
+     */
+    public PageDelivery pageDelivery() {
+        return pages;
     }
 
     /** What the start found in the store. */
@@ -198,8 +218,9 @@ public final class TendServer implements AutoCloseable {
         if (closed) return;
         closed = true;
         api.close();
+        if (tls != null) tls.close();
         stopDriver();
-        courier.close();
+        pages.close();
     }
 
     private void stopDriver() {

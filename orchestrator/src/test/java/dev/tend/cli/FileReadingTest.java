@@ -113,4 +113,23 @@ class FileReadingTest {
         CliRun text = CliRun.of("replay", file.toString(), "--playbooks", LIBRARY, "--fleet", FLEET);
         assertThat(text.out()).contains("skipped " + file + ":" + BAD_LINE + ":").contains("... and 11 more bad lines");
     }
+
+    @Test
+    void replayOfALineDatedInTheYear9999RefusesThatLineByNumberWithoutATrace() throws Exception {
+        Path file = dir.resolve("far-future.jsonl");
+        Files.writeString(file, """
+                {"at":"2027-03-14T02:00:00Z","cluster":"fares-3","node":"n1","signal":"heartbeat","state":"silent"}
+                {"at":"9999-12-31T23:59:59Z","cluster":"fares-3","node":"n2","signal":"heartbeat","state":"silent"}
+                {"at":"2027-03-14T02:01:00Z","cluster":"fares-3","node":"n1","signal":"heartbeat","state":"clear"}
+                """, StandardCharsets.UTF_8);
+        CliRun r = CliRun.of("replay", file.toString(), "--playbooks", LIBRARY, "--fleet", FLEET, "--format", "json");
+        assertThat(r.exit()).as(r.err()).isEqualTo(ExitCodes.FINDINGS);
+        assertThat(r.err()).doesNotContain("\tat ").doesNotContain("Exception");
+        JsonNode rec = new ObjectMapper().readTree(r.out()).get("recording");
+        assertThat(rec.get("events").asLong()).isEqualTo(2);
+        assertThat(rec.get("bad_line_problems")).singleElement().satisfies(p -> {
+            assertThat(p.get("line").asInt()).isEqualTo(2);
+            assertThat(p.get("message").asText()).contains("after 2200");
+        });
+    }
 }

@@ -34,7 +34,7 @@ class ConsoleDemoTest {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         CompletableFuture<Integer> demo = CompletableFuture.supplyAsync(() -> TendMain.run(
-                new String[]{"demo", "--port", "0", "--speedup", "60", "--for", "10s"},
+                new String[]{"demo", "--port", "0", "--speedup", "60", "--for", "20s"},
                 new PrintWriter(out, true), new PrintWriter(err, true)));
 
         String url = await("the console URL is printed", () -> find(URL, out.toString()), demo, err);
@@ -44,7 +44,7 @@ class ConsoleDemoTest {
         // the first tip tells when the approval will wait (it is not there yet when printed), and --for says how it ends
         assertThat(out.toString()).containsPattern("open Approvals: about \\d+ s from now a node of a critical fares cluster"
                 + " goes silent and, once tend has confirmed it, waits there for a person")
-                .contains("It stops by itself after 10s; stop it earlier with Ctrl-C.");
+                .contains("It stops by itself after 20s; stop it earlier with Ctrl-C.");
 
         HttpResponse<String> health = get(url + "/api/v1/health", lead);
         assertThat(health.statusCode()).as(health.body()).isEqualTo(200);
@@ -65,6 +65,15 @@ class ConsoleDemoTest {
             JsonNode page = read(get(url + "/api/v1/ledger?kind=transition", lead).body());
             return page.get("entries").size() > 0 ? page.get("entries").get(0).get("cluster").asText() : null;
         }, demo, err);
+
+        // the critical cluster's approval pages the demo's on-call (the log, as nothing else is configured): the fleet page lists it
+        String paged = await("the approval was paged", () -> {
+            for (JsonNode p : read(get(url + "/api/v1/pages?state=all", viewer).body())) {
+                if (p.get("kind").asText().equals("approval-requested")) return p.get("state").asText();
+            }
+            return null;
+        }, demo, err);
+        assertThat(paged).isIn("pending", "delivered");
 
         assertThat(demo.get(30, TimeUnit.SECONDS)).as(err.toString()).isEqualTo(0);
         assertThat(out.toString()).contains("tend demo: stopped");

@@ -28,7 +28,8 @@ import static org.assertj.core.api.Assertions.assertThat;
  * The web console end to end in a real headless Chromium against a real server: a
  * critical-tier node of the Larkspur fleet (invented) goes silent, the run waits for an
  * approval; a viewer sees it but gets no approve button, and the server refuses the viewer's
- * forged approval; an approver approves it on the page and sees the run start.
+ * forged approval; the fleet page lists the approval's page, which its channel does not take;
+ * an approver approves it on the page and sees the run start.
  */
 class ConsoleEndToEndTest {
     private static final Duration WAIT = Duration.ofSeconds(20);
@@ -80,6 +81,10 @@ class ConsoleEndToEndTest {
         assertThat(unhealthy.getText()).contains("fares-3/n2", "heartbeat", "silent");
         assertThat(d.findElement(By.cssSelector("#brake .brake-state")).getText()).isEqualTo("released");
         assertThat(d.findElements(By.id("brake-engage"))).hasSize(1);
+        // the approval request paged oncall, whose command never succeeds: the fleet page lists it as not delivered
+        WebElement page = wait.until(ExpectedConditions.presenceOfElementLocated(By.cssSelector("#pages tr[data-page='" + run + "/approval']")));
+        assertThat(page.getText()).contains("approval-requested", "oncall", "pending", "attempt");
+        assertThat(d.findElement(By.cssSelector("#pages .pages-state")).getText()).isEqualTo("1 not delivered");
         chromium.screenshot("fleet");
         d.get(server.url() + "/#approvals");
         WebElement approve = wait.until(ExpectedConditions.elementToBeClickable(

@@ -44,7 +44,7 @@ final class ConsoleServer implements AutoCloseable {
     }
 
     private ConsoleServer(Path dir) throws IOException {
-        Path library = library();
+        Path library = copyWithChannels(library(), dir.resolve("library"));
         Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n"
                 + "  - { name: anna, roles: [approver, operator], sha256: " + Tokens.hash(ANNA) + " }\n"
                 + "  - { name: vera, roles: [viewer], sha256: " + Tokens.hash(VERA) + " }\n");
@@ -64,6 +64,27 @@ final class ConsoleServer implements AutoCloseable {
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    /**
+     * The library with channels, so that pages have somewhere to go: {@code oncall} (tend's own
+     * pages, such as an approval request) runs a command that never succeeds, so its pages stay
+     * undelivered and the fleet page lists them; {@code platform-oncall} writes to the log.
+     */
+    private static Path copyWithChannels(Path from, Path to) throws IOException {
+        Files.createDirectories(to);
+        try (var files = Files.list(from)) {
+            for (Path f : files.filter(Files::isRegularFile).toList()) Files.copy(f, to.resolve(f.getFileName()));
+        }
+        Files.writeString(to.resolve("tend.yaml"), Files.readString(to.resolve("tend.yaml")) + """
+
+                channels:
+                  oncall:
+                    command: ["false"]
+                  platform-oncall:
+                    log: {}
+                """);
+        return to;
     }
 
     /** playbooks/library of the repository (tests run in the module's folder). */

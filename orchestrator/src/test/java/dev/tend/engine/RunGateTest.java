@@ -66,6 +66,26 @@ class RunGateTest {
     }
 
     @Test
+    void aRunThatStoodDownPagesWithItsOwnKindWhenItsPlaybookAsksForIt() {
+        String playbook = replace("") + "  - { id: tell-owner, page: oncall, message: \"{run} stood down on {cluster}/{node}\" }\n"
+                + "on-failure:\n  - { id: tell-failed, page: oncall, message: \"{run} failed\" }\n";
+        EngineHarness h = new EngineHarness(FLEET, null, playbook);
+        h.at(0, "fares-17", "n2", "heartbeat", SILENT);
+        h.at(30, "fares-17", "n2", "heartbeat", CLEAR);
+        h.advance(Duration.ofSeconds(30));
+        h.answerCalls(true);
+        h.advance(Duration.ofMinutes(1));
+        h.answerCalls(true);
+        assertThat(h.effects.stream().filter(e -> e instanceof Effect.Notify).map(e -> (Effect.Notify) e)).singleElement()
+                .satisfies(n -> {
+                    assertThat(n.kind()).isEqualTo(PageKind.STOOD_DOWN).isEqualTo("stood-down");
+                    assertThat(n.fields()).containsEntry("stand_down", "cleared").containsEntry("cluster", "fares-17");
+                    assertThat(n.message()).endsWith("stood down on fares-17/n2");
+                });
+        assertThat(ended(h)).containsEntry("state", "stood-down");
+    }
+
+    @Test
     void aStepWrittenIfClearedContinueRunsEvenThoughTheTriggerCleared() {
         EngineHarness h = new EngineHarness(FLEET, null, replace(", if-cleared: continue"));
         h.at(0, "fares-17", "n2", "heartbeat", SILENT);

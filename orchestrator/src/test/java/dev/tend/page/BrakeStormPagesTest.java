@@ -70,6 +70,10 @@ class BrakeStormPagesTest {
                 assertThat(page.get("unhealthy_clusters").asInt()).isEqualTo(150);
                 assertThat(page.get("message").asText()).startsWith("fleet brake engaged: 150 clusters unhealthy (93.8% of the fleet)");
                 assertThat(page.get("link").asText()).isEqualTo(server.url() + "/#fleet");
+                // the attempt is counted by channel and outcome (Prometheus text format)
+                HttpResponse<String> metrics = HttpClient.newHttpClient().send(HttpRequest.newBuilder(URI.create(server.url() + "/metrics"))
+                        .build(), HttpResponse.BodyHandlers.ofString());
+                assertThat(metrics.body().lines()).contains("tend_notifications_total{channel=\"oncall\",outcome=\"delivered\"} 1.0");
             }
         }
     }

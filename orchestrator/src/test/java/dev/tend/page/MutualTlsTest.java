@@ -13,6 +13,7 @@ import dev.tend.shared.TendException;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.PageRow;
 import dev.tend.store.Store;
+import dev.tend.testing.TestCa;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;

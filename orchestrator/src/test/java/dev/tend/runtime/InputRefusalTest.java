@@ -103,4 +103,34 @@ class InputRefusalTest {
             assertThat(orch.recover().inputsReplayed()).isGreaterThanOrEqualTo(2);
         }
     }
+
+    @Test
+    void anInputRefusedAtCommitInIngestIsNamedByItsFileAndLine() throws Exception {
+        EngineSetup setup = setup();
+        Clock clock = Clock.systemUTC();
+        java.io.StringWriter said = new java.io.StringWriter();
+        dev.tend.cli.CommitRefusals refusals = new dev.tend.cli.CommitRefusals("incident.jsonl", new java.io.PrintWriter(said, true));
+        Instant at = Instant.parse("2027-03-14T02:00:00Z");
+        try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
+            Orchestrator[] holder = new Orchestrator[1];
+            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock, refusals);
+            holder[0] = orch;
+            orch.recover();
+            Input good = new Input.Transition(HealthTransition.of(at, "fares-1", "n1", "heartbeat", SignalState.SILENT));
+            // past 2262-04-11, the last instant the store's nanosecond times can hold
+            Input bad = new Input.Transition(HealthTransition.of(Instant.parse("2263-01-01T00:00:00Z"), "fares-2", "n1",
+                    "heartbeat", SignalState.SILENT));
+            refusals.submitted(good, 3);
+            orch.submitEvent(good);
+            refusals.submitted(bad, 7);
+            orch.submitEvent(bad);
+            orch.runUntil(orch::isIdle);
+            timers.close();
+        }
+        assertThat(refusals.count()).isEqualTo(1);
+        assertThat(said.toString().lines()).singleElement().asString()
+                .startsWith("incident.jsonl:7: refused a transition input of fares-2 at commit")
+                .contains("2263-01-01T00:00:00Z");
+    }
 }

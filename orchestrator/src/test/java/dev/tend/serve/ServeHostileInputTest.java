@@ -64,6 +64,21 @@ class ServeHostileInputTest {
     }
 
     @Test
+    void aTransitionDatedIn2263IsRefusedByLineAndTheServerGoesOn() {
+        serve.start(dir);
+        String now = java.time.Instant.now().minusSeconds(60).toString();
+        ServeFixture.Response r = serve.post("/api/v1/transitions", OLGA,
+                "{\"at\":\"" + now + "\",\"cluster\":\"fares-3\",\"node\":\"n1\",\"signal\":\"heartbeat\",\"state\":\"silent\"}\n"
+                        + "{\"at\":\"2263-01-01T00:00:00Z\",\"cluster\":\"fares-3\",\"node\":\"n2\",\"signal\":\"heartbeat\",\"state\":\"silent\"}\n");
+        assertThat(r.status()).as(r.text()).isEqualTo(207);
+        assertThat(r.json().at("/problems/0/line").asInt()).isEqualTo(2);
+        assertThat(r.json().at("/problems/0/message").asText()).contains("after 2200");
+        ServeFixture.Response next = serve.post("/api/v1/transitions", OLGA,
+                "{\"at\":\"" + now + "\",\"cluster\":\"dispatch-1\",\"node\":\"n1\",\"signal\":\"heartbeat\",\"state\":\"silent\"}");
+        assertThat(next.status()).as("the server goes on: " + next.text()).isEqualTo(200);
+    }
+
+    @Test
     void aChunkedBodyLargerThanTheCapIsRefusedWith413AndTheJsonError() throws Exception {
         serve.start(dir);
         long size = ApiServer.MAX_BODY + (4 << 20);

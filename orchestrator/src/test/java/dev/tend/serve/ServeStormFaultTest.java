@@ -97,6 +97,7 @@ class ServeStormFaultTest {
         System.out.printf("fault suite, serve storm: %d SIGKILLs, %d clusters gone silent, %d keys executed, %d executed twice,"
                 + " ledger %s (%d entries), with its key: %s%n", killed, storm.size(), done.size(), twice,
                 chain.ok() ? "verifies" : "BROKEN", chain.entries(), keyed.message());
+        assertThat(killed).as("serve processes killed with SIGKILL (tend.fault.kills)").isEqualTo(KILLS);
         assertThat(done).isNotEmpty();
         assertThat(twice).isZero();
         assertThat(chain.ok()).as(chain.reason()).isTrue();

@@ -30,11 +30,14 @@ import static org.assertj.core.api.Assertions.assertThat;
 /**
  * The fault suite's wire part: mutated wire lines through {@code ingest}, {@code serve} and
  * {@code replay}; no stack trace, no good line lost, every refused line located. Lines per
- * path: the system property {@code tend.fault.lines} (1,000 in the default build; 7,000 with
- * {@code -Pfault}, 21,000 in all). Prints its figures.
+ * path: the system property {@code tend.fault.lines} (1,000 in the default build; 21,000 with
+ * {@code -Pfault}, 63,000 in all), about a third of them mutated; {@code tend.fault.mutated} is
+ * the least number of mutated lines each path must see (6,700 with {@code -Pfault}, so at least
+ * 20,100 in all), and a corpus short of it fails. Prints its figures.
  */
 class WireFaultTest {
     static final int LINES = Integer.getInteger("tend.fault.lines", 1000);
+    static final int MUTATED_AT_LEAST = Integer.getInteger("tend.fault.mutated", 0);
     private static final Path ROOT = root();
     private static final Pattern LOCATED = Pattern.compile("^.+?:\\d+(:\\d+)?: .+");
     private static final ObjectMapper JSON = new ObjectMapper();
@@ -63,6 +66,14 @@ class WireFaultTest {
 
     private static List<String> libraryClusters() {
         return FleetFile.load(ROOT.resolve("playbooks/library/fleet.yaml")).clusters().stream().map(c -> c.id().value()).toList();
+    }
+
+    /** The corpus of one path, refused when it holds fewer mutated lines than the suite promises. */
+    private static List<WireMutator.Line> corpus(long seed, List<String> clusters) {
+        List<WireMutator.Line> corpus = new WireMutator(seed, clusters).corpus(LINES);
+        long mutated = corpus.stream().filter(l -> !l.good()).count();
+        assertThat(mutated).as("mutated lines in this path's corpus (tend.fault.mutated)").isGreaterThanOrEqualTo(MUTATED_AT_LEAST);
+        return corpus;
     }
 
     private static Set<String> goodKeys(List<WireMutator.Line> corpus) {
@@ -99,7 +110,7 @@ class WireFaultTest {
 
     @Test
     void mutatedLinesThroughIngestLoseNoGoodLineAndAreRefusedByNumber() throws Exception {
-        List<WireMutator.Line> corpus = new WireMutator(101, libraryClusters()).corpus(LINES);
+        List<WireMutator.Line> corpus = corpus(101, libraryClusters());
         Path file = dir.resolve("mutated.jsonl");
         Files.write(file, WireMutator.join(corpus));
         Path db = dir.resolve("ingest.db");
@@ -108,8 +119,9 @@ class WireFaultTest {
         assertThat(r.exit()).as(r.err().replace((char) 0, (char) 63)).isIn(0, 1);
         assertNoTrace(r.err());
         long skipped = r.err().lines().filter(l -> l.endsWith("(line skipped)")).count();
-        long unlocated = r.err().lines().filter(l -> l.endsWith("(line skipped)") && !LOCATED.matcher(l).matches()).count();
-        long refused = r.err().lines().filter(l -> l.startsWith("tend: refused a ")).count();
+        long refused = r.err().lines().filter(l -> l.contains(" (a ledger entry input-refused names it): ")).count();
+        long unlocated = r.err().lines().filter(l -> (l.endsWith("(line skipped)") || l.contains(" (a ledger entry input-refused names it): "))
+                && !LOCATED.matcher(l).matches()).count();
         Set<String> good = goodKeys(corpus);
         Set<String> journaled;
         try (Store store = Store.openSqlite(db)) {
@@ -127,7 +139,7 @@ class WireFaultTest {
     @Test
     void mutatedLinesThroughServeAreNeverAServerErrorAndLoseNoGoodLine() throws Exception {
         serve.start(dir);
-        List<WireMutator.Line> corpus = new WireMutator(202, List.of("fares-3", "dispatch-1", "tickets-12")).corpus(LINES);
+        List<WireMutator.Line> corpus = corpus(202, List.of("fares-3", "dispatch-1", "tickets-12"));
         HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1).build();
         int chunk = 200, serverErrors = 0, unlocated = 0, refusedLines = 0;
         for (int from = 0; from < corpus.size(); from += chunk) {
@@ -148,8 +160,9 @@ class WireFaultTest {
         Set<String> good = goodKeys(corpus);
         Set<String> journaled = journaledKeys(serve.store());
         long lost = good.stream().filter(k -> !journaled.contains(k)).count();
-        System.out.printf("fault suite, serve: %d lines (%d good) in %d requests, %d lines refused, %d good lines lost,"
-                + " %d refusals without a line, %d server errors%n", corpus.size(), good.size(), (corpus.size() + chunk - 1) / chunk,
+        System.out.printf("fault suite, serve: %d lines (%d good, %d mutated) in %d requests, %d lines refused, %d good lines lost,"
+                + " %d refusals without a line, %d server errors%n", corpus.size(), good.size(),
+                corpus.stream().filter(l -> !l.good()).count(), (corpus.size() + chunk - 1) / chunk,
                 refusedLines, lost, unlocated, serverErrors);
         assertThat(lost).isZero();
         assertThat(unlocated).isZero();
@@ -158,7 +171,7 @@ class WireFaultTest {
 
     @Test
     void mutatedLinesThroughReplayAreAllListedAndLoseNoGoodLine() throws Exception {
-        List<WireMutator.Line> corpus = new WireMutator(303, libraryClusters()).corpus(LINES);
+        List<WireMutator.Line> corpus = corpus(303, libraryClusters());
         Path file = dir.resolve("mutated-replay.jsonl");
         Files.write(file, WireMutator.join(corpus));
         Path report = dir.resolve("report.json");
@@ -170,8 +183,8 @@ class WireFaultTest {
         long good = corpus.stream().filter(WireMutator.Line::good).count();
         long unlocated = 0;
         for (JsonNode p : rec.get("bad_line_problems")) if (p.path("line").asInt() <= 0) unlocated++;
-        System.out.printf("fault suite, replay: %d lines (%d good), %d events read, %d bad lines listed of %d, %d without a line%n",
-                corpus.size(), good, rec.get("events").asLong(), rec.get("bad_line_problems").size(), rec.get("bad_lines").asLong(),
+        System.out.printf("fault suite, replay: %d lines (%d good, %d mutated), %d events read, %d bad lines listed of %d,"
+                + " %d without a line%n", corpus.size(), good, corpus.size() - good, rec.get("events").asLong(), rec.get("bad_line_problems").size(), rec.get("bad_lines").asLong(),
                 unlocated);
         assertThat(rec.get("events").asLong()).isGreaterThanOrEqualTo(good);
         assertThat(rec.get("bad_line_problems").size()).isEqualTo(rec.get("bad_lines").asInt());

@@ -15,10 +15,11 @@ import java.util.Objects;
  *
  * @param security        how the connection is protected
  * @param credentialsFile a file holding {@code user:password} on its first line, or null to send without logging in
+ * @param caBundle        PEM certificates to trust for the server's TLS instead of the JDK's, or null
  * @param subject         the subject, with page placeholders
  */
 public record EmailChannel(Id name, String host, int port, Security security, String from, List<String> to,
-                           Path credentialsFile, Template subject, Duration timeout, Duration giveUpAfter) implements ChannelDef {
+                           Path credentialsFile, Path caBundle, Template subject, Duration timeout, Duration giveUpAfter) implements ChannelDef {
     public static final Duration DEFAULT_TIMEOUT = Duration.ofSeconds(30);
     public static final Template DEFAULT_SUBJECT = new Template("[tend] {kind}: {message}");
 
@@ -49,6 +50,10 @@ public record EmailChannel(Id name, String host, int port, Security security, St
         if (to.isEmpty()) throw new IllegalArgumentException("channel " + name + " needs at least one address in to");
         for (String t : to) if (!t.contains("@")) throw new IllegalArgumentException("channel " + name + " to: '" + t + "' is not a mail address");
         if (credentialsFile != null && !credentialsFile.isAbsolute()) throw new IllegalArgumentException("credentials-file must be absolute here");
+        if (caBundle != null && !caBundle.isAbsolute()) throw new IllegalArgumentException("ca-bundle must be absolute here");
+        if (caBundle != null && security == Security.NONE) {
+            throw new IllegalArgumentException("channel " + name + " has a ca-bundle but security none: a CA is for starttls or tls");
+        }
         subject = subject == null ? DEFAULT_SUBJECT : subject;
         timeout = timeout == null ? DEFAULT_TIMEOUT : timeout;
         giveUpAfter = giveUpAfter == null ? DEFAULT_GIVE_UP_AFTER : giveUpAfter;

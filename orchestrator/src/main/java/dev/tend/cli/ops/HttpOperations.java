@@ -30,13 +30,31 @@ public final class HttpOperations implements Operations {
 
     private final URI server;
     private final String token;
-    private final HttpClient client = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1)
-            .connectTimeout(Duration.ofSeconds(10)).build();
+    private final HttpClient client;
 
     /** @param server the server's base URL, e.g. {@code http://127.0.0.1:7420} */
     public HttpOperations(URI server, String token) {
+        this(server, token, null);
+    }
+
+    /**
+     * @param server the server's base URL, e.g. {@code https://tend.larkspur.example:7420}
+     * @param ca     PEM certificates to trust for an {@code https://} server instead of the JDK's, or null
+     */
+    public HttpOperations(URI server, String token, java.nio.file.Path ca) {
         this.server = Objects.requireNonNull(server, "server");
         this.token = Objects.requireNonNull(token, "token");
+        HttpClient.Builder b = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1).connectTimeout(Duration.ofSeconds(10));
+        if (ca != null) {
+            try {
+                javax.net.ssl.SSLContext tls = javax.net.ssl.SSLContext.getInstance("TLS");
+                tls.init(null, dev.tend.http.OutgoingHttp.trust(ca, "--ca").getTrustManagers(), null);
+                b.sslContext(tls);
+            } catch (java.security.GeneralSecurityException e) {
+                throw new TendException("cannot set up TLS with --ca " + ca + ": " + e.getMessage(), e);
+            }
+        }
+        this.client = b.build();
     }
 
     @Override
@@ -111,6 +129,9 @@ public final class HttpOperations implements Operations {
             throw refused(r);
         } catch (JsonProcessingException e) {
             throw new TendException(method + " " + uri + " answered something that is not the API's JSON: " + e.getOriginalMessage(), e);
+        } catch (javax.net.ssl.SSLHandshakeException e) {
+            throw new TendException("tend serve at " + server + " could not be trusted (" + e.getMessage() + "); name the CA of its"
+                    + " certificate with --ca FILE or TEND_CA", e);
         } catch (IOException e) {
             throw new TendException("cannot reach tend serve at " + server + " (" + e + "); is it running? "
                     + "Name it with --server URL or TEND_SERVER", e);

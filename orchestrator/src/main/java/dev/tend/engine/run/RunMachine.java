@@ -78,8 +78,12 @@ public final class RunMachine {
             Step s = list.get(r.index);
             if (s instanceof PageStep n) {
                 String msg = render(n.message(), r);
-                fx.add(new Effect.Notify(r.id + "/" + n.id(), PageKind.PLAYBOOK, n.channel().value(), msg,
-                        pageFields(r)));
+                // a page of on-stand-down says the run stood down; one of on-failure or the main steps is the playbook's own
+                boolean standingDown = r.standDown != null && !r.failing;
+                Map<String, Object> fields = pageFields(r);
+                if (standingDown) fields.put("stand_down", r.standDown.reason().code());
+                fx.add(new Effect.Notify(r.id + "/" + n.id(), standingDown ? PageKind.STOOD_DOWN : PageKind.PLAYBOOK, n.channel().value(),
+                        msg, fields));
                 r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
                 fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);

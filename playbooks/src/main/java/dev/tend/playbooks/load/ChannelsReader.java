@@ -30,7 +30,8 @@ final class ChannelsReader {
     private static final List<String> KINDS = List.of("webhook", "email", "command", "log");
     private static final List<String> COMMON = List.of("give-up-after", "description");
     private static final List<String> WEBHOOK = List.of("url", "body", "timeout", "retries", "backoff");
-    private static final List<String> EMAIL = List.of("host", "port", "security", "from", "to", "credentials-file", "subject", "timeout");
+    private static final List<String> EMAIL = List.of("host", "port", "security", "from", "to", "credentials-file", "ca-bundle", "subject",
+            "timeout");
     private static final List<String> PAGES = List.of("channel", "console-url", "brake-gather", "approval-reminder");
 
     private final Fields f;
@@ -156,6 +157,11 @@ final class ChannelsReader {
         List<String> to = e.get("to").isEmpty() ? null : addresses(e.get("to").get(), label + ".to");
         if (to == null && !e.has("to")) f.add(e, "to", label + " needs 'to': the addresses that receive pages");
         Path cred = HttpClientReader.path(f, e, "credentials-file", label);
+        Path ca = HttpClientReader.path(f, e, "ca-bundle", label);
+        if (ca != null && security == EmailChannel.Security.NONE) {
+            f.add(e, "ca-bundle", label + ".ca-bundle is for security starttls or tls; with security none nothing is encrypted");
+            return null;
+        }
         Template subject = e.get("subject").map(n -> Read.template(f, n, label + ".subject", Template.PAGE_PLACEHOLDERS)).orElse(null);
         Duration timeout = Read.positiveDuration(f, e, "timeout", label, label + ".timeout", false);
         if (host == null || security == null || from == null || to == null) return null;
@@ -164,7 +170,7 @@ final class ChannelsReader {
             case STARTTLS -> 587;
             case NONE -> 25;
         };
-        return new EmailChannel(id, host, p, security, from, to, cred, subject, timeout, giveUp);
+        return new EmailChannel(id, host, p, security, from, to, cred, ca, subject, timeout, giveUp);
     }
 
     private List<String> addresses(YNode n, String label) {

@@ -46,6 +46,22 @@ class FleetFileStreamingTest {
     }
 
     @Test
+    void aJsonSyntaxErrorIsLocatedAtItsLineAndColumnNeverColumnZero() throws Exception {
+        String text = "{\"fleet\": \"larkspur\",\n \"clusters\": [\n  {\"id\": \"fares-1\",, \"nodes\": []}\n]}\n";
+        Path file = Files.writeString(dir.resolve("fleet.json"), text);
+        InvalidInputException streamed = catchThrowableOfType(InvalidInputException.class, () -> FleetFile.load(file));
+        assertThat(streamed.problems()).singleElement().satisfies(p -> {
+            assertThat(p.line()).isEqualTo(3);
+            assertThat(p.column()).as(p.toString()).isGreaterThan(0);
+        });
+        InvalidInputException whole = catchThrowableOfType(InvalidInputException.class, () -> FleetFile.parse(file.toString(), text));
+        assertThat(whole.problems()).singleElement().satisfies(p -> {
+            assertThat(p.line()).isEqualTo(3);
+            assertThat(p.column()).as(p.toString()).isGreaterThan(0);
+        });
+    }
+
+    @Test
     void aByteThatIsNotUtf8IsRefusedAtItsLineAndColumnLikeTheWholeTextReaderRefusesIt() throws Exception {
         byte[] good = "fleet: larkspur\nclusters:\n  - id: fares-1\n    nodes: [{ id: n1, zone: z-a }]\n".getBytes(
                 java.nio.charset.StandardCharsets.UTF_8);

@@ -1,4 +1,4 @@
-package dev.tend.page;
+package dev.tend.testing;
 
 import org.bouncycastle.asn1.x500.X500Name;
 import org.bouncycastle.asn1.x509.BasicConstraints;
@@ -33,18 +33,18 @@ import java.util.concurrent.atomic.AtomicLong;
 
 /**
  * A certificate authority made in the test with Bouncy Castle (EC P-256, SHA-256 with
- * ECDSA): it issues a server certificate for 127.0.0.1 and client certificates, written as
- * PEM files, and builds the server's TLS context (which trusts only this CA for clients).
+ * ECDSA): it issues server certificates for 127.0.0.1 and localhost and client certificates,
+ * written as PEM files, and builds a server's TLS context (which trusts only this CA for clients).
  */
-final class TestCa {
+public final class TestCa {
     private static final AtomicLong SERIAL = new AtomicLong(1);
-    final KeyPair key;
-    final X509Certificate cert;
+    public final KeyPair key;
+    public final X509Certificate cert;
 
-    record Issued(KeyPair key, X509Certificate cert) {
+    public record Issued(KeyPair key, X509Certificate cert) {
     }
 
-    TestCa(String name) throws Exception {
+    public TestCa(String name) throws Exception {
         key = keyPair();
         X500Name dn = new X500Name("CN=" + name);
         X509v3CertificateBuilder b = builder(dn, dn, key);
@@ -53,15 +53,16 @@ final class TestCa {
         cert = sign(b, key);
     }
 
-    Issued server() throws Exception {
+    public Issued server() throws Exception {
         KeyPair k = keyPair();
         X509v3CertificateBuilder b = builder(new X500Name(cert.getSubjectX500Principal().getName()), new X500Name("CN=pager.larkspur.example"), k);
-        b.addExtension(Extension.subjectAlternativeName, false, new GeneralNames(new GeneralName(GeneralName.iPAddress, "127.0.0.1")));
+        b.addExtension(Extension.subjectAlternativeName, false, new GeneralNames(new GeneralName[] {
+                new GeneralName(GeneralName.iPAddress, "127.0.0.1"), new GeneralName(GeneralName.dNSName, "localhost")}));
         b.addExtension(Extension.extendedKeyUsage, false, new ExtendedKeyUsage(KeyPurposeId.id_kp_serverAuth));
         return new Issued(k, sign(b, key));
     }
 
-    Issued client(String cn) throws Exception {
+    public Issued client(String cn) throws Exception {
         KeyPair k = keyPair();
         X509v3CertificateBuilder b = builder(new X500Name(cert.getSubjectX500Principal().getName()), new X500Name("CN=" + cn), k);
         b.addExtension(Extension.extendedKeyUsage, false, new ExtendedKeyUsage(KeyPurposeId.id_kp_clientAuth));
@@ -69,7 +70,7 @@ final class TestCa {
     }
 
     /** TLS for a server presenting {@code server}, trusting clients issued by this CA. */
-    SSLContext serverContext(Issued server) throws Exception {
+    public SSLContext serverContext(Issued server) throws Exception {
         char[] pass = "test".toCharArray();
         KeyStore ks = KeyStore.getInstance("PKCS12");
         ks.load(null, null);
@@ -86,13 +87,13 @@ final class TestCa {
         return ctx;
     }
 
-    static Path writeCert(Path file, X509Certificate c) throws Exception {
+    public static Path writeCert(Path file, X509Certificate c) throws Exception {
         Files.writeString(file, pem("CERTIFICATE", c.getEncoded()), StandardCharsets.US_ASCII);
         return file;
     }
 
     /** The key as unencrypted PKCS#8 PEM, with the given permissions (such as rw-------). */
-    static Path writeKey(Path file, KeyPair k, String perms) throws Exception {
+    public static Path writeKey(Path file, KeyPair k, String perms) throws Exception {
         Files.writeString(file, pem("PRIVATE KEY", k.getPrivate().getEncoded()), StandardCharsets.US_ASCII);
         Files.setPosixFilePermissions(file, PosixFilePermissions.fromString(perms));
         return file;
