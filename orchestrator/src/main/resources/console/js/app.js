@@ -30,7 +30,11 @@ const ctx = {
   async refreshClock() {
     const h = await api.health();
     serverNow = h.at;
-    $("server-time").textContent = h.at ? "server time " + h.at.slice(0, 19).replace("T", " ") + "Z" : "";
+    const demo = h.time_scale && h.time_scale > 1;
+    $("server-time").textContent = h.at ? (demo ? "demo time " : "server time ") + h.at.slice(0, 19).replace("T", " ") + "Z" : "";
+    const label = $("time-scale");
+    label.hidden = !demo;
+    label.textContent = demo ? "accelerated " + Math.round(h.time_scale) + "× the wall clock" : "";
     const n = await api.approvals("pending");
     const c = $("approval-count");
     c.textContent = String(n.length);

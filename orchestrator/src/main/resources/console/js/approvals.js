@@ -5,9 +5,18 @@ import { el, replace, pill, table, time, empty, span, target } from "./dom.js";
 // what each reason code means, as the server says (GET vocabulary); filled before the first list is drawn
 let meanings = {};
 
-function reasonList(codes) {
-  return el("ul", { class: "reasons" }, codes.map((c) => el("li", {},
-    el("code", { class: "reason", text: c }), meanings[c] ? " " + meanings[c] : "")));
+/**
+ * Each reason once: its code and what it means (GET vocabulary), or, for a code the server did
+ * not explain, the guard's own sentence from the verdict that asked a person ("code: sentence").
+ */
+function reasonList(codes, verdict) {
+  const said = new Map();
+  for (const m of (verdict && verdict.messages) || []) {
+    const i = m.indexOf(": ");
+    if (i > 0 && !said.has(m.slice(0, i))) said.set(m.slice(0, i), m.slice(i + 2));
+  }
+  return el("ul", { class: "reasons" }, codes.map((c) => el("li", { dataset: { reason: c } },
+    el("code", { class: "reason", text: c }), " ", meanings[c] || said.get(c) || "")));
 }
 
 function decisionControls(ctx, a, after) {
@@ -97,9 +106,7 @@ export default {
                 el("dt", { text: "asked by" }), el("dd", {}, a.requested_by, " at ", time(a.requested_at, now)),
                 el("dt", { text: "lapses" }), el("dd", {}, time(a.expires_at, now), " ", left)),
               el("h4", { text: "Why a person is asked" }),
-              reasonList(a.reasons),
-              verdict && verdict.messages && verdict.messages.length
-                ? el("ul", { class: "messages" }, verdict.messages.map((m) => el("li", { text: m }))) : null,
+              reasonList(a.reasons, verdict),
               decisionControls(ctx, a, () => view.refresh()));
           }));
         }

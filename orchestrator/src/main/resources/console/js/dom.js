@@ -39,10 +39,13 @@ export function tone(state) {
     case "succeeded": case "clear": case "released": case "approved": case "start": case "verified": case "delivered":
     case "all delivered":
       return "good";
-    case "running": case "pending": case "awaiting-approval": case "impaired": case "hold": case "paused": case "approval":
-    case "stood-down": case "unknown-target":
+    case "running":
+      return "active";
+    case "pending": case "awaiting-approval": case "impaired": case "hold": case "paused": case "approval":
+    case "stood-down": case "unknown-target": case "within tolerance":
       return "wait";
     case "failed": case "timed-out": case "needs-human": case "unhealthy": case "deny": case "engaged": case "silent":
+    case "beyond tolerance":
     case "breach": case "rejected": case "lapsed": case "broken":
       return "bad";
     default:
@@ -89,10 +92,11 @@ export function problem(err) {
   return el("p", { class: "problem", role: "alert", text: err && err.message ? err.message : String(err) });
 }
 
-export function stat(label, value, toneName) {
+export function stat(label, value, toneName, note) {
   return el("div", { class: "stat" + (toneName ? " stat-" + toneName : "") },
     el("span", { class: "stat-value", text: String(value) }),
-    el("span", { class: "stat-label", text: label }));
+    el("span", { class: "stat-label", text: label }),
+    note ? el("span", { class: "stat-note", text: note }) : null);
 }
 
 export function table(headers, rows, cls) {

@@ -8,43 +8,107 @@ function counts(c) {
   return [c.started, c.succeeded, c.failed, c.cancelled, c.shadowed, c.stood_down, c.held, c.denied].map((n) => el("td", { class: "num", text: n }));
 }
 
-function timeline(r) {
+const SPANS = [["where activity is", "activity"], ["the whole period", "period"]];
+const MIN_WINDOW_MS = 10 * 60000;
+
+/**
+ * The span the timeline's axis covers: the whole period, or (the default) from a little before
+ * the first run or brake period to a little after the last, at least ten minutes, within the period.
+ */
+export function windowOf(r, choice) {
   const from = Date.parse(r.since);
   const to = Date.parse(r.until);
+  if (choice === "period") return [from, to];
+  const clamp = (t) => Math.min(to, Math.max(from, t));
+  const spans = r.runs.map((x) => [clamp(Date.parse(x.created_at)), x.ended_at ? clamp(Date.parse(x.ended_at)) : to])
+    .concat(r.brake_periods.map((b) => [clamp(Date.parse(b.engaged_at)), b.released_at ? clamp(Date.parse(b.released_at)) : to]));
+  if (spans.length === 0) return [from, to];
+  let first = Math.min(...spans.map((x) => x[0]));
+  let last = Math.max(...spans.map((x) => x[1]));
+  const pad = Math.max(60000, (last - first) / 20);
+  first -= pad;
+  last += pad;
+  const grow = MIN_WINDOW_MS - (last - first);
+  if (grow > 0) {
+    first -= grow / 2;
+    last += grow / 2;
+  }
+  return [Math.max(from, first), Math.min(to, last)];
+}
+
+const hhmm = (ms) => new Date(ms).toISOString().slice(11, 16);
+
+function timeline(r, choice) {
+  const [from, to] = windowOf(r, choice);
   const width = Math.max(1, to - from);
   const pos = (iso) => Math.min(100, Math.max(0, ((iso ? Date.parse(iso) : to) - from) * 100 / width));
-  const bar = (start, end, cls, title) => {
-    const left = pos(start);
-    return el("span", { class: "bar " + cls, title, style: "left:" + left + "%;width:" + Math.max(0.6, pos(end) - left) + "%" });
+  // every bar at least 6 px wide (a run of seconds stays visible), its details on hover
+  const bar = (start, end, cls, title, data) => {
+    const left = Math.min(pos(start), 99);
+    return el("span", { class: "bar " + cls, title, dataset: data,
+      style: "left:" + left + "%;width:" + (pos(end) - left) + "%;min-width:6px" });
   };
-  const rows = r.runs.slice(-40).map((run) => el("div", { class: "lane" },
-    el("span", { class: "lane-label", text: target(run.cluster, run.node) }),
-    el("span", { class: "lane-track" },
-      bar(run.created_at, run.ended_at, "bar-" + run.state, run.playbook + ": " + run.state + (run.note ? " — " + run.note : "")))));
-  const brakes = r.brake_periods.map((b) => bar(b.engaged_at, b.released_at, "bar-brake", "brake engaged by " + b.engaged_by));
-  return el("div", { class: "chart" },
+  const rows = r.runs.slice(-40).map((run) => {
+    const label = target(run.cluster, run.node);
+    return el("div", { class: "lane" },
+      el("span", { class: "lane-label", text: label, title: label }),
+      el("span", { class: "lane-track" },
+        bar(run.created_at, run.ended_at, "bar-" + run.state, run.run + " " + run.playbook + " on " + label + ": " + run.state
+          + ", " + run.created_at.slice(11, 19) + (run.ended_at ? " to " + run.ended_at.slice(11, 19) : " on")
+          + (run.note ? " — " + run.note : ""), { run: run.run })));
+  });
+  const brakes = r.brake_periods.map((b) => bar(b.engaged_at, b.released_at, "bar-brake",
+    "fleet brake engaged by " + b.engaged_by + (b.reason ? ": " + b.reason : "")));
+  const ticks = [0, 0.25, 0.5, 0.75, 1].map((f) => el("span", { class: "tick", style: "left:" + (f * 100) + "%",
+    text: hhmm(from + f * width) }));
+  return el("div", { class: "chart", id: "handover-timeline", dataset: { from: new Date(from).toISOString(), to: new Date(to).toISOString() } },
     brakes.length ? el("div", { class: "lane" }, el("span", { class: "lane-label", text: "fleet brake" }),
       el("span", { class: "lane-track" }, brakes)) : null,
     rows.length ? rows : empty("No run in the period."),
-    el("div", { class: "lane axis" }, el("span", { class: "lane-label" }),
-      el("span", { class: "lane-track" }, el("span", { class: "tick-left", text: r.since.slice(11, 16) }),
-        el("span", { class: "tick-right", text: r.until.slice(11, 16) }))));
+    el("div", { class: "lane axis" }, el("span", { class: "lane-label", text: "UTC" }), el("span", { class: "lane-track" }, ticks)));
 }
 
-function render(r, now) {
+/** What waits for a person, in words: only what is true of the report. */
+export function attention(r) {
+  const items = [];
+  const n = (k, one, many) => k + " " + (k === 1 ? one : many);
+  if (!r.ledger.verified) items.push("the ledger failed verify");
+  if (r.pending_approvals.length) items.push(n(r.pending_approvals.length, "approval is pending", "approvals are pending"));
+  if (r.runs_needing_person.length) items.push(n(r.runs_needing_person.length, "run needs a person", "runs need a person"));
+  if (r.loops_stopped.length) items.push(n(r.loops_stopped.length, "loop stop waits to be cleared", "loop stops wait to be cleared"));
+  const failed = (r.pages || []).filter((p) => p.outcome === "failed").length;
+  if (failed) items.push(n(failed, "page was not delivered", "pages were not delivered"));
+  const brake = r.brake_periods.find((b) => !b.released_at);
+  if (brake) {
+    items.push("the fleet brake is engaged " + (brake.engaged_by === "automatic" ? "automatically" : "by hand, by " + brake.engaged_by)
+      + (brake.reason ? " (" + brake.reason + ")" : "") + ": no run starts by itself until it is released");
+  }
+  return items;
+}
+
+function attentionBanner(r) {
+  const items = attention(r);
+  if (!r.needs_attention || items.length === 0) {
+    return el("p", { class: "banner banner-good", id: "handover-banner", text: "Nothing needs attention." });
+  }
+  const text = items.join("; ");
+  return el("p", { class: "banner banner-bad", id: "handover-banner", text: "Needs attention: " + text + "." });
+}
+
+function render(r, now, span, redraw) {
   const t = r.totals;
   const pb = Object.entries(r.by_playbook);
   const remediated = Object.entries(r.nodes_remediated).flatMap(([p, runs]) => runs.map((x) => [p, x]));
   return [
-    el("p", { class: r.needs_attention ? "banner banner-bad" : "banner banner-good",
-      text: r.needs_attention ? "Something waits for a person: see the pending approvals, runs, loops or the brake below."
-        : "Nothing waits for a person." }),
+    attentionBanner(r),
     el("div", { class: "stats" },
-      stat("started", t.started), stat("succeeded", t.succeeded, "good"), stat("failed", t.failed, t.failed ? "bad" : null),
+      stat("started", t.started), stat("succeeded", t.succeeded, t.succeeded ? "good" : null), stat("failed", t.failed, t.failed ? "bad" : null),
       stat("cancelled", t.cancelled), stat("stood down", t.stood_down, t.stood_down ? "wait" : null), stat("held", t.held, t.held ? "wait" : null), stat("denied", t.denied),
       stat("approvals asked", r.approvals_requested), stat("pending", r.pending_approvals.length, r.pending_approvals.length ? "wait" : null),
       stat("lapsed", r.lapsed_approvals.length, r.lapsed_approvals.length ? "bad" : null)),
-    el("section", { class: "card" }, el("h2", { text: "Timeline" }), timeline(r)),
+    el("section", { class: "card" }, el("div", { class: "card-head" }, el("h2", { text: "Timeline" }),
+      el("label", { class: "small muted" }, "show ", spanPicker(span, redraw))),
+      timeline(r, span.value)),
     el("section", { class: "card" }, el("h2", { text: "By playbook" }), pb.length === 0 ? empty("No playbook did anything.")
         : table(["playbook", "started", "succeeded", "failed", "cancelled", "shadowed", "stood down", "held", "denied"],
           pb.map(([name, c]) => el("tr", {}, el("td", { text: name }), counts(c))))),
@@ -78,6 +142,11 @@ function render(r, now) {
   ];
 }
 
+function spanPicker(span, redraw) {
+  span.onchange = redraw;
+  return span;
+}
+
 export default {
   id: "handover",
   title: "Handover",
@@ -98,6 +167,9 @@ export default {
         }
       } });
     const body = el("div", { id: "handover-report" });
+    const span = el("select", { id: "timeline-span" }, SPANS.map(([label, v]) => el("option", { value: v, text: label })));
+    let last = null;
+    const draw = () => { if (last) replace(body, render(last.report, last.now, span, draw)); };
     const form = el("form", { class: "filters card", onsubmit: (e) => { e.preventDefault(); load(); } },
       el("label", {}, "period", period, since, until), el("button", { type: "submit", class: "primary", text: "Show" }), printable);
     root.append(form, body);
@@ -111,8 +183,8 @@ export default {
 
     async function load() {
       try {
-        const r = await api.handover(params());
-        replace(body, render(r, ctx.now()));
+        last = { report: await api.handover(params()), now: ctx.now() };
+        draw();
       } catch (err) {
         ctx.notify(err.message, "bad");
       }

@@ -75,6 +75,8 @@ export default {
             el("p", { class: "small muted" }, el("code", { text: r.run }), " · created ", time(r.created_at, now),
               r.started_at ? [" · running for ", span(Date.parse(now) - Date.parse(r.started_at))] : null),
             r.state === "awaiting-approval" ? el("p", { class: "small", text: "Waits for an approval before its first step." }) : null,
+            r.state === "paused" ? el("p", { class: "small paused-by", text: "Paused by the fleet brake at a step boundary;"
+              + " it goes on with its next step once the brake is released." }) : null,
             progress(r, playbooks),
             abortControl(ctx, r, () => view.refresh()))));
 

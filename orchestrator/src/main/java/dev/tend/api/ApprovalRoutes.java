@@ -1,6 +1,5 @@
 package dev.tend.api;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ApprovalOutcome;
@@ -8,6 +7,7 @@ import dev.tend.api.view.ApprovalView;
 import dev.tend.api.view.ReasonRequest;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.Store;
 import io.javalin.http.Context;
@@ -51,18 +51,18 @@ final class ApprovalRoutes {
 
     private void decide(Context ctx, boolean approve) {
         String run = Requests.id(ctx.pathParam("run"), "run").value();
-        approval(run);
+        approval(run); // a run never asked about is answered from the store, without troubling the engine (nor its ledger)
         Caller caller = Requests.caller(ctx);
         Input.Command cmd = approve ? new Input.Approve(run, caller.name(), Requests.from(ctx))
                 : new Input.Reject(run, Requests.text(Requests.body(ctx, ReasonRequest.class).reason(), "reason", 1000),
                 caller.name(), Requests.from(ctx));
         List<Effect> fx = gateway.command(cmd);
+        CommandAnswers.requireDone(fx);
         String verdict = null;
         List<String> reasons = List.of();
         for (Effect e : fx) {
-            if (!(e instanceof Effect.Ledger l)) continue;
-            if (l.type() == LedgerKind.APPROVAL_REFUSED) throw new RefusedException(String.valueOf(l.fields().get("reason")));
-            if (l.type() == LedgerKind.VERDICT && run.equals(l.fields().get("run"))) {
+            // the guards checked again when the approval arrived: their verdict on this run
+            if (e instanceof Effect.Ledger l && l.type() == LedgerKind.VERDICT && run.equals(l.fields().get("run"))) {
                 verdict = String.valueOf(l.fields().get("verdict"));
                 reasons = strings(l.fields().get("reasons"));
             }

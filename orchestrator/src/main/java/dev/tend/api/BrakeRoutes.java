@@ -36,9 +36,7 @@ final class BrakeRoutes {
         String from = Requests.from(ctx);
         List<Effect> fx = gateway.command(engage ? new Input.EngageBrake(reason, caller.name(), from)
                 : new Input.ReleaseBrake(reason, caller.name(), from));
-        if (fx.stream().noneMatch(e -> e instanceof Effect.BrakeChanged)) {
-            throw new RefusedException("the fleet brake is not engaged; nothing was released");
-        }
+        CommandAnswers.requireDone(fx);
         ctx.json(Views.brake(store.read(rd -> rd.state("brake"))));
     }
 }

@@ -1,13 +1,10 @@
 package dev.tend.api;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ExclusionRequest;
 import dev.tend.api.view.ExclusionView;
-import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
-import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Id;
 import dev.tend.shared.Target;
 import dev.tend.shared.time.Durations;
@@ -18,7 +15,6 @@ import io.javalin.router.JavalinDefaultRouting;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
-import java.util.List;
 import java.util.Objects;
 
 /**
@@ -66,15 +62,9 @@ final class ExclusionRoutes {
                     + now + "), got " + req.until() + "; leave it out for an exclusion that lasts until removed");
         }
         Caller caller = Requests.caller(ctx);
-        List<Effect> effects = gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(), Requests.from(ctx)));
-        for (Effect e : effects) {
-            // an unknown cluster or node is a mistake in the request (a typo, most often): 400, with the engine's suggestion
-            if (e instanceof Effect.Ledger l && l.type() == LedgerKind.COMMAND_REFUSED
-                    && ReasonCode.UNKNOWN_TARGET.code().equals(l.fields().get("code"))) {
-                throw Requests.invalid(target.node() != null && l.fields().get("reason").toString().startsWith("node")
-                        ? "node" : "cluster", String.valueOf(l.fields().get("reason")));
-            }
-        }
+        // an unknown cluster or node is a mistake in the request (a typo, most often): 400, with the engine's suggestion
+        CommandAnswers.requireDone(gateway.command(new Input.Exclude(target, reason, owner, req.until(), caller.name(),
+                Requests.from(ctx))));
         ctx.status(201).json(find(target));
     }
 
@@ -82,7 +72,7 @@ final class ExclusionRoutes {
         Target target = target(cluster, node);
         ExclusionView gone = find(target);
         Caller caller = Requests.caller(ctx);
-        gateway.command(new Input.Unexclude(target, caller.name(), Requests.from(ctx)));
+        CommandAnswers.requireDone(gateway.command(new Input.Unexclude(target, caller.name(), Requests.from(ctx))));
         ctx.json(gone);
     }
 

@@ -1,6 +1,5 @@
 package dev.tend.api;
 
-import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.api.auth.Caller;
@@ -8,6 +7,7 @@ import dev.tend.api.auth.Role;
 import dev.tend.api.view.LineProblem;
 import dev.tend.api.view.TransitionsOutcome;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.metrics.TendMetrics;
 import dev.tend.playbooks.TendConfig;
 import dev.tend.shared.HealthTransition;

@@ -3,12 +3,6 @@ package dev.tend.cli;
 import dev.tend.api.view.RunView;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
-
-import java.util.concurrent.Callable;
 
 /**
  * {@code tend abort RUN --reason R}: cancels an active run (running, paused, held, waiting
@@ -18,23 +12,14 @@ import java.util.concurrent.Callable;
 @Command(name = "abort", mixinStandardHelpOptions = true,
         description = "Abort an active run: it is cancelled, and the reason and who gave it go into the ledger."
                 + " Exit 1 if the run already ended.")
-public final class AbortCommand implements Callable<Integer> {
-    @Spec
-    CommandSpec spec;
-
+public final class AbortCommand extends RunOperation {
     @Mixin
-    ServerOptions server;
-
-    @Parameters(index = "0", paramLabel = "RUN")
-    String run;
-
-    @Option(names = "--reason", required = true, paramLabel = "R", description = "why, for the ledger")
-    String reason;
+    Reason reason;
 
     @Override
     public Integer call() {
-        RunView r = server.operations().abort(run, reason);
-        spec.commandLine().getOut().println("aborted " + r.run() + " (" + r.playbook() + " on " + Render.target(r.cluster(), r.node())
+        RunView r = server.operations().abort(run, reason.reason);
+        out().println("aborted " + r.run() + " (" + r.playbook() + " on " + Render.target(r.cluster(), r.node())
                 + "): run " + r.state() + (r.endedAt() == null ? "" : " at " + Render.time(r.endedAt()))
                 + (r.outcome() == null ? "" : "; " + r.outcome()));
         return ExitCodes.OK;

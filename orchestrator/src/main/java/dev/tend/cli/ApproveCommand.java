@@ -2,12 +2,6 @@ package dev.tend.cli;
 
 import dev.tend.api.view.ApprovalOutcome;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
-
-import java.util.concurrent.Callable;
 
 /**
  * {@code tend approve RUN}: approves a pending run. Every guard is checked again: the run
@@ -15,20 +9,11 @@ import java.util.concurrent.Callable;
  */
 @Command(name = "approve", mixinStandardHelpOptions = true,
         description = "Approve a run waiting for a person. The guards are checked again; the answer says whether it started or is held.")
-public final class ApproveCommand implements Callable<Integer> {
-    @Spec
-    CommandSpec spec;
-
-    @Mixin
-    ServerOptions server;
-
-    @Parameters(index = "0", paramLabel = "RUN")
-    String run;
-
+public final class ApproveCommand extends RunOperation {
     @Override
     public Integer call() {
         ApprovalOutcome o = server.operations().approve(run);
-        spec.commandLine().getOut().println(describe(o));
+        out().println(describe(o));
         return ExitCodes.OK;
     }
 

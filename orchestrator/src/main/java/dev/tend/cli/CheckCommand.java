@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.executor.ExecutorRegistry;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.lint.Finding;
@@ -11,10 +12,10 @@ import dev.tend.shared.Problem;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
 import java.io.PrintWriter;
 import java.nio.file.Files;
@@ -62,7 +63,7 @@ public final class CheckCommand implements Callable<Integer> {
             err.println(e.problems().size() + (e.problems().size() == 1 ? " problem" : " problems") + "; nothing was checked further");
             return ExitCodes.USAGE;
         }
-        List<Finding> findings = Lint.check(set, fleet, ExecutorKinds.AVAILABLE);
+        List<Finding> findings = Lint.check(set, fleet, ExecutorRegistry.kinds());
         if (format == Format.json) {
             out.println(FindingsFormat.json(findings));
         } else {

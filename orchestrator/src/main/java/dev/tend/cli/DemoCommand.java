@@ -1,6 +1,5 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.TokenFile;
 import dev.tend.demo.DemoFeeder;
 import dev.tend.demo.DemoLibrary;
@@ -9,6 +8,7 @@ import dev.tend.demo.DemoTokens;
 import dev.tend.engine.BrakeThresholds;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.LedgerKind;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.serve.ServeSettings;
@@ -18,12 +18,12 @@ import dev.tend.shared.fleet.FleetFile;
 import dev.tend.shared.time.Durations;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.Store;
-import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
+import picocli.CommandLine;
 
 import java.io.PrintWriter;
 import java.nio.file.Files;

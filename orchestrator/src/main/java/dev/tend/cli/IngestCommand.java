@@ -1,24 +1,18 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
-import dev.tend.executor.CommandExecutor;
-import dev.tend.executor.Executor;
-import dev.tend.executor.HttpExecutor;
-import dev.tend.executor.SimulatedExecutor;
+import dev.tend.executor.ExecutorRegistry;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
-import dev.tend.engine.Effect;
-import dev.tend.engine.Engine;
-import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Orchestrator;
-import dev.tend.runtime.ScheduledTimers;
+import dev.tend.runtime.QuartzTimers;
 import dev.tend.runtime.SourceProgress;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.InvalidInputException;
@@ -30,10 +24,10 @@ import dev.tend.shared.wire.WireReader;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
 import java.io.FilterInputStream;
 import java.io.IOException;
@@ -44,8 +38,6 @@ import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Duration;
-import java.util.List;
-import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
@@ -94,18 +86,16 @@ public final class IngestCommand implements Callable<Integer> {
         Senders senders = Senders.from(setup.config().paging(), outgoing, err);
         if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
-             Executor command = new CommandExecutor(Path.of("").toAbsolutePath());
-             Executor simulated = new SimulatedExecutor(seed, speedup);
-             Executor http = HttpExecutor.withDefaults(outgoing);
+             ExecutorRegistry.Built executors = ExecutorRegistry.open(
+                     new ExecutorRegistry.Settings(Path.of("").toAbsolutePath(), seed, speedup, outgoing));
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             CommitRefusals refusals = new CommitRefusals(input, err);
-            Orchestrator[] holder = new Orchestrator[1];
-            ScheduledTimers timers = new ScheduledTimers(clock, key -> holder[0].submit(new Input.TimerFired(key)));
-            Orchestrator orch = new Orchestrator(store, setup, Map.of("command", command, "simulated", simulated, "http", http), timers,
+            QuartzTimers timers = new QuartzTimers();
+            Orchestrator orch = new Orchestrator(store, setup, executors.byKind(), timers,
                     n -> courier.wake(), clock, refusals);
             courier.start();
-            holder[0] = orch;
+            timers.fireInto(key -> orch.submit(new Input.TimerFired(key)));
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
             Orchestrator.Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0) {

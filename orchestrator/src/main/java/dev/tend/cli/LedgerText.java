@@ -1,9 +1,9 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.LedgerKind;
 import dev.tend.store.LedgerEntry;
 
 import java.time.ZoneOffset;

@@ -1,9 +1,9 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.engine.BrakeThresholds;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.LedgerKind;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;

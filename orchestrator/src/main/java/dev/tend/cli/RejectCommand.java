@@ -2,31 +2,16 @@ package dev.tend.cli;
 
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
-
-import java.util.concurrent.Callable;
 
 /** {@code tend reject RUN --reason R}: rejects a pending run; it is cancelled with the reason. */
 @Command(name = "reject", mixinStandardHelpOptions = true, description = "Reject a run waiting for a person; it is cancelled.")
-public final class RejectCommand implements Callable<Integer> {
-    @Spec
-    CommandSpec spec;
-
+public final class RejectCommand extends RunOperation {
     @Mixin
-    ServerOptions server;
-
-    @Parameters(index = "0", paramLabel = "RUN")
-    String run;
-
-    @Option(names = "--reason", required = true, paramLabel = "R", description = "why, for the ledger")
-    String reason;
+    Reason reason;
 
     @Override
     public Integer call() {
-        spec.commandLine().getOut().println(ApproveCommand.describe(server.operations().reject(run, reason)));
+        out().println(ApproveCommand.describe(server.operations().reject(run, reason.reason)));
         return ExitCodes.OK;
     }
 }

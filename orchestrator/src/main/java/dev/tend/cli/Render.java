@@ -7,10 +7,10 @@ import dev.tend.api.view.ApprovalView;
 import dev.tend.api.view.BrakeView;
 import dev.tend.api.view.ExclusionView;
 import dev.tend.shared.TendException;
+import dev.tend.shared.time.InstantText;
 
 import java.io.PrintWriter;
 import java.time.Instant;
-import java.time.temporal.ChronoUnit;
 import java.util.List;
 
 /** Text and JSON renderings shared by the operator commands. */
@@ -32,7 +32,7 @@ final class Render {
 
     /** A time to the second, RFC 3339 in UTC ({@code 2027-03-14T02:17:05Z}): what a table column has room for. */
     static String time(Instant t) {
-        return t == null ? "-" : t.truncatedTo(ChronoUnit.SECONDS).toString();
+        return t == null ? "-" : InstantText.toSecond(t);
     }
 
     static void approvals(PrintWriter out, List<ApprovalView> list) {

@@ -38,7 +38,7 @@ import java.util.concurrent.Callable;
  */
 @Command(name = "replay", mixinStandardHelpOptions = true,
         description = "Replay a recording through the decision engine in virtual time, against a fleet model, and report"
-                + " what would have happened: runs, verdicts with reasons, holds, the fleet brake, hidden events.%n"
+                + " what would have happened: runs, verdicts with reasons, holds, the fleet brake, events hidden by simulated fixes.%n"
                 + "Exit 0 ok; 1 when lines of the recording were skipped, or with --against when the two sets differ;"
                 + " 2 usage or input error.")
 public final class ReplayCommand implements Callable<Integer> {

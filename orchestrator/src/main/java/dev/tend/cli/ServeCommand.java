@@ -1,10 +1,11 @@
 package dev.tend.cli;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.api.auth.TokenFile;
 import dev.tend.api.auth.Tokens;
+import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.LedgerKind;
 import dev.tend.serve.ServeSettings;
 import dev.tend.serve.TendServer;
 import dev.tend.serve.TlsFiles;
@@ -12,10 +13,9 @@ import picocli.CommandLine;
 import dev.tend.store.Store;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import dev.tend.audit.LedgerKey;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;

@@ -33,6 +33,10 @@ public sealed interface Effect {
     /** Call an executor. {@code key} is the idempotency key {@code run-id/step-id/attempt}. */
     record CallExecutor(String runId, String stepId, int attempt, String key, ActionDef action,
                         Target target, String playbook, Duration timeout) implements Effect {
+        /** The idempotency key of attempt {@code attempt} of step {@code stepId} of run {@code runId}: the one place it is made. */
+        public static String idempotencyKey(String runId, String stepId, int attempt) {
+            return runId + "/" + stepId + "/" + attempt;
+        }
     }
 
     record ArmTimer(String key, Instant due) implements Effect {
@@ -66,5 +70,13 @@ public sealed interface Effect {
     }
 
     record BrakeChanged(BrakeState brake) implements Effect {
+    }
+
+    /** The answer to the operator command {@code command} (its {@code Input.kind()}); exactly one per command. */
+    record Answered(String command, CommandAnswer answer) implements Effect {
+        public Answered {
+            java.util.Objects.requireNonNull(command, "command");
+            java.util.Objects.requireNonNull(answer, "answer");
+        }
     }
 }

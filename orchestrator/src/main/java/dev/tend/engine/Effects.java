@@ -1,6 +1,7 @@
 package dev.tend.engine;
 
 import dev.tend.shared.Target;
+import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
 import java.util.ArrayList;
@@ -47,12 +48,12 @@ public final class Effects {
         return v;
     }
 
-    public void arm(String key, Instant due) {
-        out.add(new Effect.ArmTimer(key, due));
+    public void arm(TimerKey key, Instant due) {
+        out.add(new Effect.ArmTimer(key.wire(), due));
     }
 
-    public void cancel(String key) {
-        out.add(new Effect.CancelTimer(key));
+    public void cancel(TimerKey key) {
+        out.add(new Effect.CancelTimer(key.wire()));
     }
 
     public List<Effect> list() {

@@ -27,7 +27,6 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
-import java.util.Set;
 import java.util.TreeMap;
 
 /**
@@ -39,7 +38,7 @@ import java.util.TreeMap;
  */
 public final class Engine implements RunHost {
     /** Who automation's own requests are made by (for the two-person rule). */
-    public static final String AUTOMATION = "automation";
+    public static final String AUTOMATION = ApprovalHost.AUTOMATION;
 
     private final EngineSetup setup;
     private final EngineContext ctx;
@@ -47,6 +46,7 @@ public final class Engine implements RunHost {
     private final RunMachine machine = new RunMachine(this);
     private final Candidates candidates = new Candidates();
     private final Approvals approvals;
+    private final OperatorCommands commands;
     private final Escalations escalations;
     private final Map<String, RunProcess> runs = new LinkedHashMap<>();
     private final Map<String, Instant> timers = new TreeMap<>();
@@ -58,7 +58,9 @@ public final class Engine implements RunHost {
         this.setup = setup;
         FleetHealthView view = new FleetHealthView(setup.fleet());
         this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake(), setup.config().paging().brakeGather()));
-        this.approvals = new Approvals(this);
+        Host host = new Host();
+        this.approvals = new Approvals(host, candidates, machine);
+        this.commands = new OperatorCommands(ctx, approvals, machine, host);
         this.escalations = new Escalations(ctx);
     }
 
@@ -80,7 +82,7 @@ public final class Engine implements RunHost {
         else if (in instanceof Input.OutcomeUnknown u) {
             RunProcess r = runs.get(u.runId());
             if (r != null) machine.onOutcomeUnknown(r, u.stepId(), u.attempt(), fx);
-        } else if (in instanceof Input.Command c) approvals.onCommand(c, fx);
+        } else if (in instanceof Input.Command c) commands.handle(c, fx);
         // Tick: nothing but the clocks below
         if (setup.eventTime().follows()) advanceEventTime(ctx.now.minus(setup.eventTime().lag()));
         drain(fx);
@@ -138,23 +140,26 @@ public final class Engine implements RunHost {
         return false;
     }
 
-    private void onTimer(String key, Effects fx) {
-        timers.remove(key);
-        if (key.startsWith("recheck:")) {
+    private void onTimer(String wire, Effects fx) {
+        timers.remove(wire);
+        TimerKey key = TimerKey.parse(wire).orElse(null);
+        if (key instanceof TimerKey.Recheck k) {
             work.addAll(candidates.dueByTime(ctx.now));
-            work.add(key.substring("recheck:".length()));
-        } else if (key.equals(FleetBrake.PAGE_TIMER)) {
+            work.add(k.candidate());
+        } else if (key instanceof TimerKey.BrakePage) {
             ctx.brake.pageDue(fx);
-        } else if (key.startsWith(Approvals.REMINDER_TIMER)) {
-            approvals.remind(key.substring(Approvals.REMINDER_TIMER.length()), fx);
-        } else if (key.equals(FleetBrake.SETTLE_TIMER)) {
+        } else if (key instanceof TimerKey.ApprovalReminder k) {
+            approvals.remind(k.run(), fx);
+        } else if (key instanceof TimerKey.BrakeSettle) {
             if (ctx.brake.settled(ctx.health, fx)) onBrakeReleased(fx);
-        } else if (key.startsWith("approval:")) {
-            approvals.expire(key.substring("approval:".length()), fx);
-        } else if (key.startsWith("step:") || key.startsWith("wait:")) {
-            String runId = key.split(":", 3)[1];
-            RunProcess r = runs.get(runId);
-            if (r != null) machine.onTimer(r, key, fx);
+        } else if (key instanceof TimerKey.ApprovalExpiry k) {
+            approvals.expire(k.run(), fx);
+        } else if (key instanceof TimerKey.StepTimeout k) {
+            RunProcess r = runs.get(k.run());
+            if (r != null) machine.onTimer(r, k, fx);
+        } else if (key instanceof TimerKey.WaitTimeout k) {
+            RunProcess r = runs.get(k.run());
+            if (r != null) machine.onTimer(r, k, fx);
         }
     }
 
@@ -173,15 +178,15 @@ public final class Engine implements RunHost {
         work.addAll(candidates.dueByEventTime(t));
     }
 
-    void queueCluster(Id cluster) {
+    private void queueCluster(Id cluster) {
         work.addAll(candidates.onCluster(cluster));
     }
 
-    void queueFleet() {
+    private void queueFleet() {
         work.addAll(candidates.fleetWide());
     }
 
-    void queue(Candidate.Key key) {
+    private void queue(Candidate.Key key) {
         work.add(key.toString());
     }
 
@@ -253,7 +258,7 @@ public final class Engine implements RunHost {
             retry = retry == null || p.isAfter(retry) ? p : retry;
         }
         if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
-            fx.arm("recheck:" + c.key(), retry);
+            fx.arm(new TimerKey.Recheck(c.key().toString()), retry);
         }
         escalations.held(c, d, fx);
         if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
@@ -276,7 +281,7 @@ public final class Engine implements RunHost {
         machine.start(r, fx);
     }
 
-    RunProcess newRun(Candidate c, RunState state, String requestedBy) {
+    private RunProcess newRun(Candidate c, RunState state, String requestedBy) {
         String id = String.format("r%06d", ++runSeq);
         Playbook p = c.playbook();
         RunProcess r = new RunProcess(id, p, c.target(), c.trigger(), p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
@@ -288,7 +293,7 @@ public final class Engine implements RunHost {
         Candidates.Entry e = candidates.get(key);
         if (e == null) return;
         candidates.remove(key);
-        fx.cancel("recheck:" + key);
+        fx.cancel(new TimerKey.Recheck(key.toString()));
         if (e.decision() != null) {
             fx.ledger(LedgerKind.CANDIDATE_DROPPED, "playbook", key.playbook(), "cluster", key.target().cluster(),
                     "node", key.target().node(), "reason", why, "run", e.candidate().runId());
@@ -305,7 +310,7 @@ public final class Engine implements RunHost {
                 "signal", c.trigger().signal(), "problem_since", c.problemSince(), "run", c.runId());
     }
 
-    void onBrakeReleased(Effects fx) {
+    private void onBrakeReleased(Effects fx) {
         queueFleet();
         for (RunProcess r : new ArrayList<>(ctx.active.values())) machine.resume(r, fx);
     }
@@ -323,11 +328,6 @@ public final class Engine implements RunHost {
     public ActionDef action(Id id) {
         return setup.playbooks().actions().get(id)
                 .orElseThrow(() -> new TendException("action " + id + " is not defined; the playbook set was validated, so this is a bug"));
-    }
-
-    /** Where pages go and when approvals are reminded. */
-    dev.tend.playbooks.Paging paging() {
-        return ctx.config.paging();
     }
 
     @Override
@@ -375,22 +375,15 @@ public final class Engine implements RunHost {
         queueFleet();
     }
 
-    // ---- package access for Approvals ----
-
-    EngineContext context() {
-        return ctx;
-    }
-
-    RunMachine machine() {
-        return machine;
-    }
-
-    Candidates candidates() {
-        return candidates;
-    }
-
-    RunProcess runById(String id) {
-        return runs.get(id);
+    /** What the approval flow and the operator commands reach of the engine: narrow, and not the engine itself. */
+    private final class Host implements ApprovalHost, CommandHost {
+        @Override public RunProcess newRun(Candidate c, RunState state, String requestedBy) { return Engine.this.newRun(c, state, requestedBy); }
+        @Override public RunProcess run(String id) { return runs.get(id); }
+        @Override public void queue(Candidate.Key key) { Engine.this.queue(key); }
+        @Override public void queueCluster(Id cluster) { Engine.this.queueCluster(cluster); }
+        @Override public void brakeReleased(Effects fx) { onBrakeReleased(fx); }
+        @Override public String pageChannel() { return Engine.this.pageChannel(); }
+        @Override public java.time.Duration approvalReminder() { return ctx.config.paging().approvalReminder(); }
     }
 
     // ---- queries ----
@@ -452,12 +445,7 @@ public final class Engine implements RunHost {
     public List<Effect.CallExecutor> inFlightCalls() {
         List<Effect.CallExecutor> out = new ArrayList<>();
         for (RunProcess r : ctx.active.values()) {
-            if (!r.isCalling()) continue;
-            dev.tend.playbooks.ActionStep a = (dev.tend.playbooks.ActionStep) r.currentStep();
-            ActionDef def = action(a.action());
-            java.time.Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : RunMachine.DEFAULT_TIMEOUT;
-            out.add(new Effect.CallExecutor(r.id(), a.id().value(), r.attempt(), r.id() + "/" + a.id() + "/" + r.attempt(),
-                    def, r.target(), r.playbook().id().value(), timeout));
+            if (r.isCalling()) out.add(machine.callInFlight(r));
         }
         return out;
     }

@@ -18,8 +18,8 @@ final class FleetBrake {
     private boolean armed = true;
     private int episodes;
     private boolean settling;
-    static final String SETTLE_TIMER = "brake:settle";
-    static final String PAGE_TIMER = "brake:page";
+    static final TimerKey SETTLE_TIMER = new TimerKey.BrakeSettle();
+    static final TimerKey PAGE_TIMER = new TimerKey.BrakePage();
     private final java.time.Duration gather;
     /** The episode's page: not sent yet while it gathers the event's size. */
     private boolean pagePending;

@@ -2,6 +2,7 @@ package dev.tend.engine;
 
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
+import dev.tend.shared.SignalState;
 import dev.tend.shared.Target;
 import dev.tend.shared.TopologyEvent;
 
@@ -36,6 +37,16 @@ public sealed interface Input {
         /** The transition with its wire line computed now, on the calling thread. */
         public static Transition withWire(HealthTransition t) {
             return new Transition(t, dev.tend.shared.wire.WireWriter.line(t));
+        }
+
+        /**
+         * What the simulated fleet reports after a simulated action cleared {@code signal} on
+         * {@code target}, as a health pipeline would: a clear at {@code at}, marked
+         * {@code origin: simulated}. The one place it is built, for the live driver and replay.
+         */
+        public static Transition simulatedClear(Instant at, Target target, Id signal) {
+            return new Transition(new HealthTransition(at, target.cluster(), target.node(), signal, SignalState.CLEAR,
+                    Map.of(), Map.of("origin", "simulated")));
         }
 
         public String kind() { return "transition"; }

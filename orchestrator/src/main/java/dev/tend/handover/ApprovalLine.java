@@ -1,8 +1,9 @@
 package dev.tend.handover;
 
+import dev.tend.shared.ApprovalState;
+
 import java.time.Instant;
 import java.util.Objects;
-import java.util.Set;
 
 /**
  * One approval as the ledger shows it at the end of a report's period.
@@ -13,19 +14,13 @@ import java.util.Set;
  * @param node        its node; null for a cluster-scoped run
  * @param requestedAt when a person was asked
  * @param expiresAt   when it lapses unanswered; not before {@code requestedAt}
- * @param state       one of {@link #STATES}: still pending at the period's end, or how it was settled
+ * @param state       the wire name of an {@link ApprovalState}: still pending at the period's end, or how it was settled
  *                    ({@code withdrawn}: the run ended, e.g. the problem went away, before anyone answered)
  * @param decidedBy   who approved or rejected; null otherwise
  * @param decidedAt   when it was settled; null while pending
  */
 public record ApprovalLine(String run, String playbook, String cluster, String node, Instant requestedAt, Instant expiresAt,
                            String state, String decidedBy, Instant decidedAt) {
-    public static final String PENDING = "pending";
-    public static final String APPROVED = "approved";
-    public static final String REJECTED = "rejected";
-    public static final String LAPSED = "lapsed";
-    public static final String WITHDRAWN = "withdrawn";
-    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
 
     public ApprovalLine {
         Objects.requireNonNull(run, "ApprovalLine.run must not be null");
@@ -37,11 +32,11 @@ public record ApprovalLine(String run, String playbook, String cluster, String n
             throw new IllegalArgumentException("ApprovalLine.expiresAt must not be before requestedAt " + requestedAt + ", got " + expiresAt);
         }
         Objects.requireNonNull(state, "ApprovalLine.state must not be null");
-        if (!STATES.contains(state)) {
+        if (ApprovalState.of(state).isEmpty()) {
             throw new IllegalArgumentException("ApprovalLine.state must be one of pending, approved, rejected, lapsed, withdrawn, got '"
                     + state + "'");
         }
-        if (PENDING.equals(state) != (decidedAt == null)) {
+        if (ApprovalState.PENDING.wireName().equals(state) != (decidedAt == null)) {
             throw new IllegalArgumentException("ApprovalLine.decidedAt must be null exactly while pending; state '" + state
                     + "', decidedAt " + decidedAt);
         }
@@ -51,7 +46,7 @@ public record ApprovalLine(String run, String playbook, String cluster, String n
     }
 
     public boolean isPending() {
-        return PENDING.equals(state);
+        return ApprovalState.PENDING.wireName().equals(state);
     }
 
     /** Pending although its expiry passed before {@code t}: no lapse was recorded (tend was not running then). */

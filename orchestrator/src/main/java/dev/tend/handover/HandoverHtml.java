@@ -36,6 +36,9 @@ public final class HandoverHtml {
             .ok { color: #2f6b3b; font-weight: 600; }
             .failed-verify { color: #a23b2a; font-weight: 600; }
             svg.timeline { background: #fff; border: 1px solid #d9ddd8; max-width: 100%; height: auto; }
+            .note { color: #55636b; font-size: .88em; margin: 4px 0 8px; }
+            ul.legend { list-style: none; padding: 0; margin: 6px 0 0; display: flex; flex-wrap: wrap; gap: 4px 16px; font-size: .82em; color: #3c4a52; }
+            ul.legend li { display: flex; align-items: center; gap: 5px; white-space: nowrap; }
             svg .row { fill: #f3f4f1; }
             svg .label, svg .tick, svg .legend { font-size: 11px; fill: #3c4a52; }
             svg .tick { text-anchor: middle; }
@@ -73,7 +76,13 @@ public final class HandoverHtml {
                 .append(TimeText.at(p.until())).append(" (").append(TimeText.span(p.length())).append(", UTC)</p>\n");
         cards(s, r);
         attention(s, r);
-        s.append("<h2>Timeline</h2>\n").append(TimelineSvg.render(r));
+        s.append("<h2>Timeline</h2>\n");
+        ReportPeriod w = TimelineSvg.window(r);
+        s.append("<p class=\"note\">").append(w.equals(p) ? "The whole period, " + TimeText.at(p.since()) + " to " + TimeText.at(p.until())
+                : "Zoomed to where activity is: " + TimeText.at(w.since()) + " to " + TimeText.at(w.until()) + " (" + TimeText.span(w.length())
+                + " of the " + TimeText.span(p.length()) + " period)")
+                .append(". Another span: <code>tend handover --since T --until T</code>. Point at a bar for its run.</p>\n")
+                .append(TimelineSvg.render(r));
         byPlaybook(s, r.byPlaybook());
         byReason(s, r.byReason());
         nodes(s, r.nodesRemediated());

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.ApprovalState;
 import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
@@ -104,7 +105,7 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
 
     /** Approvals that lapsed unanswered in the period. */
     public List<ApprovalLine> lapsedApprovals() {
-        return approvals.stream().filter(a -> a.state().equals(ApprovalLine.LAPSED) && period.contains(a.decidedAt())).toList();
+        return approvals.stream().filter(a -> a.state().equals(ApprovalState.LAPSED.wireName()) && period.contains(a.decidedAt())).toList();
     }
 
     /** How many approvals were asked for in the period. */

@@ -1,11 +1,11 @@
 package dev.tend.handover;
 
-import dev.tend.engine.LedgerKind;
-import dev.tend.shared.fleet.BrakePeriod;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.LedgerKind;
 import dev.tend.shared.ReasonCode;
+import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerVerification;
 
@@ -85,9 +85,9 @@ final class LedgerTally {
                 ApprovalState a = new ApprovalState(r, at, instant(f, "expires_at", at));
                 approvals.put(r.run, a);
             }
-            case APPROVAL_GRANTED -> settle(f, ApprovalLine.APPROVED, at, RunLine.APPROVED);
-            case APPROVAL_REJECTED -> settle(f, ApprovalLine.REJECTED, at, null);
-            case APPROVAL_LAPSED -> settle(f, ApprovalLine.LAPSED, at, null);
+            case APPROVAL_GRANTED -> settle(f, dev.tend.shared.ApprovalState.APPROVED.wireName(), at, RunLine.APPROVED);
+            case APPROVAL_REJECTED -> settle(f, dev.tend.shared.ApprovalState.REJECTED.wireName(), at, null);
+            case APPROVAL_LAPSED -> settle(f, dev.tend.shared.ApprovalState.LAPSED.wireName(), at, null);
             case EXECUTOR_CALL -> {
                 RunState r = runs.get(text(f, "run"));
                 if (r != null) r.calls.put(text(f, "step") + "/" + f.path("attempt").asText(), text(f, "action"));
@@ -152,8 +152,8 @@ final class LedgerTally {
         r.endedAt = at;
         r.note = text(f, "outcome");
         ApprovalState a = approvals.get(r.run);
-        if (a != null && a.state.equals(ApprovalLine.PENDING)) {
-            a.state = ApprovalLine.WITHDRAWN;
+        if (a != null && a.state.equals(dev.tend.shared.ApprovalState.PENDING.wireName())) {
+            a.state = dev.tend.shared.ApprovalState.WITHDRAWN.wireName();
             a.decidedAt = at;
         }
         if (counted) {
@@ -174,7 +174,7 @@ final class LedgerTally {
 
     private void settle(JsonNode f, String state, Instant at, String runState) {
         ApprovalState a = approvals.get(text(f, "run"));
-        if (a == null || !a.state.equals(ApprovalLine.PENDING)) return;
+        if (a == null || !a.state.equals(dev.tend.shared.ApprovalState.PENDING.wireName())) return;
         a.state = state;
         a.decidedAt = at;
         a.decidedBy = text(f, "by");
@@ -302,7 +302,7 @@ final class LedgerTally {
         final RunState run;
         final Instant requestedAt;
         final Instant expiresAt;
-        String state = ApprovalLine.PENDING;
+        String state = dev.tend.shared.ApprovalState.PENDING.wireName();
         String decidedBy;
         Instant decidedAt;
 

@@ -1,8 +1,9 @@
 package dev.tend.handover;
 
+import dev.tend.shared.time.InstantText;
+
 import java.time.Duration;
 import java.time.Instant;
-import java.time.temporal.ChronoUnit;
 
 /** How the handover renderings write times: RFC 3339 in UTC to the second, and short durations. */
 final class TimeText {
@@ -11,7 +12,7 @@ final class TimeText {
 
     /** {@code 2027-03-14T02:17:00Z}; "-" for null. */
     static String at(Instant t) {
-        return t == null ? "-" : t.truncatedTo(ChronoUnit.SECONDS).toString();
+        return t == null ? "-" : InstantText.toSecond(t);
     }
 
     /** The time of day of {@code t} when it falls on the same UTC day as {@code ref}, else the full time. */

@@ -14,8 +14,10 @@ import java.util.TreeMap;
  * cluster, runs as bars from their start (or request) to their end (or the period's end),
  * coloured by state and stacked in lanes where they overlap, fleet brake periods shaded
  * across all rows, approvals as markers (a diamond where a person was asked, a dot where it
- * was settled). Every shape has a {@code <title>} with its details. The output is also
- * well-formed XML.
+ * was settled). Every shape has a {@code <title>} with its details (the label on hover). The
+ * axis spans where activity is ({@link #window}), not the whole period, and every run is at
+ * least {@value #MIN_RUN} px wide. The legend is HTML beside the chart ({@link #legend}), where
+ * the browser lays its words out, so they never overlap. The output is also well-formed XML.
  */
 final class TimelineSvg {
     static final int WIDTH = 960;
@@ -25,13 +27,53 @@ final class TimelineSvg {
     static final int LANE = 14;
     /** Clusters drawn at most; the rest are counted under the chart. */
     static final int MAX_ROWS = 150;
+    /** The narrowest run drawn, in px: a one-second run is still a bar one can point at. */
+    static final int MIN_RUN = 5;
+    /** The shortest span the axis shows, so that a lone short run does not fill the width. */
+    static final Duration MIN_WINDOW = Duration.ofMinutes(10);
     private static final long[] STEPS = {60, 300, 600, 900, 1800, 3600, 7200, 10_800, 21_600, 43_200, 86_400, 172_800, 604_800};
 
     private TimelineSvg() {
     }
 
+    /**
+     * The part of the period the axis spans: from a little before the first thing drawn (a run,
+     * a brake period, an approval) to a little after the last, at least {@link #MIN_WINDOW}
+     * (within the period), or the whole period when nothing happened in it.
+     */
+    static ReportPeriod window(HandoverReport r) {
+        ReportPeriod p = r.period();
+        Instant first = null, last = null;
+        List<Instant[]> spans = new ArrayList<>();
+        for (RunLine x : r.runs()) spans.add(new Instant[]{begin(x, p), end(x, p)});
+        for (BrakePeriod b : r.brakePeriods()) {
+            spans.add(new Instant[]{b.engagedAt().isBefore(p.since()) ? p.since() : b.engagedAt(),
+                    b.isStillEngaged() || b.releasedAt().isAfter(p.until()) ? p.until() : b.releasedAt()});
+        }
+        for (ApprovalLine a : r.approvals()) {
+            for (Instant t : new Instant[]{a.requestedAt(), a.decidedAt()}) if (t != null && p.contains(t)) spans.add(new Instant[]{t, t});
+        }
+        for (Instant[] sp : spans) {
+            if (first == null || sp[0].isBefore(first)) first = sp[0];
+            if (last == null || sp[1].isAfter(last)) last = sp[1];
+        }
+        if (first == null) return p;
+        Duration pad = Duration.between(first, last).dividedBy(20);
+        if (pad.compareTo(Duration.ofMinutes(1)) < 0) pad = Duration.ofMinutes(1);
+        Instant from = first.minus(pad), to = last.plus(pad);
+        Duration grow = MIN_WINDOW.minus(Duration.between(from, to));
+        if (!grow.isNegative()) {
+            from = from.minus(grow.dividedBy(2));
+            to = to.plus(grow.dividedBy(2));
+        }
+        if (from.isBefore(p.since())) from = p.since();
+        if (to.isAfter(p.until())) to = p.until();
+        return ReportPeriod.of(from, to);
+    }
+
     static String render(HandoverReport r) {
         ReportPeriod p = r.period();
+        ReportPeriod w = window(r);
         Map<String, List<List<RunLine>>> lanes = lanes(r.runs(), p);
         Map<String, List<ApprovalLine>> marks = new TreeMap<>();
         for (ApprovalLine a : r.approvals()) {
@@ -45,7 +87,7 @@ final class TimelineSvg {
         top[0] = AXIS;
         for (int i = 0; i < clusters.size(); i++) top[i + 1] = top[i] + rowHeight(lanes.get(clusters.get(i)).size());
         int plotBottom = clusters.isEmpty() ? AXIS + 24 : top[clusters.size()];
-        int height = plotBottom + 56;
+        int height = plotBottom + 8;
         StringBuilder s = new StringBuilder();
         s.append("<svg class=\"timeline\" role=\"img\" viewBox=\"0 0 ").append(WIDTH).append(' ').append(height)
                 .append("\" width=\"").append(WIDTH).append("\" height=\"").append(height)
@@ -55,11 +97,11 @@ final class TimelineSvg {
             s.append("<text class=\"label\" x=\"6\" y=\"").append(top[i] + 14).append("\">")
                     .append(HandoverHtml.esc(clusters.get(i))).append("</text>\n");
         }
-        axis(s, p, plotBottom);
+        axis(s, w, plotBottom);
         for (BrakePeriod b : r.brakePeriods()) {
             Instant from = b.engagedAt().isBefore(p.since()) ? p.since() : b.engagedAt();
             Instant to = b.isStillEngaged() ? p.until() : b.releasedAt();
-            double x0 = x(from, p), x1 = Math.max(x(to, p), x0 + 2);
+            double x0 = x(from, w), x1 = Math.max(x(to, w), x0 + 2);
             rect(s, "brake", x0, AXIS, x1 - x0, plotBottom - AXIS, "fleet brake engaged " + TimeText.at(b.engagedAt())
                     + " by " + b.engagedBy() + (b.reason() == null ? "" : ": " + b.reason())
                     + (b.isStillEngaged() ? "; still engaged" : "; released " + TimeText.at(b.releasedAt()) + " by " + b.releasedBy()));
@@ -68,19 +110,19 @@ final class TimelineSvg {
             List<List<RunLine>> rows = lanes.get(clusters.get(i));
             for (int lane = 0; lane < rows.size(); lane++) {
                 for (RunLine x : rows.get(lane)) {
-                    double x0 = x(begin(x, p), p), x1 = Math.max(x(end(x, p), p), x0 + 3);
+                    double x0 = Math.min(x(begin(x, p), w), WIDTH - RIGHT - MIN_RUN), x1 = Math.max(x(end(x, p), w), x0 + MIN_RUN);
                     rect(s, "run " + x.state(), x0, top[i] + 4 + lane * LANE, x1 - x0, LANE - 3, x.run() + " " + x.playbook()
                             + " " + x.target() + ": " + x.state() + (x.note() == null ? "" : " (" + x.note() + ")"));
                 }
             }
-            for (ApprovalLine a : marks.getOrDefault(clusters.get(i), List.of())) approval(s, a, p, top[i] + 10);
+            for (ApprovalLine a : marks.getOrDefault(clusters.get(i), List.of())) approval(s, a, p, w, top[i] + 10);
         }
         if (clusters.isEmpty()) {
             s.append("<text class=\"label\" x=\"").append(LABEL).append("\" y=\"").append(AXIS + 16)
                     .append("\">no runs or approvals in this period</text>\n");
         }
-        legend(s, plotBottom + 24, hidden);
         s.append("</svg>\n");
+        legend(s, hidden);
         return s.toString();
     }
 
@@ -167,48 +209,44 @@ final class TimelineSvg {
         s.append("<text class=\"tick utc\" x=\"6\" y=\"").append(AXIS - 8).append("\">UTC</text>\n");
     }
 
-    private static void approval(StringBuilder s, ApprovalLine a, ReportPeriod p, int cy) {
+    private static void approval(StringBuilder s, ApprovalLine a, ReportPeriod p, ReportPeriod w, int cy) {
         String what = "approval for " + a.run() + " " + a.playbook() + " " + a.target() + " asked " + TimeText.at(a.requestedAt())
                 + ", " + a.state() + (a.decidedAt() == null ? ", expires " + TimeText.at(a.expiresAt())
                 : " " + TimeText.at(a.decidedAt()) + (a.decidedBy() == null ? "" : " by " + a.decidedBy()));
-        if (p.contains(a.requestedAt())) diamond(s, "ask " + a.state(), x(a.requestedAt(), p), cy, what);
+        if (p.contains(a.requestedAt())) diamond(s, "ask " + a.state(), x(a.requestedAt(), w), cy, what);
         if (a.decidedAt() != null && p.contains(a.decidedAt())) {
-            s.append("<circle class=\"settled ").append(a.state()).append("\" cx=\"").append(num(x(a.decidedAt(), p)))
+            s.append("<circle class=\"settled ").append(a.state()).append("\" cx=\"").append(num(x(a.decidedAt(), w)))
                     .append("\" cy=\"").append(cy).append("\" r=\"4\"><title>").append(HandoverHtml.esc(what))
                     .append("</title></circle>\n");
         }
     }
 
-    private static void legend(StringBuilder s, int y, int hidden) {
+    /** The key to the chart's colours and marks, as an HTML list that wraps like text. */
+    private static void legend(StringBuilder s, int hidden) {
         String[][] items = {{"run succeeded", "succeeded"}, {"run failed", "failed"}, {"run cancelled", "cancelled"},
-                {"run shadowed", "shadowed"}, {"run stood-down", "stood down"}, {"run running", "running"}, {"run needs-human", "needs a person"},
-                {"run awaiting-approval", "awaiting approval"}, {"brake", "fleet brake"}};
-        double x = LABEL;
+                {"run shadowed", "shadowed"}, {"run stood-down", "stood down"}, {"run running", "running"},
+                {"run paused", "paused by the fleet brake"}, {"run needs-human", "needs a person"},
+                {"run awaiting-approval", "awaiting approval"}, {"brake", "fleet brake engaged"}};
+        s.append("<ul class=\"legend\">\n");
         for (String[] item : items) {
-            rect(s, item[0], x, y - 9, 12, 10, null);
-            s.append("<text class=\"legend\" x=\"").append(num(x + 16)).append("\" y=\"").append(y).append("\">")
-                    .append(item[1]).append("</text>\n");
-            x += 22 + item[1].length() * 6.2;
+            s.append("<li><svg class=\"swatch\" width=\"14\" height=\"12\" viewBox=\"0 0 14 12\" aria-hidden=\"true\">");
+            rect(s, item[0], 1, 1, 12, 10, null);
+            s.append("</svg>").append(item[1]).append("</li>\n");
         }
-        double mx = LABEL;
-        int my = y + 16;
         String[][] markers = {{"ask pending", "approval pending"}, {"ask", "approval asked, since settled"}};
         for (String[] m : markers) {
-            diamond(s, m[0], mx + 5, my - 4, null);
-            s.append("<text class=\"legend\" x=\"").append(num(mx + 14)).append("\" y=\"").append(my).append("\">")
-                    .append(m[1]).append("</text>\n");
-            mx += 26 + m[1].length() * 6.2;
+            s.append("<li><svg class=\"swatch\" width=\"14\" height=\"14\" viewBox=\"0 0 14 14\" aria-hidden=\"true\">");
+            diamond(s, m[0], 7, 7, null);
+            s.append("</svg>").append(m[1]).append("</li>\n");
         }
-        s.append("<circle class=\"settled approved\" cx=\"").append(num(mx + 4)).append("\" cy=\"").append(my - 4)
-                .append("\" r=\"4\"/>\n<text class=\"legend\" x=\"").append(num(mx + 12)).append("\" y=\"").append(my)
-                .append("\">approved</text>\n");
-        mx += 80;
-        s.append("<circle class=\"settled lapsed\" cx=\"").append(num(mx + 4)).append("\" cy=\"").append(my - 4)
-                .append("\" r=\"4\"/>\n<text class=\"legend\" x=\"").append(num(mx + 12)).append("\" y=\"").append(my)
-                .append("\">rejected, lapsed or withdrawn</text>\n");
+        String[][] dots = {{"settled approved", "approved"}, {"settled lapsed", "rejected, lapsed or withdrawn"}};
+        for (String[] d : dots) {
+            s.append("<li><svg class=\"swatch\" width=\"14\" height=\"14\" viewBox=\"0 0 14 14\" aria-hidden=\"true\">")
+                    .append("<circle class=\"").append(d[0]).append("\" cx=\"7\" cy=\"7\" r=\"4\"/></svg>").append(d[1]).append("</li>\n");
+        }
+        s.append("</ul>\n");
         if (hidden > 0) {
-            s.append("<text class=\"legend\" x=\"6\" y=\"").append(my + 14).append("\">").append(hidden)
-                    .append(" more clusters not drawn; the run table lists them</text>\n");
+            s.append("<p class=\"note\">").append(hidden).append(" more clusters not drawn; the run table lists them.</p>\n");
         }
     }
 

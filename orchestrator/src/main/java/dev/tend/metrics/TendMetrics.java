@@ -4,6 +4,7 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
 import dev.tend.runtime.CommitListener;
+import dev.tend.shared.ApprovalState;
 import dev.tend.shared.wire.TimeRefusal;
 import dev.tend.store.Store;
 import io.prometheus.metrics.core.metrics.Counter;
@@ -78,7 +79,7 @@ public final class TendMetrics implements CommitListener {
                 .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
                 .register(registry);
         GaugeWithCallback.builder().name("tend_approvals_pending").help("Approvals waiting for a person")
-                .callback(cb -> cb.call(store.read(r -> r.approvals("pending").size())))
+                .callback(cb -> cb.call(store.read(r -> r.approvals(ApprovalState.PENDING.wireName()).size())))
                 .register(registry);
     }
 

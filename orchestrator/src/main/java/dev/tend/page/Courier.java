@@ -1,8 +1,8 @@
 package dev.tend.page;
 
-import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.type.TypeReference;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.engine.LedgerKind;
 import dev.tend.shared.TendException;
 import dev.tend.store.PageRow;
 import dev.tend.store.Store;

@@ -6,8 +6,8 @@ import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
-import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.MaskRule;
+import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.SimulatedAction;
 import dev.tend.playbooks.Step;
@@ -15,34 +15,32 @@ import dev.tend.playbooks.WaitHealthyStep;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 import dev.tend.shared.Problem;
-import dev.tend.shared.time.TimeLimits;
 import dev.tend.shared.SignalKey;
-import dev.tend.shared.SignalState;
 import dev.tend.shared.TendException;
 import dev.tend.shared.TopologyEvent;
+import dev.tend.shared.Verdict;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.fleet.ClusterSpec;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.NodeSpec;
+import dev.tend.shared.time.TimeLimits;
 import dev.tend.shared.time.VirtualClock;
 import dev.tend.shared.wire.ReadSummary;
 import dev.tend.shared.wire.RecordingHeader;
 import dev.tend.simulator.FleetModel;
 import dev.tend.simulator.Recording;
+import dev.tend.simulator.report.DecisionEntry;
 import dev.tend.simulator.report.PlaybookRef;
 import dev.tend.simulator.report.RecordingInfo;
 import dev.tend.simulator.report.ReplayInfo;
 import dev.tend.simulator.report.ReplayReport;
 import dev.tend.simulator.report.RunEntry;
 import dev.tend.simulator.report.Summary;
-import dev.tend.shared.Verdict;
-import dev.tend.simulator.report.DecisionEntry;
 
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Objects;
 
 /**
@@ -229,8 +227,7 @@ public final class Replayer {
                 SignalKey key = new SignalKey(a.target().cluster(), a.target().node(), signal);
                 if (engine.health().isActive(key.cluster(), key.node(), signal)) model.mask(key, now, a.result().runId(), a.action());
                 // the simulated fleet reports the signals the action cleared, as a health pipeline would (and as the live driver does)
-                feed(new Input.Transition(new HealthTransition(now, key.cluster(), key.node(), signal, SignalState.CLEAR,
-                        Map.of(), Map.of("origin", "simulated"))));
+                feed(Input.Transition.simulatedClear(now, a.target(), signal));
             }
         }
 

@@ -1,16 +1,16 @@
 package dev.tend.replay;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.engine.BrakeState;
 import dev.tend.engine.Effect;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.engine.RunState;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Verdict;
-import dev.tend.shared.wire.Rfc3339;
 import dev.tend.shared.fleet.BrakePeriod;
+import dev.tend.shared.wire.Rfc3339;
 import dev.tend.simulator.report.DecisionEntry;
 import dev.tend.simulator.report.HealthPoint;
 import dev.tend.simulator.report.NotificationEntry;

@@ -1,15 +1,13 @@
 package dev.tend.runtime;
 
-import dev.tend.engine.LedgerKind;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
 import dev.tend.executor.Executor;
-import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
-import dev.tend.shared.SignalState;
 import dev.tend.shared.TendException;
 import dev.tend.shared.time.Timers;
 import dev.tend.store.InputRow;
@@ -410,8 +408,7 @@ public final class Orchestrator {
     private void reportCleared(Input.ExecutorResult r, List<Input> batch) {
         engine.run(r.runId()).ifPresent(run -> {
             for (Id s : r.clears()) {
-                batch.add(new Input.Transition(new HealthTransition(engine.eventTime(), run.target().cluster(),
-                        run.target().node(), s, SignalState.CLEAR, Map.of(), Map.of("origin", "simulated"))));
+                batch.add(Input.Transition.simulatedClear(engine.eventTime(), run.target(), s));
             }
         });
     }

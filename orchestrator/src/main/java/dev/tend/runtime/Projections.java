@@ -1,12 +1,12 @@
 package dev.tend.runtime;
 
-import dev.tend.engine.LedgerKind;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.engine.ApprovalSnapshot;
 import dev.tend.engine.BrakeState;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Exclusion;
+import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.TendException;
@@ -92,7 +92,7 @@ final class Projections {
     private static void approval(StoreTx tx, ApprovalSnapshot a) {
         tx.upsertApproval(new ApprovalRow(a.runId(), a.playbook(), a.target().cluster().value(),
                 a.target().node() == null ? null : a.target().node().value(), a.requestedBy(), a.requestedAt(),
-                a.expiresAt(), a.state(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
+                a.expiresAt(), a.state().wireName(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
     }
 
     static Map<String, Object> brake(BrakeState b) {

@@ -39,8 +39,17 @@ public final class QuartzTimers implements Timers, AutoCloseable {
 
     private final Scheduler scheduler;
 
+    /** Timers that hand each fired key to {@code fire}. */
     public QuartzTimers(Consumer<String> fire) {
-        Objects.requireNonNull(fire, "fire");
+        this();
+        fireInto(fire);
+    }
+
+    /**
+     * Timers whose consumer is named later, with {@link #fireInto}, before the first is armed:
+     * for a driver that needs its timers to be built.
+     */
+    public QuartzTimers() {
         Properties p = new Properties();
         // scheduler names are global to the JVM; several servers may live in one (tests)
         p.setProperty(StdSchedulerFactory.PROP_SCHED_INSTANCE_NAME, "tend-timers-" + INSTANCES.incrementAndGet());
@@ -51,10 +60,19 @@ public final class QuartzTimers implements Timers, AutoCloseable {
         p.setProperty("org.quartz.jobStore.misfireThreshold", "1000");
         try {
             scheduler = new StdSchedulerFactory(p).getScheduler();
-            scheduler.getContext().put(FIRE, fire);
             scheduler.start();
         } catch (SchedulerException e) {
             throw new TimersFailedException("could not start the timer scheduler: " + e.getMessage(), e);
+        }
+    }
+
+    /** Hands each fired key to {@code fire} from now on; call it before arming the first timer. */
+    public void fireInto(Consumer<String> fire) {
+        Objects.requireNonNull(fire, "fire");
+        try {
+            scheduler.getContext().put(FIRE, fire);
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not set where timers fire: " + e.getMessage(), e);
         }
     }
 
@@ -62,6 +80,11 @@ public final class QuartzTimers implements Timers, AutoCloseable {
     public void arm(String key, Instant due) {
         Objects.requireNonNull(key, "key");
         Objects.requireNonNull(due, "due");
+        try {
+            if (!scheduler.getContext().containsKey(FIRE)) throw new IllegalStateException("fireInto must name a consumer before a timer is armed");
+        } catch (SchedulerException e) {
+            throw new TimersFailedException("could not read the timer scheduler's context: " + e.getMessage(), e);
+        }
         var job = JobBuilder.newJob(FireJob.class).withIdentity(key, GROUP).usingJobData(KEY, key).build();
         Trigger trigger = TriggerBuilder.newTrigger().withIdentity(key, GROUP).startAt(notBefore(due))
                 .withSchedule(SimpleScheduleBuilder.simpleSchedule().withMisfireHandlingInstructionFireNow())

@@ -42,6 +42,8 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     // guarded by lock: written by the driver thread, read by whoever asks for the picture
     private Fleet topology;
     private Map<String, int[]> clustersPerZone = new TreeMap<>();
+    /** Each zone's own nodes (a cluster usually has nodes in several zones). */
+    private Map<String, int[]> nodesPerZone = new TreeMap<>();
     /** Unhealthy clusters, by id, with what the picture shows of each. */
     private final TreeMap<Id, Unhealthy> unhealthy = new TreeMap<>();
     private Figures figures;
@@ -60,8 +62,16 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         }
     }
 
+    /** How many times faster than the wall clock processing time runs (1 live; more under tend demo). */
+    private final double timeScale;
+
     FleetHealthPublisher(Clock clock) {
+        this(clock, 1);
+    }
+
+    FleetHealthPublisher(Clock clock, double timeScale) {
         this.clock = clock;
+        this.timeScale = timeScale;
     }
 
     @Override
@@ -118,8 +128,10 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     void publish(Engine engine) {
         FleetHealthView view = engine.health();
         Map<String, int[]> perZone = new TreeMap<>();
+        Map<String, int[]> nodes = new TreeMap<>();
         for (ClusterSpec c : view.topology().clusters()) {
             for (String z : zones(c)) perZone.computeIfAbsent(z, k -> new int[1])[0]++;
+            for (NodeSpec n : c.nodes()) nodes.computeIfAbsent(n.zone() == null ? "unknown" : n.zone(), k -> new int[1])[0]++;
         }
         Map<Id, Unhealthy> all = new HashMap<>();
         for (Id cluster : view.unhealthyClusters()) all.put(cluster, entry(view, cluster));
@@ -127,6 +139,7 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         synchronized (lock) {
             topology = view.topology();
             clustersPerZone = perZone;
+            nodesPerZone = nodes;
             unhealthy.clear();
             unhealthy.putAll(all);
             figures = f;
@@ -177,12 +190,12 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         allZones.addAll(unhealthyPerZone.keySet());
         List<FleetHealth.Zone> zones = new ArrayList<>();
         for (String z : allZones) {
-            zones.add(new FleetHealth.Zone(z, clustersPerZone.getOrDefault(z, new int[1])[0],
+            zones.add(new FleetHealth.Zone(z, nodesPerZone.getOrDefault(z, new int[1])[0], clustersPerZone.getOrDefault(z, new int[1])[0],
                     unhealthyPerZone.getOrDefault(z, List.of()), impaired.getOrDefault(z, 0)));
         }
         Figures f = figures;
         return new FleetHealth(f.at(), f.eventTime(), f.fleet(), f.clusters(), f.unhealthy(), f.fraction(), f.activeRuns(),
-                f.brake(), zones, problems);
+                f.brake(), zones, problems, timeScale);
     }
 
     private static List<String> zones(ClusterSpec c) {

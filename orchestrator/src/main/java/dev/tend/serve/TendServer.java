@@ -5,15 +5,13 @@ import dev.tend.api.ServerTls;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
-import dev.tend.executor.CommandExecutor;
 import dev.tend.executor.Executor;
-import dev.tend.executor.HttpExecutor;
-import dev.tend.executor.SimulatedExecutor;
+import dev.tend.executor.ExecutorRegistry;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.metrics.TendMetrics;
+import dev.tend.metrics.TimedExecutor;
 import dev.tend.page.PageDelivery;
 import dev.tend.page.Senders;
-import dev.tend.metrics.TimedExecutor;
 import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
@@ -24,7 +22,6 @@ import dev.tend.store.Store;
 
 import java.io.PrintWriter;
 import java.time.Clock;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.CountDownLatch;
@@ -62,7 +59,7 @@ public final class TendServer implements AutoCloseable {
         Clock clock = s.timeScale().clock();
         PrintWriter log = s.log();
         TendMetrics metrics = new TendMetrics(store);
-        FleetHealthPublisher health = new FleetHealthPublisher(clock);
+        FleetHealthPublisher health = new FleetHealthPublisher(clock, s.timeScale().factor());
         OutgoingHttp http = new OutgoingHttp();
         // every file an outgoing call or a channel needs is read now: a bad one stops tend before it serves
         for (dev.tend.playbooks.ActionDef a : s.setup().playbooks().actions().byId().values()) {
@@ -75,13 +72,10 @@ public final class TendServer implements AutoCloseable {
                     + " nobody else; define channels (webhook, email, command) to page people");
             log.flush();
         }
-        executors = List.of(new TimedExecutor(new CommandExecutor(s.workDir()), metrics),
-                new TimedExecutor(new SimulatedExecutor(s.seed(), s.speedup()), metrics),
-                new TimedExecutor(HttpExecutor.withDefaults(http), metrics));
-        Map<String, Executor> byKind = new LinkedHashMap<>();
-        for (Executor e : executors) byKind.put(e.kind(), e);
-        Orchestrator[] holder = new Orchestrator[1];
-        timers = new QuartzTimers(key -> holder[0].submit(new Input.TimerFired(key)));
+        executors = ExecutorRegistry.build(new ExecutorRegistry.Settings(s.workDir(), s.seed(), s.speedup(), http)).stream()
+                .map(e -> (Executor) new TimedExecutor(e, metrics)).toList();
+        Map<String, Executor> byKind = ExecutorRegistry.byKind(executors);
+        timers = new QuartzTimers();
         Timers engineTimers = s.timeScale().onProcessingTime(timers);
         CommitListener listeners = new CommitListener() {
             @Override
@@ -106,7 +100,7 @@ public final class TendServer implements AutoCloseable {
             if (p != null) p.wake();
         };
         orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners);
-        holder[0] = orchestrator;
+        timers.fireInto(key -> orchestrator.submit(new Input.TimerFired(key)));
         recovery = orchestrator.recover();
         // the driver thread has not started: this thread may still read the engine
         health.publish(orchestrator.engine());

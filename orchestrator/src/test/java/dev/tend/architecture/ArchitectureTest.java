@@ -49,6 +49,20 @@ class ArchitectureTest {
                 .because("adapters depend on the engine, never the reverse"));
     }
 
+    /**
+     * The engine's parts (the run machine, the guards, the approval flow, the operator commands)
+     * reach the engine around them through narrow host interfaces ({@code RunHost},
+     * {@code ApprovalHost}, {@code CommandHost}), never through the engine itself.
+     */
+    @Test
+    void noPartOfTheEngineDependsOnTheEngineItself() {
+        check(noClasses().that().resideInAPackage("dev.tend.engine..")
+                .and().doNotHaveFullyQualifiedName("dev.tend.engine.Engine")
+                .and().doNotHaveFullyQualifiedName("dev.tend.engine.Engine$Host")
+                .should().dependOnClassesThat().haveFullyQualifiedName("dev.tend.engine.Engine")
+                .because("a part that reaches into the engine's state through accessors kept for it imports upward"));
+    }
+
     @Test
     void sharedDependsOnNoOtherModule() {
         check(noClasses().that().resideInAPackage("dev.tend.shared..").should().dependOnClassesThat()

@@ -44,7 +44,10 @@ final class ConsoleServer implements AutoCloseable {
     }
 
     private ConsoleServer(Path dir) throws IOException {
-        Path library = copyWithChannels(library(), dir.resolve("library"));
+        this(dir, 600, dev.tend.serve.TimeScale.real(), copyWithChannels(library(), dir.resolve("library")));
+    }
+
+    private ConsoleServer(Path dir, double speedup, dev.tend.serve.TimeScale timeScale, Path library) throws IOException {
         Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n"
                 + "  - { name: anna, roles: [approver, operator], sha256: " + Tokens.hash(ANNA) + " }\n"
                 + "  - { name: vera, roles: [viewer], sha256: " + Tokens.hash(VERA) + " }\n");
@@ -54,13 +57,26 @@ final class ConsoleServer implements AutoCloseable {
         store = Store.openSqlite(dir.resolve("tend.db"));
         // simulated actions 600 times faster: the library's 8-20 minute node replacement takes a second or two
         server = TendServer.start(store, ServeSettings.builder(setup).listen("127.0.0.1", 0)
-                .tokens(TokenFile.load(dir.resolve("tokens.yaml"))).speedup(600).tick(Duration.ofMillis(500))
+                .tokens(TokenFile.load(dir.resolve("tokens.yaml"))).speedup(speedup).timeScale(timeScale).tick(Duration.ofMillis(500))
                 .workDir(dir).log(new PrintWriter(log, true)).build());
     }
 
     static ConsoleServer start(Path dir) {
         try {
             return new ConsoleServer(dir);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /**
+     * A server whose processing time runs {@code factor} times faster than the wall clock, as in
+     * {@code tend demo}, its simulated actions as fast; the bundled library as it is (pages go
+     * to the log), so that nothing but what a test does waits for a person.
+     */
+    static ConsoleServer accelerated(Path dir, double factor) {
+        try {
+            return new ConsoleServer(dir, factor, dev.tend.serve.TimeScale.accelerated(Instant.now(), factor), library());
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

@@ -114,9 +114,7 @@ class HandoverRenderingTest {
     void htmlIsWellFormedAndHoldsTheTimelineWithRunsBrakePeriodsAndApprovals() throws Exception {
         Document doc = xml(HandoverHtml.render(report));
 
-        NodeList svgs = doc.getElementsByTagName("svg");
-        assertThat(svgs.getLength()).isEqualTo(1);
-        Element svg = (Element) svgs.item(0);
+        Element svg = timeline(doc);
         assertThat(titled(svg, "rect", "run ")).hasSize(report.runs().size());
         assertThat(titled(svg, "rect", "brake")).hasSize(2);
         assertThat(titled(svg, "polygon", "ask ")).hasSize(2);
@@ -148,7 +146,7 @@ class HandoverRenderingTest {
             String html = HandoverHtml.render(n.report(SINCE, at("23:00")));
 
             assertThat(html).contains("&lt;b&gt;disk&lt;/b&gt; &amp; &quot;racks&quot; &#39;z-b&#39;").doesNotContain("<b>disk");
-            assertThat(xml(html).getElementsByTagName("svg").getLength()).isEqualTo(1);
+            assertThat(timeline(xml(html))).isNotNull();
         }
     }
 
@@ -158,6 +156,70 @@ class HandoverRenderingTest {
     void timelineRowsAreInNaturalOrder(String first, String second) {
         assertThat(TimelineSvg.naturalOrder(first, second)).isNegative();
         assertThat(TimelineSvg.naturalOrder(second, first)).isPositive();
+    }
+
+    @Test
+    void theHtmlTimelineZoomsToWhereActivityIsAndKeepsEveryRunWideEnoughToPointAt(@TempDir Path dir) throws Exception {
+        try (NightShift n = new NightShift(dir.resolve("tend.db"), SINCE)) {
+            n.advanceTo(at("23:00"));
+            n.silent("fares-2", "n1");
+            n.advanceTo(at("23:30"));
+            // an 11-hour period with one 5-minute run in it
+            HandoverReport r = n.report(SINCE, at("09:00"));
+            RunLine run = r.runs().get(0);
+            ReportPeriod w = TimelineSvg.window(r);
+            assertThat(w.since()).isAfter(SINCE).isBeforeOrEqualTo(run.createdAt());
+            assertThat(w.until()).isAfterOrEqualTo(run.endedAt());
+            assertThat(w.length()).isLessThan(java.time.Duration.ofHours(1)).isGreaterThanOrEqualTo(TimelineSvg.MIN_WINDOW);
+            String html = HandoverHtml.render(r);
+            assertThat(html).contains("Zoomed to where activity is: ").contains("of the 11h period");
+            Element bar = titled(timeline(xml(html)), "rect", "run ").get(0);
+            assertThat(Double.parseDouble(bar.getAttribute("width"))).as("the 5-minute run in the zoomed axis").isGreaterThan(200);
+            assertThat(bar.getElementsByTagName("title").item(0).getTextContent()).as("its label on hover")
+                    .contains(run.run()).contains("replace-silent-node").contains("fares-2/n1");
+        }
+        try (NightShift quiet = new NightShift(dir.resolve("quiet.db"), SINCE)) {
+            quiet.advanceTo(at("23:00"));
+            HandoverReport r = quiet.report(SINCE, at("23:00"));
+            assertThat(TimelineSvg.window(r)).as("nothing happened: the whole period").isEqualTo(r.period());
+        }
+    }
+
+    @Test
+    void everyRunIsDrawnAtLeastMinRunWideAndTheLegendIsAnHtmlListOutsideTheChart() throws Exception {
+        Document doc = xml(HandoverHtml.render(report));
+        Element svg = timeline(doc);
+        for (Element bar : titled(svg, "rect", "run ")) {
+            assertThat(Double.parseDouble(bar.getAttribute("width"))).isGreaterThanOrEqualTo(TimelineSvg.MIN_RUN);
+        }
+        NodeList texts = svg.getElementsByTagName("text");
+        for (int i = 0; i < texts.getLength(); i++) {
+            assertThat(((Element) texts.item(i)).getAttribute("class")).as("no legend text drawn at guessed positions").isNotEqualTo("legend");
+        }
+        NodeList lists = doc.getElementsByTagName("ul");
+        List<String> legend = new ArrayList<>();
+        for (int i = 0; i < lists.getLength(); i++) {
+            Element ul = (Element) lists.item(i);
+            if (!ul.getAttribute("class").equals("legend")) continue;
+            NodeList items = ul.getElementsByTagName("li");
+            for (int j = 0; j < items.getLength(); j++) legend.add(items.item(j).getTextContent().strip());
+        }
+        assertThat(legend).contains("succeeded", "failed", "paused by the fleet brake", "fleet brake engaged", "approval pending");
+    }
+
+    /** The page's timeline chart (the legend's colour swatches are small SVGs of their own). */
+    static Element timeline(Document doc) {
+        NodeList svgs = doc.getElementsByTagName("svg");
+        Element found = null;
+        for (int i = 0; i < svgs.getLength(); i++) {
+            Element e = (Element) svgs.item(i);
+            if (e.getAttribute("class").equals("timeline")) {
+                assertThat(found).as("one timeline").isNull();
+                found = e;
+            }
+        }
+        assertThat(found).as("the timeline").isNotNull();
+        return found;
     }
 
     private static boolean inOrder(String text, String... parts) {

@@ -126,6 +126,9 @@ class ServeApiTest {
         assertThat(h.get("zones")).extracting(z -> z.get("zone").asText()).containsExactly("z-a", "z-b", "z-c");
         JsonNode zb = h.get("zones").get(1);
         assertThat(zb.get("clusters").asInt()).isEqualTo(3);
+        // the zone's own nodes: each of the three clusters has one node in z-b
+        assertThat(zb.get("nodes").asInt()).isEqualTo(3);
+        assertThat(h.get("time_scale").asDouble()).as("processing time is the wall clock").isEqualTo(1.0);
         assertThat(zb.get("unhealthy")).extracting(JsonNode::asText).containsExactly("tickets-12"); // tickets-12/n1 is in z-b
         assertThat(h.get("zones").get(0).get("unhealthy")).isEmpty();
         assertThat(h.at("/unhealthy_clusters/0/signals/0/signal").asText()).isEqualTo("disk-latency");

@@ -3,15 +3,11 @@ package dev.tend.serve;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
-import java.io.BufferedReader;
 import java.io.IOException;
-import java.io.InputStreamReader;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
@@ -42,6 +38,8 @@ class ServeCommandTest {
         }
         assertThat(first.process.exitValue()).as("stopped by SIGTERM").isIn(0, 143);
         assertThat(first.log).contains(", the console on " + first.url + "/").contains("stop with Ctrl-C or SIGTERM");
+        assertThat(first.logNow()).as("a line when it stops (exit %d, standard output: %s)", first.process.exitValue(),
+                Files.readString(dir.resolve("serve.out"))).contains("tend: stopped; everything resumes from ");
 
         Served second = serve();
         try {
@@ -53,11 +51,17 @@ class ServeCommandTest {
         }
     }
 
-    private record Served(Process process, String url, String log) {
+    /** A serve process; its standard error goes to a file (a pipe read after the process ended could lose its last lines). */
+    private record Served(Process process, String url, String log, Path err) {
 
         void stop() throws InterruptedException {
             process.destroy(); // SIGTERM
             if (!process.waitFor(30, TimeUnit.SECONDS)) process.destroyForcibly();
+        }
+
+        /** Everything it wrote to standard error so far. */
+        String logNow() throws IOException {
+            return Files.readString(err);
         }
     }
 
@@ -71,35 +75,22 @@ class ServeCommandTest {
         return cmd;
     }
 
-    private Served serve() throws IOException, InterruptedException, java.util.concurrent.ExecutionException,
-            java.util.concurrent.TimeoutException {
+    private Served serve() throws IOException, InterruptedException {
+        Path err = Files.createTempFile(dir, "serve", ".err");
         Process p = new ProcessBuilder(java("serve", "--playbooks", dir.resolve("playbooks").toString(),
                 "--fleet", dir.resolve("fleet.yaml").toString(), "--db", dir.resolve("tend.db").toString(),
                 "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:0"))
-                .directory(dir.toFile()).redirectOutput(dir.resolve("serve.out").toFile()).start();
-        StringBuilder log = new StringBuilder();
-        CompletableFuture<String> url = new CompletableFuture<>();
-        Thread reader = new Thread(() -> {
-            try (BufferedReader r = new BufferedReader(new InputStreamReader(p.getErrorStream(), StandardCharsets.UTF_8))) {
-                String line;
-                while ((line = r.readLine()) != null) {
-                    synchronized (log) {
-                        log.append(line).append('\n');
-                    }
-                    Matcher m = SERVING.matcher(line);
-                    if (m.find()) url.complete(m.group(1));
-                }
-                url.completeExceptionally(new AssertionError("tend serve ended without serving:\n" + log));
-            } catch (IOException e) {
-                url.completeExceptionally(e);
-            }
-        }, "serve-stderr");
-        reader.setDaemon(true);
-        reader.start();
-        String u = url.get(60, TimeUnit.SECONDS);
-        synchronized (log) {
-            return new Served(p, u, log.toString());
+                .directory(dir.toFile()).redirectOutput(dir.resolve("serve.out").toFile()).redirectError(err.toFile()).start();
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+        while (System.nanoTime() < deadline) {
+            String log = Files.readString(err);
+            Matcher m = SERVING.matcher(log);
+            if (m.find()) return new Served(p, m.group(1), log, err);
+            if (!p.isAlive()) throw new AssertionError("tend serve ended without serving:\n" + log);
+            Thread.sleep(50);
         }
+        p.destroyForcibly();
+        throw new AssertionError("tend serve did not serve within 60 s:\n" + Files.readString(err));
     }
 
     private Cli cli(String url, String token, String... args) throws IOException, InterruptedException {

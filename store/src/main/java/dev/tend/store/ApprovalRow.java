@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
+
 import java.time.Instant;
 import java.util.Objects;
 import java.util.Set;
@@ -22,14 +24,15 @@ import java.util.Set;
 public record ApprovalRow(String runId, String playbook, String cluster, String node, String requestedBy,
                           Instant requestedAt, Instant expiresAt, String state, String decidedBy, Instant decidedAt,
                           String reasons) {
-    public static final String PENDING = "pending";
-    public static final String APPROVED = "approved";
-    public static final String REJECTED = "rejected";
-    public static final String LAPSED = "lapsed";
+    // the states are defined once, by ApprovalState; these are their wire names
+    public static final String PENDING = ApprovalState.PENDING.wireName();
+    public static final String APPROVED = ApprovalState.APPROVED.wireName();
+    public static final String REJECTED = ApprovalState.REJECTED.wireName();
+    public static final String LAPSED = ApprovalState.LAPSED.wireName();
     /** The problem went away, or the run was aborted, before anyone answered. */
-    public static final String WITHDRAWN = "withdrawn";
+    public static final String WITHDRAWN = ApprovalState.WITHDRAWN.wireName();
     /** Every state an approval can be in. */
-    public static final Set<String> STATES = Set.of(PENDING, APPROVED, REJECTED, LAPSED, WITHDRAWN);
+    public static final Set<String> STATES = ApprovalState.wireNames();
 
     public ApprovalRow {
         Objects.requireNonNull(runId, "ApprovalRow.runId must not be null");

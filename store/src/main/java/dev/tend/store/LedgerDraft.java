@@ -1,9 +1,9 @@
 package dev.tend.store;
 
 import dev.tend.shared.Id;
+import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
-import java.time.format.DateTimeFormatter;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -66,7 +66,7 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
             throw new IllegalArgumentException(path + " must be a finite number (RFC 8785 has no form for " + v + ")");
         }
         if (v instanceof Number) return v;
-        if (v instanceof Instant i) return DateTimeFormatter.ISO_INSTANT.format(i);
+        if (v instanceof Instant i) return InstantText.of(i);
         if (v instanceof Id id) return id.value();
         if (v instanceof Enum<?> e) return e.toString();
         if (v instanceof Map<?, ?> m) {

@@ -12,10 +12,12 @@ import java.util.List;
  * @param unhealthy          clusters with any signal in breach or silent
  * @param unhealthyClusters  those clusters, by id
  * @param zones              every zone of the topology, by name
+ * @param timeScale          how many times faster than the wall clock processing time runs: 1 live,
+ *                           more in {@code tend demo} (a console labels such time as accelerated)
  */
 public record FleetHealth(Instant at, Instant eventTime, String fleet, int clusters, int unhealthy,
                           double unhealthyFraction, int activeRuns, BrakeView brake, List<Zone> zones,
-                          List<ClusterProblem> unhealthyClusters) {
+                          List<ClusterProblem> unhealthyClusters, double timeScale) {
     public FleetHealth {
         zones = List.copyOf(zones);
         unhealthyClusters = List.copyOf(unhealthyClusters);
@@ -23,20 +25,21 @@ public record FleetHealth(Instant at, Instant eventTime, String fleet, int clust
 
     /** Before the engine was recovered. */
     public static FleetHealth empty() {
-        return new FleetHealth(null, null, null, 0, 0, 0, 0, BrakeView.released(), List.of(), List.of());
+        return new FleetHealth(null, null, null, 0, 0, 0, 0, BrakeView.released(), List.of(), List.of(), 1);
     }
 
     /** A copy with other run and brake figures, the health itself unchanged. */
     public FleetHealth withRuns(Instant newAt, int newActiveRuns, BrakeView newBrake) {
         return new FleetHealth(newAt, eventTime, fleet, clusters, unhealthy, unhealthyFraction, newActiveRuns, newBrake,
-                zones, unhealthyClusters);
+                zones, unhealthyClusters, timeScale);
     }
 
     /**
-     * One zone: how many clusters have a node there, and which of those are unhealthy
-     * (a cluster-level problem counts in every zone of the cluster).
+     * One zone: its own nodes, how many clusters have a node there, which of those are unhealthy
+     * (a cluster-level problem counts in every zone of the cluster), and how many of its nodes
+     * have a signal in breach or silent.
      */
-    public record Zone(String zone, int clusters, List<String> unhealthy, int impairedNodes) {
+    public record Zone(String zone, int nodes, int clusters, List<String> unhealthy, int impairedNodes) {
         public Zone {
             unhealthy = List.copyOf(unhealthy);
         }

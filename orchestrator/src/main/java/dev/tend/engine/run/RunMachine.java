@@ -5,6 +5,8 @@ import dev.tend.engine.Effects;
 import dev.tend.engine.LedgerKind;
 import dev.tend.engine.PageKind;
 import dev.tend.engine.RunState;
+import dev.tend.engine.StepState;
+import dev.tend.engine.TimerKey;
 import dev.tend.playbooks.ActionDef;
 import dev.tend.playbooks.ActionStep;
 import dev.tend.playbooks.PageStep;
@@ -37,12 +39,12 @@ public final class RunMachine {
         this.host = host;
     }
 
-    public static String stepTimer(RunProcess r) {
-        return "step:" + r.id + ":" + r.currentStep().id() + ":" + r.attempt;
+    static TimerKey stepTimer(RunProcess r) {
+        return new TimerKey.StepTimeout(r.id, r.currentStep().id().value(), r.attempt);
     }
 
-    public static String waitTimer(RunProcess r) {
-        return "wait:" + r.id + ":" + r.currentStep().id();
+    static TimerKey waitTimer(RunProcess r) {
+        return new TimerKey.WaitTimeout(r.id, r.currentStep().id().value());
     }
 
     /** Starts a run that passed its guards. */
@@ -84,19 +86,19 @@ public final class RunMachine {
                 if (standingDown) fields.put("stand_down", r.standDown.reason().code());
                 fx.add(new Effect.Notify(r.id + "/" + n.id(), standingDown ? PageKind.STOOD_DOWN : PageKind.PLAYBOOK, n.channel().value(),
                         msg, fields));
-                r.recordStep("succeeded", "notified " + n.channel().value(), fx.now());
+                r.recordStep(StepState.SUCCEEDED, "notified " + n.channel().value(), fx.now());
                 fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                        "step", n.id(), "state", "succeeded", "channel", n.channel(), "message", msg);
+                        "step", n.id(), "state", StepState.SUCCEEDED.wireName(), "channel", n.channel(), "message", msg);
                 continue;
             }
             if (s instanceof WaitHealthyStep w) {
                 if (host.allClear(r.target, w.signals())) {
-                    r.recordStep("succeeded", "signals already clear", fx.now());
+                    r.recordStep(StepState.SUCCEEDED, "signals already clear", fx.now());
                     fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                            "step", w.id(), "state", "succeeded", "outcome", "signals already clear");
+                            "step", w.id(), "state", StepState.SUCCEEDED.wireName(), "outcome", "signals already clear");
                     continue;
                 }
-                r.recordStep("running", null, fx.now());
+                r.recordStep(StepState.RUNNING, null, fx.now());
                 fx.arm(waitTimer(r), fx.now().plus(w.within()));
                 fx.ledger(LedgerKind.STEP_STARTED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                         "step", w.id(), "step_kind", "wait-healthy", "signals", w.signals(), "within", Durations.format(w.within()));
@@ -130,16 +132,28 @@ public final class RunMachine {
     private void call(ActionStep a, RunProcess r, Effects fx, int attempt) {
         r.attempt = attempt;
         r.stepStartedAt = fx.now();
+        Effect.CallExecutor c = callOf(r, a, attempt);
+        r.recordStep(StepState.RUNNING, null, fx.now());
+        fx.ledger(LedgerKind.EXECUTOR_CALL, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
+                "node", r.target.node(), "step", a.id(), "attempt", attempt, "key", c.key(), "action", a.action(),
+                "executor", c.action().kind(), "timeout", Durations.format(c.timeout()));
+        fx.arm(stepTimer(r), fx.now().plus(c.timeout()));
+        fx.add(c);
+        changed(r, fx);
+    }
+
+    /** The call of attempt {@code attempt} of step {@code a}: its idempotency key, action and timeout, computed here only. */
+    private Effect.CallExecutor callOf(RunProcess r, ActionStep a, int attempt) {
         ActionDef def = host.action(a.action());
         Duration timeout = a.timeout() != null ? a.timeout() : def.timeout() != null ? def.timeout() : DEFAULT_TIMEOUT;
-        String key = r.id + "/" + a.id() + "/" + attempt;
-        r.recordStep("running", null, fx.now());
-        fx.ledger(LedgerKind.EXECUTOR_CALL, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                "node", r.target.node(), "step", a.id(), "attempt", attempt, "key", key, "action", a.action(),
-                "executor", def.kind(), "timeout", Durations.format(timeout));
-        fx.arm(stepTimer(r), fx.now().plus(timeout));
-        fx.add(new Effect.CallExecutor(r.id, a.id().value(), attempt, key, def, r.target, r.playbook.id().value(), timeout));
-        changed(r, fx);
+        return new Effect.CallExecutor(r.id, a.id().value(), attempt, Effect.CallExecutor.idempotencyKey(r.id, a.id().value(), attempt),
+                def, r.target, r.playbook.id().value(), timeout);
+    }
+
+    /** The call run {@code r} has out ({@link RunProcess#isCalling()}), as it was made: to settle it after a restart. */
+    public Effect.CallExecutor callInFlight(RunProcess r) {
+        if (!r.isCalling()) throw new IllegalStateException("run " + r.id + " has no call out");
+        return callOf(r, (ActionStep) r.currentStep(), r.attempt);
     }
 
     /** An executor answered; ignored unless it answers the current attempt. */
@@ -147,7 +161,7 @@ public final class RunMachine {
                          Map<String, Object> detail, Effects fx) {
         Step s = r.currentStep();
         if (r.state != RunState.RUNNING || !(s instanceof ActionStep a) || !a.id().value().equals(stepId)
-                || r.attempt != attempt || !r.lastRecordState().equals("running")) {
+                || r.attempt != attempt || !r.lastRecordIs(StepState.RUNNING)) {
             fx.ledger(LedgerKind.EXECUTOR_RESULT_IGNORED, "run", r.id, "step", stepId, "attempt", attempt,
                     "reason", "the run is no longer waiting for this attempt");
             return;
@@ -157,23 +171,23 @@ public final class RunMachine {
         fx.ledger(LedgerKind.EXECUTOR_RESULT, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt, "success", success, "message", message, "detail", fields);
         if (success) {
-            r.recordStep("succeeded", message, fx.now());
+            r.recordStep(StepState.SUCCEEDED, message, fx.now());
             advance(r, fx);
         } else {
-            retryOrFail(a, r, "failed: " + message, fx);
+            retryOrFail(a, r, StepState.FAILED, "failed: " + message, fx);
         }
     }
 
     /** A step or wait timer came due. */
-    public void onTimer(RunProcess r, String key, Effects fx) {
+    public void onTimer(RunProcess r, TimerKey key, Effects fx) {
         Step s = r.currentStep();
         if (r.state != RunState.RUNNING || s == null) return;
-        if (s instanceof ActionStep a && key.equals(stepTimer(r)) && r.lastRecordState().equals("running")) {
+        if (s instanceof ActionStep a && key.equals(stepTimer(r)) && r.lastRecordIs(StepState.RUNNING)) {
             fx.ledger(LedgerKind.STEP_TIMED_OUT, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                     "step", a.id(), "attempt", r.attempt);
-            retryOrFail(a, r, "timed out", fx);
+            retryOrFail(a, r, StepState.TIMED_OUT, "timed out", fx);
         } else if (s instanceof WaitHealthyStep w && key.equals(waitTimer(r))) {
-            r.recordStep("timed-out", "signals still active after " + Durations.format(w.within()), fx.now());
+            r.recordStep(StepState.TIMED_OUT, "signals still active after " + Durations.format(w.within()), fx.now());
             fail(r, w.id(), fx);
         }
     }
@@ -183,9 +197,9 @@ public final class RunMachine {
         if (r.state != RunState.RUNNING || !(r.currentStep() instanceof WaitHealthyStep w)) return;
         if (!host.allClear(r.target, w.signals())) return;
         fx.cancel(waitTimer(r));
-        r.recordStep("succeeded", "signals cleared", fx.now());
+        r.recordStep(StepState.SUCCEEDED, "signals cleared", fx.now());
         fx.ledger(LedgerKind.STEP_FINISHED, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
-                "step", w.id(), "state", "succeeded", "outcome", "signals cleared");
+                "step", w.id(), "state", StepState.SUCCEEDED.wireName(), "outcome", "signals cleared");
         advance(r, fx);
     }
 
@@ -193,7 +207,7 @@ public final class RunMachine {
     public void onOutcomeUnknown(RunProcess r, String stepId, int attempt, Effects fx) {
         if (!r.isCalling() || r.attempt != attempt) return;
         fx.cancel(stepTimer(r));
-        r.recordStep("unknown", "outcome unknown after a restart", fx.now());
+        r.recordStep(StepState.UNKNOWN, "outcome unknown after a restart", fx.now());
         r.state = RunState.NEEDS_HUMAN;
         fx.ledger(LedgerKind.RUN_NEEDS_HUMAN, "run", r.id, "playbook", r.playbook.id(), "cluster", r.target.cluster(),
                 "step", stepId, "attempt", attempt,
@@ -234,14 +248,15 @@ public final class RunMachine {
         finish(r, RunState.CANCELLED, reason, fx);
     }
 
-    private void retryOrFail(ActionStep a, RunProcess r, String why, Effects fx) {
+    /** Another attempt while retries are left (this one recorded failed); else the step ends {@code last}. */
+    private void retryOrFail(ActionStep a, RunProcess r, StepState last, String why, Effects fx) {
         if (r.attempt <= a.retries()) {
-            r.recordStep("failed", why, fx.now());
+            r.recordStep(StepState.FAILED, why, fx.now());
             if (standsDown(a, r, fx)) return;
             call(a, r, fx, r.attempt + 1);
             return;
         }
-        r.recordStep(why.startsWith("timed") ? "timed-out" : "failed", why, fx.now());
+        r.recordStep(last, why, fx.now());
         fail(r, a.id(), fx);
     }
 

@@ -3,6 +3,7 @@ package dev.tend.engine.run;
 import dev.tend.engine.RunSnapshot;
 import dev.tend.engine.RunState;
 import dev.tend.engine.StepSnapshot;
+import dev.tend.engine.StepState;
 import dev.tend.playbooks.ActionStep;
 import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;
@@ -105,20 +106,22 @@ public final class RunProcess {
     /** True while the current step is an action call whose result has not come back. */
     public boolean isCalling() {
         return state == RunState.RUNNING && currentStep() instanceof ActionStep && attempt > 0
-                && lastRecordState().equals("running");
+                && lastRecordIs(StepState.RUNNING);
     }
 
-    String lastRecordState() {
-        return record.isEmpty() ? "" : record.get(record.size() - 1).state();
+    /** True when the latest step record is in {@code state}. */
+    boolean lastRecordIs(StepState state) {
+        return !record.isEmpty() && record.get(record.size() - 1).state().equals(state.wireName());
     }
 
-    void recordStep(String state, String outcome, Instant at) {
+    void recordStep(StepState stepState, String outcome, Instant at) {
         Step s = currentStep();
         String kind = s.kind();
+        String state = stepState.wireName();
         StepSnapshot snap = new StepSnapshot(s.id().value(), record.size() + 1, kind, state, attempt,
-                stepStartedAt, state.equals("running") ? null : at, outcome);
+                stepStartedAt, stepState == StepState.RUNNING ? null : at, outcome);
         if (!record.isEmpty() && record.get(record.size() - 1).stepId().equals(snap.stepId())
-                && record.get(record.size() - 1).state().equals("running")) {
+                && lastRecordIs(StepState.RUNNING)) {
             snap = new StepSnapshot(snap.stepId(), record.size(), kind, state, attempt, stepStartedAt,
                     snap.endedAt(), outcome);
             record.set(record.size() - 1, snap);

@@ -58,6 +58,8 @@ class TokenFileTest {
                 Arguments.of("- a\n- b\n", 1, 1, "a tokens file must be a mapping (key: value), got a list"),
                 Arguments.of("people: []\ntokens: []\n", 1, 1,
                         "unknown key 'people' in the tokens file; expected one of: tokens"),
+                Arguments.of("tokes: []\ntokens: []\n", 1, 1,
+                        "unknown key 'tokes' in the tokens file (did you mean 'tokens'?); expected one of: tokens"),
                 Arguments.of("{}\n", 1, 1, "the tokens file needs 'tokens'"),
                 Arguments.of("tokens: vera\n", 1, 9, "tokens must be a list, got a value"),
                 Arguments.of("tokens:\n  - vera\n", 2, 5, "tokens[0] must be a mapping (key: value), got a value"),

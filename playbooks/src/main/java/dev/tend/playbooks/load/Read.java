@@ -2,7 +2,6 @@ package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.Position;
 import dev.tend.playbooks.TagSelector;
-import dev.tend.shared.NearestName;
 import dev.tend.playbooks.Template;
 import dev.tend.shared.time.Durations;
 import dev.tend.shared.yaml.Fields;
@@ -17,7 +16,6 @@ import java.util.ArrayList;
 import java.util.Collection;
 import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
 import java.util.TreeSet;
@@ -48,11 +46,9 @@ final class Read {
         }
     }
 
-    /** The allowed value nearest to {@code key} (edit distance under 3), or null. */
+    /** The allowed value nearest to {@code key} ({@link Fields#nearestKey}), or null. */
     static String nearest(String key, Collection<String> allowed) {
-        String normal = key.toLowerCase(Locale.ROOT).replace('_', '-').replace(' ', '-');
-        if (allowed.contains(normal)) return normal;
-        return NearestName.among(normal, allowed, 2).orElse(null);
+        return Fields.nearestKey(key, allowed).orElse(null);
     }
 
     /** Parses {@code map.key} with {@code parser}, naming it {@code label} in problems. */

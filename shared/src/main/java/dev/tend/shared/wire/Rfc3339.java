@@ -1,5 +1,7 @@
 package dev.tend.shared.wire;
 
+import dev.tend.shared.time.InstantText;
+
 import java.time.Instant;
 import java.time.LocalDate;
 import java.time.LocalDateTime;
@@ -114,35 +116,16 @@ public final class Rfc3339 {
      *         which RFC 3339 cannot write
      */
     public static String format(Instant t) {
-        long sec = t.getEpochSecond();
-        LocalDate date = LocalDate.ofEpochDay(Math.floorDiv(sec, 86_400L));
-        int year = date.getYear();
+        int year = LocalDate.ofEpochDay(Math.floorDiv(t.getEpochSecond(), 86_400L)).getYear();
         if (year < 0 || year > 9999) {
             throw new IllegalArgumentException("RFC 3339 writes years 0000 to 9999 only, got " + t);
         }
-        int secondOfDay = (int) Math.floorMod(sec, 86_400L);
-        char[] out = new char[30];
-        put(out, 0, year, 4);
-        out[4] = '-';
-        put(out, 5, date.getMonthValue(), 2);
-        out[7] = '-';
-        put(out, 8, date.getDayOfMonth(), 2);
-        out[10] = 'T';
-        put(out, 11, secondOfDay / 3600, 2);
-        out[13] = ':';
-        put(out, 14, secondOfDay / 60 % 60, 2);
-        out[16] = ':';
-        put(out, 17, secondOfDay % 60, 2);
-        int len = 19;
-        int nano = t.getNano();
-        if (nano != 0) {
-            out[len++] = '.';
-            put(out, len, nano, 9);
-            len += 9;
-            while (out[len - 1] == '0') len--;
-        }
-        out[len++] = 'Z';
-        return new String(out, 0, len);
+        // InstantText writes the fraction in groups of three digits; RFC 3339 (section 5.6) needs none of its trailing zeros
+        String text = InstantText.of(t);
+        if (t.getNano() == 0) return text;
+        int end = text.length() - 1;
+        while (text.charAt(end - 1) == '0') end--;
+        return text.substring(0, end) + "Z";
     }
 
     private static int lengthOfMonth(int year, int month) {
@@ -220,12 +203,5 @@ public final class Rfc3339 {
         int v = 0;
         for (int i = from; i < to; i++) v = v * 10 + (s.charAt(i) - '0');
         return v;
-    }
-
-    private static void put(char[] out, int at, int value, int width) {
-        for (int i = at + width - 1; i >= at; i--) {
-            out[i] = (char) ('0' + value % 10);
-            value /= 10;
-        }
     }
 }

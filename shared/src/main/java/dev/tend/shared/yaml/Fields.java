@@ -2,6 +2,7 @@ package dev.tend.shared.yaml;
 
 import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
+import dev.tend.shared.NearestName;
 import dev.tend.shared.Problem;
 import dev.tend.shared.time.Durations;
 
@@ -9,6 +10,7 @@ import java.time.Duration;
 import java.util.ArrayList;
 import java.util.Collection;
 import java.util.List;
+import java.util.Locale;
 import java.util.Optional;
 import java.util.TreeSet;
 import java.util.function.Function;
@@ -80,9 +82,21 @@ public final class Fields {
             if (reportedAsRenamed(e, renamed)) continue;
             if (!allowed.contains(e.key().value())) {
                 add(e.key(), e.key().value(), "unknown key '" + e.key().value() + "' in " + where
+                        + nearestKey(e.key().value(), allowed).map(n -> " (did you mean '" + n + "'?)").orElse("")
                         + "; expected one of: " + String.join(", ", new TreeSet<>(allowed)));
             }
         }
+    }
+
+    /**
+     * The allowed key nearest to {@code key}: itself written with dashes and in lower case
+     * ({@code confirm_for}, {@code Confirm-For}), else one within two edits
+     * ({@link NearestName}); empty when none is near. Every file tend reads suggests keys this way.
+     */
+    public static Optional<String> nearestKey(String key, Collection<String> allowed) {
+        String normal = key.toLowerCase(Locale.ROOT).replace('_', '-').replace(' ', '-');
+        if (allowed.contains(normal)) return Optional.of(normal);
+        return NearestName.among(normal, allowed, 2);
     }
 
     /** Reports {@code e}'s key when it is an old name of {@code renamed}; true if it was. */

@@ -141,4 +141,18 @@ class FleetFileTest {
         assertThat(c.quorum()).isFalse();
         assertThat(c.safeImpaired()).isEqualTo(Integer.MAX_VALUE);
     }
+
+    @Test
+    void aMisspelledKeyIsAnsweredWithTheNearestAllowedOne() {
+        String text = """
+                fleet: larkspur
+                clustres:
+                  - id: fares-3
+                    nodes:
+                      - { id: n1, zone: z-a }
+                """;
+        InvalidInputException e = catchThrowableOfType(InvalidInputException.class, () -> FleetFile.parse("fleet.yaml", text));
+        assertThat(e.problems()).extracting(Problem::toString).contains(
+                "fleet.yaml:2:1: unknown key 'clustres' in the fleet file (did you mean 'clusters'?); expected one of: clusters, fleet");
+    }
 }

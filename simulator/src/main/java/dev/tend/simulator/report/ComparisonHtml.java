@@ -14,9 +14,9 @@ public final class ComparisonHtml {
         StringBuilder sb = Html.page("replay comparison: " + c.a().recording().name(),
                 "A = " + c.labelA() + ", B = " + c.labelB() + ", seed " + c.a().replay().seed()
                         + (c.isSame() ? "; no differences" : ""));
-        sb.append("<h2>Summary</h2>\n<table><tr><th>field</th><th>A</th><th>B</th><th>B-A</th></tr>\n");
+        sb.append("<h2>Summary</h2>\n<table><tr><th>summary</th><th>A</th><th>B</th><th>B-A</th></tr>\n");
         for (SummaryDelta d : c.summary()) {
-            sb.append("<tr><td>").append(esc(d.field())).append("</td><td class=\"n\">")
+            sb.append("<tr><td>").append(esc(d.label())).append("</td><td class=\"n\">")
                     .append(d.flag() ? (d.a() == 1 ? "yes" : "no") : String.valueOf(d.a())).append("</td><td class=\"n\">")
                     .append(d.flag() ? (d.b() == 1 ? "yes" : "no") : String.valueOf(d.b())).append("</td><td class=\"n")
                     .append(d.differs() ? " bad" : "").append("\">")
@@ -25,7 +25,7 @@ public final class ComparisonHtml {
         }
         sb.append("</table>\n");
         ReportHtml.table(sb, "Runs that differ", c.runs(), "<th>difference</th>",
-                d -> "<td>" + esc(ComparisonText.run(d)) + "</td>");
+                d -> "<td>" + Html.text(ComparisonText.run(d)) + "</td>");
         ReportHtml.table(sb, "Hold and deny reasons that differ", c.reasons(), "<th>playbook</th><th>target</th><th>A</th><th>B</th>",
                 r -> "<td>" + esc(r.playbook().value()) + "</td><td>" + esc(r.target()) + "</td><td><code>"
                         + esc(ComparisonText.codes(r.a())) + "</code></td><td><code>" + esc(ComparisonText.codes(r.b())) + "</code></td>");

@@ -21,10 +21,10 @@ public final class ComparisonText {
         sb.append(String.format(Locale.ROOT, "  %-22s %10s %10s %8s\n", "summary", "A", "B", "B-A"));
         for (SummaryDelta d : c.summary()) {
             if (d.flag()) {
-                sb.append(String.format(Locale.ROOT, "  %-22s %10s %10s %8s", d.field(), d.a() == 1 ? "yes" : "no",
+                sb.append(String.format(Locale.ROOT, "  %-22s %10s %10s %8s", d.label(), d.a() == 1 ? "yes" : "no",
                         d.b() == 1 ? "yes" : "no", d.differs() ? "differs" : "").stripTrailing()).append('\n');
             } else {
-                sb.append(String.format(Locale.ROOT, "  %-22s %10d %10d %8s", d.field(), d.a(), d.b(),
+                sb.append(String.format(Locale.ROOT, "  %-22s %10d %10d %8s", d.label(), d.a(), d.b(),
                         d.delta() == 0 ? "" : String.format(Locale.ROOT, "%+d", d.delta())).stripTrailing()).append('\n');
             }
         }

@@ -20,6 +20,7 @@ final class Html {
             .tile { border: 1px solid #d5dbe1; border-radius: 6px; padding: 8px 14px; min-width: 120px; }
             .tile b { display: block; font-size: 22px; }
             .tile span { color: #5b6670; font-size: 12px; }
+            .t { white-space: nowrap; }
             .ok { color: #2f7d32; } .bad { color: #b3261e; } .muted { color: #5b6670; }
             svg text { font: 11px system-ui, sans-serif; fill: #39424a; }
             code { font-size: 13px; }
@@ -44,6 +45,14 @@ final class Html {
     static void tile(StringBuilder sb, String label, Object value, String cls) {
         sb.append("<div class=\"tile\"><b").append(cls == null ? "" : " class=\"" + cls + "\"").append('>')
                 .append(esc(String.valueOf(value))).append("</b><span>").append(esc(label)).append("</span></div>");
+    }
+
+    private static final java.util.regex.Pattern TIME =
+            java.util.regex.Pattern.compile("\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}(:\\d{2}(\\.\\d+)?)?(Z|[+-]\\d{2}:\\d{2})");
+
+    /** Escaped text whose RFC 3339 times never break across lines (each in a {@code span.t}). */
+    static String text(String text) {
+        return TIME.matcher(esc(text)).replaceAll("<span class=\"t\">$0</span>");
     }
 
     /** {@link HtmlText#escape}: text safe for element content and quoted attributes; "" for null. */

@@ -15,7 +15,8 @@ import java.util.Map;
 /**
  * The text form of a replay report: what an operator needs to know about what would have
  * happened, in about one screenful. Totals first, then runs by playbook, holds and denials
- * by reason, brake periods, notifications, hidden events, and the first runs; long lists
+ * by reason (each code with its meaning and first targets), brake periods, notifications,
+ * events hidden by the replay's simulated fixes, and the first runs; long lists
  * are cut with a count of what was left out (the JSON form has everything).
  */
 public final class ReportText {
@@ -44,12 +45,13 @@ public final class ReportText {
         sb.append(String.format(Locale.ROOT, "  runs started       %d (%d succeeded, %d failed, %d unfinished%s)\n", s.runsStarted(),
                 s.runsSucceeded(), s.runsFailed(), s.runsUnfinished(),
                 s.runsStoodDown() == 0 ? "" : ", " + s.runsStoodDown() + " stood down: no longer needed before an action step"));
-        sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested%s\n",
-                s.held(), s.denied(), s.approvalsRequested(), approvalNote(r.decisions(), s.approvalsRequested())));
+        sb.append(String.format(Locale.ROOT, "  decisions          %d held, %d denied, %d approvals requested\n",
+                s.held(), s.denied(), s.approvalsRequested()));
         sb.append(String.format(Locale.ROOT, "  most runs at once  %d\n", s.maxConcurrentRuns()));
         sb.append(String.format(Locale.ROOT, "  fleet brake        %s\n", s.brakeEngaged()
                 ? "engaged " + r.brakePeriods().size() + (r.brakePeriods().size() == 1 ? " time" : " times") : "never engaged"));
-        sb.append(String.format(Locale.ROOT, "  hidden events      %d\n", s.hiddenEvents()));
+        sb.append(String.format(Locale.ROOT, "  events hidden      %d%s\n", s.hiddenEvents(), s.hiddenEvents() == 0 ? ""
+                : " (a simulated fix had cleared the signal; the recording went on reporting it)"));
 
         Map<String, Tallies.RunCounts> byPlaybook = Tallies.runsByPlaybook(r.runs());
         if (!byPlaybook.isEmpty()) {
@@ -57,8 +59,8 @@ public final class ReportText {
             byPlaybook.forEach((p, c) -> sb.append(String.format(Locale.ROOT, "  %-34s %4d runs: %d succeeded, %d failed, %d other\n",
                     p, c.runs(), c.succeeded(), c.failed(), c.other())));
         }
-        reasons(sb, r.decisions(), Verdict.HOLD, "holds by reason (decisions naming it)");
-        reasons(sb, r.decisions(), Verdict.DENY, "denials by reason");
+        reasons(sb, r, Verdict.HOLD, "holds by reason (decisions naming it)");
+        reasons(sb, r, Verdict.DENY, "denials by reason");
 
         if (!r.brakePeriods().isEmpty()) {
             sb.append("\nfleet brake\n");
@@ -78,8 +80,8 @@ public final class ReportText {
             list(sb, r.notifications(), n -> time(n.at()) + " " + n.channel() + ": " + n.message());
         }
         if (!r.masks().isEmpty()) {
-            sb.append("\nhidden events: ").append(s.hiddenEvents()).append(" recorded events hidden by ")
-                    .append(r.masks().size()).append(r.masks().size() == 1 ? " mask\n" : " masks\n");
+            sb.append("\nevents hidden: ").append(s.hiddenEvents()).append(" recorded events hidden after ")
+                    .append(r.masks().size()).append(r.masks().size() == 1 ? " simulated fix\n" : " simulated fixes\n");
             list(sb, r.masks(), m -> m.hiddenEvents() + " hidden: " + m.reason());
         }
         if (!r.runs().isEmpty()) {
@@ -94,12 +96,17 @@ public final class ReportText {
         return sb.toString();
     }
 
-    private static void reasons(StringBuilder sb, List<DecisionEntry> decisions, Verdict verdict, String title) {
-        Map<ReasonCode, Long> counts = Tallies.reasons(decisions, verdict);
+    private static void reasons(StringBuilder sb, ReplayReport r, Verdict verdict, String title) {
+        Map<ReasonCode, Long> counts = Tallies.reasons(r.decisions(), verdict);
         if (counts.isEmpty()) return;
         sb.append('\n').append(title).append(", with the first targets\n");
-        counts.forEach((c, n) -> sb.append(String.format(Locale.ROOT, "  %-18s %6d  %s\n", c.code(), n,
-                targets(decisions, verdict, c))));
+        counts.forEach((c, n) -> {
+            sb.append(String.format(Locale.ROOT, "  %-18s %6d  %s\n", c.code(), n, c.meaning()));
+            sb.append(String.format(Locale.ROOT, "  %-18s %6s  %s\n", "", "", targets(r.decisions(), verdict, c)));
+            if (c == ReasonCode.APPROVAL_REQUIRED) {
+                sb.append(String.format(Locale.ROOT, "  %-18s %6s  %s\n", "", "", approvalNote(r.summary().approvalsRequested())));
+            }
+        });
     }
 
     /** How many targets a reason held (or denied), the first {@value #TARGETS} by name, and how many more. */
@@ -112,14 +119,14 @@ public final class ReportText {
     }
 
     /**
-     * Why fewer approvals were requested than decisions named approval-required: a candidate
-     * asks a person only once every other guard lets it through, and none is answered in a replay.
+     * Why a decision naming approval-required did not ask anyone: the engine asks a person only
+     * when approval is the last reason left (a verdict of await-approval), once per problem;
+     * these decisions were held or denied by another guard at the same moment. No answer
+     * arrives in a replay.
      */
-    private static String approvalNote(List<DecisionEntry> decisions, long requested) {
-        long needing = decisions.stream().filter(d -> d.reasons().contains(ReasonCode.APPROVAL_REQUIRED)).count();
-        if (needing == 0) return requested == 0 ? "" : " (none is answered in a replay)";
-        return " (" + needing + " decisions named approval-required; a person is asked only once no other guard holds"
-                + " the run, and none is answered in a replay)";
+    static String approvalNote(long requested) {
+        return requested + (requested == 1 ? " approval" : " approvals") + " requested: these decisions were also held"
+                + " by another guard, and a person is asked only once approval is the last reason left";
     }
 
     static <T> void list(StringBuilder sb, List<T> items, java.util.function.Function<T, String> line) {

@@ -62,4 +62,15 @@ class ReportComparisonTest {
         assertThat(html).contains("Runs that differ").contains("Timeline A: a").contains("Timeline B: b");
         assertThat(html.split("<svg ", -1)).hasSize(3);
     }
+
+    @Test
+    void theSummaryIsLabelledInWordsNotJsonFieldNames() {
+        ReportComparison c = ReportComparison.of("a", Fixtures.sample(), "b", report(List.of(), List.of(), List.of()));
+        for (String page : List.of(ComparisonText.render(c), ComparisonHtml.render(c))) {
+            assertThat(page).contains("most runs at once").contains("runs succeeded").contains("fleet brake engaged")
+                    .contains("approvals requested");
+            for (SummaryDelta d : c.summary()) if (d.field().contains("_")) assertThat(page).doesNotContain(d.field());
+        }
+        assertThat(ComparisonJson.toJson(c)).as("the JSON keeps its field names").contains("\"max_concurrent_runs\"");
+    }
 }

@@ -2,11 +2,11 @@ package dev.tend.store.internal;
 
 import dev.tend.shared.json.CanonicalJson;
 import dev.tend.shared.json.Sha256;
+import dev.tend.shared.time.InstantText;
 import dev.tend.store.LedgerDraft;
 import dev.tend.store.LedgerEntry;
 
 import java.time.Instant;
-import java.time.format.DateTimeFormatter;
 import java.util.HashMap;
 import java.util.Map;
 
@@ -40,6 +40,6 @@ public final class LedgerChain {
 
     /** RFC 3339 in UTC, e.g. 2027-03-14T02:17:00Z, with fractional seconds only when not zero. */
     public static String formatAt(Instant at) {
-        return DateTimeFormatter.ISO_INSTANT.format(at);
+        return InstantText.of(at);
     }
 }

@@ -14,9 +14,9 @@ import java.util.concurrent.TimeUnit;
 import java.util.function.Consumer;
 
 /**
- * Wall-clock timers for a single process ({@code tend ingest}); a timer whose time has
- * passed fires at once. The timers themselves live in the store, so after a restart they
- * are armed again from there.
+ * Wall-clock timers on a plain scheduled executor, for tests and benchmarks that drive an
+ * orchestrator on a {@link Clock} of their own; {@code tend serve} and {@code tend ingest} use
+ * {@link QuartzTimers}. A timer whose time has passed fires at once.
  */
 public final class ScheduledTimers implements Timers, AutoCloseable {
     private final ScheduledExecutorService pool = Executors.newSingleThreadScheduledExecutor(r -> {

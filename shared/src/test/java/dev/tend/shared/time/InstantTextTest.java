@@ -1,4 +1,4 @@
-package dev.tend.engine;
+package dev.tend.shared.time;
 
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
@@ -8,7 +8,14 @@ import java.util.SplittableRandom;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+/** Checked against java.time's own {@code Instant.toString()} (ISO-8601, as the JDK writes it), a reference library. */
 class InstantTextTest {
+    @ParameterizedTest
+    @ValueSource(strings = {"2027-03-14T02:17:05Z", "2027-03-14T02:17:05.999Z", "2027-03-14T02:17:05.000000001Z"})
+    void toTheSecondDropsTheFraction(String text) {
+        assertThat(InstantText.toSecond(Instant.parse(text))).isEqualTo("2027-03-14T02:17:05Z");
+    }
+
     @ParameterizedTest
     @ValueSource(strings = {"2027-03-14T02:17:00Z", "2027-03-14T02:17:00.500Z", "2027-03-14T02:17:00.000001Z",
             "2027-03-14T02:17:00.000000001Z", "2027-03-14T02:17:00.120Z", "2027-03-14T02:17:00.123456789Z", "1970-01-01T00:00:00Z",

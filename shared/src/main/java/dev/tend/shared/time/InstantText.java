@@ -1,19 +1,27 @@
-package dev.tend.engine;
+package dev.tend.shared.time;
 
 import java.time.Instant;
 import java.time.LocalDate;
 
 /**
- * {@link Instant#toString()} without its formatter: the same text (ISO-8601 in UTC, a
- * fraction of 3, 6 or 9 digits only when there is one), written directly, for the times in
- * ledger entries, which the engine writes several of per input. Years outside 0000 to 9999
- * go to {@code Instant.toString()} itself.
+ * The formats tend writes instants in, one method each (all UTC, with {@code Z}):
+ *
+ * <ul>
+ *   <li>{@link #of}: {@link Instant#toString()}'s text, a fraction of 3, 6 or 9 digits only when
+ *   there is one ({@code 2027-03-14T02:17:00.500Z}): ledger entries, the ledger chain's times,
+ *   stored and API times;</li>
+ *   <li>{@link #toSecond}: to the second, no fraction ({@code 2027-03-14T02:17:00Z}): tables,
+ *   the handover's renderings;</li>
+ *   <li>{@link dev.tend.shared.wire.Rfc3339#format}: RFC 3339 with the fraction's trailing zeros
+ *   left out ({@code 2027-03-14T02:17:00.5Z}): the wire format and replay reports.</li>
+ * </ul>
  */
-final class InstantText {
+public final class InstantText {
     private InstantText() {
     }
 
-    static String of(Instant t) {
+    /** {@code t.toString()}, written without its formatter (the engine writes several per input); years outside 0000 to 9999 go to {@code toString()}. */
+    public static String of(Instant t) {
         long sec = t.getEpochSecond();
         long day = Math.floorDiv(sec, 86_400L);
         LocalDate date = LocalDate.ofEpochDay(day);
@@ -49,6 +57,11 @@ final class InstantText {
         }
         out[n++] = 'Z';
         return new String(out, 0, n);
+    }
+
+    /** {@code t} to the second: the fraction is dropped (truncated, not rounded). */
+    public static String toSecond(Instant t) {
+        return of(Instant.ofEpochSecond(t.getEpochSecond()));
     }
 
     private static void put(char[] out, int at, int value, int digits) {
