@@ -133,7 +133,7 @@ public final class Engine implements RunHost {
 
     /** True when the cluster (and the node, if any) is in the topology: the fleet file plus topology events. */
     private boolean isKnown(Id cluster, Id node) {
-        return UnknownTargets.describe(ctx.health.topology(), cluster, node).isEmpty();
+        return UnknownTargets.isKnown(ctx.health.topology(), cluster, node);
     }
 
     private boolean hasLiveRun(Candidate.Key key) {

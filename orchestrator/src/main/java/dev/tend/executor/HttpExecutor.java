@@ -5,10 +5,10 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
 import dev.tend.playbooks.HttpAction;
+import io.github.resilience4j.core.IntervalFunction;
 
 import java.io.IOException;
 import java.net.URI;
-import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.net.http.HttpTimeoutException;
@@ -41,8 +41,8 @@ public final class HttpExecutor implements Executor {
     private static final ObjectMapper JSON = new ObjectMapper();
 
     private final dev.tend.http.OutgoingHttp http;
-    private final Duration firstPause;
-    private final Duration maxPause;
+    /** The pause before try n + 1 (resilience4j's exponential backoff, as the webhook sender's retries use). */
+    private final IntervalFunction backoff;
     private final ScheduledExecutorService pauses = Executors.newSingleThreadScheduledExecutor(r -> {
         Thread t = new Thread(r, "tend-http-retry");
         t.setDaemon(true);
@@ -61,14 +61,13 @@ public final class HttpExecutor implements Executor {
     public HttpExecutor(Duration firstPause, Duration maxPause, dev.tend.http.OutgoingHttp http) {
         Objects.requireNonNull(firstPause, "firstPause");
         Objects.requireNonNull(maxPause, "maxPause");
-        if (firstPause.isNegative() || firstPause.isZero()) {
-            throw new IllegalArgumentException("firstPause must be longer than zero, got " + firstPause);
+        if (firstPause.toMillis() < 1) {
+            throw new IllegalArgumentException("firstPause must be at least 1 ms, got " + firstPause);
         }
         if (maxPause.compareTo(firstPause) < 0) {
             throw new IllegalArgumentException("maxPause must be at least firstPause " + firstPause + ", got " + maxPause);
         }
-        this.firstPause = firstPause;
-        this.maxPause = maxPause;
+        this.backoff = IntervalFunction.ofExponentialBackoff(firstPause, 2.0, maxPause);
         this.http = Objects.requireNonNull(http, "http");
     }
 
@@ -182,8 +181,7 @@ public final class HttpExecutor implements Executor {
         }
 
         private void retry(int tries) {
-            long pause = Math.min(maxPause.toNanos(), firstPause.toNanos() << Math.min(tries - 1, 30));
-            pauses.schedule(() -> send(tries + 1), pause, TimeUnit.NANOSECONDS);
+            pauses.schedule(() -> send(tries + 1), backoff.apply(tries), TimeUnit.MILLISECONDS);
         }
 
         private void finish(boolean ok, String message, int tries, Map<String, Object> detail) {

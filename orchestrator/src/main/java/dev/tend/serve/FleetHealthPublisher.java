@@ -15,7 +15,9 @@ import dev.tend.shared.fleet.NodeSpec;
 import dev.tend.shared.fleet.SignalStatus;
 
 import java.time.Clock;
+import java.time.Instant;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
@@ -23,34 +25,45 @@ import java.util.Optional;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
-import java.util.concurrent.atomic.AtomicReference;
 import java.util.function.Supplier;
 
 /**
- * Publishes the engine's fleet health as an immutable {@link FleetHealth}, replaced whole
- * behind one reference after each committed batch, so HTTP threads read it without touching
- * the engine. Kept up to date by cluster: after a batch of transitions only the clusters they
- * name are looked at again (what the topology says per zone is kept until the topology
- * changes), so a batch costs what it touched, not the fleet's size. A topology event rebuilds
- * the whole picture; batches without transitions refresh the run count, the brake and event
- * time.
+ * Publishes the engine's fleet health as an immutable {@link FleetHealth} for HTTP threads,
+ * which never touch the engine. After each committed batch the driver thread looks again only
+ * at the clusters the batch's transitions name (a topology event: at every cluster) and keeps
+ * what it found per cluster; the picture is assembled from those entries when it is next
+ * asked for, once per change. So a commit costs what it touched, not the fleet's size, and a
+ * reader always sees the state after a whole batch (the entries and the figures change
+ * together, under one lock).
  */
 final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth> {
-    private final AtomicReference<FleetHealth> current = new AtomicReference<>(FleetHealth.empty());
     private final Clock clock;
-    /** The topology the zone counts below were made for; driver thread only, like everything below. */
+    private final Object lock = new Object();
+    // guarded by lock: written by the driver thread, read by whoever asks for the picture
     private Fleet topology;
     private Map<String, int[]> clustersPerZone = new TreeMap<>();
     /** Each zone's own nodes (a cluster usually has nodes in several zones). */
     private Map<String, int[]> nodesPerZone = new TreeMap<>();
-    /** How many times faster than the wall clock processing time runs (1 live; more under tend demo). */
-    private final double timeScale;
     /** Unhealthy clusters, by id, with what the picture shows of each. */
     private final TreeMap<Id, Unhealthy> unhealthy = new TreeMap<>();
+    private Figures figures;
+    /** The picture of the entries and figures above; null until it is asked for again after a change. */
+    private FleetHealth picture = FleetHealth.empty();
 
     /** One unhealthy cluster: its entry in the picture and its impaired nodes per zone. */
     private record Unhealthy(FleetHealth.ClusterProblem problem, Map<String, Integer> impairedPerZone) {
     }
+
+    /** The picture's figures besides the clusters. */
+    private record Figures(Instant at, Instant eventTime, String fleet, int clusters, int unhealthy, double fraction,
+                           int activeRuns, BrakeView brake) {
+        Figures withRuns(Instant newAt, int newActiveRuns, BrakeView newBrake) {
+            return new Figures(newAt, eventTime, fleet, clusters, unhealthy, fraction, newActiveRuns, newBrake);
+        }
+    }
+
+    /** How many times faster than the wall clock processing time runs (1 live; more under tend demo). */
+    private final double timeScale;
 
     FleetHealthPublisher(Clock clock) {
         this(clock, 1);
@@ -63,7 +76,10 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
 
     @Override
     public FleetHealth get() {
-        return current.get();
+        synchronized (lock) {
+            if (picture == null) picture = assemble();
+            return picture;
+        }
     }
 
     @Override
@@ -76,38 +92,72 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
             else if (in instanceof Input.Topology) rebuild = true;
             else if (in instanceof Input.Command) other = true;
         }
-        if (rebuild || engine.health().topology() != topology) {
+        FleetHealthView view = engine.health();
+        if (rebuild || view.topology() != topologySeen()) {
             publish(engine);
         } else if (!touched.isEmpty() || other) {
-            FleetHealthView view = engine.health();
-            for (Id cluster : touched) refresh(view, cluster);
-            assemble(engine);
+            Map<Id, Unhealthy> found = new HashMap<>();
+            for (Id cluster : touched) found.put(cluster, entry(view, cluster));
+            Figures f = figures(engine);
+            synchronized (lock) {
+                found.forEach((cluster, u) -> {
+                    if (u == null) unhealthy.remove(cluster);
+                    else unhealthy.put(cluster, u);
+                });
+                figures = f;
+                picture = null;
+            }
         } else {
-            current.set(current.get().withRuns(clock.instant(), engine.activeRuns(), brake(engine.brake())));
+            Instant at = clock.instant();
+            int runs = engine.activeRuns();
+            BrakeView brake = brake(engine.brake());
+            synchronized (lock) {
+                figures = figures.withRuns(at, runs, brake);
+                if (picture != null) picture = picture.withRuns(at, runs, brake);
+            }
         }
     }
 
-    /** Rebuilds the picture; on the driver thread, or before it starts. */
+    private Fleet topologySeen() {
+        synchronized (lock) {
+            return topology;
+        }
+    }
+
+    /** Rebuilds every entry; on the driver thread, or before it starts. */
     void publish(Engine engine) {
         FleetHealthView view = engine.health();
-        topology = view.topology();
-        clustersPerZone = new TreeMap<>();
-        nodesPerZone = new TreeMap<>();
-        for (ClusterSpec c : topology.clusters()) {
-            for (String z : zones(c)) clustersPerZone.computeIfAbsent(z, k -> new int[1])[0]++;
-            for (NodeSpec n : c.nodes()) nodesPerZone.computeIfAbsent(n.zone() == null ? "unknown" : n.zone(), k -> new int[1])[0]++;
+        Map<String, int[]> perZone = new TreeMap<>();
+        Map<String, int[]> nodes = new TreeMap<>();
+        for (ClusterSpec c : view.topology().clusters()) {
+            for (String z : zones(c)) perZone.computeIfAbsent(z, k -> new int[1])[0]++;
+            for (NodeSpec n : c.nodes()) nodes.computeIfAbsent(n.zone() == null ? "unknown" : n.zone(), k -> new int[1])[0]++;
         }
-        unhealthy.clear();
-        for (Id cluster : view.unhealthyClusters()) refresh(view, cluster);
-        assemble(engine);
+        Map<Id, Unhealthy> all = new HashMap<>();
+        for (Id cluster : view.unhealthyClusters()) all.put(cluster, entry(view, cluster));
+        Figures f = figures(engine);
+        synchronized (lock) {
+            topology = view.topology();
+            clustersPerZone = perZone;
+            nodesPerZone = nodes;
+            unhealthy.clear();
+            unhealthy.putAll(all);
+            figures = f;
+            picture = null;
+        }
     }
 
-    /** Looks at one cluster again: its entry, or none when it is healthy. */
-    private void refresh(FleetHealthView view, Id cluster) {
-        if (!view.isUnhealthy(cluster)) {
-            unhealthy.remove(cluster);
-            return;
-        }
+    private Figures figures(Engine engine) {
+        FleetHealthView view = engine.health();
+        // before the first event the engine's event time is the epoch: "none yet"
+        Instant eventTime = engine.eventTime().equals(Instant.EPOCH) ? null : engine.eventTime();
+        return new Figures(clock.instant(), eventTime, view.topology().name(), view.topology().size(), view.unhealthyClusterCount(),
+                view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()));
+    }
+
+    /** What the picture shows of one cluster; null when it is healthy. */
+    private static Unhealthy entry(FleetHealthView view, Id cluster) {
+        if (!view.isUnhealthy(cluster)) return null;
         Optional<ClusterSpec> spec = view.topology().cluster(cluster);
         List<FleetHealth.Signal> signals = new ArrayList<>();
         TreeSet<String> zones = new TreeSet<>();
@@ -123,13 +173,11 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
             impaired.merge(zone, 1, Integer::sum);
         }
         String health = spec.isEmpty() ? "unknown-target" : view.health(cluster).name().toLowerCase(java.util.Locale.ROOT);
-        unhealthy.put(cluster, new Unhealthy(new FleetHealth.ClusterProblem(cluster.value(), health, List.copyOf(zones), signals),
-                impaired));
+        return new Unhealthy(new FleetHealth.ClusterProblem(cluster.value(), health, List.copyOf(zones), signals), impaired);
     }
 
-    /** The picture from the kept entries. */
-    private void assemble(Engine engine) {
-        FleetHealthView view = engine.health();
+    /** The picture of the kept entries and figures; under the lock. */
+    private FleetHealth assemble() {
         Map<String, List<String>> unhealthyPerZone = new TreeMap<>();
         Map<String, Integer> impaired = new TreeMap<>();
         List<FleetHealth.ClusterProblem> problems = new ArrayList<>(unhealthy.size());
@@ -145,11 +193,9 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
             zones.add(new FleetHealth.Zone(z, nodesPerZone.getOrDefault(z, new int[1])[0], clustersPerZone.getOrDefault(z, new int[1])[0],
                     unhealthyPerZone.getOrDefault(z, List.of()), impaired.getOrDefault(z, 0)));
         }
-        // before the first event the engine's event time is the epoch: "none yet"
-        java.time.Instant eventTime = engine.eventTime().equals(java.time.Instant.EPOCH) ? null : engine.eventTime();
-        current.set(new FleetHealth(clock.instant(), eventTime, view.topology().name(), view.topology().size(),
-                view.unhealthyClusterCount(), view.unhealthyFraction(), engine.activeRuns(), brake(engine.brake()),
-                zones, problems, timeScale, null));
+        Figures f = figures;
+        return new FleetHealth(f.at(), f.eventTime(), f.fleet(), f.clusters(), f.unhealthy(), f.fraction(), f.activeRuns(),
+                f.brake(), zones, problems, timeScale, null);
     }
 
     private static List<String> zones(ClusterSpec c) {

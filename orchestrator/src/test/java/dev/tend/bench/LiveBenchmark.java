@@ -61,7 +61,7 @@ public final class LiveBenchmark {
         int clusters = Integer.parseInt(arg(args, "--clusters", "300"));
         Path dir = Files.createTempDirectory("tend-live-bench");
         Path fleet = dir.resolve("fleet.yaml");
-        IngestBenchmark.writeFleet(fleet, clusters);
+        IngestMix.writeFleet(fleet, clusters);
         String token = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(dir.toString().getBytes(StandardCharsets.UTF_8)));
         String hash = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(token.getBytes(StandardCharsets.UTF_8)));
         Path tokens = dir.resolve("tokens.yaml");
