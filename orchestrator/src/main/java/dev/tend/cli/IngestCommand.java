@@ -1,5 +1,6 @@
 package dev.tend.cli;
 
+import dev.tend.shared.wire.CountingInput;
 import dev.tend.audit.CheckpointWriter;
 import dev.tend.audit.LedgerKey;
 import dev.tend.engine.EngineSetup;
@@ -29,7 +30,6 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
-import java.io.FilterInputStream;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintWriter;
@@ -186,32 +186,6 @@ public final class IngestCommand implements Callable<Integer> {
     /** Events read between two progress updates. */
     private static final int PROGRESS_EVERY = 1024;
 
-    /** The input, counting the bytes read from it (for the share done and the time left). */
-    private static final class CountingInput extends FilterInputStream {
-        private volatile long count;
-
-        CountingInput(InputStream in) {
-            super(in);
-        }
-
-        long count() {
-            return count;
-        }
-
-        @Override
-        public int read() throws IOException {
-            int b = super.read();
-            if (b >= 0) count++;
-            return b;
-        }
-
-        @Override
-        public int read(byte[] buf, int off, int len) throws IOException {
-            int n = super.read(buf, off, len);
-            if (n > 0) count += n;
-            return n;
-        }
-    }
 
     /** Standard input or the file, opened before anything else so that a missing file is exit 2 with its path. */
     private InputStream open() {

@@ -1,5 +1,6 @@
 package dev.tend.simulator;
 
+import dev.tend.shared.wire.CountingInput;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.shared.Id;
@@ -14,7 +15,6 @@ import dev.tend.shared.wire.RecordingHeader;
 import dev.tend.shared.wire.WireReader;
 
 import java.io.BufferedReader;
-import java.io.FilterInputStream;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.InputStreamReader;
@@ -163,43 +163,20 @@ public final class Recording {
      */
     public ReadSummary read(Sink sink) {
         Objects.requireNonNull(sink, "sink");
-        try (CountingStream counted = new CountingStream(Files.newInputStream(file))) {
+        try (CountingInput counted = new CountingInput(Files.newInputStream(file))) {
             long[] lastReported = {0};
             return WireReader.of(file.toString()).withSignals(signals).readAll(counted, r -> {
                 if (r instanceof LineResult.Event e) sink.event(e.event(), e.line());
                 else if (r instanceof LineResult.Bad b) sink.problem(b.problem());
-                if (counted.count - lastReported[0] >= 1 << 20) {
-                    lastReported[0] = counted.count;
-                    sink.progress(counted.count);
+                if (counted.count() - lastReported[0] >= 1 << 20) {
+                    lastReported[0] = counted.count();
+                    sink.progress(counted.count());
                 }
             });
         } catch (NoSuchFileException e) {
             throw new InvalidInputException(Problem.at(file.toString(), 0, 0, "", "no such recording"));
         } catch (IOException e) {
             throw new InvalidInputException(Problem.at(file.toString(), 0, 0, "", "cannot read the recording: " + e.getMessage()));
-        }
-    }
-
-    /** Counts the bytes read through it, for progress. */
-    private static final class CountingStream extends FilterInputStream {
-        long count;
-
-        CountingStream(InputStream in) {
-            super(in);
-        }
-
-        @Override
-        public int read() throws IOException {
-            int b = super.read();
-            if (b >= 0) count++;
-            return b;
-        }
-
-        @Override
-        public int read(byte[] b, int off, int len) throws IOException {
-            int n = super.read(b, off, len);
-            if (n > 0) count += n;
-            return n;
         }
     }
 }
