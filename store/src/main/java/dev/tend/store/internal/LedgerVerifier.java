@@ -31,16 +31,39 @@ final class LedgerVerifier {
     private long entries;
     private long lastSeq;
     private String lastHash = LedgerEntry.GENESIS_HASH;
+    private long first = 1;
 
     LedgerVerifier(Handle handle) {
         this.handle = handle;
     }
 
     LedgerVerification verify() {
-        try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger ORDER BY seq")
+        return verifyFrom(1);
+    }
+
+    /** Checks the entries from {@code fromSeq} on; the entry before it only against its own text (see StoreReader). */
+    LedgerVerification verifyFrom(long fromSeq) {
+        if (fromSeq > 1) {
+            Optional<Raw> before = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq = :seq")
+                    .bind("seq", fromSeq - 1)
+                    .map((rs, ctx) -> raw(rs))
+                    .findOne();
+            if (before.isPresent()) {
+                Raw b = before.get();
+                if (!LedgerChain.hash(b.prevHash(), b.entry()).equals(b.hash())) {
+                    return broken(b.seq(), b.describe() + " was changed after it was written: its hash does not match its content");
+                }
+                lastSeq = b.seq();
+                lastHash = b.hash();
+            } else {
+                return broken(fromSeq - 1, "entry " + (fromSeq - 1) + " is missing; it was deleted after it was written");
+            }
+        }
+        first = Math.max(1, fromSeq);
+        try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :from ORDER BY seq")
+                .bind("from", first)
                 .setFetchSize(JdbiReader.FETCH_SIZE)
-                .map((rs, ctx) -> new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5),
-                        rs.getString(6), rs.getString(7), rs.getString(8), rs.getString(9)))
+                .map((rs, ctx) -> raw(rs))
                 .iterator()) {
             while (rows.hasNext()) {
                 Raw row = rows.next();
@@ -52,6 +75,11 @@ final class LedgerVerifier {
             }
         }
         return checkHead();
+    }
+
+    private static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
+        return new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5), rs.getString(6),
+                rs.getString(7), rs.getString(8), rs.getString(9));
     }
 
     private LedgerVerification check(Raw row) {
@@ -137,8 +165,10 @@ final class LedgerVerifier {
                     : "entry " + lastSeq + " has hash " + lastHash + " but the ledger head records " + headHash;
             return broken(Math.max(1, lastSeq), which + "; the entry or the head row was changed after it was written");
         }
-        return new LedgerVerification(true, entries, lastHash, 0,
-                entries == 0 ? "the ledger is empty" : "all " + entries + " entries verify; the head hash is " + lastHash);
+        String what = first == 1 ? (entries == 0 ? "the ledger is empty" : "all " + entries + " entries verify")
+                : entries == 0 ? "no entry follows entry " + lastSeq
+                : "entries " + first + " to " + lastSeq + " verify (the " + (first - 1) + " before them were not read)";
+        return new LedgerVerification(true, entries, lastHash, 0, first == 1 && entries == 0 ? what : what + "; the head hash is " + lastHash);
     }
 
     private LedgerVerification broken(long seq, String reason) {
