@@ -210,13 +210,24 @@ public class JdbiReader implements StoreReader {
         q.map((rs, ctx) -> Rows.ledger(rs)).forEach(consumer);
     }
 
+    /**
+     * The filter's conditions. Only the most selective column given (run, then cluster, then
+     * playbook, then kind) is written so that an index can serve it; the others are written as
+     * expressions ({@code col || ''}), which no planner serves from an index: without statistics
+     * SQLite may otherwise walk the kind index backwards (half the ledger are verdicts) looking
+     * for the few entries of one cluster.
+     */
     private static void appendFilter(StringBuilder sql, LedgerFilter filter) {
         if (filter.since() != null) sql.append(" AND at_ns >= :since");
         if (filter.until() != null) sql.append(" AND at_ns < :until");
-        if (filter.cluster() != null) sql.append(" AND cluster = :cluster");
-        if (filter.playbook() != null) sql.append(" AND playbook = :playbook");
-        if (filter.kind() != null) sql.append(" AND kind = :kind");
-        if (filter.run() != null) sql.append(" AND run = :run");
+        boolean served = false;
+        String[][] columns = {{"run", filter.run()}, {"cluster", filter.cluster()}, {"playbook", filter.playbook()},
+                {"kind", filter.kind()}};
+        for (String[] c : columns) {
+            if (c[1] == null) continue;
+            sql.append(" AND ").append(c[0]).append(served ? " || '' = :" : " = :").append(c[0]);
+            served = true;
+        }
     }
 
     private static void bindFilter(Query q, LedgerFilter filter) {
