@@ -73,9 +73,9 @@ public final class LedgerScaleBenchmark {
             long[] size = LedgerRowsFloor.period(jdbc, night.since(), night.until());
             System.out.printf(Locale.ROOT, "night %s to %s: %,d entries (%,d MB of entry text)%n", night.since(), night.until(),
                     size[0], size[1] >> 20);
-            double floor = median(() -> LedgerRowsFloor.period(jdbc, night.since(), night.until()));
+            Measure floor = median(() -> LedgerRowsFloor.period(jdbc, night.since(), night.until()));
             HandoverReport[] last = new HandoverReport[1];
-            double tend = median(() -> last[0] = store.read(r -> HandoverReport.from(r, night)));
+            Measure tend = median(() -> last[0] = store.read(r -> HandoverReport.from(r, night)));
             System.out.printf(Locale.ROOT, "  the report: %s; ledger %s%n", last[0].totals(), last[0].ledger().verifyMessage());
             rows.add(row("handover of the night, in this JVM", floor, tend, 500));
             // where the handover's time goes: reading what it tallies, and verifying from the night on
@@ -114,12 +114,12 @@ public final class LedgerScaleBenchmark {
                 for (String[] p : pages) {
                     String sql = "SELECT seq, at_ns, kind, cluster, playbook, run, entry, prev_hash, hash FROM ledger"
                             + " WHERE seq < 9223372036854775807" + p[1] + " ORDER BY seq DESC LIMIT 501";
-                    double f = median(() -> {
+                    Measure f = median(() -> {
                         try (PreparedStatement s = jdbc.prepareStatement(sql)) {
                             return LedgerRowsFloor.drain(s);
                         }
                     });
-                    double t = median(() -> get(http, base + "/api/v1/ledger?" + p[0]));
+                    Measure t = median(() -> get(http, base + "/api/v1/ledger?" + p[0]));
                     rows.add(row("GET ledger?" + (p[0].isEmpty() ? "(no filter)" : p[0].replace(night.since().toString(), "NIGHT")
                             .replace(night.until().toString(), "END")), f, t, 200));
                 }
@@ -129,32 +129,40 @@ public final class LedgerScaleBenchmark {
         }
         if (!"no".equals(LiveBenchmark.arg(args, "--cli", "yes"))) {
             Path dir = Files.createTempDirectory("tend-ledger-scale");
-            String tend = root.resolve("bin/tend").toString();
-            ColdReplayBenchmark.run(dir, "version", List.of(tend, "--version"), 0);
-            List<String> handover = List.of(tend, "handover", "--db", db.toString(), "--since", night.since().toString(),
+            String launcher = root.resolve("bin/tend").toString();
+            ColdReplayBenchmark.run(dir, "version", List.of(launcher, "--version"), 0);
+            List<String> handover = List.of(launcher, "handover", "--db", db.toString(), "--since", night.since().toString(),
                     "--until", night.until().toString());
             List<String> floorCommand = List.of(ChildProcess.java(), "-cp", System.getProperty("java.class.path"),
                     LedgerRowsFloor.class.getName(), db.toString(), night.since().toString(), night.until().toString());
-            double[] t = new double[3];
-            double[] f = new double[3];
+            double[][] t = new double[2][3];
+            double[][] f = new double[2][3];
             for (int i = 0; i < 3; i++) {
-                f[i] = ColdReplayBenchmark.run(dir, "floor", floorCommand, 0).wall() * 1000;
-                t[i] = ColdReplayBenchmark.run(dir, "handover", handover, 0).wall() * 1000;
+                ColdReplayBenchmark.Timing bare = ColdReplayBenchmark.run(dir, "floor", floorCommand, 0);
+                ColdReplayBenchmark.Timing cli = ColdReplayBenchmark.run(dir, "handover", handover, 0);
+                f[0][i] = bare.wall() * 1000;
+                f[1][i] = bare.cpu() * 1000;
+                t[0][i] = cli.wall() * 1000;
+                t[1][i] = cli.cpu() * 1000;
             }
-            rows.add(row("bin/tend handover, a fresh process", middle(f), middle(t), 500));
+            rows.add(row("bin/tend handover, a fresh process", new Measure(middle(f[0]), middle(f[1])),
+                    new Measure(middle(t[0]), middle(t[1])), 500));
         }
-        System.out.printf(Locale.ROOT, "%-58s %10s %10s %7s %9s%n", "", "floor ms", "tend ms", "ratio", "target");
-        for (String[] r : rows) System.out.printf(Locale.ROOT, "%-58s %10s %10s %7s %9s%n", (Object[]) r);
-        System.out.printf("(ratio: floor / tend; %s)%n", ChildProcess.load());
+        System.out.printf(Locale.ROOT, "%-62s %9s %9s %6s %21s %10s%n", "", "floor ms", "tend ms", "ratio", "CPU ms floor / tend",
+                "target");
+        for (String[] r : rows) System.out.printf(Locale.ROOT, "%-62s %9s %9s %6s %21s %10s%n", (Object[]) r);
+        System.out.printf("(wall-clock medians; ratio: floor / tend by the wall clock; %s)%n", ChildProcess.load());
     }
 
     private static String between(ReportPeriod p) {
         return " AND at_ns >= " + LedgerRowsFloor.nanos(p.since()) + " AND at_ns < " + LedgerRowsFloor.nanos(p.until());
     }
 
-    private static String[] row(String what, double floor, double tend, int targetMs) {
-        return new String[]{what, String.format(Locale.ROOT, "%.1f", floor), String.format(Locale.ROOT, "%.1f", tend),
-                String.format(Locale.ROOT, "%.2f", floor / tend), (tend < targetMs ? "met < " : "NOT < ") + targetMs};
+    private static String[] row(String what, Measure floor, Measure tend, int targetMs) {
+        return new String[]{what, String.format(Locale.ROOT, "%.1f", floor.wall()), String.format(Locale.ROOT, "%.1f", tend.wall()),
+                String.format(Locale.ROOT, "%.2f", floor.wall() / tend.wall()),
+                String.format(Locale.ROOT, "%.1f / %.1f", floor.cpu(), tend.cpu()),
+                (tend.wall() < targetMs ? "met < " : "NOT < ") + targetMs};
     }
 
     private static Object get(HttpClient http, String url) throws Exception {
@@ -169,16 +177,23 @@ public final class LedgerScaleBenchmark {
         Object run() throws Exception;
     }
 
-    /** One round of warm-up, then the median of {@link #ROUNDS} rounds, in milliseconds. */
-    private static double median(Work w) throws Exception {
+    /** Wall and CPU milliseconds (the CPU time of this whole process: every thread, the JIT's and collector's too). */
+    record Measure(double wall, double cpu) {
+    }
+
+    /** One round of warm-up, then the medians of {@link #ROUNDS} rounds. */
+    private static Measure median(Work w) throws Exception {
         w.run();
         double[] ms = new double[ROUNDS];
+        double[] cpu = new double[ROUNDS];
         for (int i = 0; i < ROUNDS; i++) {
+            long c0 = ChildProcess.ownCpuNanos();
             long t0 = System.nanoTime();
             w.run();
             ms[i] = (System.nanoTime() - t0) / 1e6;
+            cpu[i] = (ChildProcess.ownCpuNanos() - c0) / 1e6;
         }
-        return middle(ms);
+        return new Measure(middle(ms), middle(cpu));
     }
 
     private static double middle(double[] values) {

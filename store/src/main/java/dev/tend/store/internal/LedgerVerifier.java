@@ -107,27 +107,26 @@ final class LedgerVerifier {
     }
 
     private static Content content(Raw row) {
-        String name = row.describe();
         if (!LedgerChain.hash(row.prevHash(), row.entry()).equals(row.hash())) {
-            return new Content(name + " was changed after it was written: its hash does not match its content", null);
+            return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null);
         }
         JsonNode text;
         try {
             text = JSON.readTree(row.entry());
         } catch (JsonProcessingException e) {
-            return new Content(name + " was changed after it was written: its text is not JSON", null);
+            return new Content(row.describe() + " was changed after it was written: its text is not JSON", null);
         }
         if (text == null || !text.isObject() || !CanonicalJson.serialize(text).equals(row.entry())) {
-            return new Content(name + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null);
+            return new Content(row.describe() + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null);
         }
         JsonNode seq = text.get("seq");
         if (seq == null || !seq.isIntegralNumber() || seq.longValue() != row.seq()) {
-            return new Content(name + " is out of place: its text says it is entry " + seq
+            return new Content(row.describe() + " is out of place: its text says it is entry " + seq
                     + "; entries were reordered or renumbered after they were written", null);
         }
         String column = disagreeingColumn(row, text);
         return new Content(null, column == null ? null
-                : name + " was changed after it was written: its " + column + " column disagrees with its text");
+                : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text");
     }
 
     private static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
