@@ -75,6 +75,8 @@ public final class Orchestrator {
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
     /** Ledger entries to append right after an input's own, in the transaction that commits it (see {@link #submitEventAndWait(Input, LedgerDraft)}). */
     private final Map<Input, LedgerDraft> receipts = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
+    /** Where events read from a stream were read (see {@link #submitEventAt}), until their commit or refusal. */
+    private final Map<Input, StreamPosition> positions = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
@@ -238,6 +240,23 @@ public final class Orchestrator {
         }
     }
 
+    /**
+     * As {@link #submitEventAndWait(Input)} for an event read from a stream at {@code at}: the
+     * transaction that journals it (or refuses it) also stores {@code at}'s next offset as its
+     * partition's position (see {@code StoreTx#putStreamOffset}), so a consumer that seeks to
+     * the stored positions takes each record exactly once, across crashes and takeovers.
+     * Events of one partition must be queued in offset order.
+     */
+    public CompletableFuture<List<Effect>> submitEventAt(Input in, StreamPosition at) throws InterruptedException {
+        positions.put(in, java.util.Objects.requireNonNull(at, "at"));
+        try {
+            return submitEventAndWait(in);
+        } catch (InterruptedException e) {
+            positions.remove(in);
+            throw e;
+        }
+    }
+
     /** Queues a timer firing, executor result or operator command; never blocks. */
     public void submit(Input in) {
         inbox.add(in);
@@ -341,6 +360,7 @@ public final class Orchestrator {
             }
             long done = sourceDone + queued.cardinality();
             if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
+            Map<StreamPosition, Long> reached = positions.isEmpty() ? Map.of() : reached(batch);
             store.useTransaction(tx -> {
                 tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) {
@@ -348,6 +368,7 @@ public final class Orchestrator {
                     if (!receipts.isEmpty()) receipt(batch.get(i), times.get(i), ledger);
                 }
                 tx.appendLedger(ledger);
+                reached.forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
             });
             sourceDone = done;
             sinceSnapshot += batch.size();
@@ -363,12 +384,28 @@ public final class Orchestrator {
         if (!receipts.isEmpty()) {
             for (Input in : batch) receipts.remove(in);
         }
+        if (!positions.isEmpty()) {
+            for (Input in : batch) positions.remove(in);
+        }
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {
                 CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
                 if (f != null) f.complete(perInput.get(i));
             }
         }
+    }
+
+    /**
+     * The partitions the stream events of {@code batch} were read from (keyed by a position with
+     * offset 0), each with the offset after the last of them: what the batch's commit stores.
+     */
+    private Map<StreamPosition, Long> reached(List<Input> batch) {
+        Map<StreamPosition, Long> out = new java.util.HashMap<>();
+        for (Input in : batch) {
+            StreamPosition p = positions.get(in);
+            if (p != null) out.merge(new StreamPosition(p.topic(), p.partition(), 0), p.offset() + 1, Math::max);
+        }
+        return out;
     }
 
     /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
@@ -396,11 +433,13 @@ public final class Orchestrator {
                 rows.add(0, InputCodec.encode(in, now));
                 fx = engine.handle(in, now);
                 List<LedgerDraft> ledger = new ArrayList<>();
+                StreamPosition at = positions.get(in);
                 store.useTransaction(tx -> {
                     tx.appendInputs(rows);
                     Projections.apply(tx, now, fx, ledger);
                     receipt(in, now, ledger);
                     tx.appendLedger(ledger);
+                    if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
                 });
             } catch (RuntimeException e) {
                 if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
@@ -411,6 +450,7 @@ public final class Orchestrator {
             if (source != null && queued.get(i)) sourceDone++;
             sinceSnapshot++;
             receipts.remove(in);
+            positions.remove(in);
             for (Effect e : fx) perform(e);
             listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
             CompletableFuture<List<Effect>> f = waiting.remove(in);
@@ -425,19 +465,24 @@ public final class Orchestrator {
 
     private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
         String reason = InputRefusal.reason(cause);
+        StreamPosition at = positions.get(in);
         try {
             store.useTransaction(tx -> {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
                 List<LedgerDraft> entries = new ArrayList<>(2);
-                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason))));
+                Map<String, Object> fields = InputRefusal.fields(in, reason);
+                if (at != null) fields.put("from", at.describe());
+                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(fields)));
                 receipt(in, now, entries);
                 tx.appendLedger(entries);
+                if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
             });
         } catch (RuntimeException e) {
             stopOn(rest, e);
         }
         if (ofSource) sourceDone++;
         receipts.remove(in);
+        positions.remove(in);
         listener.refused(in, reason);
         CompletableFuture<List<Effect>> f = waiting.remove(in);
         if (f != null) f.completeExceptionally(InputRefusal.asInvalidInput(in, reason));
@@ -448,6 +493,7 @@ public final class Orchestrator {
         stopping = true;
         for (Input in : batch) {
             receipts.remove(in);
+            positions.remove(in);
             CompletableFuture<List<Effect>> f = waiting.remove(in);
             if (f != null) f.completeExceptionally(e);
         }
