@@ -115,6 +115,7 @@ public final class Store implements AutoCloseable {
                 }
             });
             if (done[0].heads() != null) heads.publish(done[0].heads());
+            db.committed();
             return result;
         } catch (RuntimeException e) {
             heads.invalidate();
