@@ -13,6 +13,7 @@ import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
 import dev.tend.runtime.Orchestrator;
+import dev.tend.runtime.Recovery;
 import dev.tend.runtime.QuartzTimers;
 import dev.tend.runtime.SourceProgress;
 import dev.tend.shared.HealthTransition;
@@ -100,7 +101,7 @@ public final class IngestCommand implements Callable<Integer> {
             courier.start();
             timers.fireInto(key -> orch.submit(new Input.TimerFired(key)));
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));
-            Orchestrator.Recovery rec = orch.recover();
+            Recovery rec = orch.recover();
             if (rec.inputsReplayed() > 0 || rec.snapshotSeq() > 0) {
                 err.println("tend: resumed from " + db.describe() + ": " + rec.describe());
             }

@@ -1,8 +1,6 @@
 package dev.tend.engine;
 
 import dev.tend.engine.guard.Decision;
-import dev.tend.engine.guard.GuardChain;
-import dev.tend.engine.guard.Wake;
 import dev.tend.engine.run.RunHost;
 import dev.tend.engine.run.RunMachine;
 import dev.tend.engine.run.RunProcess;
@@ -13,7 +11,6 @@ import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Scope;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
-import dev.tend.shared.ReasonCode;
 import dev.tend.shared.Target;
 import dev.tend.shared.TendException;
 import dev.tend.shared.fleet.ApplyOutcome;
@@ -23,7 +20,6 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.Collection;
 import java.util.LinkedHashMap;
-import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
@@ -40,31 +36,32 @@ public final class Engine implements RunHost {
     /** Who automation's own requests are made by (for the two-person rule). */
     public static final String AUTOMATION = ApprovalHost.AUTOMATION;
 
+    // package-private for EngineSnapshots, which takes and restores them
     private final EngineSetup setup;
-    private final EngineContext ctx;
-    private final GuardChain guards = GuardChain.standard();
+    final EngineContext ctx;
     private final RunMachine machine = new RunMachine(this);
-    private final Candidates candidates = new Candidates();
-    private final Approvals approvals;
+    final Candidates candidates = new Candidates();
+    final Approvals approvals;
     private final OperatorCommands commands;
-    private final Escalations escalations;
-    private final Map<String, RunProcess> runs = new LinkedHashMap<>();
-    private final Map<String, Instant> timers = new TreeMap<>();
-    private final LinkedHashSet<String> work = new LinkedHashSet<>();
-    private long runSeq;
-    private long inputs;
+    final Escalations escalations;
+    final CandidateFlow flow;
+    final Map<String, RunProcess> runs = new LinkedHashMap<>();
+    final Map<String, Instant> timers = new TreeMap<>();
+    long runSeq;
+    long inputs;
 
     public Engine(EngineSetup setup) {
         this(setup, new FleetHealthView(setup.fleet()));
     }
 
-    private Engine(EngineSetup setup, FleetHealthView view) {
+    Engine(EngineSetup setup, FleetHealthView view) {
         this.setup = setup;
         this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake(), setup.config().paging().brakeGather()));
         Host host = new Host();
         this.approvals = new Approvals(host, candidates, machine);
         this.commands = new OperatorCommands(ctx, approvals, machine, host);
         this.escalations = new Escalations(ctx);
+        this.flow = new CandidateFlow(setup, ctx, candidates, approvals, escalations, machine, host);
     }
 
     /** Handles one input at processing time {@code now} (never earlier than the last). */
@@ -88,7 +85,7 @@ public final class Engine implements RunHost {
         } else if (in instanceof Input.Command c) commands.handle(c, fx);
         // Tick: nothing but the clocks below
         if (setup.eventTime().follows()) advanceEventTime(ctx.now.minus(setup.eventTime().lag()));
-        drain(fx);
+        flow.drain(fx);
         track(fx.list());
         return fx.list();
     }
@@ -103,7 +100,7 @@ public final class Engine implements RunHost {
         boolean mattered = false;
         if (outcome == ApplyOutcome.CLEARED) {
             for (Candidate.Key k : candidates.triggeredBy(t.key())) {
-                drop(k, t.signal() + " cleared on " + k.target(), fx);
+                flow.drop(k, t.signal() + " cleared on " + k.target(), fx);
                 mattered = true;
             }
             for (RunProcess r : new ArrayList<>(ctx.active.values())) {
@@ -121,7 +118,7 @@ public final class Engine implements RunHost {
                 if (hasLiveRun(key) || candidates.get(key) != null) continue;
                 Instant since = ctx.health.status(t.key()).map(s -> s.since()).orElse(t.at());
                 candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false, null), null);
-                work.add(key.toString());
+                flow.queue(key);
             }
         }
         boolean unknown = !isKnown(t.cluster(), t.node());
@@ -147,8 +144,8 @@ public final class Engine implements RunHost {
         timers.remove(wire);
         TimerKey key = TimerKey.parse(wire).orElse(null);
         if (key instanceof TimerKey.Recheck k) {
-            work.addAll(candidates.dueByTime(ctx.now));
-            work.add(k.candidate());
+            flow.queue(candidates.dueByTime(ctx.now));
+            flow.queue(List.of(k.candidate()));
         } else if (key instanceof TimerKey.BrakePage) {
             ctx.brake.pageDue(fx);
         } else if (key instanceof TimerKey.ApprovalReminder k) {
@@ -178,110 +175,19 @@ public final class Engine implements RunHost {
     private void advanceEventTime(Instant t) {
         if (!t.isAfter(ctx.eventTime)) return;
         ctx.eventTime = t;
-        work.addAll(candidates.dueByEventTime(t));
+        flow.queue(candidates.dueByEventTime(t));
     }
 
     private void queueCluster(Id cluster) {
-        work.addAll(candidates.onCluster(cluster));
+        flow.queue(candidates.onCluster(cluster));
     }
 
     private void queueFleet() {
-        work.addAll(candidates.fleetWide());
+        flow.queue(candidates.fleetWide());
     }
 
     private void queue(Candidate.Key key) {
-        work.add(key.toString());
-    }
-
-    /**
-     * Evaluates every queued candidate, oldest problem first (DESIGN.md section 4: held
-     * candidates that become startable together start in the order their problems began);
-     * evaluations may queue more, until none is left.
-     */
-    private void drain(Effects fx) {
-        int guard = 0;
-        List<Candidates.Entry> batch = new ArrayList<>();
-        while (!work.isEmpty()) {
-            batch.clear();
-            for (String name : work) {
-                Candidate.Key key = candidates.byName(name);
-                if (key != null) batch.add(candidates.get(key));
-            }
-            work.clear();
-            if (batch.size() > 1) batch.sort(OLDEST_PROBLEM_FIRST);
-            for (Candidates.Entry e : batch) {
-                if (candidates.get(e.candidate().key()) != null) evaluate(e.candidate().key(), fx);
-                if (++guard > 1_000_000) throw new TendException("the engine did not settle after a million evaluations; this is a bug");
-            }
-        }
-    }
-
-    private static final java.util.Comparator<Candidates.Entry> OLDEST_PROBLEM_FIRST = java.util.Comparator
-            .comparing((Candidates.Entry e) -> e.candidate().problemSince())
-            .thenComparing(e -> e.candidate().key().toString());
-
-    private void evaluate(Candidate.Key key, Effects fx) {
-        Candidates.Entry e = candidates.get(key);
-        Candidate c = e.candidate();
-        if (!ctx.health.isActive(c.trigger().cluster(), c.trigger().node(), c.trigger().signal())) {
-            drop(key, c.trigger().signal() + " is no longer active", fx);
-            return;
-        }
-        Decision d = guards.evaluate(c, ctx);
-        if (e.decision() != null && isMaskedOrExcluded(e.decision()) && !isMaskedOrExcluded(d)) {
-            // the last mask or exclusion just lifted: confirmation starts again (DESIGN.md section 4)
-            c = c.withLiftedAt(ctx.eventTime);
-            candidates.put(c, e.decision());
-            d = guards.evaluate(c, ctx);
-        }
-        boolean changed = e.decision() == null || e.decision().verdict() != d.verdict()
-                || !e.decision().reasons().equals(d.reasons());
-        if (changed) ledgerVerdict(c, d, fx);
-        escalations.evaluated(c, d);
-        switch (d.verdict()) {
-            case START -> start(c, fx);
-            case AWAIT_APPROVAL -> {
-                Candidate withRun = c.runId() == null ? c.withRun(approvals.request(c, d, fx)) : c;
-                candidates.put(withRun, d);
-            }
-            default -> hold(c, d, fx);
-        }
-    }
-
-    private static boolean isMaskedOrExcluded(Decision d) {
-        return d.has(ReasonCode.MASKED) || d.has(ReasonCode.EXCLUDED);
-    }
-
-    private void hold(Candidate c, Decision d, Effects fx) {
-        candidates.put(c, d);
-        Instant retry = d.retryAt();
-        Instant et = d.retryAtEventTime();
-        if (et != null && setup.eventTime().follows()) {
-            Instant p = setup.eventTime().processingTimeFor(et);
-            retry = retry == null || p.isAfter(retry) ? p : retry;
-        }
-        if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
-            fx.arm(new TimerKey.Recheck(c.key().toString()), retry);
-        }
-        escalations.held(c, d, fx);
-        if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
-    }
-
-    private void start(Candidate c, Effects fx) {
-        candidates.remove(c.key());
-        escalations.started(c);
-        ctx.consumePermits(c.playbook());
-        ctx.recordStart(c.key());
-        RunProcess r = c.runId() != null ? runs.get(c.runId())
-                : newRun(c, RunState.RUNNING, AUTOMATION);
-        if (c.playbook().mode() == Mode.SHADOW) {
-            fx.ledger(LedgerKind.RUN_SHADOWED, "run", r.id(), "playbook", c.playbook().id(), "cluster", c.target().cluster(),
-                    "node", c.target().node(), "steps", c.playbook().steps().stream().map(s -> s.id().value()).toList());
-            machine.finish(r, RunState.SHADOWED, "shadow mode: decided and recorded, not executed", fx);
-            return;
-        }
-        ctx.active.put(r.id(), r);
-        machine.start(r, fx);
+        flow.queue(key);
     }
 
     private RunProcess newRun(Candidate c, RunState state, String requestedBy) {
@@ -290,27 +196,6 @@ public final class Engine implements RunHost {
         RunProcess r = new RunProcess(id, p, c.target(), c.trigger(), p.mode() == Mode.SHADOW, ctx.now, requestedBy, state);
         runs.put(id, r);
         return r;
-    }
-
-    void drop(Candidate.Key key, String why, Effects fx) {
-        Candidates.Entry e = candidates.get(key);
-        if (e == null) return;
-        candidates.remove(key);
-        fx.cancel(new TimerKey.Recheck(key.toString()));
-        if (e.decision() != null) {
-            fx.ledger(LedgerKind.CANDIDATE_DROPPED, "playbook", key.playbook(), "cluster", key.target().cluster(),
-                    "node", key.target().node(), "reason", why, "run", e.candidate().runId());
-        }
-        if (e.candidate().runId() != null) approvals.withdraw(e.candidate().runId(), why, fx);
-    }
-
-    private void ledgerVerdict(Candidate c, Decision d, Effects fx) {
-        List<String> messages = new ArrayList<>();
-        d.objections().forEach(o -> messages.add(o.code().code() + ": " + o.message()));
-        fx.ledger(LedgerKind.VERDICT, "playbook", c.playbook().id(), "cluster", c.target().cluster(), "node", c.target().node(),
-                "verdict", d.verdict().wireName(), "reasons", d.reasonCodes(), "messages", messages,
-                "hold_until", d.retryAt(), "hold_until_event_time", d.retryAtEventTime(),
-                "signal", c.trigger().signal(), "problem_since", c.problemSince(), "run", c.runId());
     }
 
     private void onBrakeReleased(Effects fx) {
@@ -397,27 +282,7 @@ public final class Engine implements RunHost {
      * that answers the next inputs exactly as this one would.
      */
     public EngineState state() {
-        if (!work.isEmpty()) throw new IllegalStateException("the engine's state is taken between inputs only");
-        List<EngineState.Timer> armed = new ArrayList<>(timers.size());
-        timers.forEach((k, due) -> armed.add(new EngineState.Timer(k, due)));
-        List<dev.tend.engine.run.RunMemo> runMemos = new ArrayList<>(runs.size());
-        for (RunProcess r : runs.values()) runMemos.add(r.memo());
-        List<EngineState.CandidateMemo> cands = new ArrayList<>();
-        for (Candidates.Entry e : candidates.all()) {
-            Candidate c = e.candidate();
-            cands.add(new EngineState.CandidateMemo(c.playbook().id().value(), c.target(), c.trigger(), c.problemSince(),
-                    c.firstSeen(), c.runId(), c.approved(), c.liftedAt(), e.decision()));
-        }
-        List<EngineState.Starts> starts = new ArrayList<>();
-        ctx.starts.forEach((k, at) -> starts.add(new EngineState.Starts(k, at)));
-        starts.sort(java.util.Comparator.comparing(st -> st.key().toString()));
-        List<Candidate.Key> loops = new ArrayList<>(ctx.loopStopped);
-        loops.sort(java.util.Comparator.comparing(Candidate.Key::toString));
-        List<ApprovalSnapshot> asked = new ArrayList<>(approvals.all());
-        asked.sort(java.util.Comparator.comparing(ApprovalSnapshot::runId));
-        return new EngineState(ctx.now, ctx.eventTime, inputs, runSeq, armed, runMemos, List.copyOf(ctx.active.keySet()), cands,
-                candidates.eventAgenda(), candidates.timeAgenda(), starts, loops, escalations.flapPaged(), List.copyOf(ctx.exclusions.values()),
-                ctx.brake.memo(), ctx.budgets.memo(), asked, ctx.health.memo());
+        return EngineSnapshots.take(this);
     }
 
     /**
@@ -426,44 +291,7 @@ public final class Engine implements RunHost {
      * lacks, or a run that the state lacks.
      */
     public static Engine restore(EngineSetup setup, EngineState s) {
-        Engine e = new Engine(setup, FleetHealthView.restore(setup.fleet(), s.health()));
-        EngineContext ctx = e.ctx;
-        ctx.now = s.now();
-        ctx.eventTime = s.eventTime();
-        e.inputs = s.inputs();
-        e.runSeq = s.runSeq();
-        for (EngineState.Timer t : s.timers()) e.timers.put(t.key(), t.due());
-        for (dev.tend.engine.run.RunMemo m : s.runs()) {
-            e.runs.put(m.id(), RunProcess.fromMemo(m, e.playbook(m.playbook())));
-        }
-        for (String id : s.activeRuns()) {
-            RunProcess r = e.runs.get(id);
-            if (r == null) throw new TendException("the snapshot lists run " + id + " as active but holds no such run");
-            ctx.active.put(id, r);
-        }
-        for (EngineState.CandidateMemo c : s.candidates()) {
-            Playbook p = e.playbook(c.playbook());
-            e.candidates.put(new Candidate(p, c.target(), c.trigger(), c.problemSince(), c.firstSeen(), c.runId(), c.approved(), c.liftedAt()),
-                    c.decision());
-        }
-        e.candidates.restoreAgendas(s.eventAgenda(), s.timeAgenda());
-        for (EngineState.Starts st : s.starts()) ctx.starts.put(st.key(), new ArrayList<>(st.at()));
-        ctx.loopStopped.addAll(s.loopStopped());
-        e.escalations.restoreFlapPaged(s.flapPaged());
-        for (Exclusion x : s.exclusions()) ctx.exclusions.put(x.target(), x);
-        ctx.brake.restore(s.brake());
-        ctx.budgets.restore(s.budgets());
-        for (ApprovalSnapshot a : s.approvals()) e.approvals.restore(a);
-        return e;
-    }
-
-    /**
-     * The setup's playbook {@code id}. A run keeps going on the version loaded now, as it
-     * would after a full replay of the journal with this setup.
-     */
-    private Playbook playbook(String id) {
-        return setup.playbooks().playbook(Id.of(id)).orElseThrow(() -> new TendException("the snapshot holds runs or "
-                + "candidates of playbook " + id + ", which is not loaded now; load it again to start from this snapshot"));
+        return EngineSnapshots.restore(setup, s);
     }
 
     // ---- queries ----

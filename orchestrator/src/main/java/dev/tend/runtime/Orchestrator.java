@@ -4,11 +4,9 @@ import dev.tend.audit.CheckpointWriter;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
-import dev.tend.store.SnapshotRow;
-import dev.tend.store.StoreReader;
+import dev.tend.executor.Executor;
 import dev.tend.engine.Input;
 import dev.tend.engine.LedgerKind;
-import dev.tend.executor.Executor;
 import dev.tend.shared.Id;
 import dev.tend.shared.TendException;
 import dev.tend.shared.time.Timers;
@@ -22,7 +20,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.BooleanSupplier;
 
 /**
@@ -42,39 +39,29 @@ public final class Orchestrator {
 
     /** Inputs between two snapshots unless told otherwise. */
     public static final int DEFAULT_SNAPSHOT_EVERY = 10_000;
-    /** Snapshots kept in the store: the newest, and one before it. */
-    private static final int SNAPSHOTS_KEPT = 2;
 
     private final Store store;
-    private final EngineSetup setup;
     private final int snapshotEvery;
     /**
      * Replaced at {@link #recover} and by a rebuilt one when a batch must be taken apart (see
      * {@link #retryOneByOne}); read by other threads only through {@link #engine()}.
      */
     private volatile Engine engine;
-    private String fingerprint;
-    /** A warm engine to start from at the next {@link #loadState}, or null. */
-    private JournalTail warm;
+    private final SnapshotKeeper snapshots;
     private long sinceSnapshot;
-    private final Map<String, Executor> executors;
-    private final Timers timers;
-    private final Notifier notifier;
     private final Clock clock;
     private final CommitListener listener;
     private final Inbox inbox = new Inbox();
-    private final AtomicInteger callsInFlight = new AtomicInteger();
+    private final EffectRunner effects;
     private volatile boolean stopping;
     /** The input the events queue is fed from (see {@link #readingFrom}); null when it has no identity. */
     private volatile String source;
     /** Events of {@link #source} journaled (or refused) so far, from the journal's progress rows on. */
     private long sourceDone;
-    private final Map<String, Long> progressFound = new java.util.HashMap<>();
     /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
     private volatile CheckpointWriter checkpoints;
-    private final Map<Input, CompletableFuture<List<Effect>>> waiting = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
-    /** Ledger entries to append right after an input's own, in the transaction that commits it (see {@link #submitEventAndWait(Input, LedgerDraft)}). */
-    private final Map<Input, LedgerDraft> receipts = java.util.Collections.synchronizedMap(new java.util.IdentityHashMap<>());
+    /** Callers waiting for their input's commit, and receipts to append with an input (see {@link #submitEventAndWait(Input, LedgerDraft)}). */
+    private final Waiters waiters = new Waiters();
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
@@ -96,33 +83,16 @@ public final class Orchestrator {
         if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
         this.listener = java.util.Objects.requireNonNull(listener, "listener");
         this.store = store;
-        this.setup = setup;
         this.snapshotEvery = snapshotEvery;
         this.engine = new Engine(setup);
-        this.executors = Map.copyOf(executors);
-        this.timers = timers;
-        this.notifier = notifier;
+        this.snapshots = new SnapshotKeeper(store, setup);
+        this.effects = new EffectRunner(executors, timers, notifier, inbox);
         this.clock = clock;
     }
 
     /** The engine; read it only from the driver thread or after {@link #runUntil} returned. */
     public Engine engine() {
         return engine;
-    }
-
-    /**
-     * What {@link #recover()} found.
-     *
-     * @param snapshotSeq    the journal seq of the snapshot started from; 0 when the whole journal was replayed
-     * @param inputsReplayed journaled inputs replayed (after the snapshot, if any)
-     */
-    public record Recovery(long snapshotSeq, long inputsReplayed, int timersArmed, int callsAskedAgain, int callsUnknown) {
-        /** One line for a person: where the engine came from. */
-        public String describe() {
-            return (snapshotSeq > 0 ? "snapshot at journal seq " + snapshotSeq + " loaded, " : "") + inputsReplayed
-                    + " journaled inputs replayed, " + timersArmed + " timers armed, " + callsAskedAgain
-                    + " calls asked again by key, " + callsUnknown + " runs stopped for a person";
-        }
     }
 
     /**
@@ -136,12 +106,11 @@ public final class Orchestrator {
         long n = loaded[1];
         sinceSnapshot = n;
         Map<String, Instant> armed = engine.armedTimers();
-        armed.forEach(timers::arm);
+        armed.forEach(effects::arm);
         int again = 0, unknown = 0;
         for (Effect.CallExecutor call : engine.inFlightCalls()) {
-            Executor ex = executor(call.action().kind());
-            if (ex.canAskAgain(call)) {
-                dispatch(call);
+            if (effects.canAskAgain(call)) {
+                effects.dispatch(call);
                 again++;
             } else {
                 inbox.add(new Input.OutcomeUnknown(call.runId(), call.stepId(), call.attempt()));
@@ -159,14 +128,11 @@ public final class Orchestrator {
      * the snapshot's seq (0: none used) and how many inputs were replayed.
      */
     long[] loadState() {
-        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
-        JournalTail tail = warm != null ? warm : JournalTail.open(store, setup, fingerprint);
-        warm = null;
+        JournalTail tail = snapshots.tail();
         long before = tail.replayed();
         tail.catchUp();
+        snapshots.caughtUp(tail);
         engine = tail.engine();
-        progressFound.clear();
-        progressFound.putAll(tail.sources());
         return new long[]{tail.snapshotSeq(), tail.replayed() - before};
     }
 
@@ -175,7 +141,7 @@ public final class Orchestrator {
      * (built on this store and setup): only what was journaled since it last read is read.
      */
     public void adopt(JournalTail tail) {
-        this.warm = java.util.Objects.requireNonNull(tail, "tail");
+        snapshots.adopt(tail);
     }
 
     /**
@@ -188,7 +154,7 @@ public final class Orchestrator {
      */
     public long readingFrom(String sourceIdentity) {
         this.source = java.util.Objects.requireNonNull(sourceIdentity, "sourceIdentity");
-        sourceDone = progressFound.getOrDefault(sourceIdentity, 0L);
+        sourceDone = snapshots.progressOf(sourceIdentity);
         return sourceDone;
     }
 
@@ -212,12 +178,11 @@ public final class Orchestrator {
      * the order queued, so when this completes every event queued before it is committed too.
      */
     public CompletableFuture<List<Effect>> submitEventAndWait(Input in) throws InterruptedException {
-        CompletableFuture<List<Effect>> f = new CompletableFuture<>();
-        waiting.put(in, f);
+        CompletableFuture<List<Effect>> f = waiters.await(in);
         try {
             inbox.putEvent(in);
         } catch (InterruptedException e) {
-            waiting.remove(in);
+            waiters.forget(in);
             throw e;
         }
         return f;
@@ -229,13 +194,8 @@ public final class Orchestrator {
      * input's processing time): a record of who sent it that costs no commit of its own.
      */
     public CompletableFuture<List<Effect>> submitEventAndWait(Input in, LedgerDraft receipt) throws InterruptedException {
-        receipts.put(in, java.util.Objects.requireNonNull(receipt, "receipt"));
-        try {
-            return submitEventAndWait(in);
-        } catch (InterruptedException e) {
-            receipts.remove(in);
-            throw e;
-        }
+        waiters.withReceipt(in, receipt);
+        return submitEventAndWait(in);
     }
 
     /** Queues a timer firing, executor result or operator command; never blocks. */
@@ -248,8 +208,7 @@ public final class Orchestrator {
      * that answer a person, such as the HTTP API); completes exceptionally if the commit fails.
      */
     public CompletableFuture<List<Effect>> submitAndWait(Input in) {
-        CompletableFuture<List<Effect>> f = new CompletableFuture<>();
-        waiting.put(in, f);
+        CompletableFuture<List<Effect>> f = waiters.await(in);
         inbox.add(in);
         return f;
     }
@@ -261,7 +220,7 @@ public final class Orchestrator {
 
     /** True when no run is executing and no call is in flight. */
     public boolean isIdle() {
-        if (callsInFlight.get() > 0 || !inbox.isEmpty()) return false;
+        if (effects.callsInFlight() || !inbox.isEmpty()) return false;
         return !engine.isExecuting();
     }
 
@@ -285,14 +244,7 @@ public final class Orchestrator {
      * between batches).
      */
     private void writeSnapshot() {
-        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
-        Map<String, Long> sources = new java.util.TreeMap<>(progressFound);
-        if (source != null) sources.put(source, sourceDone);
-        long seq = store.read(StoreReader::lastInputSeq);
-        if (seq == 0) return;
-        SnapshotRow row = SnapshotCodec.encode(seq, clock.instant(), fingerprint, engine.state(), sources);
-        store.useTransaction(tx -> tx.putSnapshot(row, SNAPSHOTS_KEPT));
-        sinceSnapshot = 0;
+        if (snapshots.write(engine, source, sourceDone, clock.instant())) sinceSnapshot = 0;
     }
 
     /**
@@ -345,7 +297,7 @@ public final class Orchestrator {
                 tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) {
                     Projections.apply(tx, times.get(i), perInput.get(i), ledger);
-                    if (!receipts.isEmpty()) receipt(batch.get(i), times.get(i), ledger);
+                    if (waiters.hasReceipts()) waiters.receiptInto(batch.get(i), times.get(i), ledger);
                 }
                 tx.appendLedger(ledger);
             });
@@ -357,24 +309,10 @@ public final class Orchestrator {
             retryOneByOne(batch, queued);
             return;
         }
-        for (Effect e : all) perform(e);
+        for (Effect e : all) effects.perform(e);
         if (snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
-        if (!receipts.isEmpty()) {
-            for (Input in : batch) receipts.remove(in);
-        }
-        if (!waiting.isEmpty()) {
-            for (int i = 0; i < batch.size(); i++) {
-                CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
-                if (f != null) f.complete(perInput.get(i));
-            }
-        }
-    }
-
-    /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
-    private void receipt(Input in, Instant at, List<LedgerDraft> ledger) {
-        LedgerDraft r = receipts.get(in);
-        if (r != null) ledger.add(new LedgerDraft(at, r.kind(), r.fields()));
+        waiters.committed(batch, perInput);
     }
 
     /**
@@ -399,7 +337,7 @@ public final class Orchestrator {
                 store.useTransaction(tx -> {
                     tx.appendInputs(rows);
                     Projections.apply(tx, now, fx, ledger);
-                    receipt(in, now, ledger);
+                    waiters.receiptInto(in, now, ledger);
                     tx.appendLedger(ledger);
                 });
             } catch (RuntimeException e) {
@@ -410,11 +348,9 @@ public final class Orchestrator {
             }
             if (source != null && queued.get(i)) sourceDone++;
             sinceSnapshot++;
-            receipts.remove(in);
-            for (Effect e : fx) perform(e);
+            for (Effect e : fx) effects.perform(e);
             listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
-            CompletableFuture<List<Effect>> f = waiting.remove(in);
-            if (f != null) f.complete(fx);
+            waiters.committed(in, fx);
         }
     }
 
@@ -430,45 +366,23 @@ public final class Orchestrator {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
                 List<LedgerDraft> entries = new ArrayList<>(2);
                 entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason))));
-                receipt(in, now, entries);
+                waiters.receiptInto(in, now, entries);
                 tx.appendLedger(entries);
             });
         } catch (RuntimeException e) {
             stopOn(rest, e);
         }
         if (ofSource) sourceDone++;
-        receipts.remove(in);
         listener.refused(in, reason);
-        CompletableFuture<List<Effect>> f = waiting.remove(in);
-        if (f != null) f.completeExceptionally(InputRefusal.asInvalidInput(in, reason));
+        waiters.failed(in, InputRefusal.asInvalidInput(in, reason));
     }
 
     /** A failure of the database itself: tend stops safely and resumes from the journal when started again. */
     private void stopOn(List<Input> batch, RuntimeException e) {
         stopping = true;
-        for (Input in : batch) {
-            receipts.remove(in);
-            CompletableFuture<List<Effect>> f = waiting.remove(in);
-            if (f != null) f.completeExceptionally(e);
-        }
+        for (Input in : batch) waiters.failed(in, e);
         throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
                 + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
-    }
-
-    private void perform(Effect e) {
-        if (e instanceof Effect.CallExecutor c) dispatch(c);
-        else if (e instanceof Effect.ArmTimer t) timers.arm(t.key(), t.due());
-        else if (e instanceof Effect.CancelTimer t) timers.cancel(t.key());
-        else if (e instanceof Effect.Notify n) notifier.send(n);
-    }
-
-    private void dispatch(Effect.CallExecutor call) {
-        callsInFlight.incrementAndGet();
-        executor(call.action().kind()).execute(call, result -> {
-            // an executor's thread: it only queues; the engine is read on the driver thread alone
-            inbox.add(result);
-            callsInFlight.decrementAndGet();
-        });
     }
 
     /**
@@ -482,11 +396,5 @@ public final class Orchestrator {
                 batch.add(Input.Transition.simulatedClear(engine.eventTime(), run.target(), s));
             }
         });
-    }
-
-    private Executor executor(String kind) {
-        Executor ex = executors.get(kind);
-        if (ex == null) throw new TendException("no executor serves actions of kind '" + kind + "'; start tend with one");
-        return ex;
     }
 }

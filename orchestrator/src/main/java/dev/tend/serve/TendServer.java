@@ -15,6 +15,7 @@ import dev.tend.page.Senders;
 import dev.tend.runtime.CommitListener;
 import dev.tend.runtime.Notifier;
 import dev.tend.runtime.Orchestrator;
+import dev.tend.runtime.Recovery;
 import dev.tend.runtime.QuartzTimers;
 import dev.tend.shared.TendException;
 import dev.tend.shared.time.Timers;
@@ -41,7 +42,7 @@ import java.util.concurrent.atomic.AtomicLong;
 public final class TendServer implements AutoCloseable {
     private final Orchestrator orchestrator;
     private final Store store;
-    private final Orchestrator.Recovery recovery;
+    private final Recovery recovery;
     private final QuartzTimers timers;
     private final List<Executor> executors;
     private final Thread driver;
@@ -209,7 +210,7 @@ public final class TendServer implements AutoCloseable {
     }
 
     /** What the start found in the store. */
-    public Orchestrator.Recovery recovery() {
+    public Recovery recovery() {
         return recovery;
     }
 

@@ -100,7 +100,7 @@ class InputRefusalTest {
         try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), new ScheduledTimers(clock, k -> { }),
                     n -> { }, clock);
-            Orchestrator.Recovery rec = orch.recover();
+            dev.tend.runtime.Recovery rec = orch.recover();
             // from the snapshot the clean stop wrote, or from the journal: either way both good transitions are in the engine
             assertThat(rec.snapshotSeq() > 0 || rec.inputsReplayed() >= 2).as(rec.describe()).isTrue();
             assertThat(orch.engine().runs()).extracting(r -> r.target().cluster().value()).contains("fares-1", "fares-3");

@@ -2,7 +2,6 @@ package dev.tend.playbooks.load;
 
 import dev.tend.playbooks.TestDir;
 import dev.tend.shared.Problem;
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -12,33 +11,8 @@ import java.util.List;
 import static dev.tend.playbooks.TestDir.column;
 import static org.assertj.core.api.Assertions.assertThat;
 
-/** Each kind of mistake in a playbook is reported with file, line, column and a sentence. */
-class PlaybookLoadErrorsTest {
-    @TempDir
-    Path tmp;
-    TestDir dir;
-
-    @BeforeEach
-    void actions() {
-        dir = new TestDir(tmp);
-        dir.write("actions.yaml", TestDir.ACTIONS);
-    }
-
-    private List<Problem> load(String name, String text) {
-        dir.write(name, text);
-        return TestDir.problems(() -> PlaybookLoader.load(tmp));
-    }
-
-    private void assertOnly(List<Problem> problems, String file, int line, int col, String message) {
-        assertThat(problems).hasSize(1);
-        Problem p = problems.get(0);
-        assertThat(p.source()).isEqualTo(dir.source(file));
-        assertThat(p.line()).as("line").isEqualTo(line);
-        assertThat(p.column()).as("column").isEqualTo(col);
-        assertThat(p.message()).isEqualTo(message);
-        assertThat(p.toString()).isEqualTo(dir.source(file) + ":" + line + ":" + col + ": " + message);
-    }
-
+/** Each kind of mistake in a playbook's structure (keys, steps, types, placeholders, files) is reported with file, line, column and a sentence. */
+class PlaybookLoadErrorsTest extends PlaybookErrorsFixture {
     @Test
     void unknownKeyNamesTheAllowedKeysAndTheNearestOne() {
         String text = """
@@ -66,100 +40,6 @@ class PlaybookLoadErrorsTest {
                 """;
         assertOnly(load("p1.yaml", text), "p1.yaml", 3, 1, "unknown key 'owner' in a playbook; the keys allowed here are:"
                 + " approval, description, limits, mode, on-failure, on-stand-down, playbook, steps, trigger, unless, version, window");
-    }
-
-    @Test
-    void durationInWordsIsRejectedWithTheCompactForm() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                limits:
-                  cooldown: 5 minutes
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 4, 13, "limits.cooldown: a duration looks like 30s, 5m, 6h or 1d, got '5 minutes'");
-    }
-
-    @Test
-    void rateInWordsIsRejectedWithTheCountSlashDurationForm() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                limits:
-                  rate: 10 per hour
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 4, 9, "limits.rate: a rate looks like 10/1h (a count, a slash, then a"
-                + " duration such as 30m, 1h or 1d), got '10 per hour'");
-    }
-
-    @Test
-    void dayThatIsNotADayNamesTheAcceptedForms() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                window: { days: [mon-fry], from: "01:00", until: "05:00", zone: Europe/Berlin }
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "mon-fry"), "window.days: 'mon-fry' is not a day or a"
-                + " range of days; write mon, tue, wed, thu, fri, sat or sun, or a range such as mon-fri");
-    }
-
-    @Test
-    void wallClockTimeMustBeHoursAndMinutes() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                window: { days: [sat], from: "1am", until: "24:00", zone: Europe/Berlin }
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        List<Problem> problems = load("p1.yaml", text);
-        assertThat(problems).extracting(Problem::message).containsExactly(
-                "window.from: a wall-clock time looks like \"01:00\" or \"23:30\" (HH:MM, 24-hour clock), got '1am'",
-                "window.until: a wall-clock time looks like \"01:00\" or \"23:30\" (HH:MM, 24-hour clock), got '24:00'");
-    }
-
-    @Test
-    void windowWithoutLengthIsRejected() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                window: { from: "01:00", until: "01:00", zone: UTC }
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "until") + "until: ".length(), "window.until must differ from window.from:"
-                + " a window needs a length; an until before from spans midnight");
-    }
-
-    @Test
-    void emptyDaysIsRejected() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                window: { days: [], from: "01:00", until: "05:00", zone: UTC }
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "[]"), "window.days is empty; name at least one day,"
-                + " such as [mon-fri], or leave days out for every day");
-    }
-
-    @Test
-    void unknownTimeZoneSuggestsTzDatabaseNames() {
-        String text = """
-                playbook: p1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                window: { days: [mon-fri], from: "01:00", until: "05:00", zone: Europe/Berln }
-                steps:
-                  - { id: drain, action: drain-node, timeout: 10m }
-                """;
-        assertOnly(load("p1.yaml", text), "p1.yaml", 3, column(text, 3, "Europe/Berln"), "window.zone: unknown time zone"
-                + " 'Europe/Berln'; use a name from the tz database such as Europe/Berlin, America/New_York or UTC");
     }
 
     @Test

@@ -1,0 +1,79 @@
+package dev.tend.runtime;
+
+import dev.tend.engine.Engine;
+import dev.tend.engine.EngineSetup;
+import dev.tend.store.SnapshotRow;
+import dev.tend.store.Store;
+import dev.tend.store.StoreReader;
+
+import java.time.Instant;
+import java.util.HashMap;
+import java.util.Map;
+import java.util.Objects;
+import java.util.TreeMap;
+
+/**
+ * Where the {@link Orchestrator}'s engine starts from and what it leaves for the next start:
+ * the newest snapshot and the journal after it (or a warm tail a standby kept), and the
+ * snapshots written while it runs.
+ */
+final class SnapshotKeeper {
+    /** Snapshots kept in the store: the newest, and one before it. */
+    private static final int KEPT = 2;
+
+    private final Store store;
+    private final EngineSetup setup;
+    private String fingerprint;
+    /** A warm engine to start from at the next {@link #tail}, or null. */
+    private JournalTail warm;
+    /** How far each input file was journaled, as the last {@link #tail} found it. */
+    private final Map<String, Long> progressFound = new HashMap<>();
+
+    SnapshotKeeper(Store store, EngineSetup setup) {
+        this.store = store;
+        this.setup = setup;
+    }
+
+    /** Starts the next {@link #tail} from {@code tail}, kept warm on this store and setup. */
+    void adopt(JournalTail tail) {
+        this.warm = Objects.requireNonNull(tail, "tail");
+    }
+
+    /** The tail to build the engine from: the warm one adopted, else one opened on the store's newest snapshot. */
+    JournalTail tail() {
+        JournalTail tail = warm != null ? warm : JournalTail.open(store, setup, fingerprint());
+        warm = null;
+        return tail;
+    }
+
+    /** Records how far each input file was journaled, as {@code tail} (caught up) found it. */
+    void caughtUp(JournalTail tail) {
+        progressFound.clear();
+        progressFound.putAll(tail.sources());
+    }
+
+    /** How many events of the input file {@code source} the journal held when the engine was built (0 for a new one). */
+    long progressOf(String source) {
+        return progressFound.getOrDefault(source, 0L);
+    }
+
+    /**
+     * Writes {@code engine}'s state, with the progress of the inputs read from files (the
+     * current {@code source}, if not null, at {@code sourceDone} events), as the snapshot after
+     * the newest journal row; false when the journal is empty.
+     */
+    boolean write(Engine engine, String source, long sourceDone, Instant at) {
+        Map<String, Long> sources = new TreeMap<>(progressFound);
+        if (source != null) sources.put(source, sourceDone);
+        long seq = store.read(StoreReader::lastInputSeq);
+        if (seq == 0) return false;
+        SnapshotRow row = SnapshotCodec.encode(seq, at, fingerprint(), engine.state(), sources);
+        store.useTransaction(tx -> tx.putSnapshot(row, KEPT));
+        return true;
+    }
+
+    private String fingerprint() {
+        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
+        return fingerprint;
+    }
+}
