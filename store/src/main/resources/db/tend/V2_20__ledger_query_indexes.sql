@@ -1,5 +1,5 @@
--- Indexes for what operators ask of a large ledger (millions of entries). V2_19 is taken by
--- the Kafka offsets of another change; Flyway applies versions in order.
+-- Indexes for what operators ask of a large ledger (millions of entries), after V2_19 (the
+-- stream offsets): Flyway applies versions in order.
 -- GET /api/v1/ledger?kind=... and ?playbook=... answer the newest matching entries by
 -- walking these backwards from the newest seq and stopping at the page's limit; the handover
 -- finds the runs still open when its period begins (their run-started and run-ended entries)

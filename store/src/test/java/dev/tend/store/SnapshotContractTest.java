@@ -39,13 +39,15 @@ abstract class SnapshotContractTest extends StoreTestBase {
         store = null;
         db.execute("DROP TABLE snapshots");
         db.execute("DROP TABLE leader_lease");
+        db.execute("DROP TABLE stream_offsets");
         db.execute("DROP INDEX ledger_kind");
         db.execute("DROP INDEX ledger_playbook");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?)", "2.17", "2.18", "2.20")).isEqualTo(3);
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20"))
+                .isEqualTo(4);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?) AND success = ?", "2.17",
-                "2.18", "2.20", true)).isEqualTo("3");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?) AND success = ?", "2.17",
+                "2.18", "2.19", "2.20", true)).isEqualTo("4");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }
