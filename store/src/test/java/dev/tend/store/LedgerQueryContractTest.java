@@ -121,6 +121,10 @@ abstract class LedgerQueryContractTest extends StoreTestBase {
         assertThat(newest(verdicts, whole.get(0).seq(), 2)).isEmpty();
         assertThat(newest(LedgerFilter.all().withCluster("fares-2").withSince(minute(5)), Long.MAX_VALUE, 10))
                 .extracting(LedgerEntry::seq).containsExactly(10L, 7L);
+        assertThat(newest(LedgerFilter.all().withSince(minute(2)).withUntil(minute(11)), 8, 3)).extracting(LedgerEntry::seq)
+                .containsExactly(7L, 6L, 5L);
+        assertThat(newest(LedgerFilter.all().withUntil(minute(3)), Long.MAX_VALUE, 5)).extracting(LedgerEntry::seq)
+                .containsExactly(2L, 1L);
         assertThat(newest(LedgerFilter.all().withPlaybook("replace-silent-node").withRun("r4"),
                 Long.MAX_VALUE, 10)).extracting(LedgerEntry::seq).containsExactly(13L, 11L);
     }

@@ -32,7 +32,11 @@ class SqliteLedgerQueryTest extends LedgerQueryContractTest {
         assertThat(plan("SELECT run FROM ledger WHERE kind IN ('run-started', 'run-shadowed') AND at_ns < 5 AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN ('run-ended') AND at_ns < 5 AND run IS NOT NULL"))
                 .contains("ledger_kind").doesNotContain("SCAN ledger\n");
-        assertThat(plan("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= 1 AND at_ns < 5")).contains("ledger_at");
+        assertThat(plan("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= 1 AND at_ns < 5")).contains("COVERING INDEX ledger_at");
+        assertThat(plan("SELECT MIN(seq + 0) FROM ledger WHERE at_ns >= 1")).contains("COVERING INDEX ledger_at");
+        assertThat(plan("SELECT seq FROM ledger WHERE seq < 9223372036854775807 AND seq IN (SELECT seq FROM ledger"
+                + " WHERE seq < 9223372036854775807 AND at_ns >= 1 AND at_ns < 5 ORDER BY seq + 0 DESC LIMIT 501)"
+                + " ORDER BY seq DESC LIMIT 501")).contains("COVERING INDEX ledger_at");
     }
 
     private String plan(String sql) throws Exception {

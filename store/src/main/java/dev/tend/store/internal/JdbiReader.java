@@ -257,7 +257,17 @@ public class JdbiReader implements StoreReader {
         if (limit < 1) throw new IllegalArgumentException("newestLedger: limit must be 1 or more, got " + limit);
         beforeRead();
         StringBuilder sql = new StringBuilder("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq < :before");
-        appendFilter(sql, filter);
+        if (filter.until() != null && filter.run() == null && filter.cluster() == null && filter.playbook() == null
+                && filter.kind() == null) {
+            // a span of time that may lie far back: the seqs come from the time index alone (it holds them), sorted,
+            // and only the page's rows are read; walking the table back from the newest entry would read every
+            // entry after the span
+            sql.append(" AND seq IN (SELECT seq FROM ledger WHERE seq < :before");
+            appendFilter(sql, filter);
+            sql.append(" ORDER BY seq + 0 DESC LIMIT :limit)");
+        } else {
+            appendFilter(sql, filter);
+        }
         sql.append(" ORDER BY seq DESC LIMIT :limit");
         Query q = handle.createQuery(sql.toString()).bind("before", beforeSeq).bind("limit", limit);
         bindFilter(q, filter);
@@ -309,7 +319,9 @@ public class JdbiReader implements StoreReader {
     public long firstLedgerSeqAt(Instant at) {
         Objects.requireNonNull(at, "at");
         beforeRead();
-        Long seq = handle.createQuery("SELECT MIN(seq) FROM ledger WHERE at_ns >= :at")
+        // MIN(seq + 0), not MIN(seq): SQLite answers MIN of the key by walking the table from seq 1 until the
+        // condition holds (millions of rows); the expression makes it range over the time index instead
+        Long seq = handle.createQuery("SELECT MIN(seq + 0) FROM ledger WHERE at_ns >= :at")
                 .bind("at", Times.toNanos(at, "at"))
                 .mapTo(Long.class).one();
         return seq == null ? 0 : seq;
