@@ -40,10 +40,9 @@ public final class CheckCommand implements Callable<Integer> {
     @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
     Path config;
 
-    @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-    Format format;
-
-    enum Format { text, json }
+    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextOrJson.class,
+            completionCandidates = OutputFormat.TextOrJson.class, description = "text or json (default: ${DEFAULT-VALUE})")
+    OutputFormat format;
 
     @Override
     public Integer call() {
@@ -64,7 +63,7 @@ public final class CheckCommand implements Callable<Integer> {
             return ExitCodes.USAGE;
         }
         List<Finding> findings = Lint.check(set, fleet, ExecutorRegistry.kinds());
-        if (format == Format.json) {
+        if (format == OutputFormat.json) {
             out.println(FindingsFormat.json(findings));
         } else {
             out.println(summary(set, fleet));

@@ -96,13 +96,14 @@ public final class ExcludeCommand implements Runnable {
         @Mixin
         ServerOptions server;
 
-        @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-        ApprovalsCommand.Format format;
+        @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextOrJson.class,
+                completionCandidates = OutputFormat.TextOrJson.class, description = "text or json (default: ${DEFAULT-VALUE})")
+        OutputFormat format;
 
         @Override
         public Integer call() {
             var list = server.operations().exclusions();
-            if (format == ApprovalsCommand.Format.json) Render.json(spec.commandLine().getOut(), list);
+            if (format == OutputFormat.json) Render.json(spec.commandLine().getOut(), list);
             else Render.exclusions(spec.commandLine().getOut(), list);
             return ExitCodes.OK;
         }

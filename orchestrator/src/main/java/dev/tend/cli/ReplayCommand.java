@@ -67,13 +67,12 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
-    @Option(names = "--format", defaultValue = "text", description = "text, json or html (default: ${DEFAULT-VALUE})")
-    Format format;
+    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextJsonOrHtml.class,
+            completionCandidates = OutputFormat.TextJsonOrHtml.class, description = "text, json or html (default: ${DEFAULT-VALUE})")
+    OutputFormat format;
 
     @Option(names = "--out", paramLabel = "FILE", description = "write the report here instead of standard output")
     Path out;
-
-    enum Format { text, json, html }
 
     @Override
     public Integer call() throws IOException {
