@@ -17,6 +17,7 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
+import dev.tend.engine.StepState;
 import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
 import dev.tend.shared.TendException;
@@ -66,6 +67,21 @@ public final class SnapshotCodec {
             @Override
             public Id deserialize(JsonParser p, DeserializationContext c) throws IOException {
                 return Id.of(p.getValueAsString());
+            }
+        });
+        // a step's state by its wire name, as snapshots held it while it was text
+        ids.addSerializer(StepState.class, new JsonSerializer<>() {
+            @Override
+            public void serialize(StepState s, JsonGenerator g, SerializerProvider p) throws IOException {
+                g.writeString(s.wireName());
+            }
+        });
+        ids.addDeserializer(StepState.class, new JsonDeserializer<>() {
+            @Override
+            public StepState deserialize(JsonParser p, DeserializationContext c) throws IOException {
+                String wire = p.getValueAsString();
+                return StepState.of(wire).orElseThrow(() -> new com.fasterxml.jackson.databind.exc.InvalidFormatException(p,
+                        "not a step state: '" + wire + "'", wire, StepState.class));
             }
         });
         ObjectMapper m = new ObjectMapper();
