@@ -92,7 +92,7 @@ final class Projections {
     private static void approval(StoreTx tx, ApprovalSnapshot a) {
         tx.upsertApproval(new ApprovalRow(a.runId(), a.playbook(), a.target().cluster().value(),
                 a.target().node() == null ? null : a.target().node().value(), a.requestedBy(), a.requestedAt(),
-                a.expiresAt(), a.state().wireName(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
+                a.expiresAt(), a.state(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
     }
 
     static Map<String, Object> brake(BrakeState b) {
