@@ -16,6 +16,21 @@ import java.util.Random;
  * a ledger key, and a command that claims each idempotency key once and logs what it ran.
  */
 public final class FaultFiles {
+    /**
+     * A tend.yaml that holds nothing back for a storm of 16 clusters at a time: fleet and zone
+     * caps of 16, 1000 starts an hour, a brake that never engages below 1000 clusters.
+     */
+    public static final String WIDE_OPEN_POLICY = """
+            defaults:
+              fleet: 16
+              per-zone: 16
+              rate: 1000/1h
+            rate: 1000/1h
+            brake:
+              engage-at: { clusters: 1000 }
+              release-below: { clusters: 500 }
+            """;
+
     private FaultFiles() {
     }
 

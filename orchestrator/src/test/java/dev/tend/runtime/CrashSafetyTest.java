@@ -141,16 +141,7 @@ class CrashSafetyTest {
                     command: [sh, %s, "{key}", %s]
                     timeout: 10m
                 """.formatted(dir.resolve("idempotent.sh"), log, claims, dir.resolve("plain.sh"), log));
-        Files.writeString(policy.resolve("tend.yaml"), """
-                defaults:
-                  fleet: 16
-                  per-zone: 16
-                  rate: 1000/1h
-                rate: 1000/1h
-                brake:
-                  engage-at: { clusters: 1000 }
-                  release-below: { clusters: 500 }
-                """);
+        Files.writeString(policy.resolve("tend.yaml"), FaultFiles.WIDE_OPEN_POLICY);
         for (String signal : List.of("heartbeat", "process-down")) {
             Files.writeString(policy.resolve("fix-" + signal + ".yaml"), """
                     playbook: fix-%1$s

@@ -154,16 +154,7 @@ class ServeStormFaultTest {
                     timeout: 10m
                     idempotent: true
                 """.formatted(dir.resolve("idempotent.sh"), dir.resolve("executed.log"), dir.resolve("claims")));
-        Files.writeString(policy.resolve("tend.yaml"), """
-                defaults:
-                  fleet: 16
-                  per-zone: 16
-                  rate: 1000/1h
-                rate: 1000/1h
-                brake:
-                  engage-at: { clusters: 1000 }
-                  release-below: { clusters: 500 }
-                """);
+        Files.writeString(policy.resolve("tend.yaml"), FaultFiles.WIDE_OPEN_POLICY);
         Files.writeString(policy.resolve("fix-heartbeat.yaml"), """
                 playbook: fix-heartbeat
                 version: 1

@@ -28,11 +28,7 @@ public record ApprovalRow(String runId, String playbook, String cluster, String 
         Objects.requireNonNull(playbook, "ApprovalRow.playbook must not be null");
         Objects.requireNonNull(cluster, "ApprovalRow.cluster must not be null");
         Objects.requireNonNull(requestedBy, "ApprovalRow.requestedBy must not be null");
-        Objects.requireNonNull(requestedAt, "ApprovalRow.requestedAt must not be null");
-        Objects.requireNonNull(expiresAt, "ApprovalRow.expiresAt must not be null");
-        if (expiresAt.isBefore(requestedAt)) {
-            throw new IllegalArgumentException("ApprovalRow.expiresAt must not be before requestedAt " + requestedAt + ", got " + expiresAt);
-        }
+        ApprovalState.requireTimes("ApprovalRow", requestedAt, expiresAt);
         Objects.requireNonNull(state, "ApprovalRow.state must not be null");
     }
 
