@@ -21,14 +21,13 @@ public final class ApprovalsCommand implements Callable<Integer> {
             description = "pending, approved, rejected, lapsed, withdrawn or all (default: ${DEFAULT-VALUE})")
     String state;
 
-    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextOrJson.class,
-            completionCandidates = OutputFormat.TextOrJson.class, description = "text or json (default: ${DEFAULT-VALUE})")
-    OutputFormat format;
+    @Mixin
+    TextOrJsonFormat format;
 
     @Override
     public Integer call() {
         var list = server.operations().approvals(state);
-        if (format == OutputFormat.json) Render.json(spec.commandLine().getOut(), list);
+        if (format.json()) Render.json(spec.commandLine().getOut(), list);
         else Render.approvals(spec.commandLine().getOut(), list);
         return ExitCodes.OK;
     }

@@ -13,6 +13,7 @@ import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -40,9 +41,8 @@ public final class CheckCommand implements Callable<Integer> {
     @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
     Path config;
 
-    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextOrJson.class,
-            completionCandidates = OutputFormat.TextOrJson.class, description = "text or json (default: ${DEFAULT-VALUE})")
-    OutputFormat format;
+    @Mixin
+    TextOrJsonFormat format;
 
     @Override
     public Integer call() {
@@ -63,7 +63,7 @@ public final class CheckCommand implements Callable<Integer> {
             return ExitCodes.USAGE;
         }
         List<Finding> findings = Lint.check(set, fleet, ExecutorRegistry.kinds());
-        if (format == OutputFormat.json) {
+        if (format.json()) {
             out.println(FindingsFormat.json(findings));
         } else {
             out.println(summary(set, fleet));

@@ -96,14 +96,13 @@ public final class ExcludeCommand implements Runnable {
         @Mixin
         ServerOptions server;
 
-        @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextOrJson.class,
-                completionCandidates = OutputFormat.TextOrJson.class, description = "text or json (default: ${DEFAULT-VALUE})")
-        OutputFormat format;
+        @Mixin
+        TextOrJsonFormat format;
 
         @Override
         public Integer call() {
             var list = server.operations().exclusions();
-            if (format == OutputFormat.json) Render.json(spec.commandLine().getOut(), list);
+            if (format.json()) Render.json(spec.commandLine().getOut(), list);
             else Render.exclusions(spec.commandLine().getOut(), list);
             return ExitCodes.OK;
         }
