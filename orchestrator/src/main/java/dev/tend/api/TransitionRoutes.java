@@ -20,6 +20,7 @@ import dev.tend.store.Store;
 import io.javalin.http.Context;
 import io.javalin.router.JavalinDefaultRouting;
 
+import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.StringReader;
 import java.time.Clock;
@@ -63,7 +64,8 @@ final class TransitionRoutes {
         List<Input> events = new ArrayList<>();
         List<LineProblem> problems = new ArrayList<>();
         WireReader wire = WireReader.of("request").withLiveClock(clock::instant, config.maxSkew()).withSignals(config.signals());
-        ReadSummary summary = wire.readAll(new StringReader(body), r -> {
+        // a buffer the size of the body (the reader's default of 64 K chars would be allocated per request)
+        ReadSummary summary = wire.readAll(new BufferedReader(new StringReader(body), Math.max(16, Math.min(body.length(), 1 << 16))), r -> {
             if (r instanceof LineResult.Event e) {
                 events.add(e.event() instanceof HealthTransition t ? new Input.Transition(t)
                         : new Input.Topology((TopologyEvent) e.event()));

@@ -59,6 +59,8 @@ public final class LiveBenchmark {
         int connections = Integer.parseInt(arg(args, "--connections", "16"));
         int idleRequests = Integer.parseInt(arg(args, "--idle-requests", "400"));
         int clusters = Integer.parseInt(arg(args, "--clusters", "300"));
+        // a server runs for days: its figures are those after the JIT compiled the request path
+        int warmup = Integer.parseInt(arg(args, "--warmup", "15"));
         Path dir = Files.createTempDirectory("tend-live-bench");
         Path fleet = dir.resolve("fleet.yaml");
         IngestMix.writeFleet(fleet, clusters);
@@ -66,8 +68,8 @@ public final class LiveBenchmark {
         String hash = HexFormat.of().formatHex(MessageDigest.getInstance("SHA-256").digest(token.getBytes(StandardCharsets.UTF_8)));
         Path tokens = dir.resolve("tokens.yaml");
         Files.writeString(tokens, "tokens:\n  - { name: bench-feed, roles: [operator], sha256: " + hash + " }\n");
-        System.out.printf("live benchmark: %d connections, %d s each, %d idle requests, %d clusters, in %s; %s%n",
-                connections, seconds, idleRequests, clusters, dir, ChildProcess.load());
+        System.out.printf("live benchmark: %d connections, %d s each after %d s of warm-up, %d idle requests, %d clusters, in %s; %s%n",
+                connections, seconds, warmup, idleRequests, clusters, dir, ChildProcess.load());
         List<String> jvm = List.of();
         String extra = arg(args, "--serve-java-options", "");
         List<String> serveJvm = extra.isBlank() ? jvm : List.of(extra.trim().split("\\s+"));
@@ -76,7 +78,7 @@ public final class LiveBenchmark {
         Figures floorIdle, floorLoad;
         try (ChildProcess floor = ChildProcess.startAndAwait(ChildProcess.javaCommand(jvm, "-cp", jar + java.io.File.pathSeparator
                 + testClasses, BareEndpoint.class.getName(), String.valueOf(floorPort)), dir.resolve("floor.log"), "listening on", 120)) {
-            load(floorPort, null, connections, 3, clusters);
+            load(floorPort, null, connections, warmup, clusters);
             long c0 = floor.cpuNanos();
             floorIdle = idle(floorPort, null, idleRequests, clusters);
             long c1 = floor.cpuNanos();
@@ -90,7 +92,7 @@ public final class LiveBenchmark {
         try (ChildProcess tend = ChildProcess.startAndAwait(ChildProcess.javaCommand(serveJvm, "-jar", jar.toString(), "serve",
                 "--playbooks", library.toString(), "--fleet", fleet.toString(), "--db", dir.resolve("live.db").toString(),
                 "--listen", "127.0.0.1:" + tendPort, "--tokens", tokens.toString()), dir.resolve("serve.log"), "tend: serving", 180)) {
-            load(tendPort, token, connections, 3, clusters);
+            load(tendPort, token, connections, warmup, clusters);
             long c0 = tend.cpuNanos();
             tendIdle = idle(tendPort, token, idleRequests, clusters);
             long c1 = tend.cpuNanos();

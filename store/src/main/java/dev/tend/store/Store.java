@@ -3,6 +3,7 @@ package dev.tend.store;
 import dev.tend.store.internal.Database;
 import dev.tend.store.internal.Failures;
 import dev.tend.store.internal.HeadCache;
+import dev.tend.store.internal.StatementCache;
 import dev.tend.store.internal.JdbiReader;
 import dev.tend.store.internal.JdbiTx;
 
@@ -29,6 +30,7 @@ import java.util.function.Function;
 public final class Store implements AutoCloseable {
     private final Database db;
     private final HeadCache heads;
+    private final StatementCache statements;
     private final ThreadLocal<Boolean> inWrite = ThreadLocal.withInitial(() -> false);
     private volatile boolean closed;
     /** The epoch every write transaction checks (see {@link #fence}); -1: none. */
@@ -37,6 +39,7 @@ public final class Store implements AutoCloseable {
     private Store(Database db) {
         this.db = db;
         this.heads = new HeadCache(db.dialect(), db.location());
+        this.statements = new StatementCache();
     }
 
     /**
@@ -101,7 +104,7 @@ public final class Store implements AutoCloseable {
             long epoch = fence;
             T result = db.writeJdbi().inTransaction(handle -> {
                 if (epoch >= 0) LeaderLease.check(handle, location(), epoch);
-                JdbiTx tx = new JdbiTx(handle, location(), heads);
+                JdbiTx tx = new JdbiTx(handle, location(), heads, statements);
                 try {
                     T r = work.apply(tx);
                     tx.flush();
@@ -112,6 +115,7 @@ public final class Store implements AutoCloseable {
                 }
             });
             if (done[0].heads() != null) heads.publish(done[0].heads());
+            db.committed();
             return result;
         } catch (RuntimeException e) {
             heads.invalidate();

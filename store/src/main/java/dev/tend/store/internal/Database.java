@@ -44,9 +44,13 @@ public final class Database implements AutoCloseable {
     private final Jdbi writeJdbi;
     private final Jdbi readJdbi;
     private final ReentrantLock writeLock;
+    /** On SQLite, the thread that checkpoints the write-ahead log; null on PostgreSQL. */
+    private final WalCheckpointer checkpointer;
 
-    private Database(Dialect dialect, String location, HikariDataSource writers, HikariDataSource readers, ReentrantLock writeLock) {
+    private Database(Dialect dialect, String location, HikariDataSource writers, HikariDataSource readers, ReentrantLock writeLock,
+                     WalCheckpointer checkpointer) {
         this.dialect = dialect;
+        this.checkpointer = checkpointer;
         this.location = location;
         this.writers = writers;
         this.readers = readers;
@@ -77,8 +81,12 @@ public final class Database implements AutoCloseable {
                     + e + "); check the path and its permissions", e);
         }
         String url = "jdbc:sqlite:" + path;
-        SQLiteDataSource writerSource = new SQLiteDataSource(sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE));
+        SQLiteConfig writerConfig = sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE);
+        writerConfig.setWalAutocheckpoint(0); // the checkpointer's thread copies the log, not the committing one
+        SQLiteDataSource writerSource = new SQLiteDataSource(writerConfig);
         writerSource.setUrl(url);
+        SQLiteDataSource checkpointSource = new SQLiteDataSource(sqliteConfig(SQLiteConfig.TransactionMode.DEFERRED));
+        checkpointSource.setUrl(url);
         SQLiteDataSource readerSource = new SQLiteDataSource(sqliteConfig(SQLiteConfig.TransactionMode.DEFERRED));
         readerSource.setUrl(url);
         try {
@@ -95,7 +103,7 @@ public final class Database implements AutoCloseable {
             writers.close();
             throw e;
         }
-        return new Database(Dialect.SQLITE, location, writers, readers, new ReentrantLock());
+        return new Database(Dialect.SQLITE, location, writers, readers, new ReentrantLock(), new WalCheckpointer(checkpointSource, path));
     }
 
     /**
@@ -126,7 +134,7 @@ public final class Database implements AutoCloseable {
             throw Failures.ofOpening(location, e);
         }
         HikariDataSource pool = pool(source, "pg", POSTGRES_POOL_SIZE, null, location);
-        return new Database(Dialect.POSTGRESQL, location, pool, pool, null);
+        return new Database(Dialect.POSTGRESQL, location, pool, pool, null, null);
     }
 
     /**
@@ -207,8 +215,14 @@ public final class Database implements AutoCloseable {
         return writeLock;
     }
 
+    /** A write transaction committed (on SQLite, its log wants checkpointing). */
+    public void committed() {
+        if (checkpointer != null) checkpointer.committed();
+    }
+
     @Override
     public void close() {
+        if (checkpointer != null) checkpointer.close();
         RuntimeException failure = null;
         for (HikariDataSource pool : writers == readers ? new HikariDataSource[]{writers} : new HikariDataSource[]{writers, readers}) {
             try {

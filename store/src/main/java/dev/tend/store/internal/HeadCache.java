@@ -46,7 +46,7 @@ public final class HeadCache {
             // the wait) would not.
             return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
         }
-        Connection connection = handle.getConnection();
+        Connection connection = physical(handle.getConnection());
         long dataVersion = handle.createQuery("PRAGMA data_version").mapTo(Long.class).one();
         Heads cached = committed.get();
         if (cached != null && cached.connection() == connection && cached.dataVersion() == dataVersion) {
@@ -57,6 +57,19 @@ public final class HeadCache {
                 .findOne()
                 .orElseThrow(this::missingHead);
         return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
+    }
+
+    /**
+     * The driver's connection under the pool's wrapper: the pool hands out a new wrapper at
+     * every checkout, so comparing wrappers would find the cache stale at every transaction
+     * (and read both tails again each time).
+     */
+    private Connection physical(Connection c) {
+        try {
+            return c.isWrapperFor(Connection.class) ? c.unwrap(Connection.class) : c;
+        } catch (java.sql.SQLException e) {
+            return c;
+        }
     }
 
     public void publish(Heads heads) {

@@ -28,16 +28,19 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     static final int BATCH = 2048;
     private static final String INSERT_INPUT = "INSERT INTO input_journal (" + Rows.INPUT_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?)";
     private static final String INSERT_LEDGER = "INSERT INTO ledger (" + Rows.LEDGER_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)";
+    private static final String UPDATE_HEAD = "UPDATE ledger_head SET seq = ?, hash = ? WHERE id = 1";
 
     private final HeadCache headCache;
+    private final StatementCache statements;
     private final List<InputRow> pendingInputs = new ArrayList<>();
     private final List<LedgerEntry> pendingLedger = new ArrayList<>();
     private Heads heads;
     private boolean ledgerHeadDirty;
 
-    public JdbiTx(Handle handle, String location, HeadCache headCache) {
+    public JdbiTx(Handle handle, String location, HeadCache headCache, StatementCache statements) {
         super(handle, location);
         this.headCache = headCache;
+        this.statements = statements;
     }
 
     /** The tails after this transaction's appends; null when it appended nothing. */
@@ -55,7 +58,8 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     public void flush() {
         if (!pendingInputs.isEmpty()) {
             // the hot path of ingest: a plain JDBC batch on the transaction's connection, no per-argument mapping
-            try (java.sql.PreparedStatement ps = handle.getConnection().prepareStatement(INSERT_INPUT)) {
+            try {
+                java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), INSERT_INPUT);
                 for (InputRow r : pendingInputs) {
                     ps.setLong(1, r.seq());
                     ps.setString(2, r.kind());
@@ -74,30 +78,42 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
             }
             pendingInputs.clear();
         }
-        if (!pendingLedger.isEmpty()) {
-            PreparedBatch batch = handle.prepareBatch(INSERT_LEDGER);
-            for (LedgerEntry e : pendingLedger) {
-                batch.bind(0, e.seq())
-                        .bind(1, Times.toNanos(e.at(), "LedgerDraft.at"))
-                        .bind(2, e.kind())
-                        .bind(3, e.cluster())
-                        .bind(4, e.playbook())
-                        .bind(5, e.run())
-                        .bind(6, e.entry())
-                        .bind(7, e.prevHash())
-                        .bind(8, e.hash())
-                        .add();
+        if (!pendingLedger.isEmpty() || ledgerHeadDirty) {
+            // plain JDBC on statements kept prepared: the ledger's share of every commit
+            try {
+                if (!pendingLedger.isEmpty()) {
+                    java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), INSERT_LEDGER);
+                    for (LedgerEntry e : pendingLedger) {
+                        ps.setLong(1, e.seq());
+                        ps.setLong(2, Times.toNanos(e.at(), "LedgerDraft.at"));
+                        ps.setString(3, e.kind());
+                        text(ps, 4, e.cluster());
+                        text(ps, 5, e.playbook());
+                        text(ps, 6, e.run());
+                        ps.setString(7, e.entry());
+                        ps.setString(8, e.prevHash());
+                        ps.setString(9, e.hash());
+                        ps.addBatch();
+                    }
+                    ps.executeBatch();
+                    pendingLedger.clear();
+                }
+                if (ledgerHeadDirty) {
+                    java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), UPDATE_HEAD);
+                    ps.setLong(1, heads.ledgerSeq());
+                    ps.setString(2, heads.ledgerHash());
+                    ps.executeUpdate();
+                    ledgerHeadDirty = false;
+                }
+            } catch (java.sql.SQLException e) {
+                throw new org.jdbi.v3.core.ConnectionException(e);
             }
-            batch.execute();
-            pendingLedger.clear();
         }
-        if (ledgerHeadDirty) {
-            handle.createUpdate("UPDATE ledger_head SET seq = :seq, hash = :hash WHERE id = 1")
-                    .bind("seq", heads.ledgerSeq())
-                    .bind("hash", heads.ledgerHash())
-                    .execute();
-            ledgerHeadDirty = false;
-        }
+    }
+
+    private static void text(java.sql.PreparedStatement ps, int i, String value) throws java.sql.SQLException {
+        if (value == null) ps.setNull(i, java.sql.Types.VARCHAR);
+        else ps.setString(i, value);
     }
 
     private Heads claim() {
@@ -308,6 +324,20 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
                 .execute();
         handle.createUpdate("DELETE FROM snapshots WHERE seq NOT IN (SELECT seq FROM snapshots ORDER BY seq DESC LIMIT :keep)")
                 .bind("keep", keep)
+                .execute();
+    }
+
+    @Override
+    public void putStreamOffset(String topic, int partition, long nextOffset) {
+        requireOpen();
+        Objects.requireNonNull(topic, "topic");
+        if (partition < 0) throw new IllegalArgumentException("partition must be 0 or more, got " + partition);
+        if (nextOffset < 0) throw new IllegalArgumentException("nextOffset must be 0 or more, got " + nextOffset);
+        handle.createUpdate("INSERT INTO stream_offsets (topic, part, next_offset) VALUES (:topic, :part, :next) "
+                        + "ON CONFLICT (topic, part) DO UPDATE SET next_offset = excluded.next_offset")
+                .bind("topic", topic)
+                .bind("part", partition)
+                .bind("next", nextOffset)
                 .execute();
     }
 
