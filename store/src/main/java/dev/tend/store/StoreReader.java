@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
 import java.time.Instant;
 import java.util.List;
 import java.util.Optional;
@@ -43,10 +44,10 @@ public interface StoreReader {
     List<ExclusionRow> exclusions();
 
     /**
-     * Approvals in {@code stateOrNull} (one of {@link ApprovalRow#STATES}), or all when null,
+     * Approvals in {@code stateOrNull} , or all when null,
      * oldest request first.
      */
-    List<ApprovalRow> approvals(String stateOrNull);
+    List<ApprovalRow> approvals(ApprovalState stateOrNull);
 
     /** The JSON text put under {@code key}, if any. */
     Optional<String> state(String key);

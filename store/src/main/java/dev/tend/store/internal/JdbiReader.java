@@ -1,5 +1,6 @@
 package dev.tend.store.internal;
 
+import dev.tend.shared.ApprovalState;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
@@ -187,15 +188,11 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
-    public List<ApprovalRow> approvals(String stateOrNull) {
-        if (stateOrNull != null && !ApprovalRow.STATES.contains(stateOrNull)) {
-            throw new IllegalArgumentException("approvals(state) takes pending, approved, rejected, lapsed, withdrawn or null, got '"
-                    + stateOrNull + "'");
-        }
+    public List<ApprovalRow> approvals(ApprovalState stateOrNull) {
         beforeRead();
         String where = stateOrNull == null ? "" : " WHERE state = :state";
         Query q = handle.createQuery("SELECT " + Rows.APPROVAL_COLUMNS + " FROM approvals" + where + " ORDER BY requested_ns, run_id");
-        if (stateOrNull != null) q.bind("state", stateOrNull);
+        if (stateOrNull != null) q.bind("state", stateOrNull.wireName());
         return List.copyOf(q.map((rs, ctx) -> Rows.approval(rs)).list());
     }
 
