@@ -13,7 +13,6 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.SerializerProvider;
 import com.fasterxml.jackson.databind.module.SimpleModule;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
@@ -92,15 +91,18 @@ public final class SnapshotCodec {
     /** The snapshot row of {@code state}, the engine's state after journal seq {@code seq}. */
     public static SnapshotRow encode(long seq, Instant takenAt, String setupFingerprint, EngineState state,
                                      Map<String, Long> sources) {
-        ObjectNode root = JSON.createObjectNode();
-        root.put("format", FORMAT);
-        root.put("seq", seq);
-        ObjectNode done = root.putObject("sources");
-        new java.util.TreeMap<>(sources).forEach(done::put);
-        root.set("state", JSON.valueToTree(state));
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
-        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16)) {
-            JSON.writeValue(out, root);
+        // streamed: building the state as a tree first cost as much again as writing it
+        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16); JsonGenerator g = JSON.createGenerator(out)) {
+            g.writeStartObject();
+            g.writeNumberField("format", FORMAT);
+            g.writeNumberField("seq", seq);
+            g.writeObjectFieldStart("sources");
+            for (Map.Entry<String, Long> e : new java.util.TreeMap<>(sources).entrySet()) g.writeNumberField(e.getKey(), e.getValue());
+            g.writeEndObject();
+            g.writeFieldName("state");
+            JSON.writeValue(g, state);
+            g.writeEndObject();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
