@@ -18,6 +18,7 @@ import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
 import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
+import dev.tend.shared.time.InstantText;
 import dev.tend.shared.TendException;
 import dev.tend.shared.json.Sha256;
 import dev.tend.store.SnapshotRow;
@@ -67,9 +68,18 @@ public final class SnapshotCodec {
                 return Id.of(p.getValueAsString());
             }
         });
+        // Instant.toString()'s text (what the time module writes too), without its formatter: a snapshot holds many
+        SimpleModule instants = new SimpleModule("tend-instants");
+        instants.addSerializer(Instant.class, new JsonSerializer<>() {
+            @Override
+            public void serialize(Instant t, JsonGenerator g, SerializerProvider p) throws IOException {
+                g.writeString(InstantText.of(t));
+            }
+        });
         ObjectMapper m = new ObjectMapper();
         m.registerModule(new JavaTimeModule());
         m.registerModule(ids);
+        m.registerModule(instants);
         // Records as their components only: no derived getters (isCluster, isProblem, ...) in the file.
         m.setVisibility(PropertyAccessor.ALL, JsonAutoDetect.Visibility.NONE);
         m.setVisibility(PropertyAccessor.FIELD, JsonAutoDetect.Visibility.ANY);
