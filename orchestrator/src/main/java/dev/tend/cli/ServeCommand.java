@@ -92,6 +92,19 @@ public final class ServeCommand implements Callable<Integer> {
             description = "how often the TLS files are looked at for a change (default: ${DEFAULT-VALUE})")
     String tlsCheckEvery;
 
+    @Option(names = "--kafka", paramLabel = "HOST:PORT",
+            description = "consume transitions from --topic on these brokers (HOST:PORT, several separated by commas): each record's"
+                    + " value is one wire line, as POST /api/v1/transitions takes; only the leader consumes")
+    String kafka;
+
+    @Option(names = "--topic", paramLabel = "TOPIC", description = "with --kafka: the topic to consume (every partition)")
+    String topic;
+
+    @Option(names = "--group", paramLabel = "GROUP", defaultValue = dev.tend.stream.StreamSource.DEFAULT_GROUP,
+            description = "with --kafka: the consumer group the positions are reported to; tend seeks to the offsets kept in"
+                    + " --db (default: ${DEFAULT-VALUE})")
+    String group;
+
     @Option(names = "--insecure-http",
             description = "allow plain HTTP on an address other than loopback (bearer tokens then cross the network in clear text)")
     boolean insecureHttp;
@@ -110,6 +123,7 @@ public final class ServeCommand implements Callable<Integer> {
             throw new CommandLine.ParameterException(spec.commandLine(), "--tls-check-every: " + e.getMessage());
         }
         if (checkEvery.isZero()) throw new CommandLine.ParameterException(spec.commandLine(), "--tls-check-every must be longer than 0s");
+        dev.tend.stream.StreamSource stream = stream();
         String warning = ListenSecurity.check(listen, tlsCert != null, insecureHttp);
         if (warning != null) err.println(warning);
         EngineSetup setup = policy.setup(EventTimeMode.following(EVENT_TIME_LAG));
@@ -119,7 +133,7 @@ public final class ServeCommand implements Callable<Integer> {
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
                 .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every())
-                .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).build();
+                .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).stream(stream).build();
         if (db.address().isPostgres()) return serveShared(err, settings, listen, tokens, key, setup, clock);
         try (Store store = db.open()) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
@@ -151,6 +165,20 @@ public final class ServeCommand implements Callable<Integer> {
             }
         }
         return ExitCodes.OK;
+    }
+
+    /** The topic of --kafka and --topic, or null without --kafka. */
+    private dev.tend.stream.StreamSource stream() {
+        if (kafka == null) {
+            if (topic != null) throw new CommandLine.ParameterException(spec.commandLine(), "--topic goes with --kafka HOST:PORT");
+            return null;
+        }
+        if (topic == null) throw new CommandLine.ParameterException(spec.commandLine(), "--kafka needs --topic TOPIC");
+        try {
+            return new dev.tend.stream.StreamSource(kafka, topic, group);
+        } catch (IllegalArgumentException e) {
+            throw new CommandLine.ParameterException(spec.commandLine(), e.getMessage());
+        }
     }
 
     /**

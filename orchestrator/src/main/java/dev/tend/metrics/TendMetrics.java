@@ -40,6 +40,8 @@ import java.util.Map;
  * tend_ledger_entries                       the ledger's length, read from the store at scrape time
  * tend_executor_duration_seconds{kind,success}  from call to result
  * tend_notifications_total{channel,outcome} page delivery attempts: delivered, retry (tried again later), failed (given up)
+ * tend_stream_records_total{outcome}        records of the --topic consumed: read (handed to the engine) or refused
+ * tend_stream_lag                           records of the --topic not consumed yet, over its partitions
  * </pre>
  * Thread-safe. {@link #committed} runs on the driver thread.
  */
@@ -76,6 +78,10 @@ public final class TendMetrics implements CommitListener {
             .help("The leader lease's epoch as this instance last saw it (rises at every takeover)").register(registry);
     private final Counter takeovers = Counter.builder().name("tend_takeovers_total")
             .help("Times this instance took the leader lease over from another instance").register(registry);
+    private final Counter streamRecords = Counter.builder().name("tend_stream_records_total")
+            .help("Records of the --topic consumed: read (handed to the engine) or refused").labelNames("outcome").register(registry);
+    private final Gauge streamLag = Gauge.builder().name("tend_stream_lag")
+            .help("Records of the --topic not consumed yet, summed over its partitions").register(registry);
     private final Gauge journalLag = Gauge.builder().name("tend_standby_journal_lag")
             .help("Journaled inputs a standby has not read into its engine yet (0 on the leader)").register(registry);
 
@@ -103,6 +109,16 @@ public final class TendMetrics implements CommitListener {
     /** This instance took the lease over from another instance. */
     public void tookOver() {
         takeovers.inc();
+    }
+
+    /** One record of the --topic was consumed: outcome read or refused. */
+    public void streamRecord(String outcome) {
+        streamRecords.labelValues(outcome).inc();
+    }
+
+    /** Records of the --topic not consumed yet, as the consumer last saw them. */
+    public void streamLag(long records) {
+        streamLag.set(records);
     }
 
     public void pageAttempted(String channel, String outcome) {

@@ -198,6 +198,18 @@ public final class Orchestrator {
         return submitEventAndWait(in);
     }
 
+    /**
+     * As {@link #submitEventAndWait(Input)} for an event read from a stream at {@code at}: the
+     * transaction that journals it (or refuses it) also stores {@code at}'s next offset as its
+     * partition's position (see {@code StoreTx#putStreamOffset}), so a consumer that seeks to
+     * the stored positions takes each record exactly once, across crashes and takeovers.
+     * Events of one partition must be queued in offset order.
+     */
+    public CompletableFuture<List<Effect>> submitEventAt(Input in, StreamPosition at) throws InterruptedException {
+        waiters.withPosition(in, at);
+        return submitEventAndWait(in);
+    }
+
     /** Queues a timer firing, executor result or operator command; never blocks. */
     public void submit(Input in) {
         inbox.add(in);
@@ -293,6 +305,7 @@ public final class Orchestrator {
             }
             long done = sourceDone + queued.cardinality();
             if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
+            Map<StreamPosition, Long> reached = waiters.reached(batch);
             store.useTransaction(tx -> {
                 tx.appendInputs(rows);
                 for (int i = 0; i < perInput.size(); i++) {
@@ -300,6 +313,7 @@ public final class Orchestrator {
                     if (waiters.hasReceipts()) waiters.receiptInto(batch.get(i), times.get(i), ledger);
                 }
                 tx.appendLedger(ledger);
+                reached.forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
             });
             sourceDone = done;
             sinceSnapshot += batch.size();
@@ -334,11 +348,13 @@ public final class Orchestrator {
                 rows.add(0, InputCodec.encode(in, now));
                 fx = engine.handle(in, now);
                 List<LedgerDraft> ledger = new ArrayList<>();
+                StreamPosition at = waiters.position(in);
                 store.useTransaction(tx -> {
                     tx.appendInputs(rows);
                     Projections.apply(tx, now, fx, ledger);
                     waiters.receiptInto(in, now, ledger);
                     tx.appendLedger(ledger);
+                    if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
                 });
             } catch (RuntimeException e) {
                 if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
@@ -361,13 +377,17 @@ public final class Orchestrator {
 
     private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
         String reason = InputRefusal.reason(cause);
+        StreamPosition at = waiters.position(in);
         try {
             store.useTransaction(tx -> {
                 if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
                 List<LedgerDraft> entries = new ArrayList<>(2);
-                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(InputRefusal.fields(in, reason))));
+                Map<String, Object> fields = InputRefusal.fields(in, reason);
+                if (at != null) fields.put("from", at.describe());
+                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(fields)));
                 waiters.receiptInto(in, now, entries);
                 tx.appendLedger(entries);
+                if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
             });
         } catch (RuntimeException e) {
             stopOn(rest, e);

@@ -14,13 +14,16 @@ import java.util.concurrent.CompletableFuture;
 
 /**
  * The callers of the {@link Orchestrator} that wait for an input to be committed (to answer a
- * person with its effects), and the receipts to append to the ledger with an input. Inputs
- * are told apart by identity: the same input object submitted, the same one answered.
+ * person with its effects), the receipts to append to the ledger with an input, and where an
+ * event read from a stream was read (its offset is stored with it). Inputs are told apart by
+ * identity: the same input object submitted, the same one answered.
  */
 final class Waiters {
     private final Map<Input, CompletableFuture<List<Effect>>> waiting = Collections.synchronizedMap(new IdentityHashMap<>());
     /** Ledger entries to append right after an input's own, in the transaction that commits it. */
     private final Map<Input, LedgerDraft> receipts = Collections.synchronizedMap(new IdentityHashMap<>());
+    /** Where events read from a stream were read, until their commit or refusal. */
+    private final Map<Input, StreamPosition> positions = Collections.synchronizedMap(new IdentityHashMap<>());
 
     /** A future completed with {@code in}'s effects once committed. */
     CompletableFuture<List<Effect>> await(Input in) {
@@ -34,10 +37,35 @@ final class Waiters {
         receipts.put(in, Objects.requireNonNull(receipt, "receipt"));
     }
 
+    /** Stores the offset after {@code at} when {@code in} commits (or is refused). */
+    void withPosition(Input in, StreamPosition at) {
+        positions.put(in, Objects.requireNonNull(at, "at"));
+    }
+
+    /** Where {@code in} was read from a stream; null when it was not. */
+    StreamPosition position(Input in) {
+        return positions.isEmpty() ? null : positions.get(in);
+    }
+
+    /**
+     * The partitions the stream events of {@code batch} were read from (keyed by a position
+     * with offset 0), each with the offset after the last of them: what the batch's commit stores.
+     */
+    Map<StreamPosition, Long> reached(List<Input> batch) {
+        if (positions.isEmpty()) return Map.of();
+        Map<StreamPosition, Long> out = new java.util.HashMap<>();
+        for (Input in : batch) {
+            StreamPosition p = positions.get(in);
+            if (p != null) out.merge(new StreamPosition(p.topic(), p.partition(), 0), p.offset() + 1, Math::max);
+        }
+        return out;
+    }
+
     /** Forgets {@code in} (it was never queued). */
     void forget(Input in) {
         waiting.remove(in);
         receipts.remove(in);
+        positions.remove(in);
     }
 
     boolean hasReceipts() {
@@ -53,6 +81,7 @@ final class Waiters {
     /** {@code in} was committed with effects {@code fx}. */
     void committed(Input in, List<Effect> fx) {
         receipts.remove(in);
+        positions.remove(in);
         CompletableFuture<List<Effect>> f = waiting.remove(in);
         if (f != null) f.complete(fx);
     }
@@ -61,6 +90,9 @@ final class Waiters {
     void committed(List<Input> batch, List<List<Effect>> perInput) {
         if (!receipts.isEmpty()) {
             for (Input in : batch) receipts.remove(in);
+        }
+        if (!positions.isEmpty()) {
+            for (Input in : batch) positions.remove(in);
         }
         if (!waiting.isEmpty()) {
             for (int i = 0; i < batch.size(); i++) {
@@ -73,6 +105,7 @@ final class Waiters {
     /** {@code in} will not be committed: its caller gets {@code cause}. */
     void failed(Input in, Throwable cause) {
         receipts.remove(in);
+        positions.remove(in);
         CompletableFuture<List<Effect>> f = waiting.remove(in);
         if (f != null) f.completeExceptionally(cause);
     }

@@ -27,10 +27,12 @@ import java.util.Objects;
  * @param tls            the certificate and key to listen with over HTTPS, or null for plain HTTP (default null)
  * @param snapshotEvery  inputs between two snapshots of the engine, 0 for none (default
  *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOT_EVERY})
+ * @param stream         the topic transitions are consumed from while this instance leads, or null for none (default null)
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
                             Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale,
-                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls, int snapshotEvery) {
+                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls, int snapshotEvery,
+                            dev.tend.stream.StreamSource stream) {
     public static final int DEFAULT_PORT = 7420;
 
     public ServeSettings {
@@ -75,6 +77,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private java.util.List<String> allowHosts = java.util.List.of();
         private int wrongTokens = dev.tend.api.auth.FailedTokens.LIMIT;
         private TlsFiles tls;
+        private dev.tend.stream.StreamSource stream;
 
         private Builder(EngineSetup setup) {
             this.setup = setup;
@@ -146,9 +149,14 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
+        public Builder stream(dev.tend.stream.StreamSource value) {
+            this.stream = value;
+            return this;
+        }
+
         public ServeSettings build() {
             return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
-                    allowHosts, wrongTokens, tls, snapshotEvery);
+                    allowHosts, wrongTokens, tls, snapshotEvery, stream);
         }
     }
 }

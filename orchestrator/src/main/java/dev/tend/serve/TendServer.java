@@ -51,6 +51,8 @@ public final class TendServer implements AutoCloseable {
     private final ApiServer api;
     private final PageDelivery pages;
     private final ServerTls tls;
+    /** Consumes the --topic into the driver; null without one. */
+    private final dev.tend.stream.KafkaIngest ingest;
     private final String host;
     /** When the driver last committed a batch: every input moves event time, so a tick is needed only after a quiet spell. */
     private final AtomicLong lastCommitNanos = new AtomicLong(System.nanoTime());
@@ -144,6 +146,9 @@ public final class TendServer implements AutoCloseable {
         pagesRef[0] = pages;
         // this process owns the engine (it opened the store and runs the driver), so it delivers the outbox
         pages.start();
+        // and it alone consumes the topic (a standby never builds a server), from the offsets the store keeps
+        ingest = s.stream() == null ? null : dev.tend.stream.KafkaIngest.start(s.stream(), store, orchestrator,
+                s.setup().config(), clock, metrics, log, () -> driverDone.getCount() > 0);
     }
 
     /** The pause before a page is tried again after a first failed attempt (it doubles, up to 5 minutes). */
@@ -231,6 +236,7 @@ public final class TendServer implements AutoCloseable {
     public void close() {
         if (closed) return;
         closed = true;
+        if (ingest != null) ingest.close();
         api.close();
         if (tls != null) tls.close();
         stopDriver();

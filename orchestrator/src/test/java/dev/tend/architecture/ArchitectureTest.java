@@ -20,7 +20,7 @@ import static com.tngtech.archunit.lang.syntax.ArchRuleDefinition.noClasses;
 class ArchitectureTest {
     private static final String[] ORCHESTRATOR = {"dev.tend.engine..", "dev.tend.executor..", "dev.tend.runtime..",
             "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..", "dev.tend.metrics..", "dev.tend.replay..",
-            "dev.tend.handover..", "dev.tend.demo..", "dev.tend.page..", "dev.tend.http.."};
+            "dev.tend.handover..", "dev.tend.demo..", "dev.tend.page..", "dev.tend.http..", "dev.tend.stream.."};
     private static JavaClasses classes;
 
     @BeforeAll
@@ -45,8 +45,15 @@ class ArchitectureTest {
         check(noClasses().that().resideInAPackage("dev.tend.engine..").should().dependOnClassesThat().resideInAnyPackage(
                 "dev.tend.executor..", "dev.tend.runtime..", "dev.tend.api..", "dev.tend.cli..", "dev.tend.serve..",
                 "dev.tend.metrics..", "dev.tend.replay..", "dev.tend.handover..", "dev.tend.demo..", "dev.tend.store..",
-                "dev.tend.simulator..", "dev.tend.page..", "dev.tend.http..")
+                "dev.tend.simulator..", "dev.tend.page..", "dev.tend.http..", "dev.tend.stream..")
                 .because("adapters depend on the engine, never the reverse"));
+    }
+
+    @Test
+    void onlyTheStreamAdapterUsesTheKafkaClient() {
+        check(noClasses().that().resideOutsideOfPackage("dev.tend.stream..").should().dependOnClassesThat()
+                .resideInAPackage("org.apache.kafka..")
+                .because("the consumer is a thin adapter feeding the driver as the HTTP route does; nothing else knows Kafka"));
     }
 
     /**

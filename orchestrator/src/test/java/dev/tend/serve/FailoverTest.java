@@ -8,6 +8,7 @@ import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.Store;
 import dev.tend.testing.EmbeddedPostgres;
+import dev.tend.testing.InProcessKafka;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -35,18 +36,23 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 /**
  * Leader and standby on one PostgreSQL (DESIGN.md section 9), as separate {@code tend serve}
- * processes: a storm of transitions over HTTP to whichever instance leads, every run's
+ * processes consuming one topic of a real broker (Kafka's test kit, in this JVM on loopback):
+ * a storm of transitions produced to the topic, which only the leader consumes, every run's
  * steps calling a loopback receiver that logs idempotency keys, and the leader killed with
  * SIGKILL mid-storm several times (a new standby started each time); then a leader paused
  * with SIGSTOP past its lease and resumed, which must step down and say so. Prints and
  * asserts: each takeover within 15 s of the kill, no step executed under two keys and no
- * key done twice, no posted transition missing from the journal, the fleet cap and the brake
- * never exceeded, and {@code tend audit verify} passing. Runs with {@code -Pfailover}
+ * key done twice, no produced transition missing from the journal and none journaled twice,
+ * each bad record refused exactly once, the fleet cap and the brake never exceeded, and
+ * {@code tend audit verify} passing. Runs with {@code -Pfailover}
  * (kills: {@code tend.failover.kills}, 0 in the default build, which skips it).
  */
 class FailoverTest {
     static final int KILLS = Integer.getInteger("tend.failover.kills", 0);
     private static final int CLUSTERS = 40;
+    /** Records of harmless clears produced beside the storm's silences at each step, so a kill lands mid-stream. */
+    private static final int FILLER = 3000;
+    private static final int PARTITIONS = 2;
     private static final int FLEET_CAP = 6;
     private static final String LEASE = "3s";
     private static final String TOKEN = "tok-failover-operator";
@@ -61,6 +67,14 @@ class FailoverTest {
     private String user;
     private final List<Instance> instances = new ArrayList<>();
     private int started;
+    private InProcessKafka kafka;
+    /** The test's own view of the shared store (opened first, so it also migrates the database). */
+    private Store watch;
+    private String topic;
+    /** The event time of every good record produced (one of its own each), and how many bad records were. */
+    private final List<Instant> produced = new ArrayList<>();
+    private int badProduced;
+    private final Instant base = Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
 
     private record Instance(String name, int port, Process process) {
     }
@@ -71,12 +85,18 @@ class FailoverTest {
         EmbeddedPostgres pg = EmbeddedPostgres.get();
         url = pg.createDatabase();
         user = pg.user();
+        kafka = InProcessKafka.get();
+        topic = kafka.createTopic("larkspur-failover", PARTITIONS);
+        watch = Store.openJdbc(url, user, null);
         try (KeyReceiver receiver = KeyReceiver.start(Duration.ofMillis(400))) {
             writePolicy(receiver.url());
             Instance first = start();
             assertThat(awaitRole(first, "leader", 90)).as(log(first)).isTrue();
             Instance second = start();
             assertThat(awaitRole(second, "standby", 90)).as(log(second)).isTrue();
+            // a standby names the leader once it has read the lease (its first look comes right after it starts)
+            long seen = System.nanoTime() + TimeUnit.SECONDS.toNanos(30);
+            while (leaderUrl(second).isEmpty() && System.nanoTime() < seen) Thread.sleep(50);
             HttpResponse<String> refused = postTo(second, "fares-1");
             assertThat(refused.statusCode()).as(refused.body()).isEqualTo(503);
             assertThat(refused.body()).contains("not-leader");
@@ -87,11 +107,18 @@ class FailoverTest {
             for (int c = 1; c <= CLUSTERS; c++) storm.add("fares-" + c);
             int posted = 0;
             List<Long> takeoverMs = new ArrayList<>();
+            List<String> consumedAtKill = new ArrayList<>();
             for (int k = 0; k < KILLS; k++) {
                 int until = Math.min(storm.size(), posted + 2 + random.nextInt(CLUSTERS / (KILLS + 1) + 2));
-                for (; posted < until; posted++) postToLeader(storm.get(posted));
-                Thread.sleep(300 + random.nextInt(700));
+                long before = consumed();
+                java.util.concurrent.CompletableFuture<Void> sending = produce(storm.subList(posted, until));
+                posted = until;
+                // killed while the step's records arrive and are consumed: mid-stream
+                long target = before + 200 + random.nextInt(800);
+                long by = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+                while (consumed() < target && System.nanoTime() < by) Thread.sleep(10);
                 Instance leader = leader();
+                consumedAtKill.add(consumed() + " of " + (produced.size() + badProduced));
                 long killedAt = System.nanoTime();
                 leader.process().destroyForcibly(); // SIGKILL
                 leader.process().waitFor(30, TimeUnit.SECONDS);
@@ -101,8 +128,11 @@ class FailoverTest {
                 takeoverMs.add(TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - killedAt));
                 Instance fresh = start();
                 assertThat(awaitRole(fresh, "standby", 90)).as(log(fresh)).isTrue();
+                sending.get(60, TimeUnit.SECONDS);
             }
-            for (; posted < storm.size(); posted++) postToLeader(storm.get(posted));
+            produce(storm.subList(posted, storm.size())).get(60, TimeUnit.SECONDS);
+            posted = storm.size();
+            awaitConsumed();
 
             // a leader paused past its lease: the standby takes over; resumed, it cannot commit and says so
             Instance paused = leader();
@@ -117,7 +147,9 @@ class FailoverTest {
             String pausedLog = log(paused);
             assertThat(stepsDown(paused)).as(pausedLog).isTrue();
 
-            Instance last = leader();
+            // the resumed instance may still call itself leader for a moment while it stops: ask the one that took over
+            assertThat(awaitRole(other, "leader", 30)).as(log(other)).isTrue();
+            Instance last = other;
             // the storm engaged the brake (30 of 40 clusters silent), which holds until a person releases it
             HttpResponse<String> released = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + last.port()
                             + "/api/v1/brake/release")).header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(30))
@@ -146,42 +178,110 @@ class FailoverTest {
 
             Figures f = figures(storm, receiver);
             int audit = auditVerify();
+            System.out.println("failover: records consumed when each SIGKILL came: " + consumedAtKill);
             System.out.printf("failover: %d SIGKILLs of the leader, takeover after %s ms (max %d ms), SIGSTOP past the lease: "
-                            + "taken over after %d ms, the paused leader stepped down; %d transitions posted, %d missing from the "
-                            + "journal; %d runs, %d keys done, %d asked again by key and answered from the log, %d steps done under "
+                            + "taken over after %d ms, the paused leader stepped down; %d records produced to the topic (%d bad), "
+                            + "%d missing from the journal, %d journaled twice, %d bad records refused (%d twice); %d silenced clusters "
+                            + "missing; %d runs, %d keys done, %d asked again by key and answered from the log, %d steps done under "
                             + "two keys; at most %d runs at once (cap %d), %d runs started while the brake was engaged; "
                             + "tend audit verify exit %d%n",
                     KILLS, takeoverMs, takeoverMs.stream().mapToLong(Long::longValue).max().orElse(0), pauseTakeoverMs,
-                    storm.size(), f.missing, f.runs, receiver.done().size(), receiver.repeats(), f.stepsTwice,
+                    produced.size() + badProduced, badProduced, f.recordsMissing, f.recordsTwice, f.refused, f.refusedTwice,
+                    f.missing, f.runs, receiver.done().size(), receiver.repeats(), f.stepsTwice,
                     f.maxActive, FLEET_CAP, f.startsWhileBraked, audit);
             assertThat(takeoverMs).allSatisfy(ms -> assertThat(ms).isLessThan(15_000));
             assertThat(pauseTakeoverMs).isLessThan(15_000);
             assertThat(f.missing).isZero();
+            assertThat(f.recordsMissing).isZero();
+            assertThat(f.recordsTwice).isZero();
+            assertThat(f.refused).isEqualTo(badProduced);
+            assertThat(f.refusedTwice).isZero();
             assertThat(f.stepsTwice).isZero();
             assertThat(receiver.done()).isNotEmpty();
             assertThat(f.maxActive).isLessThanOrEqualTo(FLEET_CAP);
             assertThat(f.startsWhileBraked).isZero();
             assertThat(f.ledger.ok()).as(f.ledger.reason()).isTrue();
             assertThat(audit).isZero();
+        } catch (Throwable t) {
+            // what each instance said, killed ones included: the figures alone do not tell why
+            for (int n = 1; n <= started; n++) {
+                Path err = dir.resolve("tend-" + n + ".err");
+                if (!Files.exists(err)) continue;
+                List<String> lines = Files.readAllLines(err);
+                System.out.println("failover: the log of tend-" + n + " (last 40 lines):");
+                lines.subList(Math.max(0, lines.size() - 40), lines.size()).forEach(l -> System.out.println("  " + l));
+            }
+            throw t;
         } finally {
             for (Instance i : instances) i.process().destroyForcibly();
+            if (watch != null) watch.close();
         }
     }
 
     /** What the store and the receiver hold after the storm. */
-    private record Figures(long missing, int runs, long stepsTwice, int maxActive, int startsWhileBraked, LedgerVerification ledger) {
+    private record Figures(long missing, long recordsMissing, long recordsTwice, int refused, long refusedTwice, int runs, long stepsTwice,
+                           int maxActive, int startsWhileBraked, LedgerVerification ledger) {
     }
 
-    private Figures figures(List<String> storm, KeyReceiver receiver) {
+    /**
+     * Produces a step of the storm: a silence of each of {@code clusters} (node n1), {@link #FILLER}
+     * clears of nodes n2 and n3, and one record that is not a wire line, spread over the
+     * partitions and sent on another thread; every good record has an event time of its own,
+     * so the journal shows each once.
+     */
+    private java.util.concurrent.CompletableFuture<Void> produce(List<String> clusters) {
+        List<List<String>> byPartition = new ArrayList<>();
+        for (int p = 0; p < PARTITIONS; p++) byPartition.add(new ArrayList<>());
+        int i = 0;
+        for (String c : clusters) byPartition.get(i++ % PARTITIONS).add(record(c, "n1", "silent"));
+        for (int n = 0; n < FILLER; n++) {
+            byPartition.get(n % PARTITIONS).add(record("fares-" + (1 + n % CLUSTERS), "n" + (2 + n % 2), "clear"));
+        }
+        byPartition.get(badProduced % PARTITIONS).add("{\"at\": not a wire line " + badProduced + "}");
+        badProduced++;
+        return java.util.concurrent.CompletableFuture.runAsync(() -> {
+            for (int p = 0; p < PARTITIONS; p++) kafka.send(topic, p, byPartition.get(p));
+        });
+    }
+
+    private String record(String cluster, String node, String state) {
+        Instant at = base.plusMillis(produced.size());
+        produced.add(at);
+        return "{\"at\":\"" + at + "\",\"cluster\":\"" + cluster + "\",\"node\":\"" + node + "\",\"signal\":\"heartbeat\","
+                + "\"state\":\"" + state + "\"}";
+    }
+
+    /** Records of the topic journaled or refused so far, as the offsets in the store count them. */
+    private long consumed() {
+        return watch.read(r -> r.streamOffsets(topic)).values().stream().mapToLong(Long::longValue).sum();
+    }
+
+    /** Waits until the store's offsets count every record produced: the leader consumed the whole storm. */
+    private void awaitConsumed() throws Exception {
+        long total = produced.size() + badProduced;
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
+        while (System.nanoTime() < deadline) {
+            if (consumed() >= total) return;
+            Thread.sleep(200);
+        }
+        throw new AssertionError("the storm's " + total + " records were not consumed within 120 s; " + log(leader()));
+    }
+
+    private Figures figures(List<String> storm, KeyReceiver receiver) throws IOException {
         try (Store store = Store.openJdbc(url, user, null)) {
             Set<String> journaled = new HashSet<>();
+            Map<Instant, Integer> times = new java.util.HashMap<>();
             store.read(r -> {
                 r.forEachInput(0, row -> {
-                    if (row.kind().equals("transition") && row.cluster() != null) journaled.add(row.cluster());
+                    if (!row.kind().equals("transition")) return;
+                    if (row.cluster() != null && row.payload().contains("\"silent\"")) journaled.add(row.cluster());
+                    times.merge(row.eventAt(), 1, Integer::sum);
                 });
                 return null;
             });
             long missing = storm.stream().filter(c -> !journaled.contains(c)).count();
+            long recordsMissing = produced.stream().filter(t -> !times.containsKey(t)).count();
+            long recordsTwice = times.values().stream().filter(n -> n > 1).count();
             List<LedgerEntry> entries = new ArrayList<>();
             store.read(r -> {
                 r.forEachLedger(new LedgerFilter(null, null, null, null, null, null), entries::add);
@@ -190,6 +290,8 @@ class FailoverTest {
             Set<String> active = new HashSet<>();
             Set<String> runs = new HashSet<>();
             int maxActive = 0, whileBraked = 0;
+            Set<String> refusedFrom = new HashSet<>();
+            long refusedTwice = 0;
             boolean braked = false;
             for (LedgerEntry e : entries) {
                 switch (e.kind()) {
@@ -202,6 +304,10 @@ class FailoverTest {
                     case "run-ended" -> active.remove(e.run());
                     case "brake-engaged" -> braked = true;
                     case "brake-released" -> braked = false;
+                    case "input-refused" -> {
+                        String from = JSON.readTree(e.entry()).path("from").asText();
+                        if (from.startsWith("topic " + topic) && !refusedFrom.add(from)) refusedTwice++;
+                    }
                     default -> {
                     }
                 }
@@ -213,7 +319,8 @@ class FailoverTest {
                 keysByStep.computeIfAbsent(step, s -> new HashSet<>()).add(key);
             }
             long twice = keysByStep.values().stream().filter(s -> s.size() > 1).count();
-            return new Figures(missing, runs.size(), twice, maxActive, whileBraked, store.read(r -> r.verifyLedger()));
+            return new Figures(missing, recordsMissing, recordsTwice, refusedFrom.size(), refusedTwice, runs.size(), twice, maxActive,
+                    whileBraked, store.read(r -> r.verifyLedger()));
         }
     }
 
@@ -225,7 +332,8 @@ class FailoverTest {
                 "dev.tend.cli.TendMain", "serve", "--playbooks", dir.resolve("policy").toString(),
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
                 "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port, "--lease", LEASE,
-                "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200"));
+                "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200",
+                "--kafka", kafka.bootstrap(), "--topic", topic));
         Process p = new ProcessBuilder(cmd).directory(dir.toFile())
                 .redirectOutput(dir.resolve(name + ".out").toFile())
                 .redirectError(dir.resolve(name + ".err").toFile()).start();
@@ -259,6 +367,12 @@ class FailoverTest {
         }
     }
 
+    /** The leader's URL as {@code i}'s health names it; empty when it names none. */
+    private String leaderUrl(Instance i) {
+        JsonNode h = health(i);
+        return h == null ? "" : h.path("leader").path("leader_url").asText("");
+    }
+
     private boolean awaitRole(Instance i, String role, int seconds) throws Exception {
         long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(seconds);
         while (i.process().isAlive() && System.nanoTime() < deadline) {
@@ -286,24 +400,6 @@ class FailoverTest {
     private static String line(String cluster) {
         return "{\"at\":\"" + Instant.now() + "\",\"cluster\":\"" + cluster + "\",\"node\":\"n1\",\"signal\":\"heartbeat\","
                 + "\"state\":\"silent\"}";
-    }
-
-    /** Posts one transition to the instance that leads, trying again (across a takeover) until it is committed. */
-    private void postToLeader(String cluster) throws Exception {
-        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
-        while (System.nanoTime() < deadline) {
-            for (Instance i : instances) {
-                try {
-                    HttpResponse<String> r = postTo(i, cluster);
-                    if (r.statusCode() == 200) return;
-                    assertThat(r.statusCode()).as(r.body()).isEqualTo(503);
-                } catch (IOException down) {
-                    // that instance is gone or starting
-                }
-            }
-            Thread.sleep(100);
-        }
-        throw new AssertionError("no instance took the transition of " + cluster + " within 60s");
     }
 
     private String metrics(Instance i) throws Exception {

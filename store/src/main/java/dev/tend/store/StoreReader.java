@@ -77,6 +77,12 @@ public interface StoreReader {
      */
     void forEachTransitionInput(Instant from, Instant until, Set<String> clusters, Consumer<InputRow> consumer);
 
+    /**
+     * For each partition of {@code topic} taken in so far, the offset of its first record not
+     * yet journaled or refused (see {@link StoreTx#putStreamOffset}); empty for a new topic.
+     */
+    java.util.Map<Integer, Long> streamOffsets(String topic);
+
     /** The newest snapshot (highest seq), if any. */
     Optional<SnapshotRow> latestSnapshot();
 

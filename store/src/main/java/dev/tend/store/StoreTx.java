@@ -74,6 +74,13 @@ public interface StoreTx extends StoreReader {
      */
     long deleteInputs(long throughSeq, Instant before);
 
+    /**
+     * Records that the records of {@code topic}'s partition {@code partition} before
+     * {@code nextOffset} are taken in (journaled or refused), replacing what was recorded;
+     * written in the transaction that journals them, so the two hold together.
+     */
+    void putStreamOffset(String topic, int partition, long nextOffset);
+
     /** Puts a page in the outbox, unless a page with its id is there already (then nothing changes). */
     void enqueuePage(PageRow page);
 

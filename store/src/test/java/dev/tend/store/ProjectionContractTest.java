@@ -242,11 +242,11 @@ abstract class ProjectionContractTest extends StoreTestBase {
         store = db.open();
         store.close();
         store = db.open();
-        // version 1 (journal, projections, ledger), 2.16 (the page outbox), 2.17 (snapshots) and 2.18 (the leader
-        // lease), each applied once
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("4");
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?)", "1", "2.16", "2.17",
-                "2.18")).isEqualTo("4");
+        // version 1 (journal, projections, ledger), 2.16 (the page outbox), 2.17 (snapshots), 2.18 (the leader
+        // lease) and 2.19 (stream offsets), each applied once
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("5");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?)", "1", "2.16", "2.17",
+                "2.18", "2.19")).isEqualTo("5");
         assertThat(lastInputSeq()).isEqualTo(1);
         LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
         assertThat(second.seq()).isEqualTo(2);

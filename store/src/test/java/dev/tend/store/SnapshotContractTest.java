@@ -38,11 +38,12 @@ abstract class SnapshotContractTest extends StoreTestBase {
         store = null;
         db.execute("DROP TABLE snapshots");
         db.execute("DROP TABLE leader_lease");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?)", "2.17", "2.18")).isEqualTo(2);
+        db.execute("DROP TABLE stream_offsets");
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?)", "2.17", "2.18", "2.19")).isEqualTo(3);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?) AND success = ?", "2.17",
-                "2.18", true)).isEqualTo("2");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?) AND success = ?", "2.17",
+                "2.18", "2.19", true)).isEqualTo("3");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }

@@ -172,6 +172,31 @@ abstract class TransactionContractTest extends StoreTestBase {
         assertThat(v.entries()).isEqualTo(threads * transactions * 2L);
     }
 
+    private Map<Integer, Long> offsets(String topic) {
+        return store.read(r -> r.streamOffsets(topic));
+    }
+
+    @Test
+    void streamOffsetsCommitAndRollBackWithTheJournalRowsTheyCount() {
+        assertThat(offsets("larkspur-health")).isEmpty();
+        store.useTransaction(tx -> {
+            tx.appendInputs(List.of(input(1), input(2)));
+            tx.putStreamOffset("larkspur-health", 0, 2);
+            tx.putStreamOffset("larkspur-health", 3, 17);
+            tx.putStreamOffset("other-topic", 0, 5);
+        });
+        assertThatThrownBy(() -> store.useTransaction(tx -> {
+            tx.appendInput(input(3));
+            tx.putStreamOffset("larkspur-health", 0, 3);
+            throw new IllegalStateException("the caller fails after writing");
+        })).isInstanceOf(IllegalStateException.class);
+        assertThat(store.read(StoreReader::lastInputSeq)).isEqualTo(2);
+        assertThat(offsets("larkspur-health")).containsExactly(Map.entry(0, 2L), Map.entry(3, 17L));
+        store.useTransaction(tx -> tx.putStreamOffset("larkspur-health", 0, 4));
+        assertThat(offsets("larkspur-health")).containsEntry(0, 4L).hasSize(2);
+        assertThat(offsets("other-topic")).containsExactly(Map.entry(0, 5L));
+    }
+
     @Test
     void aReaderUsedAfterItsCallbackReturnedIsRejected() {
         StoreReader leaked = store.read(r -> r);

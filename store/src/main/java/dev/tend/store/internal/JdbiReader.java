@@ -79,6 +79,18 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
+    public java.util.Map<Integer, Long> streamOffsets(String topic) {
+        Objects.requireNonNull(topic, "topic");
+        beforeRead();
+        java.util.Map<Integer, Long> out = new java.util.TreeMap<>();
+        handle.createQuery("SELECT part, next_offset FROM stream_offsets WHERE topic = :topic")
+                .bind("topic", topic)
+                .map((rs, ctx) -> java.util.Map.entry(rs.getInt(1), rs.getLong(2)))
+                .forEach(e -> out.put(e.getKey(), e.getValue()));
+        return java.util.Collections.unmodifiableMap(out);
+    }
+
+    @Override
     public Optional<dev.tend.store.SnapshotRow> latestSnapshot() {
         beforeRead();
         return handle.createQuery("SELECT seq, taken_ns, format, setup, body FROM snapshots ORDER BY seq DESC LIMIT 1")

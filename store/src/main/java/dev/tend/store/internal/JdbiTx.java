@@ -328,6 +328,20 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     }
 
     @Override
+    public void putStreamOffset(String topic, int partition, long nextOffset) {
+        requireOpen();
+        Objects.requireNonNull(topic, "topic");
+        if (partition < 0) throw new IllegalArgumentException("partition must be 0 or more, got " + partition);
+        if (nextOffset < 0) throw new IllegalArgumentException("nextOffset must be 0 or more, got " + nextOffset);
+        handle.createUpdate("INSERT INTO stream_offsets (topic, part, next_offset) VALUES (:topic, :part, :next) "
+                        + "ON CONFLICT (topic, part) DO UPDATE SET next_offset = excluded.next_offset")
+                .bind("topic", topic)
+                .bind("part", partition)
+                .bind("next", nextOffset)
+                .execute();
+    }
+
+    @Override
     public void enqueuePage(PageRow p) {
         requireOpen();
         Objects.requireNonNull(p, "page");
