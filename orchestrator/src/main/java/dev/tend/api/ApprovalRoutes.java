@@ -1,5 +1,6 @@
 package dev.tend.api;
 
+import dev.tend.shared.ApprovalState;
 import dev.tend.api.auth.Caller;
 import dev.tend.api.auth.Role;
 import dev.tend.api.view.ApprovalOutcome;
@@ -41,11 +42,11 @@ final class ApprovalRoutes {
 
     private void list(Context ctx) {
         String state = ctx.queryParam("state");
-        if (state == null || state.isEmpty()) state = ApprovalRow.PENDING;
-        if (!state.equals("all") && !ApprovalRow.STATES.contains(state)) {
+        if (state == null || state.isEmpty()) state = ApprovalState.PENDING.wireName();
+        if (!state.equals("all") && ApprovalState.of(state).isEmpty()) {
             throw Requests.invalid("state", "state must be pending, approved, rejected, lapsed, withdrawn or all, got '" + state + "'");
         }
-        String s = state.equals("all") ? null : state;
+        ApprovalState s = state.equals("all") ? null : ApprovalState.of(state).orElseThrow();
         ctx.json(store.read(rd -> rd.approvals(s).stream().map(Views::approval).toList()));
     }
 

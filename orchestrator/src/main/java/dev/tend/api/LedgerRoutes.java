@@ -11,14 +11,14 @@ import io.javalin.http.Context;
 import io.javalin.router.JavalinDefaultRouting;
 
 import java.time.Instant;
-import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.List;
 
 /**
  * {@code GET /api/v1/ledger}: the filters of {@code tend audit} (since, until as RFC 3339;
- * cluster, playbook, kind, run) and limit (default 500, at most 10000). Answers the newest
- * {@code limit} matching entries, oldest first, each the entry's fields plus its hash:
+ * cluster, playbook, kind, run), limit (default 500, at most 10000) and before (a seq: only
+ * older entries, for the next page). Answers the newest {@code limit} matching entries, oldest
+ * first, each the entry's fields plus its hash; {@code truncated} when older ones match too:
  * {@code {"entries":[...],"truncated":bool,"head_seq":n,"head_hash":"..."}}.
  */
 final class LedgerRoutes {
@@ -46,22 +46,30 @@ final class LedgerRoutes {
                 .withCluster(Requests.idParam(ctx, "cluster")).withPlaybook(Requests.idParam(ctx, "playbook"))
                 .withKind(kind(ctx)).withRun(Requests.idParam(ctx, "run"));
         int limit = Requests.limit(ctx, 500, 10_000);
+        long before = before(ctx);
         ctx.json(store.read(rd -> {
-            ArrayDeque<LedgerEntry> newest = new ArrayDeque<>(Math.min(limit, 1024));
-            boolean[] truncated = {false};
-            rd.forEachLedger(f, e -> {
-                if (newest.size() == limit) {
-                    newest.removeFirst();
-                    truncated[0] = true;
-                }
-                newest.addLast(e);
-            });
-            List<ObjectNode> entries = new ArrayList<>(newest.size());
-            for (LedgerEntry e : newest) entries.add(node(e));
+            // one more than the page, newest first: whether older matching entries remain
+            List<LedgerEntry> newest = rd.newestLedger(f, before, limit + 1);
+            boolean truncated = newest.size() > limit;
+            List<ObjectNode> entries = new ArrayList<>(Math.min(newest.size(), limit));
+            for (int i = Math.min(newest.size(), limit) - 1; i >= 0; i--) entries.add(node(newest.get(i)));
             LedgerEntry head = rd.ledgerHead().orElse(null);
-            return new LedgerPage(entries, truncated[0], head == null ? 0 : head.seq(),
+            return new LedgerPage(entries, truncated, head == null ? 0 : head.seq(),
                     head == null ? LedgerEntry.GENESIS_HASH : head.hash());
         }));
+    }
+
+    /** {@code before}: only entries with a lower seq (the next older page starts below the first seq of this one). */
+    private static long before(Context ctx) {
+        String v = ctx.queryParam("before");
+        if (v == null || v.isEmpty()) return Long.MAX_VALUE;
+        try {
+            long n = Long.parseLong(v);
+            if (n >= 1) return n;
+        } catch (NumberFormatException ignored) {
+            // answered below
+        }
+        throw Requests.invalid("before", "before must be an entry's seq (a whole number, 1 or more), got '" + v + "'");
     }
 
     private static String kind(Context ctx) {

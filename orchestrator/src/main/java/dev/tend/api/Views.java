@@ -36,7 +36,7 @@ final class Views {
 
     static ApprovalView approval(ApprovalRow a) {
         List<String> reasons = a.reasons() == null ? List.of() : read(a.reasons(), new TypeReference<List<String>>() { });
-        return new ApprovalView(a.runId(), a.playbook(), a.cluster(), a.node(), a.state(), a.requestedBy(), a.requestedAt(),
+        return new ApprovalView(a.runId(), a.playbook(), a.cluster(), a.node(), a.state().wireName(), a.requestedBy(), a.requestedAt(),
                 a.expiresAt(), a.decidedBy(), a.decidedAt(), reasons);
     }
 

@@ -21,15 +21,13 @@ public final class ApprovalsCommand implements Callable<Integer> {
             description = "pending, approved, rejected, lapsed, withdrawn or all (default: ${DEFAULT-VALUE})")
     String state;
 
-    @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-    Format format;
-
-    enum Format { text, json }
+    @Mixin
+    TextOrJsonFormat format;
 
     @Override
     public Integer call() {
         var list = server.operations().approvals(state);
-        if (format == Format.json) Render.json(spec.commandLine().getOut(), list);
+        if (format.json()) Render.json(spec.commandLine().getOut(), list);
         else Render.approvals(spec.commandLine().getOut(), list);
         return ExitCodes.OK;
     }

@@ -51,10 +51,9 @@ public final class AuditCommand implements Callable<Integer> {
     @Option(names = "--run", paramLabel = "RUN")
     String run;
 
-    @Option(names = "--format", defaultValue = "text", description = "text, json (JSON Lines) or csv (default: ${DEFAULT-VALUE})")
-    Format format;
-
-    enum Format { text, json, csv }
+    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextJsonOrCsv.class,
+            completionCandidates = OutputFormat.TextJsonOrCsv.class, description = "text, json (JSON Lines) or csv (default: ${DEFAULT-VALUE})")
+    OutputFormat format;
 
     @Override
     public Integer call() throws Exception {
@@ -70,7 +69,7 @@ public final class AuditCommand implements Callable<Integer> {
         LedgerFilter filter = f;
         try (Store store = db.openExisting()) {
             if (kind != null) checkKind(store.read(r -> r.ledgerKinds()));
-            if (format == Format.csv) out.println("seq,at,kind,cluster,playbook,run,hash,entry");
+            if (format == OutputFormat.csv) out.println("seq,at,kind,cluster,playbook,run,hash,entry");
             store.read(r -> {
                 Map<String, Optional<String>> nodes = new HashMap<>();
                 LedgerText text = new LedgerText(run -> nodes.computeIfAbsent(run, id -> r.run(id).map(RunRow::node)).orElse(null));

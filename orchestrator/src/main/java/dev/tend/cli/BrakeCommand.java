@@ -73,13 +73,13 @@ public final class BrakeCommand implements Runnable {
         @Mixin
         ServerOptions server;
 
-        @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-        ApprovalsCommand.Format format;
+        @Mixin
+        TextOrJsonFormat format;
 
         @Override
         public Integer call() {
             var b = server.operations().brake();
-            if (format == ApprovalsCommand.Format.json) Render.json(spec.commandLine().getOut(), b);
+            if (format.json()) Render.json(spec.commandLine().getOut(), b);
             else spec.commandLine().getOut().println(Render.brake(b));
             return ExitCodes.OK;
         }

@@ -13,6 +13,7 @@ import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -40,10 +41,8 @@ public final class CheckCommand implements Callable<Integer> {
     @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
     Path config;
 
-    @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-    Format format;
-
-    enum Format { text, json }
+    @Mixin
+    TextOrJsonFormat format;
 
     @Override
     public Integer call() {
@@ -64,7 +63,7 @@ public final class CheckCommand implements Callable<Integer> {
             return ExitCodes.USAGE;
         }
         List<Finding> findings = Lint.check(set, fleet, ExecutorRegistry.kinds());
-        if (format == Format.json) {
+        if (format.json()) {
             out.println(FindingsFormat.json(findings));
         } else {
             out.println(summary(set, fleet));

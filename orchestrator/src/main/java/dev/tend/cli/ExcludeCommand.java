@@ -96,13 +96,13 @@ public final class ExcludeCommand implements Runnable {
         @Mixin
         ServerOptions server;
 
-        @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-        ApprovalsCommand.Format format;
+        @Mixin
+        TextOrJsonFormat format;
 
         @Override
         public Integer call() {
             var list = server.operations().exclusions();
-            if (format == ApprovalsCommand.Format.json) Render.json(spec.commandLine().getOut(), list);
+            if (format.json()) Render.json(spec.commandLine().getOut(), list);
             else Render.exclusions(spec.commandLine().getOut(), list);
             return ExitCodes.OK;
         }

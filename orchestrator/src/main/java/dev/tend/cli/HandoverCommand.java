@@ -43,14 +43,13 @@ public final class HandoverCommand implements Callable<Integer> {
     @Option(names = "--until", paramLabel = "T", description = "end of the period, not included (default: now, or just after the ledger's last entry when that is later)")
     String until;
 
-    @Option(names = "--format", defaultValue = "text",
+    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextCsvOrHtml.class,
+            completionCandidates = OutputFormat.TextCsvOrHtml.class,
             description = "text (one screen), csv (one table, see --table) or html (one self-contained page with a timeline); default: ${DEFAULT-VALUE}")
-    Format format;
+    OutputFormat format;
 
     @Option(names = "--out", paramLabel = "FILE", description = "write the report to FILE instead of standard output")
     Path out;
-
-    enum Format { text, csv, html }
 
     @Option(names = "--table", defaultValue = "runs", paramLabel = "T",
             description = "with --format csv, the one table to write: runs (one row per run) or summary (one metric per row);"

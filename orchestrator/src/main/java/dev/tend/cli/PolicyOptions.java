@@ -6,8 +6,6 @@ import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.LedgerKind;
 import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.PlaybookSet;
-import dev.tend.playbooks.load.PlaybookLoader;
-import dev.tend.replay.ActionOverrides;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
 import picocli.CommandLine.Option;
@@ -16,34 +14,18 @@ import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.Map;
 
-/** {@code --playbooks DIR --fleet FILE [--config FILE]}: what an engine is built from. */
-final class PolicyOptions {
-    @Option(names = "--playbooks", paramLabel = "DIR", required = true,
-            description = "playbook directory with actions.yaml (and tend.yaml unless --config)")
-    Path playbooks;
-
+/**
+ * {@code --playbooks DIR --fleet FILE [--config FILE] [--actions FILE]}: what an engine is
+ * built from (the policy of {@link PolicySource} and the fleet).
+ */
+final class PolicyOptions extends PolicySource {
     @Option(names = "--fleet", paramLabel = "FILE", required = true, description = "fleet file (YAML or JSON)")
     Path fleet;
 
-    @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy (default: DIR/tend.yaml if present)")
-    Path config;
-
-    @Option(names = "--actions", paramLabel = "FILE", description = ACTIONS_HELP)
-    Path actions;
-
-    /** What {@code --actions FILE} means, in every command that has it. */
-    static final String ACTIONS_HELP = "an actions.yaml laid over DIR/actions.yaml: its actions replace those of the same id,"
-            + " the others stay (say, command actions for live use over the simulated ones)";
-
     EngineSetup setup(EventTimeMode mode) {
-        PlaybookSet set = withActions(PlaybookLoader.load(playbooks, config), actions);
+        PlaybookSet set = load();
         Fleet f = FleetFile.load(fleet);
         return new EngineSetup(set, set.config(), f, BrakeThresholds.from(set.config().brake()), mode);
-    }
-
-    /** {@code set} with the actions of {@code actionsFile} laid over its own; {@code set} itself when null. */
-    static PlaybookSet withActions(PlaybookSet set, Path actionsFile) {
-        return actionsFile == null ? set : ActionOverrides.apply(set, PlaybookLoader.loadActions(actionsFile));
     }
 
     /** The ledger fields recording which policy was loaded (each playbook's content hash). */

@@ -1,7 +1,6 @@
 package dev.tend.cli;
 
 import dev.tend.playbooks.PlaybookSet;
-import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.replay.Replayer;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
@@ -18,6 +17,7 @@ import dev.tend.simulator.report.ReportHtml;
 import dev.tend.simulator.report.ReportJson;
 import dev.tend.simulator.report.ReportText;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -48,18 +48,12 @@ public final class ReplayCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "RECORDING", description = "a recording: JSON Lines of wire format v1, optionally with a header line")
     Path recording;
 
-    @Option(names = "--playbooks", paramLabel = "DIR", required = true,
-            description = "playbook directory with actions.yaml (and tend.yaml unless --config)")
-    Path playbooks;
-
-    @Option(names = "--config", paramLabel = "FILE", description = "fleet-wide policy for both sets (default: each DIR's tend.yaml if present)")
-    Path config;
+    /** {@code --playbooks DIR [--config FILE] [--actions FILE]}; {@code --config} and {@code --actions} apply to {@code --against} too. */
+    @Mixin
+    PolicySource policy;
 
     @Option(names = "--fleet", paramLabel = "FILE", description = "fleet file (default: the one the recording's header names, relative to the recording)")
     Path fleet;
-
-    @Option(names = "--actions", paramLabel = "FILE", description = PolicyOptions.ACTIONS_HELP)
-    Path actions;
 
     @Option(names = "--against", paramLabel = "DIR", description = "a second playbook directory to replay on the same recording and seed, and compare")
     Path against;
@@ -67,13 +61,12 @@ public final class ReplayCommand implements Callable<Integer> {
     @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
     long seed;
 
-    @Option(names = "--format", defaultValue = "text", description = "text, json or html (default: ${DEFAULT-VALUE})")
-    Format format;
+    @Option(names = "--format", defaultValue = "text", converter = OutputFormat.TextJsonOrHtml.class,
+            completionCandidates = OutputFormat.TextJsonOrHtml.class, description = "text, json or html (default: ${DEFAULT-VALUE})")
+    OutputFormat format;
 
     @Option(names = "--out", paramLabel = "FILE", description = "write the report here instead of standard output")
     Path out;
-
-    enum Format { text, json, html }
 
     @Override
     public Integer call() throws IOException {
@@ -82,7 +75,7 @@ public final class ReplayCommand implements Callable<Integer> {
         Fleet topology = fleet != null ? FleetFile.load(fleet) : rec.headerFleet().orElseThrow(() -> new InvalidInputException(
                 Problem.at(recording.toString(), 0, 0, "fleet", "the recording's header names no fleet file, and no --fleet"
                         + " was given: pass --fleet FILE (for the bundled library: playbooks/library/fleet.yaml)")));
-        PlaybookSet a = policy(playbooks);
+        PlaybookSet a = policy(policy.playbooks);
         PlaybookSet b = against == null ? null : policy(against);
 
         ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName(), err);
@@ -96,7 +89,7 @@ public final class ReplayCommand implements Callable<Integer> {
             return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
         ReplayReport second = replay(b, topology, rec, "replaying " + recording.getFileName() + " against " + against.getFileName(), err);
-        ReportComparison c = ReportComparison.of(playbooks.toString(), first, against.toString(), second);
+        ReportComparison c = ReportComparison.of(policy.playbooks.toString(), first, against.toString(), second);
         write(switch (format) {
             case json -> ComparisonJson.toJson(c);
             case html -> ComparisonHtml.render(c);
@@ -119,8 +112,7 @@ public final class ReplayCommand implements Callable<Integer> {
         if (!Files.isDirectory(dir)) {
             throw new InvalidInputException(Problem.at(dir.toString(), 0, 0, "", "not a directory of playbooks"));
         }
-        PlaybookSet set = config == null ? PlaybookLoader.load(dir) : PlaybookLoader.load(dir, config);
-        return PolicyOptions.withActions(set, actions);
+        return policy.load(dir);
     }
 
     private void write(String text) {

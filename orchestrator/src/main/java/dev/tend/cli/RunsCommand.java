@@ -37,10 +37,8 @@ public final class RunsCommand implements Callable<Integer> {
     @Option(names = "--playbook", paramLabel = "P")
     String playbook;
 
-    @Option(names = "--format", defaultValue = "text", description = "text or json (default: ${DEFAULT-VALUE})")
-    Format format;
-
-    enum Format { text, json }
+    @Mixin
+    TextOrJsonFormat format;
 
     @Override
     public Integer call() throws Exception {
@@ -55,7 +53,7 @@ public final class RunsCommand implements Callable<Integer> {
                 for (RunRow row : r.runs(filter)) list.add(toMap(row, r.steps(row.runId())));
                 return list;
             });
-            if (format == Format.json) {
+            if (format.json()) {
                 out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(runs));
             } else if (runs.isEmpty()) {
                 out.println("no runs");

@@ -22,4 +22,10 @@ public enum StepState {
     public String wireName() {
         return name().toLowerCase(Locale.ROOT).replace('_', '-');
     }
+
+    /** The state named {@code wire} (as {@link #wireName()} writes it); empty for any other text. */
+    public static java.util.Optional<StepState> of(String wire) {
+        for (StepState s : values()) if (s.wireName().equals(wire)) return java.util.Optional.of(s);
+        return java.util.Optional.empty();
+    }
 }

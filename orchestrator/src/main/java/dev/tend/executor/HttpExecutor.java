@@ -6,6 +6,8 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Input;
 import dev.tend.playbooks.HttpAction;
 import io.github.resilience4j.core.IntervalFunction;
+import io.github.resilience4j.retry.Retry;
+import io.github.resilience4j.retry.RetryConfig;
 
 import java.io.IOException;
 import java.net.URI;
@@ -17,17 +19,21 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionException;
+import java.util.concurrent.CompletionStage;
+import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
-import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.Consumer;
 
 /**
  * Calls an HTTP endpoint for an {@link HttpAction}: the action's method (POST by default)
  * with the rendered JSON body to the rendered URL, header {@code Idempotency-Key: <key>}.
  * A 2xx answer is success. A 5xx answer or a failed connection is tried again, with the
- * same key, after an exponentially growing pause, up to the action's {@code retries}; a
+ * same key, after an exponentially growing pause, up to the action's {@code retries}
+ * (resilience4j's retry, scheduled on a thread of its own, never blocking one); a
  * 4xx (or any other) answer is the receiver's decision and is never tried again. The whole
  * attempt, pauses included, ends at the call's timeout. The result's detail holds the status,
  * the number of tries and the first KiB of the last response body.
@@ -43,6 +49,8 @@ public final class HttpExecutor implements Executor {
     private final dev.tend.http.OutgoingHttp http;
     /** The pause before try n + 1 (resilience4j's exponential backoff, as the webhook sender's retries use). */
     private final IntervalFunction backoff;
+    /** The retry of an action with n retries: n + 1 tries, each pause from {@link #backoff}, again only on a {@link Try#again}. */
+    private final Map<Integer, RetryConfig> retryOf = new ConcurrentHashMap<>();
     private final ScheduledExecutorService pauses = Executors.newSingleThreadScheduledExecutor(r -> {
         Thread t = new Thread(r, "tend-http-retry");
         t.setDaemon(true);
@@ -107,7 +115,27 @@ public final class HttpExecutor implements Executor {
             return;
         }
         long deadline = System.nanoTime() + call.timeout().toNanos();
-        new Attempt(call, action, uri, body, deadline, done).send(1);
+        Attempt attempt = new Attempt(call, action, uri, body, deadline);
+        RetryConfig config = retryOf.computeIfAbsent(action.retries(), n -> RetryConfig.<Try>custom()
+                .maxAttempts(n + 1)
+                .intervalFunction(backoff)
+                .retryOnResult(Try::again)
+                .retryOnException(e -> false)
+                .build());
+        Retry.of("http-" + call.key(), config).executeCompletionStage(pauses, attempt::send).whenComplete((t, failure) -> {
+            if (failure != null) done.accept(result(call, false, "could not send the request: " + failure, Map.of()));
+            else done.accept(attempt.finish(t));
+        });
+    }
+
+    /**
+     * How one try ended: {@code again} when it may be tried again (a 5xx answer or a failed
+     * connection), with the result it gives if no try is left.
+     */
+    private record Try(boolean again, boolean ok, String message, int tries, Map<String, Object> detail) {
+        static Try last(boolean ok, String message, int tries, Map<String, Object> detail) {
+            return new Try(false, ok, message, tries, detail);
+        }
     }
 
     /** One attempt of a step: the tries of one request, all with the call's idempotency key. */
@@ -117,23 +145,23 @@ public final class HttpExecutor implements Executor {
         private final URI uri;
         private final HttpRequest.BodyPublisher body;
         private final long deadline;
-        private final Consumer<Input.ExecutorResult> done;
+        private final AtomicInteger tried = new AtomicInteger();
 
-        Attempt(Effect.CallExecutor call, HttpAction action, URI uri, HttpRequest.BodyPublisher body, long deadline,
-                Consumer<Input.ExecutorResult> done) {
+        Attempt(Effect.CallExecutor call, HttpAction action, URI uri, HttpRequest.BodyPublisher body, long deadline) {
             this.call = call;
             this.action = action;
             this.uri = uri;
             this.body = body;
             this.deadline = deadline;
-            this.done = done;
         }
 
-        void send(int tries) {
+        /** The next try. */
+        CompletionStage<Try> send() {
+            int tries = tried.incrementAndGet();
             Duration left = Duration.ofNanos(deadline - System.nanoTime());
             if (left.isNegative() || left.isZero()) {
-                finish(false, "timed out after " + call.timeout().toMillis() + " ms (" + (tries - 1) + " tries)", tries - 1, null);
-                return;
+                return CompletableFuture.completedFuture(
+                        Try.last(false, "timed out after " + call.timeout().toMillis() + " ms (" + (tries - 1) + " tries)", tries - 1, null));
             }
             HttpRequest.Builder b;
             try {
@@ -141,55 +169,42 @@ public final class HttpExecutor implements Executor {
                         .header("Idempotency-Key", call.key()).method(action.method(), body);
             } catch (RuntimeException e) {
                 // a bearer token file that vanished or emptied: the message names the file, never the token
-                finish(false, "could not build the request: " + e.getMessage(), tries - 1, null);
-                return;
+                return CompletableFuture.completedFuture(Try.last(false, "could not build the request: " + e.getMessage(), tries - 1, null));
             }
             if (!action.body().isEmpty()) b.header("Content-Type", "application/json");
-            http.client(action.client()).sendAsync(b.build(), info -> FirstBytes.subscriber(BODY_LIMIT)).whenComplete((response, failure) -> {
-                if (failure != null) onFailure(tries, failure);
-                else onResponse(tries, response);
-            });
+            return http.client(action.client()).sendAsync(b.build(), info -> FirstBytes.subscriber(BODY_LIMIT))
+                    .handle((response, failure) -> failure != null ? onFailure(tries, failure) : onResponse(tries, response));
         }
 
-        private void onResponse(int tries, HttpResponse<byte[]> response) {
+        private Try onResponse(int tries, HttpResponse<byte[]> response) {
             int status = response.statusCode();
             Map<String, Object> detail = new LinkedHashMap<>();
             detail.put("status", status);
             detail.put("response", FirstBytes.text(response.body()));
-            if (status >= 200 && status < 300) {
-                finish(true, "HTTP " + status, tries, detail);
-            } else if (status >= 500 && tries <= action.retries()) {
-                retry(tries);
-            } else if (status >= 500) {
-                finish(false, "HTTP " + status + " after " + tries + (tries == 1 ? " try" : " tries"), tries, detail);
-            } else {
-                finish(false, "HTTP " + status + " (not tried again: the receiver refused the request)", tries, detail);
+            if (status >= 200 && status < 300) return Try.last(true, "HTTP " + status, tries, detail);
+            if (status >= 500) {
+                return new Try(true, false, "HTTP " + status + " after " + tries + (tries == 1 ? " try" : " tries"), tries, detail);
             }
+            return Try.last(false, "HTTP " + status + " (not tried again: the receiver refused the request)", tries, detail);
         }
 
-        private void onFailure(int tries, Throwable failure) {
+        private Try onFailure(int tries, Throwable failure) {
             Throwable cause = failure instanceof CompletionException && failure.getCause() != null ? failure.getCause() : failure;
             if (cause instanceof HttpTimeoutException) {
-                finish(false, "timed out after " + call.timeout().toMillis() + " ms (" + tries + (tries == 1 ? " try)" : " tries)"),
+                return Try.last(false, "timed out after " + call.timeout().toMillis() + " ms (" + tries + (tries == 1 ? " try)" : " tries)"),
                         tries, null);
-            } else if (cause instanceof IOException && tries <= action.retries()) {
-                retry(tries);
-            } else {
-                finish(false, "could not reach " + uri.getHost() + ":" + uri.getPort() + " after " + tries
-                        + (tries == 1 ? " try: " : " tries: ") + cause, tries, null);
             }
+            return new Try(cause instanceof IOException, false, "could not reach " + uri.getHost() + ":" + uri.getPort() + " after "
+                    + tries + (tries == 1 ? " try: " : " tries: ") + cause, tries, null);
         }
 
-        private void retry(int tries) {
-            pauses.schedule(() -> send(tries + 1), backoff.apply(tries), TimeUnit.MILLISECONDS);
-        }
-
-        private void finish(boolean ok, String message, int tries, Map<String, Object> detail) {
+        /** The result of the last try. */
+        Input.ExecutorResult finish(Try t) {
             Map<String, Object> d = new LinkedHashMap<>();
             d.put("method", action.method());
-            d.put("tries", tries);
-            if (detail != null) d.putAll(detail);
-            done.accept(result(call, ok, message, d));
+            d.put("tries", t.tries());
+            if (t.detail() != null) d.putAll(t.detail());
+            return result(call, t.ok(), t.message(), d);
         }
     }
 

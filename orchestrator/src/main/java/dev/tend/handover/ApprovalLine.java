@@ -26,11 +26,7 @@ public record ApprovalLine(String run, String playbook, String cluster, String n
         Objects.requireNonNull(run, "ApprovalLine.run must not be null");
         Objects.requireNonNull(playbook, "ApprovalLine.playbook must not be null");
         Objects.requireNonNull(cluster, "ApprovalLine.cluster must not be null");
-        Objects.requireNonNull(requestedAt, "ApprovalLine.requestedAt must not be null");
-        Objects.requireNonNull(expiresAt, "ApprovalLine.expiresAt must not be null");
-        if (expiresAt.isBefore(requestedAt)) {
-            throw new IllegalArgumentException("ApprovalLine.expiresAt must not be before requestedAt " + requestedAt + ", got " + expiresAt);
-        }
+        ApprovalState.requireTimes("ApprovalLine", requestedAt, expiresAt);
         Objects.requireNonNull(state, "ApprovalLine.state must not be null");
         if (ApprovalState.of(state).isEmpty()) {
             throw new IllegalArgumentException("ApprovalLine.state must be one of pending, approved, rejected, lapsed, withdrawn, got '"

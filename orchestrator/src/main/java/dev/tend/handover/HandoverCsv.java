@@ -20,7 +20,7 @@ import java.util.Map;
  *     {@code approvals_requested}, {@code approvals_pending}, {@code approvals_lapsed},
  *     {@code runs_needing_person}, {@code loops_stopped}, {@code brake_periods}, {@code brake_engaged_at_until},
  *     {@code ledger_entries}, {@code ledger_entries_in_period}, {@code ledger_head},
- *     {@code ledger_verified}, {@code ledger_first_broken_seq}. Then the same run metrics,
+ *     {@code ledger_verified}, {@code ledger_first_broken_seq}, {@code ledger_verified_from_seq}. Then the same run metrics,
  *     {@code held} and {@code denied} per playbook, and {@code held} and {@code denied} per
  *     reason code (distinct candidates).</li>
  * </ol>
@@ -71,6 +71,7 @@ public final class HandoverCsv {
         fleet(out, "ledger_head", l.headHash());
         fleet(out, "ledger_verified", l.verified());
         fleet(out, "ledger_first_broken_seq", l.firstBrokenSeq());
+        fleet(out, "ledger_verified_from_seq", l.verifiedFrom());
         for (Map.Entry<String, RunCounts> e : r.byPlaybook().entrySet()) counts(out, e.getKey(), e.getValue());
         for (ReasonCount c : r.byReason()) {
             row(out, "held", null, c.code(), Integer.toString(c.held()));

@@ -257,7 +257,10 @@ public final class HandoverHtml {
                 .append(" in this period. Verify: ")
                 .append(l.verified() ? "<span class=\"ok\">ok</span>" : "<span class=\"failed-verify\">failed at entry "
                         + l.firstBrokenSeq() + "</span>")
-                .append(" (").append(esc(l.verifyMessage())).append(").</p>\n<p>Head hash: <code>").append(l.headHash())
+                .append(" (").append(esc(l.verifyMessage())).append(").")
+                .append(l.verifiedWhole() ? "" : " Entries before " + l.verifiedFrom()
+                        + " were not read for this report; <code>tend audit verify</code> checks the whole chain.")
+                .append("</p>\n<p>Head hash: <code>").append(l.headHash())
                 .append("</code></p>\n");
         if (l.unreadable() > 0) {
             s.append("<p class=\"failed-verify\">").append(l.unreadable()).append(" entries of the period are not readable and were left out.</p>\n");

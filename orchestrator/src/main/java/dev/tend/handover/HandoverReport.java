@@ -2,7 +2,6 @@ package dev.tend.handover;
 
 import dev.tend.shared.ApprovalState;
 import dev.tend.shared.fleet.BrakePeriod;
-import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.StoreReader;
 
@@ -77,18 +76,24 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
     }
 
     /**
-     * Computes the report for {@code period} from the ledger {@code reader} sees: verifies the
-     * whole chain, then reads the entries before {@code period.until()} in seq order (the
-     * earlier ones tell what was pending, engaged or waiting when the period began). Both
-     * passes see one snapshot. Throws {@link dev.tend.store.StoreException} when the store fails.
+     * Computes the report for {@code period} from the ledger {@code reader} sees: reads, in seq
+     * order, the entries of the period and those before it that tell what was running,
+     * pending, engaged or stopped when it began ({@link LedgerTally#QUERY_KINDS}), then
+     * verifies the chain from the period's first entry to the newest (see {@link LedgerStatus};
+     * {@code tend audit verify} checks the whole chain). The work grows with the period, not
+     * with the ledger. Both passes see one snapshot. Throws
+     * {@link dev.tend.store.StoreException} when the store fails.
      */
     public static HandoverReport from(StoreReader reader, ReportPeriod period) {
         Objects.requireNonNull(reader, "reader");
         Objects.requireNonNull(period, "period");
-        LedgerVerification v = reader.verifyLedger();
         LedgerTally tally = new LedgerTally(period);
-        reader.forEachLedger(LedgerFilter.all().withUntil(period.until()), tally::accept);
-        return tally.toReport(v);
+        reader.forEachLedgerOfPeriod(LedgerTally.query(period), tally::accept);
+        long headSeq = reader.ledgerHead().map(dev.tend.store.LedgerEntry::seq).orElse(0L);
+        long first = reader.firstLedgerSeqAt(period.since());
+        long from = first == 0 ? headSeq + 1 : first;
+        LedgerVerification v = reader.verifyLedgerFrom(from);
+        return tally.toReport(v, headSeq, from);
     }
 
     /** The counts of every playbook added up. */

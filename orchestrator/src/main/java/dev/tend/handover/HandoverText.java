@@ -31,8 +31,9 @@ public final class HandoverText {
         line(out, "Brake      %s", brakeHeadline(r));
         line(out, "Pages      %d delivered, %d given up", r.deliveredPages().size(), r.failedPages().size());
         LedgerStatus l = r.ledger();
-        line(out, "Ledger     %d entries (%d in the period), verify %s, head %s", l.entries(), l.entriesInPeriod(),
-                l.verified() ? "ok" : "FAILED at entry " + l.firstBrokenSeq(), l.headHash());
+        line(out, "Ledger     %d entries (%d in the period), verify %s%s, head %s", l.entries(), l.entriesInPeriod(),
+                l.verified() ? "ok" : "FAILED at entry " + l.firstBrokenSeq(),
+                l.verifiedWhole() ? "" : " (entries " + l.verifiedFrom() + " on; `tend audit verify` for all)", l.headHash());
         out.append('\n');
         attention(out, r);
         byPlaybook(out, r.byPlaybook());

@@ -5,7 +5,8 @@ import java.util.regex.Pattern;
 
 /**
  * The ledger a report was computed from, and whether its hash chain verified when the report
- * was made (the whole ledger is verified, not only the period).
+ * was made, from the period's first entry to the newest (on a ledger of millions of entries a
+ * report must not read them all; {@code tend audit verify} checks the whole chain).
  *
  * @param entries         entries in the whole ledger
  * @param entriesInPeriod entries in the report's period
@@ -15,9 +16,12 @@ import java.util.regex.Pattern;
  * @param verifyMessage   what the verification found, a sentence; never null
  * @param unreadable      entries of the period that were not readable JSON and were left out
  *                        (only an edited ledger has any)
+ * @param verifiedFrom    the first entry the verification read (1: the whole ledger; one past
+ *                        the newest when no entry is at or after the period's start); the
+ *                        entries before it were not checked by this report
  */
 public record LedgerStatus(long entries, long entriesInPeriod, String headHash, boolean verified, long firstBrokenSeq,
-                           String verifyMessage, long unreadable) {
+                           String verifyMessage, long unreadable, long verifiedFrom) {
     private static final Pattern HEX64 = Pattern.compile("[0-9a-f]{64}");
 
     public LedgerStatus {
@@ -38,5 +42,17 @@ public record LedgerStatus(long entries, long entriesInPeriod, String headHash, 
         }
         Objects.requireNonNull(verifyMessage, "LedgerStatus.verifyMessage must not be null");
         if (unreadable < 0) throw new IllegalArgumentException("LedgerStatus.unreadable must be 0 or more, got " + unreadable);
+        if (verifiedFrom < 1) throw new IllegalArgumentException("LedgerStatus.verifiedFrom must be 1 or more, got " + verifiedFrom);
+    }
+
+    /** The status of a report that verified the whole ledger. */
+    public LedgerStatus(long entries, long entriesInPeriod, String headHash, boolean verified, long firstBrokenSeq,
+                        String verifyMessage, long unreadable) {
+        this(entries, entriesInPeriod, headHash, verified, firstBrokenSeq, verifyMessage, unreadable, 1);
+    }
+
+    /** True when every entry of the ledger was verified, not only the period's and later ones. */
+    public boolean verifiedWhole() {
+        return verifiedFrom == 1;
     }
 }

@@ -7,6 +7,7 @@ import dev.tend.engine.LedgerKind;
 import dev.tend.shared.ReasonCode;
 import dev.tend.shared.fleet.BrakePeriod;
 import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerPeriodQuery;
 import dev.tend.store.LedgerVerification;
 
 import java.time.Instant;
@@ -225,7 +226,26 @@ final class LedgerTally {
         return playbooks.computeIfAbsent(name, k -> new PlaybookState());
     }
 
-    HandoverReport toReport(LedgerVerification v) {
+    /** The kinds read from before a period (see {@link LedgerPeriodQuery}): what the tally carries into it. */
+    static final Set<String> CARRIED = Set.of(LedgerKind.BRAKE_ENGAGED.wire(), LedgerKind.BRAKE_RELEASED.wire(),
+            LedgerKind.LOOP_STOPPED.wire(), LedgerKind.LOOP_CLEARED.wire());
+    /** Kinds that make a run known to the tally ({@link #run}); RUN_ENDED forgets a run that ended before the period. */
+    static final Set<String> OPENING = Set.of(LedgerKind.RUN_STARTED.wire(), LedgerKind.RUN_SHADOWED.wire(),
+            LedgerKind.APPROVAL_REQUESTED.wire());
+    static final Set<String> CLOSING = Set.of(LedgerKind.RUN_ENDED.wire());
+
+    /**
+     * What a report of {@code period} must read: every entry of the period; before it, the brake
+     * and loop entries and every entry of a run not ended when the period begins. Every other
+     * entry before the period leaves the tally as it was (verdicts and pages count only in the
+     * period; a run that ended before it is forgotten at its end), so the report is the one
+     * the whole ledger gives.
+     */
+    static LedgerPeriodQuery query(ReportPeriod period) {
+        return new LedgerPeriodQuery(period.since(), period.until(), CARRIED, OPENING, CLOSING);
+    }
+
+    HandoverReport toReport(LedgerVerification v, long ledgerEntries, long verifiedFrom) {
         Map<String, RunCounts> byPlaybook = new TreeMap<>();
         playbooks.forEach((name, p) -> byPlaybook.put(name, p.counts()));
         List<ReasonCount> byReason = new ArrayList<>();
@@ -239,8 +259,8 @@ final class LedgerTally {
         approvalLines.sort(Comparator.comparing(ApprovalLine::requestedAt).thenComparing(ApprovalLine::run));
         List<BrakePeriod> brakeList = new ArrayList<>(brakes);
         if (openBrake != null) brakeList.add(openBrake);
-        LedgerStatus status = new LedgerStatus(v.entries(), inPeriod, v.headHash(), v.ok(), v.firstBrokenSeq(), v.reason(),
-                unreadable);
+        LedgerStatus status = new LedgerStatus(ledgerEntries, inPeriod, v.headHash(), v.ok(), v.firstBrokenSeq(), v.reason(),
+                unreadable, verifiedFrom);
         return new HandoverReport(period, byPlaybook, byReason, runLines, approvalLines, brakeList, List.copyOf(loops.values()),
                 status, pages);
     }

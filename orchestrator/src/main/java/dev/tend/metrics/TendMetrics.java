@@ -94,7 +94,7 @@ public final class TendMetrics implements CommitListener {
                 .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
                 .register(registry);
         GaugeWithCallback.builder().name("tend_approvals_pending").help("Approvals waiting for a person")
-                .callback(cb -> cb.call(store.read(r -> r.approvals(ApprovalState.PENDING.wireName()).size())))
+                .callback(cb -> cb.call(store.read(r -> r.approvals(ApprovalState.PENDING).size())))
                 .register(registry);
     }
 

@@ -194,7 +194,7 @@ final class ReportCollector {
             if (r.startedAt() == null && !shadowed) continue;
             List<StepEntry> steps = new ArrayList<>();
             for (StepSnapshot s : r.steps()) {
-                steps.add(new StepEntry(s.stepId(), s.kind(), s.state(), s.attempt(), s.startedAt(), s.endedAt(), s.outcome()));
+                steps.add(new StepEntry(s.stepId(), s.kind(), s.state().wireName(), s.attempt(), s.startedAt(), s.endedAt(), s.outcome()));
             }
             out.add(new RunEntry(r.runId(), Id.of(r.playbook()), r.target().cluster(), r.target().node(),
                     r.startedAt() != null ? r.startedAt() : r.createdAt(), r.endedAt(), r.state().wireName(), r.outcome(), steps));

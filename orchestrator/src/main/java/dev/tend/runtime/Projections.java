@@ -84,7 +84,7 @@ final class Projections {
                 r.target().node() == null ? null : r.target().node().value(), r.state().wireName(), r.shadow(),
                 r.createdAt(), r.startedAt(), r.endedAt(), r.outcome(), r.currentStep(), "{}"));
         for (StepSnapshot s : r.steps()) {
-            tx.upsertStep(new StepRow(r.runId(), s.stepId(), s.ordinal(), s.state(), s.attempt(), s.startedAt(),
+            tx.upsertStep(new StepRow(r.runId(), s.stepId(), s.ordinal(), s.state().wireName(), s.attempt(), s.startedAt(),
                     s.endedAt(), s.outcome(), json(Map.of("kind", s.kind()))));
         }
     }
@@ -92,7 +92,7 @@ final class Projections {
     private static void approval(StoreTx tx, ApprovalSnapshot a) {
         tx.upsertApproval(new ApprovalRow(a.runId(), a.playbook(), a.target().cluster().value(),
                 a.target().node() == null ? null : a.target().node().value(), a.requestedBy(), a.requestedAt(),
-                a.expiresAt(), a.state().wireName(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
+                a.expiresAt(), a.state(), a.decidedBy(), a.decidedAt(), json(a.reasons())));
     }
 
     static Map<String, Object> brake(BrakeState b) {

@@ -16,6 +16,7 @@ import com.fasterxml.jackson.databind.module.SimpleModule;
 import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
+import dev.tend.engine.StepState;
 import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
 import dev.tend.shared.time.InstantText;
@@ -56,18 +57,10 @@ public final class SnapshotCodec {
 
     private static ObjectMapper mapper() {
         SimpleModule ids = new SimpleModule("tend-ids");
-        ids.addSerializer(Id.class, new JsonSerializer<>() {
-            @Override
-            public void serialize(Id id, JsonGenerator g, SerializerProvider p) throws IOException {
-                g.writeString(id.value());
-            }
-        });
-        ids.addDeserializer(Id.class, new JsonDeserializer<>() {
-            @Override
-            public Id deserialize(JsonParser p, DeserializationContext c) throws IOException {
-                return Id.of(p.getValueAsString());
-            }
-        });
+        asText(ids, Id.class, Id::value, Id::of);
+        // a step's state by its wire name, as snapshots held it while it was text
+        asText(ids, StepState.class, StepState::wireName,
+                wire -> StepState.of(wire).orElseThrow(() -> new IllegalArgumentException("not a step state: '" + wire + "'")));
         // Instant.toString()'s text (what the time module writes too), without its formatter: a snapshot holds many
         SimpleModule instants = new SimpleModule("tend-instants");
         instants.addSerializer(Instant.class, new JsonSerializer<>() {
@@ -89,6 +82,23 @@ public final class SnapshotCodec {
         m.enable(SerializationFeature.ORDER_MAP_ENTRIES_BY_KEYS);
         m.enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
         return m;
+    }
+
+    /** Writes a {@code type} as the text {@code write} gives, and reads it back with {@code read}. */
+    private static <T> void asText(SimpleModule module, Class<T> type, java.util.function.Function<T, String> write,
+                                   java.util.function.Function<String, T> read) {
+        module.addSerializer(type, new JsonSerializer<T>() {
+            @Override
+            public void serialize(T value, JsonGenerator g, SerializerProvider p) throws IOException {
+                g.writeString(write.apply(value));
+            }
+        });
+        module.addDeserializer(type, new JsonDeserializer<T>() {
+            @Override
+            public T deserialize(JsonParser p, DeserializationContext c) throws IOException {
+                return read.apply(p.getValueAsString());
+            }
+        });
     }
 
     /** What a snapshot holds: the engine's state, and the events done of each input file by its identity. */

@@ -5,20 +5,14 @@ import org.junit.jupiter.api.Test;
 import java.time.Duration;
 import java.util.Map;
 
-import static dev.tend.engine.EngineHarness.cluster;
-import static dev.tend.engine.EngineHarness.fleet;
 import static dev.tend.engine.EngineHarness.replacePlaybook;
 import static dev.tend.shared.SignalState.SILENT;
 import static org.assertj.core.api.Assertions.assertThat;
 
 class ApprovalAndBrakeTest {
-    private static final String FLEET = fleet(cluster("fares-1", "critical", 3, null) + cluster("fares-9", "standard", 3, null));
-    private static final String APPROVED_PLAYBOOK = replacePlaybook("0s", "keep-replicas: false")
-            .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
+    private static final String FLEET = EngineHarness.TIERED_FLEET;
+    private static final String APPROVED_PLAYBOOK = EngineHarness.APPROVAL_PLAYBOOK;
 
-    private static String pendingRun(EngineHarness h) {
-        return (String) h.ledger("approval-requested").get(0).get("run");
-    }
 
     @Test
     void criticalClusterAwaitsApprovalAndStartsOnceAPersonApproves() {
@@ -26,9 +20,9 @@ class ApprovalAndBrakeTest {
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
         assertThat(h.verdicts("fares-1")).containsExactly("await-approval [approval-required]");
         assertThat(h.calls).isEmpty();
-        h.send(new Input.Approve(pendingRun(h), "ana", "cli"));
+        h.send(new Input.Approve(h.pendingRun(), "ana", "cli"));
         assertThat(h.ledger("approval-granted")).singleElement().satisfies(a -> assertThat(a).containsEntry("by", "ana"));
-        assertThat(h.ledger("run-started")).singleElement().satisfies(r -> assertThat(r).containsEntry("run", pendingRun(h)));
+        assertThat(h.ledger("run-started")).singleElement().satisfies(r -> assertThat(r).containsEntry("run", h.pendingRun()));
     }
 
     @Test
@@ -42,7 +36,7 @@ class ApprovalAndBrakeTest {
     void whoeverRequestedARunCannotApproveIt() {
         EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
-        h.send(new Input.Approve(pendingRun(h), Engine.AUTOMATION, "api"));
+        h.send(new Input.Approve(h.pendingRun(), Engine.AUTOMATION, "api"));
         assertThat(h.ledger("approval-refused")).singleElement()
                 .satisfies(a -> assertThat((String) a.get("reason")).contains("two-person rule"));
         assertThat(h.ledger("run-started")).isEmpty();
@@ -53,10 +47,10 @@ class ApprovalAndBrakeTest {
         EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
         h.send(new Input.EngageBrake("zone z-b maintenance", "ana", "cli"));
-        h.send(new Input.Approve(pendingRun(h), "ben", "cli"));
+        h.send(new Input.Approve(h.pendingRun(), "ben", "cli"));
         assertThat(h.ledger("run-started")).isEmpty();
         assertThat(h.verdicts("fares-1")).containsExactly("await-approval [approval-required]", "hold [fleet-brake]");
-        assertThat(h.engine.run(pendingRun(h)).orElseThrow().state()).isEqualTo(RunState.HELD);
+        assertThat(h.engine.run(h.pendingRun()).orElseThrow().state()).isEqualTo(RunState.HELD);
         h.send(new Input.ReleaseBrake("maintenance over", "ana", "cli"));
         assertThat(h.ledger("run-started")).hasSize(1);
     }
@@ -65,8 +59,8 @@ class ApprovalAndBrakeTest {
     void rejectedRunIsCancelled() {
         EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
-        h.send(new Input.Reject(pendingRun(h), "owner is on it", "ben", "cli"));
-        assertThat(h.engine.run(pendingRun(h)).orElseThrow().state()).isEqualTo(RunState.CANCELLED);
+        h.send(new Input.Reject(h.pendingRun(), "owner is on it", "ben", "cli"));
+        assertThat(h.engine.run(h.pendingRun()).orElseThrow().state()).isEqualTo(RunState.CANCELLED);
         assertThat(h.ledger("approval-rejected")).hasSize(1);
     }
 
@@ -76,7 +70,7 @@ class ApprovalAndBrakeTest {
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
         h.advance(Duration.ofMinutes(31));
         assertThat(h.ledger("approval-lapsed")).hasSize(1);
-        RunSnapshot r = h.engine.run(pendingRun(h)).orElseThrow();
+        RunSnapshot r = h.engine.run(h.pendingRun()).orElseThrow();
         assertThat(r.state()).isEqualTo(RunState.CANCELLED);
         assertThat(r.outcome()).contains("lapsed");
     }

@@ -7,17 +7,13 @@ import org.junit.jupiter.api.Test;
 import java.time.Instant;
 import java.util.List;
 
-import static dev.tend.engine.EngineHarness.cluster;
-import static dev.tend.engine.EngineHarness.fleet;
-import static dev.tend.engine.EngineHarness.replacePlaybook;
 import static dev.tend.shared.SignalState.SILENT;
 import static org.assertj.core.api.Assertions.assertThat;
 
 /** Every operator command gets exactly one typed answer from the engine: done, refused with its reason, or not found. */
 class CommandAnswerTest {
-    private static final String FLEET = fleet(cluster("fares-1", "critical", 3, null) + cluster("fares-9", "standard", 3, null));
-    private static final String APPROVED_PLAYBOOK = replacePlaybook("0s", "keep-replicas: false")
-            .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
+    private static final String FLEET = EngineHarness.TIERED_FLEET;
+    private static final String APPROVED_PLAYBOOK = EngineHarness.APPROVAL_PLAYBOOK;
 
     private static CommandAnswer answer(List<Effect> fx) {
         List<Effect.Answered> answers = fx.stream().filter(e -> e instanceof Effect.Answered).map(e -> (Effect.Answered) e).toList();
@@ -25,15 +21,12 @@ class CommandAnswerTest {
         return answers.get(0).answer();
     }
 
-    private static String pendingRun(EngineHarness h) {
-        return (String) h.ledger("approval-requested").get(0).get("run");
-    }
 
     @Test
     void approvalsAreDoneOnceRefusedByTheTwoPersonRuleAndWhenNoLongerPendingAndNotFoundWithoutARequest() {
         EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
-        String run = pendingRun(h);
+        String run = h.pendingRun();
         assertThat(answer(h.send(new Input.Approve(run, Engine.AUTOMATION, "api"))))
                 .isEqualTo(new CommandAnswer.Refused(CommandAnswer.Refusal.TWO_PERSON_RULE,
                         "two-person rule: whoever requested a run cannot approve it"));
@@ -61,7 +54,7 @@ class CommandAnswerTest {
     void abortingIsDoneForAnActiveRunRefusedForAnEndedOneAndNotFoundForNone() {
         EngineHarness h = new EngineHarness(FLEET, null, APPROVED_PLAYBOOK);
         h.at(0, "fares-1", "n2", "heartbeat", SILENT);
-        String run = pendingRun(h);
+        String run = h.pendingRun();
         assertThat(answer(h.send(new Input.AbortRun(run, "not now", "ana", "cli")))).isInstanceOf(CommandAnswer.Done.class);
         assertThat(answer(h.send(new Input.AbortRun(run, null, "ana", "cli"))))
                 .isEqualTo(new CommandAnswer.Refused(CommandAnswer.Refusal.ENDED, "run " + run + " already ended: cancelled"));

@@ -33,6 +33,12 @@ final class EngineHarness {
               restart-process: { simulated: { duration: 30s, success: 1.0, clears: [process-down] } }
             """;
 
+    /** Two clusters of three nodes: fares-1 of tier critical, fares-9 of tier standard. */
+    static final String TIERED_FLEET = fleet(cluster("fares-1", "critical", 3, null) + cluster("fares-9", "standard", 3, null));
+    /** The replace playbook that asks a person first on critical clusters; the request lapses after 30 minutes. */
+    static final String APPROVAL_PLAYBOOK = replacePlaybook("0s", "keep-replicas: false")
+            .replace("steps:", "approval: { clusters: { tier: [critical] }, expires-after: 30m }\nsteps:");
+
     final Engine engine;
     Instant now = T0;
     final List<Effect> effects = new ArrayList<>();
@@ -165,5 +171,10 @@ final class EngineHarness {
                 on-failure:
                   - { page: oncall, message: "replacing {node} in {cluster} failed at {step}" }
                 """.formatted(confirm, limits);
+    }
+
+    /** The run of the first approval requested. */
+    String pendingRun() {
+        return (String) ledger("approval-requested").get(0).get("run");
     }
 }

@@ -152,6 +152,6 @@ class GuardVerdictsTest {
         assertThat(h.ledger("step-timed-out")).hasSize(1);
         assertThat(h.ledger("run-ended")).singleElement().satisfies(r -> assertThat(r).containsEntry("state", "failed"));
         assertThat(h.lastVerdict("fares-3")).containsEntry("verdict", "start");
-        assertThat(List.of(h.engine.runs().iterator().next().steps().get(0).state())).containsExactly("timed-out");
+        assertThat(List.of(h.engine.runs().iterator().next().steps().get(0).state())).containsExactly(StepState.TIMED_OUT);
     }
 }

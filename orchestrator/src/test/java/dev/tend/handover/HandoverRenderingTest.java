@@ -48,7 +48,8 @@ class HandoverRenderingTest {
         assertThat(text.lines().count()).as(text).isLessThanOrEqualTo(40);
         assertThat(text).contains("Runs       4 started, 2 succeeded, 1 failed, 1 cancelled, 0 shadowed",
                 "Held       1 held, 1 denied (distinct candidates)", "Approvals  2 asked, 1 pending, 1 lapsed",
-                "verify ok, head " + report.ledger().headHash());
+                "verify ok (entries " + report.ledger().verifiedFrom() + " on; `tend audit verify` for all), head "
+                        + report.ledger().headHash());
         assertThat(inOrder(text, "Runs ", "Ledger ", "Needs attention", "approval pending", "needs a person", "fleet brake",
                 "By playbook", "Held and denied by reason code", "Nodes remediated", "Fleet brake periods",
                 "Approvals lapsed")).isTrue();

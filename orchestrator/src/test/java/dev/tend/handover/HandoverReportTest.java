@@ -11,6 +11,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Map;
 
+import static dev.tend.handover.NightShift.EVENING;
 import static dev.tend.handover.NightShift.SINCE;
 import static dev.tend.handover.NightShift.UNTIL;
 import static dev.tend.handover.NightShift.VENDOR_NOTE;
@@ -145,14 +146,45 @@ class HandoverReportTest {
         assertThat(r.runs()).singleElement().satisfies(x -> assertThat(x.startedAt()).isEqualTo(at("21:00")));
     }
 
+    /**
+     * The report reads only the period and what carries state into it; for every period of the
+     * night (starting every 10 minutes, 30 minutes to 9 hours long) it must say exactly what a
+     * tally of the whole ledger before the period's end says.
+     */
     @Test
-    void ledgerStatusIsTheWholeLedgerVerified() {
+    void everyPeriodReadsToTheReportTheWholeLedgerGives() {
+        int compared = 0;
+        for (java.time.Instant since = EVENING.minusSeconds(3600); since.isBefore(UNTIL); since = since.plusSeconds(600)) {
+            for (long minutes : new long[]{30, 120, 540}) {
+                ReportPeriod p = ReportPeriod.of(since, since.plusSeconds(60 * minutes));
+                HandoverReport fast = night.report(p.since(), p.until());
+                LedgerTally whole = new LedgerTally(p);
+                night.store.read(x -> {
+                    x.forEachLedger(dev.tend.store.LedgerFilter.all().withUntil(p.until()), whole::accept);
+                    return null;
+                });
+                HandoverReport slow = whole.toReport(night.store.read(x -> x.verifyLedger()), fast.ledger().entries(), 1);
+                assertThat(fast).as(p.toString()).usingRecursiveComparison().ignoringFields("ledger").isEqualTo(slow);
+                assertThat(fast.ledger().entriesInPeriod()).as(p.toString()).isEqualTo(slow.ledger().entriesInPeriod());
+                compared++;
+            }
+        }
+        assertThat(compared).isEqualTo(3 * 60);
+    }
+
+    @Test
+    void ledgerStatusCountsTheWholeLedgerAndVerifiesFromThePeriodsFirstEntryToTheHead() {
         LedgerStatus l = night.report(SINCE, UNTIL).ledger();
         dev.tend.store.LedgerVerification v = night.store.read(x -> x.verifyLedger());
+        long first = night.store.read(x -> x.firstLedgerSeqAt(SINCE));
 
         assertThat(l.verified()).isTrue();
         assertThat(l.entries()).isEqualTo(v.entries());
         assertThat(l.headHash()).isEqualTo(v.headHash()).isEqualTo(night.store.read(x -> x.ledgerHead()).orElseThrow().hash());
         assertThat(l.entriesInPeriod()).isPositive().isLessThan(l.entries());
+        assertThat(first).as("the night ledger holds entries before the period").isGreaterThan(1);
+        assertThat(l.verifiedFrom()).isEqualTo(first);
+        assertThat(l.verifyMessage()).isEqualTo("entries " + first + " to " + l.entries() + " verify (the " + (first - 1)
+                + " before them were not read); the head hash is " + l.headHash());
     }
 }

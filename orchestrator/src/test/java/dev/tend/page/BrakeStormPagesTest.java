@@ -1,5 +1,6 @@
 package dev.tend.page;
 
+import dev.tend.fault.FaultFiles;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.api.auth.TokenFile;
@@ -101,12 +102,7 @@ class BrakeStormPagesTest {
                 steps:
                   - { id: replace, action: replace-node, timeout: 40m }
                 """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur-storm   # invented\nclusters:\n");
-        for (int c = 1; c <= 160; c++) {
-            fleet.append("  - id: dispatch-").append(c).append("\n    nodes:\n");
-            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
-        }
-        Files.writeString(dir.resolve("fleet.yaml"), fleet);
+        Files.writeString(dir.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-storm", "dispatch", 160));
         PlaybookSet set = PlaybookLoader.load(pb);
         return new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")), BrakeThresholds.from(set.config().brake()),
                 EventTimeMode.following(Duration.ofMinutes(2)));

@@ -1,5 +1,7 @@
 package dev.tend.page;
 
+import dev.tend.fault.FaultFiles;
+import dev.tend.fault.TendProcess;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.PageRow;
 import dev.tend.store.Store;
@@ -10,7 +12,6 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.TimeUnit;
 
@@ -70,13 +71,8 @@ class PageCrashTest {
     }
 
     private Process ingest(Path input, String name) throws IOException {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> cmd = new ArrayList<>(List.of(java, "-Xmx256m", "-XX:TieredStopAtLevel=1", "-cp", System.getProperty("java.class.path"),
-                "dev.tend.cli.TendMain", "ingest", input.toString(), "--playbooks", dir.resolve("policy").toString(),
+        return TendProcess.start(dir, name, List.of("ingest", input.toString(), "--playbooks", dir.resolve("policy").toString(),
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", dir.resolve("tend.db").toString()));
-        return new ProcessBuilder(cmd).directory(dir.toFile())
-                .redirectOutput(dir.resolve(name + ".out").toFile())
-                .redirectError(dir.resolve(name + ".err").toFile()).start();
     }
 
     private void writePolicy(String url) throws IOException {
@@ -102,11 +98,6 @@ class PageCrashTest {
                 steps:
                   - { id: replace, action: replace-node, timeout: 10m }
                 """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur-crash   # invented\nclusters:\n");
-        for (int c = 1; c <= 4; c++) {
-            fleet.append("  - id: fares-").append(c).append("\n    nodes:\n");
-            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
-        }
-        Files.writeString(policy.resolve("fleet.yaml"), fleet);
+        Files.writeString(policy.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-crash", "fares", 4));
     }
 }

@@ -1,5 +1,7 @@
 package dev.tend.runtime;
 
+import dev.tend.fault.FaultFiles;
+import dev.tend.fault.TendProcess;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.RunFilter;
 import dev.tend.store.RunRow;
@@ -9,10 +11,8 @@ import org.junit.jupiter.api.io.TempDir;
 
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
@@ -62,10 +62,7 @@ class CrashSafetyTest {
         assertThat(last.waitFor(120, TimeUnit.SECONDS)).as("the last, unkilled ingest finishes").isTrue();
         assertThat(last.exitValue()).as(Files.readString(dir.resolve("final.err"))).isZero();
 
-        Map<String, Integer> done = new HashMap<>();
-        for (String line : Files.readAllLines(log, StandardCharsets.UTF_8)) {
-            if (line.startsWith("done ")) done.merge(line.substring(5), 1, Integer::sum);
-        }
+        Map<String, Integer> done = FaultFiles.doneKeys(log);
         assertThat(done).as("keys executed to completion").isNotEmpty();
         assertThat(done.values()).as("no key executed to completion twice").allMatch(n -> n == 1);
         try (Store store = Store.openSqlite(db)) {
@@ -115,29 +112,13 @@ class CrashSafetyTest {
     }
 
     private Process startIngest(Path input, Path db, String name) throws IOException {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> cmd = new ArrayList<>(List.of(java, "-Xmx256m", "-XX:TieredStopAtLevel=1", "-cp", System.getProperty("java.class.path"),
-                "dev.tend.cli.TendMain", "ingest", input.toString(), "--playbooks", dir.resolve("policy").toString(),
+        return TendProcess.start(dir, name, List.of("ingest", input.toString(), "--playbooks", dir.resolve("policy").toString(),
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", db.toString()));
-        return new ProcessBuilder(cmd).directory(dir.toFile())
-                .redirectOutput(dir.resolve(name + ".out").toFile())
-                .redirectError(dir.resolve(name + ".err").toFile()).start();
     }
 
     /** Two programs that log each key they run: one de-duplicates by key (idempotent), one does not. */
     private void writeScripts() throws IOException {
-        Files.writeString(dir.resolve("idempotent.sh"), """
-                key="$1"; log="$2"; claims="$3"
-                claim="$claims/$(printf '%s' "$key" | tr '/' '_')"
-                if mkdir "$claim" 2>/dev/null; then
-                  echo "start $key" >> "$log"
-                  sleep 0.3
-                  echo "done $key" >> "$log"
-                else
-                  i=0
-                  while ! grep -qxF "done $key" "$log" && [ $i -lt 1000 ]; do sleep 0.01; i=$((i+1)); done
-                fi
-                """);
+        FaultFiles.writeIdempotentScript(dir.resolve("idempotent.sh"));
         Files.writeString(dir.resolve("plain.sh"), """
                 key="$1"; log="$2"
                 echo "start $key" >> "$log"
@@ -160,16 +141,7 @@ class CrashSafetyTest {
                     command: [sh, %s, "{key}", %s]
                     timeout: 10m
                 """.formatted(dir.resolve("idempotent.sh"), log, claims, dir.resolve("plain.sh"), log));
-        Files.writeString(policy.resolve("tend.yaml"), """
-                defaults:
-                  fleet: 16
-                  per-zone: 16
-                  rate: 1000/1h
-                rate: 1000/1h
-                brake:
-                  engage-at: { clusters: 1000 }
-                  release-below: { clusters: 500 }
-                """);
+        Files.writeString(policy.resolve("tend.yaml"), FaultFiles.WIDE_OPEN_POLICY);
         for (String signal : List.of("heartbeat", "process-down")) {
             Files.writeString(policy.resolve("fix-" + signal + ".yaml"), """
                     playbook: fix-%1$s
@@ -181,12 +153,7 @@ class CrashSafetyTest {
                       - { id: second, action: %2$s, timeout: 10m }
                     """.formatted(signal, signal.equals("heartbeat") ? "fix-idempotent" : "fix-plain"));
         }
-        StringBuilder fleet = new StringBuilder("fleet: larkspur-crash\nclusters:\n");
-        for (int c = 1; c <= CLUSTERS; c++) {
-            fleet.append("  - id: fares-").append(c).append("\n    nodes:\n");
-            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
-        }
-        Files.writeString(policy.resolve("fleet.yaml"), fleet);
+        Files.writeString(policy.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-crash", "fares", CLUSTERS));
     }
 
     private Path writeInput() throws IOException {

@@ -1,8 +1,9 @@
 package dev.tend.serve;
 
+import dev.tend.fault.FaultFiles;
+import dev.tend.fault.TendProcess;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import dev.tend.api.auth.Tokens;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerVerification;
@@ -13,7 +14,6 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.io.IOException;
-import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -325,18 +325,13 @@ class FailoverTest {
     }
 
     private Instance start() throws IOException {
-        int port = freePort();
+        int port = TendProcess.freePort();
         String name = "tend-" + (++started);
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> cmd = new ArrayList<>(List.of(java, "-Xmx256m", "-XX:TieredStopAtLevel=1", "-cp", System.getProperty("java.class.path"),
-                "dev.tend.cli.TendMain", "serve", "--playbooks", dir.resolve("policy").toString(),
+        Process p = TendProcess.start(dir, name, List.of("serve", "--playbooks", dir.resolve("policy").toString(),
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
                 "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port, "--lease", LEASE,
                 "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200",
                 "--kafka", kafka.bootstrap(), "--topic", topic));
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile())
-                .redirectOutput(dir.resolve(name + ".out").toFile())
-                .redirectError(dir.resolve(name + ".err").toFile()).start();
         Instance i = new Instance(name, port, p);
         instances.add(i);
         return i;
@@ -436,12 +431,6 @@ class FailoverTest {
         return p.exitValue();
     }
 
-    private static int freePort() throws IOException {
-        try (ServerSocket s = new ServerSocket(0, 1, java.net.InetAddress.getLoopbackAddress())) {
-            return s.getLocalPort();
-        }
-    }
-
     private void writePolicy(String receiverUrl) throws IOException {
         Path policy = Files.createDirectories(dir.resolve("policy"));
         Files.writeString(policy.resolve("actions.yaml"), """
@@ -473,18 +462,8 @@ class FailoverTest {
                   - { id: first, action: fix-by-call, timeout: 1m }
                   - { id: second, action: fix-by-call, timeout: 1m }
                 """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur-failover\nclusters:\n");
-        for (int c = 1; c <= CLUSTERS; c++) {
-            fleet.append("  - id: fares-").append(c).append("\n    nodes:\n");
-            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
-        }
-        Files.writeString(policy.resolve("fleet.yaml"), fleet);
-        Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n  - { name: failover, roles: [operator, viewer], sha256: "
-                + Tokens.hash(TOKEN) + " }\n");
-        byte[] key = new byte[32];
-        new Random(11).nextBytes(key);
-        Path k = dir.resolve("ledger.key");
-        Files.write(k, key);
-        Files.setPosixFilePermissions(k, java.nio.file.attribute.PosixFilePermissions.fromString("rw-------"));
+        Files.writeString(policy.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-failover", "fares", CLUSTERS));
+        FaultFiles.writeTokens(dir.resolve("tokens.yaml"), "failover", TOKEN);
+        FaultFiles.writeLedgerKey(dir.resolve("ledger.key"), 11);
     }
 }

@@ -259,6 +259,15 @@ class ServeApiTest {
         assertThat(badTime.json().get("message").asText())
                 .isEqualTo("since must be an RFC 3339 time like 2027-03-14T22:00:00Z, got 'yesterday'");
         assertThat(future.get("entries")).as(future.toString()).isEmpty();
+
+        long firstSeq = page.get("entries").get(0).get("seq").asLong();
+        JsonNode older = serve.get("/api/v1/ledger?kind=brake-engaged&limit=2&before=" + firstSeq, VERA).json();
+        assertThat(older.get("entries")).extracting(e -> e.get("reason").asText()).containsExactly("drill 1");
+        assertThat(older.get("truncated").asBoolean()).isFalse();
+        ServeFixture.Response badBefore = serve.get("/api/v1/ledger?before=-3", VERA);
+        assertThat(badBefore.status()).isEqualTo(400);
+        assertThat(badBefore.json().get("message").asText())
+                .isEqualTo("before must be an entry's seq (a whole number, 1 or more), got '-3'");
     }
 
     @Test

@@ -1,26 +1,24 @@
 package dev.tend.serve;
 
+import dev.tend.fault.FaultFiles;
+import dev.tend.fault.TendProcess;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import dev.tend.api.auth.Tokens;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.Store;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 import java.io.IOException;
-import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Random;
@@ -58,7 +56,7 @@ class ServeStormFaultTest {
         for (int c = 1; c <= CLUSTERS; c++) storm.add("fares-" + c);
         int posted = 0, killed = 0, refusedWhileDown = 0;
         for (int i = 0; i < KILLS; i++) {
-            int port = freePort();
+            int port = TendProcess.freePort();
             Process p = startServe(port, "run-" + i);
             if (!awaitUp(port, p)) continue;
             // a slice of the storm, then a kill at a random moment while runs execute
@@ -74,7 +72,7 @@ class ServeStormFaultTest {
             p.waitFor(30, TimeUnit.SECONDS);
             killed++;
         }
-        int port = freePort();
+        int port = TendProcess.freePort();
         Process last = startServe(port, "final");
         assertThat(awaitUp(port, last)).as(Files.readString(dir.resolve("final.err"))).isTrue();
         for (; posted < storm.size(); posted++) assertThat(post(port, storm.get(posted))).isTrue();
@@ -83,10 +81,7 @@ class ServeStormFaultTest {
         last.destroy(); // SIGTERM: a clean stop writes the last checkpoint
         assertThat(last.waitFor(30, TimeUnit.SECONDS)).isTrue();
 
-        Map<String, Integer> done = new HashMap<>();
-        for (String line : Files.readAllLines(log, StandardCharsets.UTF_8)) {
-            if (line.startsWith("done ")) done.merge(line.substring(5), 1, Integer::sum);
-        }
+        Map<String, Integer> done = FaultFiles.doneKeys(log);
         long twice = done.values().stream().filter(n -> n > 1).count();
         LedgerVerification chain;
         dev.tend.audit.AnchorVerifier.Result keyed;
@@ -105,15 +100,10 @@ class ServeStormFaultTest {
     }
 
     private Process startServe(int port, String name) throws IOException {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> cmd = new ArrayList<>(List.of(java, "-Xmx256m", "-XX:TieredStopAtLevel=1", "-cp", System.getProperty("java.class.path"),
-                "dev.tend.cli.TendMain", "serve", "--playbooks", dir.resolve("policy").toString(),
+        return TendProcess.start(dir, name, List.of("serve", "--playbooks", dir.resolve("policy").toString(),
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", dir.resolve("tend.db").toString(),
                 "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port,
                 "--ledger-key", dir.resolve("ledger.key").toString()));
-        return new ProcessBuilder(cmd).directory(dir.toFile())
-                .redirectOutput(dir.resolve(name + ".out").toFile())
-                .redirectError(dir.resolve(name + ".err").toFile()).start();
     }
 
     private boolean awaitUp(int port, Process p) throws Exception {
@@ -154,26 +144,9 @@ class ServeStormFaultTest {
         return n;
     }
 
-    private static int freePort() throws IOException {
-        try (ServerSocket s = new ServerSocket(0, 1, java.net.InetAddress.getLoopbackAddress())) {
-            return s.getLocalPort();
-        }
-    }
-
     private void writePolicy() throws IOException {
         Path policy = Files.createDirectories(dir.resolve("policy"));
-        Files.writeString(dir.resolve("idempotent.sh"), """
-                key="$1"; log="$2"; claims="$3"
-                claim="$claims/$(printf '%s' "$key" | tr '/' '_')"
-                if mkdir "$claim" 2>/dev/null; then
-                  echo "start $key" >> "$log"
-                  sleep 0.3
-                  echo "done $key" >> "$log"
-                else
-                  i=0
-                  while ! grep -qxF "done $key" "$log" && [ $i -lt 1000 ]; do sleep 0.01; i=$((i+1)); done
-                fi
-                """);
+        FaultFiles.writeIdempotentScript(dir.resolve("idempotent.sh"));
         Files.writeString(policy.resolve("actions.yaml"), """
                 actions:
                   fix-idempotent:
@@ -181,16 +154,7 @@ class ServeStormFaultTest {
                     timeout: 10m
                     idempotent: true
                 """.formatted(dir.resolve("idempotent.sh"), dir.resolve("executed.log"), dir.resolve("claims")));
-        Files.writeString(policy.resolve("tend.yaml"), """
-                defaults:
-                  fleet: 16
-                  per-zone: 16
-                  rate: 1000/1h
-                rate: 1000/1h
-                brake:
-                  engage-at: { clusters: 1000 }
-                  release-below: { clusters: 500 }
-                """);
+        Files.writeString(policy.resolve("tend.yaml"), FaultFiles.WIDE_OPEN_POLICY);
         Files.writeString(policy.resolve("fix-heartbeat.yaml"), """
                 playbook: fix-heartbeat
                 version: 1
@@ -200,18 +164,8 @@ class ServeStormFaultTest {
                   - { id: first, action: fix-idempotent, timeout: 10m }
                   - { id: second, action: fix-idempotent, timeout: 10m }
                 """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur-storm\nclusters:\n");
-        for (int c = 1; c <= CLUSTERS; c++) {
-            fleet.append("  - id: fares-").append(c).append("\n    nodes:\n");
-            for (int n = 1; n <= 3; n++) fleet.append("      - { id: n").append(n).append(", zone: z-").append((char) ('a' + n - 1)).append(" }\n");
-        }
-        Files.writeString(policy.resolve("fleet.yaml"), fleet);
-        Files.writeString(dir.resolve("tokens.yaml"), "tokens:\n  - { name: storm, roles: [operator, viewer], sha256: "
-                + Tokens.hash(TOKEN) + " }\n");
-        byte[] key = new byte[32];
-        new Random(5).nextBytes(key);
-        Path k = dir.resolve("ledger.key");
-        Files.write(k, key);
-        Files.setPosixFilePermissions(k, java.nio.file.attribute.PosixFilePermissions.fromString("rw-------"));
+        Files.writeString(policy.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-storm", "fares", CLUSTERS));
+        FaultFiles.writeTokens(dir.resolve("tokens.yaml"), "storm", TOKEN);
+        FaultFiles.writeLedgerKey(dir.resolve("ledger.key"), 5);
     }
 }

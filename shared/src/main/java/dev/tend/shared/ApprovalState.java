@@ -39,4 +39,16 @@ public enum ApprovalState {
         for (ApprovalState s : values()) if (s.wireName().equals(wire)) return Optional.of(s);
         return Optional.empty();
     }
+
+    /**
+     * Checks the two times every record of an approval carries: both present, and the expiry
+     * not before the request. {@code type} names the record in the message (say {@code ApprovalRow}).
+     */
+    public static void requireTimes(String type, java.time.Instant requestedAt, java.time.Instant expiresAt) {
+        java.util.Objects.requireNonNull(requestedAt, type + ".requestedAt must not be null");
+        java.util.Objects.requireNonNull(expiresAt, type + ".expiresAt must not be null");
+        if (expiresAt.isBefore(requestedAt)) {
+            throw new IllegalArgumentException(type + ".expiresAt must not be before requestedAt " + requestedAt + ", got " + expiresAt);
+        }
+    }
 }

@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
 import java.time.Instant;
 import java.util.List;
 import java.util.Optional;
@@ -43,16 +44,44 @@ public interface StoreReader {
     List<ExclusionRow> exclusions();
 
     /**
-     * Approvals in {@code stateOrNull} (one of {@link ApprovalRow#STATES}), or all when null,
+     * Approvals in {@code stateOrNull} , or all when null,
      * oldest request first.
      */
-    List<ApprovalRow> approvals(String stateOrNull);
+    List<ApprovalRow> approvals(ApprovalState stateOrNull);
 
     /** The JSON text put under {@code key}, if any. */
     Optional<String> state(String key);
 
     /** Streams the ledger entries that pass {@code filter} in seq order. */
     void forEachLedger(LedgerFilter filter, Consumer<LedgerEntry> consumer);
+
+    /**
+     * The newest {@code limit} entries that pass {@code filter} and whose seq is below
+     * {@code beforeSeq} ({@link Long#MAX_VALUE} for no bound), newest first. The store walks an
+     * index from the newest entry backwards and stops at the limit, so a page costs about the
+     * same on a ledger of millions as on a small one (the next page: {@code beforeSeq} = the
+     * last seq of this one).
+     */
+    List<LedgerEntry> newestLedger(LedgerFilter filter, long beforeSeq, int limit);
+
+    /**
+     * Streams, in seq order, what a report of a period needs of the ledger (see
+     * {@link LedgerPeriodQuery}): every entry of the period and the few before it that carry
+     * state into it, instead of the whole ledger before the period's end.
+     */
+    void forEachLedgerOfPeriod(LedgerPeriodQuery query, Consumer<LedgerEntry> consumer);
+
+    /** The lowest seq of an entry at or after {@code at}; 0 when there is none. */
+    long firstLedgerSeqAt(Instant at);
+
+    /**
+     * Like {@link #verifyLedger()} for the entries from {@code fromSeq} to the newest: each
+     * entry's text, hash, chain link and columns, and the head row. The entry before
+     * {@code fromSeq} must match its own text (its hash is where the checked chain hangs), but
+     * the entries before it are not read. {@link LedgerVerification#entries()} counts the
+     * entries checked. {@code fromSeq} 1 (or less) is the whole ledger.
+     */
+    LedgerVerification verifyLedgerFrom(long fromSeq);
 
     /** The distinct kinds of the ledger's entries, sorted. */
     java.util.SortedSet<String> ledgerKinds();

@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
 import org.junit.jupiter.api.Test;
 
 import java.time.Instant;
@@ -134,18 +135,18 @@ abstract class ProjectionContractTest extends StoreTestBase {
     @Test
     void approvalsRoundTripAndAreListedByState() {
         ApprovalRow pending = new ApprovalRow("run-7", "replace-silent-node", "fares-3", "n2", "engine", T0,
-                T0.plusSeconds(1800), ApprovalRow.PENDING, null, null, "[\"approval-required\"]");
+                T0.plusSeconds(1800), ApprovalState.PENDING, null, null, "[\"approval-required\"]");
         ApprovalRow decided = new ApprovalRow("run-5", "restart-broker", "dispatch-1", null, "engine", T0.minusSeconds(60),
-                T0.plusSeconds(1740), ApprovalRow.APPROVED, "ops-lena", T0.plusSeconds(10), null);
+                T0.plusSeconds(1740), ApprovalState.APPROVED, "ops-lena", T0.plusSeconds(10), null);
         store.useTransaction(tx -> {
             tx.upsertApproval(pending);
             tx.upsertApproval(new ApprovalRow("run-5", "restart-broker", "dispatch-1", null, "engine", T0.minusSeconds(60),
-                    T0.plusSeconds(1740), ApprovalRow.PENDING, null, null, null));
+                    T0.plusSeconds(1740), ApprovalState.PENDING, null, null, null));
             tx.upsertApproval(decided);
         });
         assertThat(approvals(null)).containsExactly(decided, pending);
-        assertThat(approvals(ApprovalRow.PENDING)).containsExactly(pending);
-        assertThat(approvals(ApprovalRow.LAPSED)).isEmpty();
+        assertThat(approvals(ApprovalState.PENDING)).containsExactly(pending);
+        assertThat(approvals(ApprovalState.LAPSED)).isEmpty();
     }
 
     @Test
@@ -243,10 +244,10 @@ abstract class ProjectionContractTest extends StoreTestBase {
         store.close();
         store = db.open();
         // version 1 (journal, projections, ledger), 2.16 (the page outbox), 2.17 (snapshots), 2.18 (the leader
-        // lease) and 2.19 (stream offsets), each applied once
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("5");
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?)", "1", "2.16", "2.17",
-                "2.18", "2.19")).isEqualTo("5");
+        // lease), 2.19 (stream offsets) and 2.20 (the ledger's query indexes), each applied once
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("6");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?)", "1", "2.16", "2.17",
+                "2.18", "2.19", "2.20")).isEqualTo("6");
         assertThat(lastInputSeq()).isEqualTo(1);
         LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
         assertThat(second.seq()).isEqualTo(2);

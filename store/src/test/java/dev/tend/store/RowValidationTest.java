@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.store.internal.Rows;
 import org.assertj.core.api.ThrowableAssert.ThrowingCallable;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
@@ -96,8 +97,9 @@ class RowValidationTest {
         return new RunRow(id, playbook, version, cluster, null, state, false, created, null, null, null, null, null);
     }
 
+    /** An approval row with {@code state} as the store holds it: text, read into an ApprovalState at the store's edge. */
     static ApprovalRow approval(String run, String playbook, String cluster, String by, Instant at, Instant expires, String state) {
-        return new ApprovalRow(run, playbook, cluster, null, by, at, expires, state, null, null, null);
+        return new ApprovalRow(run, playbook, cluster, null, by, at, expires, state == null ? null : Rows.approvalState(state), null, null, null);
     }
 
     static Arguments rule(Class<? extends Throwable> type, String message, ThrowingCallable make) {

@@ -33,17 +33,21 @@ abstract class SnapshotContractTest extends StoreTestBase {
 
     @Test
     void aStoreMigratedThroughThePageOutboxGainsTheSnapshotsTableWhenOpened() {
-        // a store as a tend of version 2.16 left it: the page outbox but no snapshots table (nor the later lease table)
+        // a store as a tend of version 2.16 left it: the page outbox but no snapshots table (nor the later lease
+        // table and ledger indexes)
         store.close();
         store = null;
         db.execute("DROP TABLE snapshots");
         db.execute("DROP TABLE leader_lease");
         db.execute("DROP TABLE stream_offsets");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?)", "2.17", "2.18", "2.19")).isEqualTo(3);
+        db.execute("DROP INDEX ledger_kind");
+        db.execute("DROP INDEX ledger_playbook");
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20"))
+                .isEqualTo(4);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?) AND success = ?", "2.17",
-                "2.18", "2.19", true)).isEqualTo("3");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?) AND success = ?", "2.17",
+                "2.18", "2.19", "2.20", true)).isEqualTo("4");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }

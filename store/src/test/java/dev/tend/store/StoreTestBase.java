@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 
@@ -51,7 +52,7 @@ abstract class StoreTestBase {
         return store.read(StoreReader::exclusions);
     }
 
-    List<ApprovalRow> approvals(String state) {
+    List<ApprovalRow> approvals(ApprovalState state) {
         return store.read(r -> r.approvals(state));
     }
 

@@ -1,5 +1,6 @@
 package dev.tend.store;
 
+import dev.tend.shared.ApprovalState;
 import org.junit.jupiter.api.Test;
 
 import java.time.Instant;
@@ -31,7 +32,7 @@ abstract class TransactionContractTest extends StoreTestBase {
         tx.armTimer(new TimerRow("step/run-" + suffix + "/drain", T0.plusSeconds(600), null));
         tx.upsertExclusion(new ExclusionRow("tickets-12", "n" + suffix, "vendor test", "ops-lena", T0, null));
         tx.upsertApproval(new ApprovalRow("run-" + suffix, "replace-silent-node", "fares-3", "n2", "engine", T0,
-                T0.plusSeconds(1800), ApprovalRow.PENDING, null, null, null));
+                T0.plusSeconds(1800), ApprovalState.PENDING, null, null, null));
         tx.putState("brake-" + suffix, "{\"engaged\":true}");
     }
 
@@ -89,7 +90,7 @@ abstract class TransactionContractTest extends StoreTestBase {
             assertThat(r.steps("run-1")).hasSize(1);
             assertThat(r.timers()).hasSize(1);
             assertThat(r.exclusions()).hasSize(1);
-            assertThat(r.approvals(ApprovalRow.PENDING)).hasSize(1);
+            assertThat(r.approvals(ApprovalState.PENDING)).hasSize(1);
             assertThat(r.state("brake-1")).isPresent();
             return null;
         });

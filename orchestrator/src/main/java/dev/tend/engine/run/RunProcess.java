@@ -111,18 +111,17 @@ public final class RunProcess {
 
     /** True when the latest step record is in {@code state}. */
     boolean lastRecordIs(StepState state) {
-        return !record.isEmpty() && record.get(record.size() - 1).state().equals(state.wireName());
+        return !record.isEmpty() && record.get(record.size() - 1).state() == state;
     }
 
     void recordStep(StepState stepState, String outcome, Instant at) {
         Step s = currentStep();
         String kind = s.kind();
-        String state = stepState.wireName();
-        StepSnapshot snap = new StepSnapshot(s.id().value(), record.size() + 1, kind, state, attempt,
+        StepSnapshot snap = new StepSnapshot(s.id().value(), record.size() + 1, kind, stepState, attempt,
                 stepStartedAt, stepState == StepState.RUNNING ? null : at, outcome);
         if (!record.isEmpty() && record.get(record.size() - 1).stepId().equals(snap.stepId())
                 && lastRecordIs(StepState.RUNNING)) {
-            snap = new StepSnapshot(snap.stepId(), record.size(), kind, state, attempt, stepStartedAt,
+            snap = new StepSnapshot(snap.stepId(), record.size(), kind, stepState, attempt, stepStartedAt,
                     snap.endedAt(), outcome);
             record.set(record.size() - 1, snap);
         } else {

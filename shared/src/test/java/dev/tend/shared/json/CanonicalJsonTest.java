@@ -50,6 +50,16 @@ class CanonicalJsonTest {
         assertThat(CanonicalJson.serialize(List.of(d))).isEqualTo("[" + expected + "]");
     }
 
+    // A whole number below 2^53 is written as its integer digits (RFC 8785 section 3.2.2.3, ECMAScript's
+    // Number::toString for exponents up to 21); checked against java.math.BigDecimal's plain form of the exact value.
+    @ParameterizedTest
+    @ValueSource(longs = {1, 7, 10, 100, 1234567, 10000000, 99999999999L, 4503599627370496L, 9007199254740991L, -1, -42,
+            -9007199254740991L})
+    void writesWholeNumbersBelow2To53AsTheirIntegerDigits(long n) {
+        assertThat(CanonicalJson.number(n)).isEqualTo(new java.math.BigDecimal((double) n).toPlainString());
+        assertThat(CanonicalJson.serialize(MAPPER.createObjectNode().put("seq", n))).isEqualTo("{\"seq\":" + n + "}");
+    }
+
     // RFC 8785 Appendix B: NaN and Infinity have no serialization (from memory)
     @ParameterizedTest
     @ValueSource(strings = {"7fffffffffffffff", "7ff0000000000000", "fff0000000000000"})

@@ -1,10 +1,12 @@
 package dev.tend.store.internal;
 
+import dev.tend.shared.ApprovalState;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
+import dev.tend.store.LedgerPeriodQuery;
 import dev.tend.store.LedgerVerification;
 import dev.tend.store.PageRow;
 import dev.tend.store.RunFilter;
@@ -186,15 +188,11 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
-    public List<ApprovalRow> approvals(String stateOrNull) {
-        if (stateOrNull != null && !ApprovalRow.STATES.contains(stateOrNull)) {
-            throw new IllegalArgumentException("approvals(state) takes pending, approved, rejected, lapsed, withdrawn or null, got '"
-                    + stateOrNull + "'");
-        }
+    public List<ApprovalRow> approvals(ApprovalState stateOrNull) {
         beforeRead();
         String where = stateOrNull == null ? "" : " WHERE state = :state";
         Query q = handle.createQuery("SELECT " + Rows.APPROVAL_COLUMNS + " FROM approvals" + where + " ORDER BY requested_ns, run_id");
-        if (stateOrNull != null) q.bind("state", stateOrNull);
+        if (stateOrNull != null) q.bind("state", stateOrNull.wireName());
         return List.copyOf(q.map((rs, ctx) -> Rows.approval(rs)).list());
     }
 
@@ -214,27 +212,120 @@ public class JdbiReader implements StoreReader {
         Objects.requireNonNull(consumer, "consumer");
         beforeRead();
         StringBuilder sql = new StringBuilder("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE 1 = 1");
-        if (filter.since() != null) sql.append(" AND at_ns >= :since");
-        if (filter.until() != null) sql.append(" AND at_ns < :until");
-        if (filter.cluster() != null) sql.append(" AND cluster = :cluster");
-        if (filter.playbook() != null) sql.append(" AND playbook = :playbook");
-        if (filter.kind() != null) sql.append(" AND kind = :kind");
-        if (filter.run() != null) sql.append(" AND run = :run");
+        appendFilter(sql, filter);
         sql.append(" ORDER BY seq");
         Query q = handle.createQuery(sql.toString()).setFetchSize(FETCH_SIZE);
+        bindFilter(q, filter);
+        q.map((rs, ctx) -> Rows.ledger(rs)).forEach(consumer);
+    }
+
+    /**
+     * The filter's conditions. Only the most selective column given (run, then cluster, then
+     * playbook, then kind) is written so that an index can serve it; the others are written as
+     * expressions ({@code col || ''}), which no planner serves from an index: without statistics
+     * SQLite may otherwise walk the kind index backwards (half the ledger are verdicts) looking
+     * for the few entries of one cluster.
+     */
+    private static void appendFilter(StringBuilder sql, LedgerFilter filter) {
+        if (filter.since() != null) sql.append(" AND at_ns >= :since");
+        if (filter.until() != null) sql.append(" AND at_ns < :until");
+        boolean served = false;
+        String[][] columns = {{"run", filter.run()}, {"cluster", filter.cluster()}, {"playbook", filter.playbook()},
+                {"kind", filter.kind()}};
+        for (String[] c : columns) {
+            if (c[1] == null) continue;
+            sql.append(" AND ").append(c[0]).append(served ? " || '' = :" : " = :").append(c[0]);
+            served = true;
+        }
+    }
+
+    private static void bindFilter(Query q, LedgerFilter filter) {
         if (filter.since() != null) q.bind("since", Times.toNanos(filter.since(), "LedgerFilter.since"));
         if (filter.until() != null) q.bind("until", Times.toNanos(filter.until(), "LedgerFilter.until"));
         if (filter.cluster() != null) q.bind("cluster", filter.cluster());
         if (filter.playbook() != null) q.bind("playbook", filter.playbook());
         if (filter.kind() != null) q.bind("kind", filter.kind());
         if (filter.run() != null) q.bind("run", filter.run());
-        q.map((rs, ctx) -> Rows.ledger(rs)).forEach(consumer);
+    }
+
+    @Override
+    public List<LedgerEntry> newestLedger(LedgerFilter filter, long beforeSeq, int limit) {
+        Objects.requireNonNull(filter, "filter");
+        if (limit < 1) throw new IllegalArgumentException("newestLedger: limit must be 1 or more, got " + limit);
+        beforeRead();
+        StringBuilder sql = new StringBuilder("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq < :before");
+        appendFilter(sql, filter);
+        sql.append(" ORDER BY seq DESC LIMIT :limit");
+        Query q = handle.createQuery(sql.toString()).bind("before", beforeSeq).bind("limit", limit);
+        bindFilter(q, filter);
+        return List.copyOf(q.map((rs, ctx) -> Rows.ledger(rs)).list());
+    }
+
+    @Override
+    public void forEachLedgerOfPeriod(LedgerPeriodQuery query, Consumer<LedgerEntry> consumer) {
+        Objects.requireNonNull(query, "query");
+        Objects.requireNonNull(consumer, "consumer");
+        beforeRead();
+        long since = Times.toNanos(query.since(), "LedgerPeriodQuery.since");
+        long until = Times.toNanos(query.until(), "LedgerPeriodQuery.until");
+        // before the period: the carried kinds, and every entry of a run still open at since (few, in seq order)
+        String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
+                + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
+        String before = "SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
+        if (!query.carriedKinds().isEmpty()) {
+            before = before + " UNION SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE kind IN (<carried>) AND at_ns < :since";
+        }
+        Query carriedQuery = handle.createQuery(before + " ORDER BY seq")
+                .bind("since", since)
+                .bindList("opening", List.copyOf(query.openingKinds()))
+                .bindList("closing", List.copyOf(query.closingKinds()));
+        if (!query.carriedKinds().isEmpty()) carriedQuery.bindList("carried", List.copyOf(query.carriedKinds()));
+        List<LedgerEntry> carried = carriedQuery.map((rs, ctx) -> Rows.ledger(rs)).list();
+        // the period: its seq range through the time index, then that range in seq order (no sort)
+        long[] range = handle.createQuery("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= :since AND at_ns < :until")
+                .bind("since", since).bind("until", until)
+                .map((rs, ctx) -> new long[]{rs.getLong(1), rs.getLong(2)}).one();
+        int next = 0;
+        if (range[1] > 0) {
+            try (var rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :lo AND seq <= :hi"
+                            + " AND at_ns >= :since AND at_ns < :until ORDER BY seq")
+                    .bind("lo", range[0]).bind("hi", range[1]).bind("since", since).bind("until", until)
+                    .setFetchSize(FETCH_SIZE)
+                    .map((rs, ctx) -> Rows.ledger(rs)).iterator()) {
+                while (rows.hasNext()) {
+                    LedgerEntry e = rows.next();
+                    while (next < carried.size() && carried.get(next).seq() < e.seq()) consumer.accept(carried.get(next++));
+                    consumer.accept(e);
+                }
+            }
+        }
+        while (next < carried.size()) consumer.accept(carried.get(next++));
+    }
+
+    @Override
+    public long firstLedgerSeqAt(Instant at) {
+        Objects.requireNonNull(at, "at");
+        beforeRead();
+        Long seq = handle.createQuery("SELECT MIN(seq) FROM ledger WHERE at_ns >= :at")
+                .bind("at", Times.toNanos(at, "at"))
+                .mapTo(Long.class).one();
+        return seq == null ? 0 : seq;
+    }
+
+    @Override
+    public LedgerVerification verifyLedgerFrom(long fromSeq) {
+        beforeRead();
+        return new LedgerVerifier(handle).verifyFrom(fromSeq);
     }
 
     @Override
     public java.util.SortedSet<String> ledgerKinds() {
         beforeRead();
-        return new java.util.TreeSet<>(handle.createQuery("SELECT DISTINCT kind FROM ledger").mapTo(String.class).list());
+        // one index probe per distinct kind (a loose index scan) instead of reading every entry
+        return new java.util.TreeSet<>(handle.createQuery("WITH RECURSIVE k(kind) AS (SELECT MIN(kind) FROM ledger"
+                        + " UNION ALL SELECT (SELECT MIN(kind) FROM ledger WHERE kind > k.kind) FROM k WHERE k.kind IS NOT NULL)"
+                        + " SELECT kind FROM k WHERE kind IS NOT NULL")
+                .mapTo(String.class).list());
     }
 
     @Override

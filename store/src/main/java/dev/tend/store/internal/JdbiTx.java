@@ -282,7 +282,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
                 .bind("requested_by", a.requestedBy())
                 .bind("requested_ns", Times.toNanos(a.requestedAt(), "ApprovalRow.requestedAt"))
                 .bind("expires_ns", Times.toNanos(a.expiresAt(), "ApprovalRow.expiresAt"))
-                .bind("state", a.state())
+                .bind("state", a.state().wireName())
                 .bind("decided_by", a.decidedBy())
                 .bind("decided_ns", Times.toNanos(a.decidedAt(), "ApprovalRow.decidedAt"))
                 .bind("reasons", a.reasons())

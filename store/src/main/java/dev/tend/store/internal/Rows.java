@@ -1,5 +1,6 @@
 package dev.tend.store.internal;
 
+import dev.tend.shared.ApprovalState;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.PageRow;
 import dev.tend.store.ExclusionRow;
@@ -58,8 +59,14 @@ public final class Rows {
 
     public static ApprovalRow approval(ResultSet rs) throws SQLException {
         return new ApprovalRow(rs.getString(1), rs.getString(2), rs.getString(3), rs.getString(4), rs.getString(5),
-                Times.fromNanos(rs.getLong(6)), Times.fromNanos(rs.getLong(7)), rs.getString(8), rs.getString(9),
+                Times.fromNanos(rs.getLong(6)), Times.fromNanos(rs.getLong(7)), approvalState(rs.getString(8)), rs.getString(9),
                 instant(rs, 10), rs.getString(11));
+    }
+
+    /** The stored text of an approval's state as its {@link ApprovalState}; text that is none is refused. */
+    public static ApprovalState approvalState(String text) {
+        return ApprovalState.of(text).orElseThrow(() -> new IllegalArgumentException("ApprovalRow.state must be one of "
+                + String.join(", ", ApprovalState.wireNames()) + ", got '" + text + "'"));
     }
 
     public static final String PAGE_COLUMNS = "id, channel, created_ns, payload, state, attempts, next_ns, last_answer, ended_ns";

@@ -1,0 +1,45 @@
+package dev.tend.store;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.ResultSet;
+import java.sql.Statement;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+class SqliteLedgerQueryTest extends LedgerQueryContractTest {
+    @TempDir
+    Path dir;
+
+    @Override
+    TestDatabase createDatabase() {
+        return new SqliteTestDatabase(dir.resolve("tend.db"));
+    }
+
+    /**
+     * The plans SQLite chooses (EXPLAIN QUERY PLAN, sqlite.org/eqp.html) for the reads that must
+     * not grow with the ledger: each walks an index, none scans the ledger table.
+     */
+    @Test
+    void pagesAndPeriodReadsWalkAnIndexInsteadOfTheWholeLedger() throws Exception {
+        assertThat(plan("SELECT seq FROM ledger WHERE seq < 9223372036854775807 AND kind = 'verdict' ORDER BY seq DESC LIMIT 501"))
+                .contains("ledger_kind").doesNotContain("TEMP B-TREE");
+        assertThat(plan("SELECT seq FROM ledger WHERE seq < 9223372036854775807 AND playbook = 'p' ORDER BY seq DESC LIMIT 501"))
+                .contains("ledger_playbook").doesNotContain("TEMP B-TREE");
+        assertThat(plan("SELECT run FROM ledger WHERE kind IN ('run-started', 'run-shadowed') AND at_ns < 5 AND run IS NOT NULL"
+                + " EXCEPT SELECT run FROM ledger WHERE kind IN ('run-ended') AND at_ns < 5 AND run IS NOT NULL"))
+                .contains("ledger_kind").doesNotContain("SCAN ledger\n");
+        assertThat(plan("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= 1 AND at_ns < 5")).contains("ledger_at");
+    }
+
+    private String plan(String sql) throws Exception {
+        StringBuilder out = new StringBuilder();
+        try (Connection c = db.connect(); Statement s = c.createStatement(); ResultSet rs = s.executeQuery("EXPLAIN QUERY PLAN " + sql)) {
+            while (rs.next()) out.append(rs.getString("detail")).append('\n');
+        }
+        return out.toString();
+    }
+}
