@@ -13,13 +13,13 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.SerializerProvider;
 import com.fasterxml.jackson.databind.module.SimpleModule;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
 import dev.tend.engine.StepState;
 import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
+import dev.tend.shared.time.InstantText;
 import dev.tend.shared.TendException;
 import dev.tend.shared.json.Sha256;
 import dev.tend.store.SnapshotRow;
@@ -61,9 +61,18 @@ public final class SnapshotCodec {
         // a step's state by its wire name, as snapshots held it while it was text
         asText(ids, StepState.class, StepState::wireName,
                 wire -> StepState.of(wire).orElseThrow(() -> new IllegalArgumentException("not a step state: '" + wire + "'")));
+        // Instant.toString()'s text (what the time module writes too), without its formatter: a snapshot holds many
+        SimpleModule instants = new SimpleModule("tend-instants");
+        instants.addSerializer(Instant.class, new JsonSerializer<>() {
+            @Override
+            public void serialize(Instant t, JsonGenerator g, SerializerProvider p) throws IOException {
+                g.writeString(InstantText.of(t));
+            }
+        });
         ObjectMapper m = new ObjectMapper();
         m.registerModule(new JavaTimeModule());
         m.registerModule(ids);
+        m.registerModule(instants);
         // Records as their components only: no derived getters (isCluster, isProblem, ...) in the file.
         m.setVisibility(PropertyAccessor.ALL, JsonAutoDetect.Visibility.NONE);
         m.setVisibility(PropertyAccessor.FIELD, JsonAutoDetect.Visibility.ANY);
@@ -102,15 +111,18 @@ public final class SnapshotCodec {
     /** The snapshot row of {@code state}, the engine's state after journal seq {@code seq}. */
     public static SnapshotRow encode(long seq, Instant takenAt, String setupFingerprint, EngineState state,
                                      Map<String, Long> sources) {
-        ObjectNode root = JSON.createObjectNode();
-        root.put("format", FORMAT);
-        root.put("seq", seq);
-        ObjectNode done = root.putObject("sources");
-        new java.util.TreeMap<>(sources).forEach(done::put);
-        root.set("state", JSON.valueToTree(state));
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
-        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16)) {
-            JSON.writeValue(out, root);
+        // streamed: building the state as a tree first cost as much again as writing it
+        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16); JsonGenerator g = JSON.createGenerator(out)) {
+            g.writeStartObject();
+            g.writeNumberField("format", FORMAT);
+            g.writeNumberField("seq", seq);
+            g.writeObjectFieldStart("sources");
+            for (Map.Entry<String, Long> e : new java.util.TreeMap<>(sources).entrySet()) g.writeNumberField(e.getKey(), e.getValue());
+            g.writeEndObject();
+            g.writeFieldName("state");
+            JSON.writeValue(g, state);
+            g.writeEndObject();
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

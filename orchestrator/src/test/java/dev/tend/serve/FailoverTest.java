@@ -50,9 +50,6 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 class FailoverTest {
     static final int KILLS = Integer.getInteger("tend.failover.kills", 0);
     private static final int CLUSTERS = 40;
-    /** Records of harmless clears produced beside the storm's silences at each step, so a kill lands mid-stream. */
-    private static final int FILLER = 3000;
-    private static final int PARTITIONS = 2;
     private static final int FLEET_CAP = 6;
     private static final String LEASE = "3s";
     private static final String TOKEN = "tok-failover-operator";
@@ -70,11 +67,7 @@ class FailoverTest {
     private InProcessKafka kafka;
     /** The test's own view of the shared store (opened first, so it also migrates the database). */
     private Store watch;
-    private String topic;
-    /** The event time of every good record produced (one of its own each), and how many bad records were. */
-    private final List<Instant> produced = new ArrayList<>();
-    private int badProduced;
-    private final Instant base = Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
+    private FailoverStorm storm;
 
     private record Instance(String name, int port, Process process) {
     }
@@ -86,7 +79,7 @@ class FailoverTest {
         url = pg.createDatabase();
         user = pg.user();
         kafka = InProcessKafka.get();
-        topic = kafka.createTopic("larkspur-failover", PARTITIONS);
+        storm = new FailoverStorm(kafka, CLUSTERS);
         watch = Store.openJdbc(url, user, null);
         try (KeyReceiver receiver = KeyReceiver.start(Duration.ofMillis(400))) {
             writePolicy(receiver.url());
@@ -103,22 +96,22 @@ class FailoverTest {
             assertThat(refused.headers().firstValue("X-Tend-Leader")).contains("http://127.0.0.1:" + first.port());
 
             Random random = new Random(20271202L);
-            List<String> storm = new ArrayList<>();
-            for (int c = 1; c <= CLUSTERS; c++) storm.add("fares-" + c);
+            List<String> silenced = new ArrayList<>();
+            for (int c = 1; c <= CLUSTERS; c++) silenced.add("fares-" + c);
             int posted = 0;
             List<Long> takeoverMs = new ArrayList<>();
             List<String> consumedAtKill = new ArrayList<>();
             for (int k = 0; k < KILLS; k++) {
-                int until = Math.min(storm.size(), posted + 2 + random.nextInt(CLUSTERS / (KILLS + 1) + 2));
-                long before = consumed();
-                java.util.concurrent.CompletableFuture<Void> sending = produce(storm.subList(posted, until));
+                int until = Math.min(silenced.size(), posted + 2 + random.nextInt(CLUSTERS / (KILLS + 1) + 2));
+                long before = storm.consumed(watch);
+                java.util.concurrent.CompletableFuture<Void> sending = storm.produce(silenced.subList(posted, until));
                 posted = until;
                 // killed while the step's records arrive and are consumed: mid-stream
                 long target = before + 200 + random.nextInt(800);
                 long by = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
-                while (consumed() < target && System.nanoTime() < by) Thread.sleep(10);
+                while (storm.consumed(watch) < target && System.nanoTime() < by) Thread.sleep(10);
                 Instance leader = leader();
-                consumedAtKill.add(consumed() + " of " + (produced.size() + badProduced));
+                consumedAtKill.add(storm.consumed(watch) + " of " + storm.produced());
                 long killedAt = System.nanoTime();
                 leader.process().destroyForcibly(); // SIGKILL
                 leader.process().waitFor(30, TimeUnit.SECONDS);
@@ -130,9 +123,10 @@ class FailoverTest {
                 assertThat(awaitRole(fresh, "standby", 90)).as(log(fresh)).isTrue();
                 sending.get(60, TimeUnit.SECONDS);
             }
-            produce(storm.subList(posted, storm.size())).get(60, TimeUnit.SECONDS);
-            posted = storm.size();
-            awaitConsumed();
+            storm.produce(silenced.subList(posted, silenced.size())).get(60, TimeUnit.SECONDS);
+            posted = silenced.size();
+            assertThat(storm.awaitConsumed(watch, Duration.ofSeconds(120))).as("the storm's %d records consumed within 120 s; %s",
+                    storm.produced(), log(leader())).isTrue();
 
             // a leader paused past its lease: the standby takes over; resumed, it cannot commit and says so
             Instance paused = leader();
@@ -176,7 +170,7 @@ class FailoverTest {
                 assertThat(i.process().waitFor(60, TimeUnit.SECONDS)).isTrue();
             }
 
-            Figures f = figures(storm, receiver);
+            Figures f = figures(silenced, receiver);
             int audit = auditVerify();
             System.out.println("failover: records consumed when each SIGKILL came: " + consumedAtKill);
             System.out.printf("failover: %d SIGKILLs of the leader, takeover after %s ms (max %d ms), SIGSTOP past the lease: "
@@ -186,16 +180,16 @@ class FailoverTest {
                             + "two keys; at most %d runs at once (cap %d), %d runs started while the brake was engaged; "
                             + "tend audit verify exit %d%n",
                     KILLS, takeoverMs, takeoverMs.stream().mapToLong(Long::longValue).max().orElse(0), pauseTakeoverMs,
-                    produced.size() + badProduced, badProduced, f.recordsMissing, f.recordsTwice, f.refused, f.refusedTwice,
+                    storm.produced(), storm.bad(), f.records.missing(), f.records.twice(), f.records.refused(), f.records.refusedTwice(),
                     f.missing, f.runs, receiver.done().size(), receiver.repeats(), f.stepsTwice,
                     f.maxActive, FLEET_CAP, f.startsWhileBraked, audit);
             assertThat(takeoverMs).allSatisfy(ms -> assertThat(ms).isLessThan(15_000));
             assertThat(pauseTakeoverMs).isLessThan(15_000);
             assertThat(f.missing).isZero();
-            assertThat(f.recordsMissing).isZero();
-            assertThat(f.recordsTwice).isZero();
-            assertThat(f.refused).isEqualTo(badProduced);
-            assertThat(f.refusedTwice).isZero();
+            assertThat(f.records.missing()).isZero();
+            assertThat(f.records.twice()).isZero();
+            assertThat(f.records.refused()).isEqualTo(storm.bad());
+            assertThat(f.records.refusedTwice()).isZero();
             assertThat(f.stepsTwice).isZero();
             assertThat(receiver.done()).isNotEmpty();
             assertThat(f.maxActive).isLessThanOrEqualTo(FLEET_CAP);
@@ -219,69 +213,22 @@ class FailoverTest {
     }
 
     /** What the store and the receiver hold after the storm. */
-    private record Figures(long missing, long recordsMissing, long recordsTwice, int refused, long refusedTwice, int runs, long stepsTwice,
-                           int maxActive, int startsWhileBraked, LedgerVerification ledger) {
+    private record Figures(long missing, FailoverStorm.Check records, int runs, long stepsTwice, int maxActive, int startsWhileBraked,
+                           LedgerVerification ledger) {
     }
 
-    /**
-     * Produces a step of the storm: a silence of each of {@code clusters} (node n1), {@link #FILLER}
-     * clears of nodes n2 and n3, and one record that is not a wire line, spread over the
-     * partitions and sent on another thread; every good record has an event time of its own,
-     * so the journal shows each once.
-     */
-    private java.util.concurrent.CompletableFuture<Void> produce(List<String> clusters) {
-        List<List<String>> byPartition = new ArrayList<>();
-        for (int p = 0; p < PARTITIONS; p++) byPartition.add(new ArrayList<>());
-        int i = 0;
-        for (String c : clusters) byPartition.get(i++ % PARTITIONS).add(record(c, "n1", "silent"));
-        for (int n = 0; n < FILLER; n++) {
-            byPartition.get(n % PARTITIONS).add(record("fares-" + (1 + n % CLUSTERS), "n" + (2 + n % 2), "clear"));
-        }
-        byPartition.get(badProduced % PARTITIONS).add("{\"at\": not a wire line " + badProduced + "}");
-        badProduced++;
-        return java.util.concurrent.CompletableFuture.runAsync(() -> {
-            for (int p = 0; p < PARTITIONS; p++) kafka.send(topic, p, byPartition.get(p));
-        });
-    }
-
-    private String record(String cluster, String node, String state) {
-        Instant at = base.plusMillis(produced.size());
-        produced.add(at);
-        return "{\"at\":\"" + at + "\",\"cluster\":\"" + cluster + "\",\"node\":\"" + node + "\",\"signal\":\"heartbeat\","
-                + "\"state\":\"" + state + "\"}";
-    }
-
-    /** Records of the topic journaled or refused so far, as the offsets in the store count them. */
-    private long consumed() {
-        return watch.read(r -> r.streamOffsets(topic)).values().stream().mapToLong(Long::longValue).sum();
-    }
-
-    /** Waits until the store's offsets count every record produced: the leader consumed the whole storm. */
-    private void awaitConsumed() throws Exception {
-        long total = produced.size() + badProduced;
-        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
-        while (System.nanoTime() < deadline) {
-            if (consumed() >= total) return;
-            Thread.sleep(200);
-        }
-        throw new AssertionError("the storm's " + total + " records were not consumed within 120 s; " + log(leader()));
-    }
-
-    private Figures figures(List<String> storm, KeyReceiver receiver) throws IOException {
+    private Figures figures(List<String> silenced, KeyReceiver receiver) throws IOException {
         try (Store store = Store.openJdbc(url, user, null)) {
             Set<String> journaled = new HashSet<>();
-            Map<Instant, Integer> times = new java.util.HashMap<>();
             store.read(r -> {
                 r.forEachInput(0, row -> {
-                    if (!row.kind().equals("transition")) return;
-                    if (row.cluster() != null && row.payload().contains("\"silent\"")) journaled.add(row.cluster());
-                    times.merge(row.eventAt(), 1, Integer::sum);
+                    if (row.kind().equals("transition") && row.cluster() != null && row.payload().contains("\"silent\"")) {
+                        journaled.add(row.cluster());
+                    }
                 });
                 return null;
             });
-            long missing = storm.stream().filter(c -> !journaled.contains(c)).count();
-            long recordsMissing = produced.stream().filter(t -> !times.containsKey(t)).count();
-            long recordsTwice = times.values().stream().filter(n -> n > 1).count();
+            long missing = silenced.stream().filter(c -> !journaled.contains(c)).count();
             List<LedgerEntry> entries = new ArrayList<>();
             store.read(r -> {
                 r.forEachLedger(new LedgerFilter(null, null, null, null, null, null), entries::add);
@@ -290,8 +237,6 @@ class FailoverTest {
             Set<String> active = new HashSet<>();
             Set<String> runs = new HashSet<>();
             int maxActive = 0, whileBraked = 0;
-            Set<String> refusedFrom = new HashSet<>();
-            long refusedTwice = 0;
             boolean braked = false;
             for (LedgerEntry e : entries) {
                 switch (e.kind()) {
@@ -304,10 +249,6 @@ class FailoverTest {
                     case "run-ended" -> active.remove(e.run());
                     case "brake-engaged" -> braked = true;
                     case "brake-released" -> braked = false;
-                    case "input-refused" -> {
-                        String from = JSON.readTree(e.entry()).path("from").asText();
-                        if (from.startsWith("topic " + topic) && !refusedFrom.add(from)) refusedTwice++;
-                    }
                     default -> {
                     }
                 }
@@ -319,8 +260,7 @@ class FailoverTest {
                 keysByStep.computeIfAbsent(step, s -> new HashSet<>()).add(key);
             }
             long twice = keysByStep.values().stream().filter(s -> s.size() > 1).count();
-            return new Figures(missing, recordsMissing, recordsTwice, refusedFrom.size(), refusedTwice, runs.size(), twice, maxActive,
-                    whileBraked, store.read(r -> r.verifyLedger()));
+            return new Figures(missing, storm.check(store), runs.size(), twice, maxActive, whileBraked, store.read(r -> r.verifyLedger()));
         }
     }
 
@@ -331,7 +271,7 @@ class FailoverTest {
                 "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
                 "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port, "--lease", LEASE,
                 "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200",
-                "--kafka", kafka.bootstrap(), "--topic", topic));
+                "--kafka", kafka.bootstrap(), "--topic", storm.topic()));
         Instance i = new Instance(name, port, p);
         instances.add(i);
         return i;
