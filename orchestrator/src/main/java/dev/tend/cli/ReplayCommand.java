@@ -30,6 +30,8 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.FutureTask;
 
 /**
  * {@code tend replay RECORDING}: runs a recording through the engine in virtual time with
@@ -78,9 +80,9 @@ public final class ReplayCommand implements Callable<Integer> {
         PlaybookSet a = policy(policy.playbooks);
         PlaybookSet b = against == null ? null : policy(against);
 
-        ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName(), err);
-        boolean skipped = first.recording().badLines() > 0;
         if (b == null) {
+            ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName(), err);
+            boolean skipped = first.recording().badLines() > 0;
             write(switch (format) {
                 case json -> ReportJson.toJson(first);
                 case html -> ReportHtml.render(first);
@@ -88,7 +90,16 @@ public final class ReplayCommand implements Callable<Integer> {
             });
             return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
-        ReplayReport second = replay(b, topology, rec, "replaying " + recording.getFileName() + " against " + against.getFileName(), err);
+        // the second policy replays on its own thread at the same time (each replay is a fresh engine
+        // of its own: the reports are those of one after the other); progress and bad lines are the first's
+        FutureTask<ReplayReport> other = new FutureTask<>(() -> Replayer.of(b, topology, seed).replay(rec));
+        Thread thread = new Thread(other, "tend-replay-against");
+        thread.setDaemon(true);
+        thread.start();
+        ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName() + " with " + policy.playbooks.getFileName()
+                + " and " + against.getFileName(), err);
+        boolean skipped = first.recording().badLines() > 0;
+        ReplayReport second = joined(other);
         ReportComparison c = ReportComparison.of(policy.playbooks.toString(), first, against.toString(), second);
         write(switch (format) {
             case json -> ComparisonJson.toJson(c);
@@ -105,6 +116,20 @@ public final class ReplayCommand implements Callable<Integer> {
             return Replayer.of(set, topology, seed).replay(rec, new ReplayProgress(err, progress));
         } finally {
             progress.close();
+        }
+    }
+
+    /** What the replay on the other thread gave; what it threw, thrown here. */
+    private static ReplayReport joined(FutureTask<ReplayReport> task) {
+        try {
+            return task.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new TendException("the replay of --against was interrupted", e);
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) throw r;
+            if (e.getCause() instanceof Error r) throw r;
+            throw new TendException("the replay of --against failed: " + e.getCause(), e.getCause());
         }
     }
 

@@ -69,9 +69,9 @@ public final class ColdReplayBenchmark {
             variants.put("  JVM defaults (no archive, C2, G1): before", run(dir, "plain", replayArgs, -1,
                     java.util.Map.of("TEND_CDS", "off", "TEND_REPLAY_OPTS", "")));
             variants.put("  + class-data archive", run(dir, "cds", replayArgs, -1, java.util.Map.of("TEND_REPLAY_OPTS", "")));
-            variants.put("  + serial collector (the launcher's default)", replay);
-            variants.put("  + C1 only (less CPU, more wall when a core is free)", run(dir, "c1", replayArgs, -1,
-                    java.util.Map.of("TEND_REPLAY_OPTS", "-XX:+UseSerialGC -XX:TieredStopAtLevel=1")));
+            variants.put("  + serial collector", run(dir, "serial", replayArgs, -1,
+                    java.util.Map.of("TEND_REPLAY_OPTS", "-XX:+UseSerialGC")));
+            variants.put("  + C1 only (the launcher's default)", replay);
         }
         System.out.printf(Locale.ROOT, "%-44s %9s %9s %13s %12s%n", "", "wall s", "CPU s", "ratio (wall)", "ratio (CPU)");
         row("floor (java, Jackson tree per line)", floor, floor);
