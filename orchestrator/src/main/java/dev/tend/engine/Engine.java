@@ -121,16 +121,11 @@ public final class Engine implements RunHost {
                 flow.queue(key);
             }
         }
-        boolean unknown = !isKnown(t.cluster(), t.node());
+        boolean unknown = !ctx.health.isInTopology(t.key());
         if (mattered || unknown) {
             fx.ledger(LedgerKind.TRANSITION, "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
                     "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
-    }
-
-    /** True when the cluster (and the node, if any) is in the topology: the fleet file plus topology events. */
-    private boolean isKnown(Id cluster, Id node) {
-        return UnknownTargets.isKnown(ctx.health.topology(), cluster, node);
     }
 
     private boolean hasLiveRun(Candidate.Key key) {

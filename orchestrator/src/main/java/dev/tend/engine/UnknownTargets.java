@@ -23,15 +23,6 @@ public final class UnknownTargets {
     private UnknownTargets() {
     }
 
-    /**
-     * True when {@code cluster}, and {@code node} unless null, are in {@code topology}: what
-     * {@link #describe} says without building the sentence (asked for every transition).
-     */
-    public static boolean isKnown(Fleet topology, Id cluster, Id node) {
-        Optional<ClusterSpec> spec = topology.cluster(cluster);
-        return spec.isPresent() && (node == null || spec.get().node(node).isPresent());
-    }
-
     /** Empty when the cluster, and the node if the target names one, are in {@code topology}. */
     public static Optional<String> describe(Fleet topology, Target target) {
         return describe(topology, target.cluster(), target.node());

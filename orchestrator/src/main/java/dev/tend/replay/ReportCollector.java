@@ -53,6 +53,9 @@ final class ReportCollector {
      */
     private final java.util.TreeMap<Long, int[]> minutes = new java.util.TreeMap<>();
     private int lastCount;
+    private Instant lastNow;
+    private long lastMinute = -1;
+    private int[] lastSeen;
 
     void start(Instant at) {
         start = at;
@@ -80,8 +83,17 @@ final class ReportCollector {
     /** After each input: how many runs are active and clusters unhealthy. */
     void afterInput(Instant now, int activeRuns, int unhealthyClusters) {
         if (activeRuns > maxConcurrent) maxConcurrent = activeRuns;
-        long m = minute(now);
-        int[] seen = minutes.computeIfAbsent(m, k -> new int[]{lastCount, lastCount});
+        // most inputs fall in the minute of the one before: that minute's counts without a map lookup
+        int[] seen;
+        if (now == lastNow || now.equals(lastNow)) {
+            seen = lastSeen;
+        } else {
+            long m = minute(now);
+            seen = m == lastMinute ? lastSeen : minutes.computeIfAbsent(m, k -> new int[]{lastCount, lastCount});
+            lastNow = now;
+            lastMinute = m;
+            lastSeen = seen;
+        }
         if (unhealthyClusters > seen[0]) seen[0] = unhealthyClusters;
         seen[1] = unhealthyClusters;
         lastCount = unhealthyClusters;

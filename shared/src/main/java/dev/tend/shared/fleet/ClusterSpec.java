@@ -23,10 +23,22 @@ public record ClusterSpec(Id id, Map<String, String> tags, Replication replicati
     }
 
     public Optional<NodeSpec> node(Id node) {
-        for (NodeSpec n : nodes) {
-            if (n.id().equals(node)) return Optional.of(n);
-        }
-        return Optional.empty();
+        int i = indexOf(node);
+        return i < 0 ? Optional.empty() : Optional.of(nodes.get(i));
+    }
+
+    /** True when {@code node} is one of this cluster's nodes (asked for every transition: no Optional, no iterator). */
+    public boolean hasNode(Id node) {
+        return indexOf(node) >= 0;
+    }
+
+    private int indexOf(Id node) {
+        List<NodeSpec> ns = nodes;
+        int size = ns.size();
+        // ids read from a recording are mostly the very instances of the fleet file's: identity first
+        for (int i = 0; i < size; i++) if (ns.get(i).id() == node) return i;
+        for (int i = 0; i < size; i++) if (ns.get(i).id().equals(node)) return i;
+        return -1;
     }
 
     public int size() {

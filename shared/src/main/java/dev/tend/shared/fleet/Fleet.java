@@ -44,6 +44,12 @@ public final class Fleet {
         return Optional.ofNullable(clusters.get(id));
     }
 
+    /** True when {@code cluster}, and {@code node} unless null, are in this topology. */
+    public boolean contains(Id cluster, Id node) {
+        ClusterSpec c = clusters.get(cluster);
+        return c != null && (node == null || c.hasNode(node));
+    }
+
     public int size() {
         return clusters.size();
     }

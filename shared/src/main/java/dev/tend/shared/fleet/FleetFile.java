@@ -81,13 +81,15 @@ public final class FleetFile {
         private final Fields f;
         private final List<ClusterSpec> specs = new ArrayList<>();
         private final Map<Id, Integer> seen = new HashMap<>();
+        /** One id per node name across the fleet (n1 of every cluster is the same instance): lookups then match by identity. */
+        private final Map<Id, Id> nodeIds = new HashMap<>();
 
         Clusters(Fields f) {
             this.f = f;
         }
 
         void add(int i, YNode item) {
-            ClusterSpec c = cluster(f, item, "clusters[" + i + "]");
+            ClusterSpec c = cluster(f, item, "clusters[" + i + "]", nodeIds);
             if (c == null) return;
             Integer first = seen.putIfAbsent(c.id(), i);
             if (first != null) {
@@ -99,7 +101,7 @@ public final class FleetFile {
     }
 
     /** Null after recording a problem. {@code where} is the cluster's path, e.g. {@code clusters[0]}. */
-    private static ClusterSpec cluster(Fields f, YNode node, String where) {
+    private static ClusterSpec cluster(Fields f, YNode node, String where, Map<Id, Id> nodeIds) {
         YMap m = f.asMap(node, where);
         if (m == null) return null;
         f.allowOnly(m, where, CLUSTER);
@@ -143,7 +145,8 @@ public final class FleetFile {
                     f.add(item, "id", nw + ": node " + nid + " is listed twice; the first is " + where + ".nodes[" + first + "]");
                     continue;
                 }
-                nodes.add(new NodeSpec(nid, zone, ntags));
+                Id shared = nodeIds.putIfAbsent(nid, nid);
+                nodes.add(new NodeSpec(shared == null ? nid : shared, zone, ntags));
             }
         }
         if (id == null) return null;

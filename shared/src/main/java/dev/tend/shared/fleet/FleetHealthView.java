@@ -9,7 +9,6 @@ import dev.tend.shared.TopologyEvent;
 
 import java.time.Duration;
 import java.time.Instant;
-import java.util.ArrayDeque;
 import java.util.Collections;
 import java.util.HashMap;
 import java.util.Map;
@@ -33,12 +32,7 @@ public final class FleetHealthView {
 
     private Fleet topology;
     /** One mutable slot per signal: a single map lookup per event. */
-    private static final class Slot {
-        SignalStatus status;
-        final ArrayDeque<Instant> changes = new ArrayDeque<>(4);
-    }
-
-    private final Map<SignalKey, Slot> signals = new HashMap<>(1 << 16);
+    private final Map<SignalKey, SignalSlot> signals = new HashMap<>(1 << 16);
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
@@ -56,30 +50,33 @@ public final class FleetHealthView {
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
         SignalKey key = t.key();
-        Slot slot = signals.get(key);
-        SignalStatus current = slot == null ? null : slot.status;
-        if (current != null && t.at().isBefore(current.lastAt())) {
+        SignalSlot slot = signals.get(key);
+        Instant at = t.at();
+        if (slot != null && at.isBefore(slot.lastAt)) {
             lateEvents++;
             return ApplyOutcome.LATE;
         }
         appliedEvents++;
-        if (slot == null) {
-            slot = new Slot();
+        boolean fresh = slot == null;
+        if (fresh) {
+            slot = new SignalSlot(CHANGE_HISTORY);
             signals.put(key, slot);
         }
-        if (current != null && current.state() == t.state()) {
-            slot.status = new SignalStatus(current.state(), current.since(), t.at());
+        if (!fresh && slot.state == t.state()) {
+            slot.lastAt = at;
             return ApplyOutcome.REPEATED;
         }
-        if (current == null && t.state() == SignalState.CLEAR) {
-            slot.status = new SignalStatus(SignalState.CLEAR, t.at(), t.at());
+        if (fresh && t.state() == SignalState.CLEAR) {
+            slot.state = SignalState.CLEAR;
+            slot.since = at;
+            slot.lastAt = at;
             return ApplyOutcome.REPEATED;
         }
-        boolean wasProblem = current != null && current.isProblem();
-        slot.status = new SignalStatus(t.state(), t.at(), t.at());
-        ArrayDeque<Instant> history = slot.changes;
-        history.addLast(t.at());
-        if (history.size() > CHANGE_HISTORY) history.removeFirst();
+        boolean wasProblem = !fresh && slot.isProblem();
+        slot.state = t.state();
+        slot.since = at;
+        slot.lastAt = at;
+        slot.changed(at);
         if (t.state().isProblem() && !wasProblem) count(key, +1);
         if (!t.state().isProblem() && wasProblem) count(key, -1);
         return t.state().isProblem() ? ApplyOutcome.OPENED : ApplyOutcome.CLEARED;
@@ -136,14 +133,29 @@ public final class FleetHealthView {
     }
 
     public Optional<SignalStatus> status(SignalKey key) {
-        Slot s = signals.get(key);
-        return s == null ? Optional.empty() : Optional.of(s.status);
+        SignalSlot s = signals.get(key);
+        return s == null ? Optional.empty() : Optional.of(s.status());
     }
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        Slot s = signals.get(new SignalKey(cluster, node, signal));
-        return s != null && s.status.isProblem();
+        SignalSlot s = signals.get(new SignalKey(cluster, node, signal));
+        return s != null && s.isProblem();
+    }
+
+    /**
+     * True when the signal's cluster, and its node unless null, are in the topology: what
+     * {@link Fleet#contains} says, remembered with the signal until the topology changes (asked
+     * for every transition; the signal's slot is at hand, the fleet's clusters and nodes are not).
+     */
+    public boolean isInTopology(SignalKey key) {
+        SignalSlot s = signals.get(key);
+        if (s == null) return topology.contains(key.cluster(), key.node());
+        if (s.checkedIn != topology) {
+            s.inTopology = topology.contains(key.cluster(), key.node());
+            s.checkedIn = topology;
+        }
+        return s.inTopology;
     }
 
     /** The signals in breach or silent on a node (or on the cluster itself when node is null), by name. */
@@ -152,19 +164,15 @@ public final class FleetHealthView {
         Problems p = problems.get(cluster);
         if (p == null) return out;
         for (SignalKey k : p.active) {
-            if (java.util.Objects.equals(k.node(), node)) out.put(k.signal(), signals.get(k).status);
+            if (java.util.Objects.equals(k.node(), node)) out.put(k.signal(), signals.get(k).status());
         }
         return out;
     }
 
     /** How many times the signal changed state at or after {@code since} (event time), up to the last 32. */
     public int changesSince(SignalKey key, Instant since) {
-        Slot slot = signals.get(key);
-        if (slot == null) return 0;
-        ArrayDeque<Instant> h = slot.changes;
-        int n = 0;
-        for (Instant i : h) if (!i.isBefore(since)) n++;
-        return n;
+        SignalSlot slot = signals.get(key);
+        return slot == null ? 0 : slot.changesSince(since);
     }
 
     public int changesWithin(SignalKey key, Instant now, Duration window) {
@@ -226,9 +234,9 @@ public final class FleetHealthView {
     /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
     public HealthMemo memo() {
         java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
-        for (Map.Entry<SignalKey, Slot> e : signals.entrySet()) {
-            SignalStatus st = e.getValue().status;
-            out.add(new HealthMemo.Signal(e.getKey(), st.state(), st.since(), st.lastAt(), java.util.List.copyOf(e.getValue().changes)));
+        for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) {
+            SignalSlot st = e.getValue();
+            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt, java.util.List.copyOf(st.changes())));
         }
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
@@ -250,9 +258,11 @@ public final class FleetHealthView {
         for (ClusterSpec c : memo.changedClusters()) topology = topology.withCluster(c);
         FleetHealthView v = new FleetHealthView(topology);
         for (HealthMemo.Signal s : memo.signals()) {
-            Slot slot = new Slot();
-            slot.status = new SignalStatus(s.state(), s.since(), s.lastAt());
-            slot.changes.addAll(s.changes());
+            SignalSlot slot = new SignalSlot(CHANGE_HISTORY);
+            slot.state = s.state();
+            slot.since = s.since();
+            slot.lastAt = s.lastAt();
+            for (Instant c : s.changes()) slot.changed(c);
             v.signals.put(s.key(), slot);
             if (s.state().isProblem()) v.count(s.key(), +1);
         }

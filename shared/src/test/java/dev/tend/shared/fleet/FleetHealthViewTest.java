@@ -121,4 +121,30 @@ class FleetHealthViewTest {
         view.apply(new TopologyEvent(T0.plusSeconds(120), FARES, Id.of("n4"), TopologyChange.LEFT, Map.of(), Map.of()));
         assertThat(view.topology().cluster(FARES).orElseThrow().size()).isEqualTo(3);
     }
+
+    @Test
+    void keepsTheLast32StateChangesOfASignalForFlapping() {
+        FleetHealthView view = new FleetHealthView(fleet());
+        for (int m = 0; m < 40; m++) view.apply(t(m, "fares-3", "n1", "replica-lag", m % 2 == 0 ? BREACH : CLEAR));
+        SignalKey key = new SignalKey(FARES, Id.of("n1"), Id.of("replica-lag"));
+        assertThat(view.changesSince(key, T0)).isEqualTo(32);
+        assertThat(view.changesSince(key, T0.plusSeconds(60L * 30))).isEqualTo(10);
+        assertThat(view.memo().signals().get(0).changes()).hasSize(32).startsWith(T0.plusSeconds(60L * 8)).endsWith(T0.plusSeconds(60L * 39));
+        FleetHealthView restored = FleetHealthView.restore(fleet(), view.memo());
+        assertThat(restored.changesSince(key, T0.plusSeconds(60L * 30))).isEqualTo(10);
+    }
+
+    @Test
+    void aSignalIsInTheTopologyWhileItsNodeIs() {
+        FleetHealthView view = new FleetHealthView(fleet());
+        SignalKey n4 = new SignalKey(FARES, Id.of("n4"), Id.of("replica-lag"));
+        view.apply(t(0, "fares-3", "n4", "replica-lag", BREACH));
+        assertThat(view.isInTopology(n4)).isFalse();
+        view.apply(new TopologyEvent(T0.plusSeconds(60), FARES, Id.of("n4"), TopologyChange.JOINED, Map.of(), Map.of()));
+        assertThat(view.isInTopology(n4)).isTrue();
+        view.apply(new TopologyEvent(T0.plusSeconds(120), FARES, Id.of("n4"), TopologyChange.LEFT, Map.of(), Map.of()));
+        assertThat(view.isInTopology(n4)).isFalse();
+        assertThat(view.isInTopology(new SignalKey(Id.of("fares-33"), null, Id.of("key-revoked")))).isFalse();
+        assertThat(view.isInTopology(new SignalKey(FARES, null, Id.of("key-revoked")))).isTrue();
+    }
 }
