@@ -49,17 +49,22 @@ final class LedgerTally {
     }
 
     void accept(LedgerEntry e) {
-        boolean counted = period.contains(e.at());
         if (!e.at().isBefore(period.until())) return;
-        if (counted) inPeriod++;
         JsonNode f;
         try {
             f = JSON.readTree(e.entry());
         } catch (JsonProcessingException bad) {
-            if (counted) unreadable++;
-            return;
+            f = null;
         }
-        if (f == null || !f.isObject()) {
+        accept(e, f != null && f.isObject() ? f : null);
+    }
+
+    /** Folds in {@code e} whose text was parsed already: {@code f} is null when the text is not a JSON object. */
+    void accept(LedgerEntry e, JsonNode f) {
+        boolean counted = period.contains(e.at());
+        if (!e.at().isBefore(period.until())) return;
+        if (counted) inPeriod++;
+        if (f == null) {
             if (counted) unreadable++;
             return;
         }

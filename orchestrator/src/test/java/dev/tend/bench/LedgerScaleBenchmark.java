@@ -133,7 +133,7 @@ public final class LedgerScaleBenchmark {
             ColdReplayBenchmark.run(dir, "version", List.of(launcher, "--version"), 0);
             List<String> handover = List.of(launcher, "handover", "--db", db.toString(), "--since", night.since().toString(),
                     "--until", night.until().toString());
-            List<String> floorCommand = List.of(ChildProcess.java(), "-cp", System.getProperty("java.class.path"),
+            List<String> floorCommand = List.of(ChildProcess.java(), "-cp", BenchClasspath.ofThisProcess(),
                     LedgerRowsFloor.class.getName(), db.toString(), night.since().toString(), night.until().toString());
             double[][] t = new double[2][3];
             double[][] f = new double[2][3];

@@ -1,10 +1,12 @@
 package dev.tend.store;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.shared.ApprovalState;
 import java.time.Instant;
 import java.util.List;
 import java.util.Optional;
 import java.util.Set;
+import java.util.function.BiConsumer;
 import java.util.function.Consumer;
 
 /**
@@ -70,6 +72,17 @@ public interface StoreReader {
      * state into it, instead of the whole ledger before the period's end.
      */
     void forEachLedgerOfPeriod(LedgerPeriodQuery query, Consumer<LedgerEntry> consumer);
+
+    /**
+     * {@link #verifyLedgerFrom} and {@link #forEachLedgerOfPeriod} in one walk: verifies the
+     * entries from {@code fromSeq} to the newest and, as it goes, hands what {@code query} asks
+     * for to {@code consumer} in seq order, each entry with its text parsed ({@code null} when the
+     * text is not JSON or not an object), so that the period's entries are read and parsed once.
+     * Every entry is handed on even after one fails verify. Pass the seq of the period's first
+     * entry ({@link #firstLedgerSeqAt} of its start) or less.
+     */
+    LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query,
+                                               BiConsumer<LedgerEntry, JsonNode> consumer);
 
     /** The lowest seq of an entry at or after {@code at}; 0 when there is none. */
     long firstLedgerSeqAt(Instant at);
