@@ -1,12 +1,10 @@
 package dev.tend.store;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.shared.ApprovalState;
 import java.time.Instant;
 import java.util.List;
 import java.util.Optional;
 import java.util.Set;
-import java.util.function.BiConsumer;
 import java.util.function.Consumer;
 
 /**
@@ -76,13 +74,11 @@ public interface StoreReader {
     /**
      * {@link #verifyLedgerFrom} and {@link #forEachLedgerOfPeriod} in one walk: verifies the
      * entries from {@code fromSeq} to the newest and, as it goes, hands what {@code query} asks
-     * for to {@code consumer} in seq order, each entry with its text parsed ({@code null} when the
-     * text is not JSON or not an object), so that the period's entries are read and parsed once.
+     * for to {@code consumer} in seq order, each entry with its text parsed, so that the period's entries are read and parsed once.
      * Every entry is handed on even after one fails verify. Pass the seq of the period's first
      * entry ({@link #firstLedgerSeqAt} of its start) or less.
      */
-    LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query,
-                                               BiConsumer<LedgerEntry, JsonNode> consumer);
+    LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query, LedgerEntryRead consumer);
 
     /** The lowest seq of an entry at or after {@code at}; 0 when there is none. */
     long firstLedgerSeqAt(Instant at);

@@ -156,7 +156,7 @@ abstract class LedgerQueryContractTest extends StoreTestBase {
             return null;
         });
         Map<Long, com.fasterxml.jackson.databind.JsonNode> handed = new LinkedHashMap<>();
-        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(9, q, (e, f) -> handed.put(e.seq(), f)));
+        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(9, q, (seq, at, kind, f) -> handed.put(seq, f)));
 
         assertThat(handed.keySet()).containsExactlyElementsOf(alone);
         assertThat(handed.get(10L).path("run").asText()).isEqualTo("r2");
@@ -165,7 +165,7 @@ abstract class LedgerQueryContractTest extends StoreTestBase {
         db.execute("UPDATE ledger SET entry = replace(entry, 'fares-2', 'fares-7') WHERE seq = 10");
         db.execute("UPDATE ledger SET entry = 'not json' WHERE seq = 11");
         handed.clear();
-        v = store.read(r -> r.verifyLedgerFromReading(9, q, (e, f) -> handed.put(e.seq(), f)));
+        v = store.read(r -> r.verifyLedgerFromReading(9, q, (seq, at, kind, f) -> handed.put(seq, f)));
 
         assertThat(v.firstBrokenSeq()).isEqualTo(10);
         assertThat(v).isEqualTo(verifyFrom(9));
@@ -182,13 +182,13 @@ abstract class LedgerQueryContractTest extends StoreTestBase {
         LedgerPeriodQuery q = new LedgerPeriodQuery(minute(100), minute(8_990), Set.of(), Set.of("run-started"),
                 Set.of("run-ended"));
         long[] handed = {0};
-        LedgerVerification whole = store.read(r -> r.verifyLedgerFromReading(101, q, (e, f) -> handed[0]++));
+        LedgerVerification whole = store.read(r -> r.verifyLedgerFromReading(101, q, (seq, at, kind, f) -> handed[0]++));
         assertThat(whole).extracting(LedgerVerification::ok, LedgerVerification::entries).containsExactly(true, 8_900L);
         assertThat(handed[0]).isEqualTo(8_890);
 
         db.execute("UPDATE ledger SET entry = replace(entry, 'fares-', 'depots-') WHERE seq IN (5000, 8500)");
         handed[0] = 0;
-        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(101, q, (e, f) -> handed[0]++));
+        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(101, q, (seq, at, kind, f) -> handed[0]++));
         assertThat(v.firstBrokenSeq()).isEqualTo(5000);
         assertThat(v).isEqualTo(verifyFrom(101));
         assertThat(handed[0]).isEqualTo(8_890);

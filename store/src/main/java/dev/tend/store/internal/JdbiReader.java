@@ -1,11 +1,11 @@
 package dev.tend.store.internal;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.shared.ApprovalState;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerEntryRead;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerPeriodQuery;
 import dev.tend.store.LedgerVerification;
@@ -25,7 +25,6 @@ import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.Set;
-import java.util.function.BiConsumer;
 import java.util.function.Consumer;
 
 /** {@link StoreReader} over one Jdbi handle inside a transaction; see Store for the rules. */
@@ -282,8 +281,7 @@ public class JdbiReader implements StoreReader {
     }
 
     @Override
-    public LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query,
-                                                      BiConsumer<LedgerEntry, JsonNode> consumer) {
+    public LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query, LedgerEntryRead consumer) {
         Objects.requireNonNull(query, "query");
         Objects.requireNonNull(consumer, "consumer");
         beforeRead();

@@ -1,13 +1,12 @@
 package dev.tend.store.internal;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerEntryRead;
 import dev.tend.store.LedgerPeriodQuery;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.statement.Query;
 
 import java.util.List;
-import java.util.function.BiConsumer;
 import java.util.function.Consumer;
 
 /**
@@ -83,20 +82,19 @@ final class LedgerPeriodRead {
      * text is not a JSON object), in one walk: the period's entries are those of the walk whose
      * time lies in it. A period whose first entry comes before {@code fromSeq} is read on its own.
      */
-    dev.tend.store.LedgerVerification verifyReading(long fromSeq, BiConsumer<LedgerEntry, JsonNode> consumer) {
+    dev.tend.store.LedgerVerification verifyReading(long fromSeq, LedgerEntryRead consumer) {
+        Consumer<LedgerEntry> parsed = e -> consumer.accept(e.seq(), e.at(), e.kind(), LedgerVerifier.fields(e.entry()));
         long[] range = range();
         if (range[1] > 0 && range[0] < Math.max(1, fromSeq)) {
-            forEach(e -> consumer.accept(e, LedgerVerifier.fields(e.entry())));
+            forEach(parsed);
             return new LedgerVerifier(handle).verifyFrom(fromSeq);
         }
-        Consumer<LedgerEntry> parsedCarried = e -> consumer.accept(e, LedgerVerifier.fields(e.entry()));
         dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, fields) -> {
             if (row.atNs() < since || row.atNs() >= until) return;
-            LedgerEntry e = row.entryOrThrow();
-            carriedBefore(e.seq(), parsedCarried);
-            consumer.accept(e, fields);
+            carriedBefore(row.seq(), parsed);
+            consumer.accept(row.seq(), Times.fromNanos(row.atNs()), row.kind(), fields);
         });
-        carriedBefore(Long.MAX_VALUE, parsedCarried);
+        carriedBefore(Long.MAX_VALUE, parsed);
         return v;
     }
 }

@@ -45,11 +45,6 @@ final class LedgerVerifier {
         String describe() {
             return "entry " + seq + " (" + kind + " at " + LedgerChain.formatAt(Times.fromNanos(atNs)) + ")";
         }
-
-        /** The row as an entry; throws IllegalArgumentException when a column is not what an entry holds. */
-        LedgerEntry entryOrThrow() {
-            return new LedgerEntry(seq, Times.fromNanos(atNs), kind, cluster, playbook, run, entry, prevHash, hash);
-        }
     }
 
     /** Receives every row a walk reads, in seq order, with its text parsed (null when not a JSON object). */
