@@ -27,10 +27,10 @@ final class Views {
     static RunView run(RunRow r, List<StepRow> steps) {
         List<StepView> s = new ArrayList<>(steps.size());
         for (StepRow st : steps) {
-            s.add(new StepView(st.stepId(), st.ordinal(), text(st.detail(), "kind"), st.state(), st.attempt(),
+            s.add(new StepView(st.stepId(), st.ordinal(), text(st.detail(), "kind"), st.state().wireName(), st.attempt(),
                     st.startedAt(), st.endedAt(), st.outcome()));
         }
-        return new RunView(r.runId(), r.playbook(), r.playbookVersion(), r.cluster(), r.node(), r.state(), r.shadow(),
+        return new RunView(r.runId(), r.playbook(), r.playbookVersion(), r.cluster(), r.node(), r.state().wireName(), r.shadow(),
                 r.createdAt(), r.startedAt(), r.endedAt(), r.outcome(), r.currentStep(), s);
     }
 

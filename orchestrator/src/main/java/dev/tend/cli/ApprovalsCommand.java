@@ -3,19 +3,11 @@ package dev.tend.cli;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
-import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
-import java.util.concurrent.Callable;
 
 /** {@code tend approvals}: the approvals of a running server, pending ones by default. */
 @Command(name = "approvals", mixinStandardHelpOptions = true, description = "List approvals (pending by default) of a running tend serve.")
-public final class ApprovalsCommand implements Callable<Integer> {
-    @Spec
-    CommandSpec spec;
-
-    @Mixin
-    ServerOptions server;
+public final class ApprovalsCommand extends ServerCommand {
 
     @Option(names = "--state", defaultValue = "pending", paramLabel = "S",
             description = "pending, approved, rejected, lapsed, withdrawn or all (default: ${DEFAULT-VALUE})")
@@ -27,8 +19,8 @@ public final class ApprovalsCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         var list = server.operations().approvals(state);
-        if (format.json()) Render.json(spec.commandLine().getOut(), list);
-        else Render.approvals(spec.commandLine().getOut(), list);
+        if (format.json()) Render.json(out(), list);
+        else Render.approvals(out(), list);
         return ExitCodes.OK;
     }
 }

@@ -2,41 +2,24 @@ package dev.tend.cli;
 
 import dev.tend.api.view.ExclusionRequest;
 import dev.tend.api.view.ExclusionView;
-import dev.tend.shared.time.Durations;
-import dev.tend.shared.wire.Rfc3339;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
-import picocli.CommandLine.Spec;
-import picocli.CommandLine.Model.CommandSpec;
 
 import java.time.Clock;
 import java.time.Instant;
-import java.util.concurrent.Callable;
 
 /** {@code tend exclude add|remove|list}: the clusters and nodes automation must not touch. */
 @Command(name = "exclude", mixinStandardHelpOptions = true,
         subcommands = {ExcludeCommand.Add.class, ExcludeCommand.Remove.class, ExcludeCommand.ListAll.class},
         description = "Manage exclusions on a running tend serve: automation denies every run on an excluded cluster or node.")
-public final class ExcludeCommand implements Runnable {
-    @Spec
-    CommandSpec spec;
-
-    @Override
-    public void run() {
-        spec.commandLine().usage(spec.commandLine().getOut());
-    }
+public final class ExcludeCommand extends CommandGroup {
 
     /** {@code tend exclude add CLUSTER [NODE] --reason R --owner O [--until T]}. */
     @Command(name = "add", mixinStandardHelpOptions = true, description = "Exclude a cluster, or one node of it.")
-    public static final class Add implements Callable<Integer> {
-        @Spec
-        CommandSpec spec;
-
-        @Mixin
-        ServerOptions server;
+    public static final class Add extends ServerCommand {
 
         @Parameters(index = "0", paramLabel = "CLUSTER")
         String cluster;
@@ -58,7 +41,7 @@ public final class ExcludeCommand implements Runnable {
         public Integer call() {
             Instant end = until == null ? null : until(until, Clock.systemUTC());
             ExclusionView x = server.operations().exclude(new ExclusionRequest(cluster, node, reason, owner, end));
-            spec.commandLine().getOut().println("excluded " + Render.target(x.cluster(), x.node())
+            out().println("excluded " + Render.target(x.cluster(), x.node())
                     + (x.until() == null ? " until removed" : " until " + Render.time(x.until())) + " (owner " + x.owner() + "): " + x.reason());
             return ExitCodes.OK;
         }
@@ -66,12 +49,7 @@ public final class ExcludeCommand implements Runnable {
 
     /** {@code tend exclude remove CLUSTER [NODE]}. */
     @Command(name = "remove", mixinStandardHelpOptions = true, description = "Remove the exclusion of a cluster or a node.")
-    public static final class Remove implements Callable<Integer> {
-        @Spec
-        CommandSpec spec;
-
-        @Mixin
-        ServerOptions server;
+    public static final class Remove extends ServerCommand {
 
         @Parameters(index = "0", paramLabel = "CLUSTER")
         String cluster;
@@ -82,19 +60,14 @@ public final class ExcludeCommand implements Runnable {
         @Override
         public Integer call() {
             ExclusionView x = server.operations().unexclude(cluster, node);
-            spec.commandLine().getOut().println("removed the exclusion of " + Render.target(x.cluster(), x.node()));
+            out().println("removed the exclusion of " + Render.target(x.cluster(), x.node()));
             return ExitCodes.OK;
         }
     }
 
     /** {@code tend exclude list}. */
     @Command(name = "list", mixinStandardHelpOptions = true, description = "List exclusions, lapsed ones marked.")
-    public static final class ListAll implements Callable<Integer> {
-        @Spec
-        CommandSpec spec;
-
-        @Mixin
-        ServerOptions server;
+    public static final class ListAll extends ServerCommand {
 
         @Mixin
         TextOrJsonFormat format;
@@ -102,8 +75,8 @@ public final class ExcludeCommand implements Runnable {
         @Override
         public Integer call() {
             var list = server.operations().exclusions();
-            if (format.json()) Render.json(spec.commandLine().getOut(), list);
-            else Render.exclusions(spec.commandLine().getOut(), list);
+            if (format.json()) Render.json(out(), list);
+            else Render.exclusions(out(), list);
             return ExitCodes.OK;
         }
     }

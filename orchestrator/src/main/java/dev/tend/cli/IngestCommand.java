@@ -68,12 +68,8 @@ public final class IngestCommand implements Callable<Integer> {
     @Mixin
     SnapshotOption snapshots;
 
-    @Option(names = "--speedup", defaultValue = "1", paramLabel = "N",
-            description = "run simulated actions N times faster than their durations (default: ${DEFAULT-VALUE})")
-    double speedup;
-
-    @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
-    long seed;
+    @Mixin
+    SimulationOptions simulation;
 
     @Mixin
     LedgerKeyOption ledgerKey;
@@ -91,7 +87,7 @@ public final class IngestCommand implements Callable<Integer> {
         if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
         try (Store store = db.open();
              ExecutorRegistry.Built executors = ExecutorRegistry.open(
-                     new ExecutorRegistry.Settings(Path.of("").toAbsolutePath(), seed, speedup, outgoing));
+                     new ExecutorRegistry.Settings(Path.of("").toAbsolutePath(), simulation.seed, simulation.speedup, outgoing));
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
             store.useTransaction(tx -> tx.appendLedger(clock.instant(), LedgerKind.POLICY_LOADED.wire(), PolicyOptions.loaded(setup)));
             CommitRefusals refusals = new CommitRefusals(input, err);

@@ -31,14 +31,7 @@ import java.util.concurrent.Callable;
 /** {@code tend journal archive}: moves journal rows a snapshot covers out of the store. */
 @Command(name = "journal", mixinStandardHelpOptions = true, subcommands = JournalCommand.Archive.class,
         description = "Look after the input journal (the ledger is never cut).")
-public final class JournalCommand implements Runnable {
-    @Spec
-    CommandSpec spec;
-
-    @Override
-    public void run() {
-        spec.commandLine().usage(spec.commandLine().getOut());
-    }
+public final class JournalCommand extends CommandGroup {
 
     @Command(name = "archive", mixinStandardHelpOptions = true,
             description = "Move the journal's inputs taken before T, and covered by the newest snapshot, to FILE (JSON Lines, "

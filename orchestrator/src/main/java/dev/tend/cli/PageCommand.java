@@ -28,14 +28,7 @@ import java.util.concurrent.Callable;
 /** {@code tend page test CHANNEL}: pages through a channel of tend.yaml, to see that it reaches people. */
 @Command(name = "page", mixinStandardHelpOptions = true, subcommands = {PageCommand.Test.class},
         description = "Pages: try a channel of tend.yaml.")
-public final class PageCommand implements Runnable {
-    @Spec
-    CommandSpec spec;
-
-    @Override
-    public void run() {
-        spec.commandLine().usage(spec.commandLine().getOut());
-    }
+public final class PageCommand extends CommandGroup {
 
     @Command(name = "test", mixinStandardHelpOptions = true,
             description = "Send a test page through CHANNEL now, directly (not through a server's outbox), and print the receiver's"

@@ -55,12 +55,8 @@ public final class ServeCommand implements Callable<Integer> {
             description = "bearer tokens (YAML: name, roles, sha256 of the token); without it every API request is refused")
     Path tokensFile;
 
-    @Option(names = "--speedup", defaultValue = "1", paramLabel = "N",
-            description = "run simulated actions N times faster than their durations (default: ${DEFAULT-VALUE})")
-    double speedup;
-
-    @Option(names = "--seed", defaultValue = "1", paramLabel = "N", description = "seed of simulated outcomes (default: ${DEFAULT-VALUE})")
-    long seed;
+    @Mixin
+    SimulationOptions simulation;
 
     @Mixin
     LedgerKeyOption ledgerKey;
@@ -132,7 +128,7 @@ public final class ServeCommand implements Callable<Integer> {
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(speedup).seed(seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every())
+                .speedup(simulation.speedup).seed(simulation.seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every())
                 .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).stream(stream).build();
         if (db.address().isPostgres()) return serveShared(err, settings, listen, tokens, key, setup, clock);
         try (Store store = db.open()) {

@@ -1,10 +1,12 @@
 package dev.tend.engine;
 
+import dev.tend.shared.RunState;
 import dev.tend.engine.guard.Decision;
 import dev.tend.engine.run.RunMachine;
 import dev.tend.engine.run.RunProcess;
 import dev.tend.shared.ApprovalState;
 import dev.tend.shared.Verdict;
+import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
 import java.util.HashMap;
@@ -54,7 +56,7 @@ final class Approvals {
         ApprovalSnapshot s = byRun.get(runId);
         if (s == null || s.state() != ApprovalState.PENDING) return;
         fx.add(new Effect.Notify(runId + "/approval-lapsing", PageKind.APPROVAL_LAPSING, host.pageChannel(),
-                s.playbook() + " on " + s.target() + " still waits for an approval; it lapses at " + s.expiresAt(), pageFields(s)));
+                s.playbook() + " on " + s.target() + " still waits for an approval; it lapses at " + InstantText.toSecond(s.expiresAt()), pageFields(s)));
     }
 
     private static Map<String, Object> pageFields(ApprovalSnapshot a) {
@@ -120,7 +122,7 @@ final class Approvals {
         String when = s.decidedAt() == null ? "" : " at " + s.decidedAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
         return switch (s.state()) {
             case APPROVED, REJECTED -> "the run was already " + s.state().wireName() + (s.decidedBy() == null ? "" : " by " + s.decidedBy()) + when;
-            case LAPSED -> "the approval lapsed" + when + " (it expired at " + s.expiresAt().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + ")";
+            case LAPSED -> "the approval lapsed" + when + " (it expired at " + InstantText.toSecond(s.expiresAt()) + ")";
             default -> "the approval is " + s.state().wireName() + when;
         };
     }
@@ -135,7 +137,7 @@ final class Approvals {
         fx.ledger(LedgerKind.APPROVAL_LAPSED, "run", runId, "playbook", s.playbook(), "cluster", s.target().cluster(),
                 "node", s.target().node(), "expired_at", s.expiresAt());
         fx.add(new Effect.ApprovalChanged(d));
-        cancelRun(runId, "the approval lapsed at " + s.expiresAt(), fx);
+        cancelRun(runId, "the approval lapsed at " + InstantText.toSecond(s.expiresAt()), fx);
         candidates.remove(keyOf(s));
     }
 

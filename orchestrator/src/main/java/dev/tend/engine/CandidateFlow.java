@@ -1,5 +1,6 @@
 package dev.tend.engine;
 
+import dev.tend.shared.RunState;
 import dev.tend.engine.guard.Decision;
 import dev.tend.engine.guard.GuardChain;
 import dev.tend.engine.guard.Wake;

@@ -1,5 +1,6 @@
 package dev.tend.engine;
 
+import dev.tend.shared.RunState;
 import dev.tend.shared.Target;
 
 import java.time.Instant;

@@ -1,5 +1,6 @@
 package dev.tend.handover;
 
+import dev.tend.shared.RunState;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;

@@ -4,7 +4,7 @@ import dev.tend.engine.BrakeState;
 import dev.tend.engine.Effect;
 import dev.tend.engine.LedgerKind;
 import dev.tend.engine.RunSnapshot;
-import dev.tend.engine.RunState;
+import dev.tend.shared.RunState;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.Id;
 import dev.tend.shared.ReasonCode;

@@ -81,10 +81,10 @@ final class Projections {
 
     private static void run(StoreTx tx, RunSnapshot r) {
         tx.upsertRun(new RunRow(r.runId(), r.playbook(), r.playbookVersion(), r.target().cluster().value(),
-                r.target().node() == null ? null : r.target().node().value(), r.state().wireName(), r.shadow(),
+                r.target().node() == null ? null : r.target().node().value(), r.state(), r.shadow(),
                 r.createdAt(), r.startedAt(), r.endedAt(), r.outcome(), r.currentStep(), "{}"));
         for (StepSnapshot s : r.steps()) {
-            tx.upsertStep(new StepRow(r.runId(), s.stepId(), s.ordinal(), s.state().wireName(), s.attempt(), s.startedAt(),
+            tx.upsertStep(new StepRow(r.runId(), s.stepId(), s.ordinal(), s.state(), s.attempt(), s.startedAt(),
                     s.endedAt(), s.outcome(), json(Map.of("kind", s.kind()))));
         }
     }

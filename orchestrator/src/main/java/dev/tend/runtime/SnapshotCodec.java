@@ -16,7 +16,7 @@ import com.fasterxml.jackson.databind.module.SimpleModule;
 import com.fasterxml.jackson.datatype.jsr310.JavaTimeModule;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.EngineState;
-import dev.tend.engine.StepState;
+import dev.tend.shared.StepState;
 import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
 import dev.tend.shared.time.InstantText;

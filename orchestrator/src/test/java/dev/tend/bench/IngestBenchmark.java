@@ -10,7 +10,7 @@ import dev.tend.executor.SimulatedExecutor;
 import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.runtime.Orchestrator;
-import dev.tend.runtime.ScheduledTimers;
+import dev.tend.runtime.QuartzTimers;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
@@ -122,11 +122,10 @@ public final class IngestBenchmark {
         long t0 = System.nanoTime();
         long c0 = ChildProcess.ownCpuNanos();
         try (Store store = Store.openSqlite(db); Executor sim = new SimulatedExecutor(1, 1_000_000)) {
-            Orchestrator[] holder = new Orchestrator[1];
-            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, x -> { }, clock,
                     dev.tend.runtime.CommitListener.NONE, snapshotEvery);
-            holder[0] = orch;
+            timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             AtomicBoolean eof = new AtomicBoolean();
             long[] readerCpu = new long[1];
             Thread reader = new Thread(() -> {

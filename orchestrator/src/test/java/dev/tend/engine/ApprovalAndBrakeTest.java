@@ -1,5 +1,6 @@
 package dev.tend.engine;
 
+import dev.tend.shared.RunState;
 import org.junit.jupiter.api.Test;
 
 import java.time.Duration;

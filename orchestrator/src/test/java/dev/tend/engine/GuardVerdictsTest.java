@@ -1,5 +1,6 @@
 package dev.tend.engine;
 
+import dev.tend.shared.StepState;
 import org.junit.jupiter.api.Test;
 
 import java.time.Duration;

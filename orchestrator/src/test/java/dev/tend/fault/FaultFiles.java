@@ -44,6 +44,29 @@ public final class FaultFiles {
         return fleet.toString();
     }
 
+    /**
+     * A policy folder with one playbook, {@code replace-silent-node} (a node's heartbeat silent,
+     * confirmed for {@code confirmFor}; one step, {@code replace-node}, within {@code timeout}),
+     * its simulated action (succeeds after {@code duration} and clears the heartbeat) and
+     * {@code tendYaml} as its tend.yaml.
+     */
+    public static void writeReplacePolicy(Path folder, String tendYaml, String duration, String confirmFor, String timeout)
+            throws IOException {
+        Files.createDirectories(folder);
+        Files.writeString(folder.resolve("actions.yaml"), """
+                actions:
+                  replace-node: { simulated: { duration: %s, success: 1.0, clears: [heartbeat] } }
+                """.formatted(duration));
+        Files.writeString(folder.resolve("tend.yaml"), tendYaml);
+        Files.writeString(folder.resolve("replace-silent-node.yaml"), """
+                playbook: replace-silent-node
+                version: 1
+                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: %s }
+                steps:
+                  - { id: replace, action: replace-node, timeout: %s }
+                """.formatted(confirmFor, timeout));
+    }
+
     /** A tokens file with one token {@code token} named {@code name}, with the operator and viewer roles. */
     public static void writeTokens(Path file, String name, String token) throws IOException {
         Files.writeString(file, "tokens:\n  - { name: " + name + ", roles: [operator, viewer], sha256: " + Tokens.hash(token) + " }\n");

@@ -81,11 +81,7 @@ class BrakeStormPagesTest {
 
     private EngineSetup writePolicy(String url) throws Exception {
         Path pb = Files.createDirectories(dir.resolve("playbooks"));
-        Files.writeString(pb.resolve("actions.yaml"), """
-                actions:
-                  replace-node: { simulated: { duration: 30m, success: 1.0, clears: [heartbeat] } }
-                """);
-        Files.writeString(pb.resolve("tend.yaml"), """
+        FaultFiles.writeReplacePolicy(pb, """
                 brake:
                   engage-at: { clusters: 25, fraction: 0.08 }
                   release-below: { clusters: 10, fraction: 0.03 }
@@ -94,14 +90,7 @@ class BrakeStormPagesTest {
                     webhook: { url: "%s", retries: 2, backoff: 1s }
                 pages:
                   brake-gather: 2s
-                """.formatted(url));
-        Files.writeString(pb.resolve("replace-silent-node.yaml"), """
-                playbook: replace-silent-node
-                version: 1
-                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 0s }
-                steps:
-                  - { id: replace, action: replace-node, timeout: 40m }
-                """);
+                """.formatted(url), "30m", "0s", "40m");
         Files.writeString(dir.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-storm", "dispatch", 160));
         PlaybookSet set = PlaybookLoader.load(pb);
         return new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")), BrakeThresholds.from(set.config().brake()),

@@ -77,11 +77,7 @@ class PageCrashTest {
 
     private void writePolicy(String url) throws IOException {
         Path policy = Files.createDirectories(dir.resolve("policy"));
-        Files.writeString(policy.resolve("actions.yaml"), """
-                actions:
-                  replace-node: { simulated: { duration: 1s, success: 1.0, clears: [heartbeat] } }
-                """);
-        Files.writeString(policy.resolve("tend.yaml"), """
+        FaultFiles.writeReplacePolicy(policy, """
                 brake:
                   engage-at: { clusters: 2 }
                   release-below: { clusters: 1 }
@@ -90,14 +86,7 @@ class PageCrashTest {
                     webhook: { url: "%s", retries: 0, timeout: 60s }
                 pages:
                   brake-gather: 0s
-                """.formatted(url));
-        Files.writeString(policy.resolve("replace-silent-node.yaml"), """
-                playbook: replace-silent-node
-                version: 1
-                trigger: { signal: heartbeat, state: silent, scope: node, confirm-for: 5m }
-                steps:
-                  - { id: replace, action: replace-node, timeout: 10m }
-                """);
+                """.formatted(url), "1s", "5m", "10m");
         Files.writeString(policy.resolve("fleet.yaml"), FaultFiles.fleet("larkspur-crash", "fares", 4));
     }
 }

@@ -1,5 +1,6 @@
 package dev.tend.runtime;
 
+import dev.tend.shared.RunState;
 import dev.tend.fault.FaultFiles;
 import dev.tend.fault.TendProcess;
 import dev.tend.store.LedgerVerification;
@@ -82,7 +83,7 @@ class CrashSafetyTest {
             assertThat(runs).as(holds.toString()).hasSize(CLUSTERS + PLAIN);
             assertThat(runs).extracting(RunRow::state)
                     .as("every run finished or is waiting for a person")
-                    .allMatch(s -> s.equals("succeeded") || s.equals("needs-human"));
+                    .allMatch(s -> s == RunState.SUCCEEDED || s == RunState.NEEDS_HUMAN);
             // the journal, replayed through a fresh engine, rebuilds exactly the runs the projections show
             dev.tend.engine.EngineSetup setup = new dev.tend.engine.EngineSetup(
                     dev.tend.playbooks.load.PlaybookLoader.load(dir.resolve("policy")),
@@ -99,15 +100,15 @@ class CrashSafetyTest {
                 return null;
             });
             Map<String, String> projected = new HashMap<>();
-            for (RunRow r : runs) projected.put(r.runId(), r.state());
+            for (RunRow r : runs) projected.put(r.runId(), r.state().wireName());
             Map<String, String> rebuilt = new HashMap<>();
             for (dev.tend.engine.RunSnapshot r : replayed.runs()) rebuilt.put(r.runId(), r.state().wireName());
             assertThat(rebuilt).isEqualTo(projected);
             LedgerVerification v = store.read(r -> r.verifyLedger());
             assertThat(v.ok()).as(v.reason()).isTrue();
             System.out.printf("crash test: %d restarts, %d killed mid-way, %d runs (%d succeeded, %d need a person), %d keys done, %d ledger entries%n",
-                    kills, killedMidway, runs.size(), runs.stream().filter(r -> r.state().equals("succeeded")).count(),
-                    runs.stream().filter(r -> r.state().equals("needs-human")).count(), done.size(), v.entries());
+                    kills, killedMidway, runs.size(), runs.stream().filter(r -> r.state() == RunState.SUCCEEDED).count(),
+                    runs.stream().filter(r -> r.state() == RunState.NEEDS_HUMAN).count(), done.size(), v.entries());
         }
     }
 

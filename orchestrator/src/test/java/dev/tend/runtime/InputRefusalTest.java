@@ -59,8 +59,7 @@ class InputRefusalTest {
         List<String> refused = new ArrayList<>();
         Instant at = Instant.parse("2027-03-14T02:00:00Z");
         try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
-            Orchestrator[] holder = new Orchestrator[1];
-            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock, new CommitListener() {
                 @Override
                 public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
@@ -71,7 +70,7 @@ class InputRefusalTest {
                     refused.add(input.cluster() + ": " + reason);
                 }
             });
-            holder[0] = orch;
+            timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             orch.recover();
             orch.submitEvent(new Input.Transition(HealthTransition.of(at, "fares-1", "n1", "heartbeat", SignalState.SILENT)));
             // past 2262-04-11, the last instant the store's nanosecond times can hold
@@ -97,9 +96,9 @@ class InputRefusalTest {
             assertThat(store.read(r -> r.verifyLedger()).ok()).isTrue();
         }
         // the journal holds nothing that would stop the next start
-        try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
-            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), new ScheduledTimers(clock, k -> { }),
-                    n -> { }, clock);
+        try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
+             QuartzTimers timers = new QuartzTimers(k -> { })) {
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock);
             dev.tend.runtime.Recovery rec = orch.recover();
             // from the snapshot the clean stop wrote, or from the journal: either way both good transitions are in the engine
             assertThat(rec.snapshotSeq() > 0 || rec.inputsReplayed() >= 2).as(rec.describe()).isTrue();
@@ -115,10 +114,9 @@ class InputRefusalTest {
         dev.tend.cli.CommitRefusals refusals = new dev.tend.cli.CommitRefusals("incident.jsonl", new java.io.PrintWriter(said, true));
         Instant at = Instant.parse("2027-03-14T02:00:00Z");
         try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
-            Orchestrator[] holder = new Orchestrator[1];
-            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock, refusals);
-            holder[0] = orch;
+            timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             orch.recover();
             Input good = new Input.Transition(HealthTransition.of(at, "fares-1", "n1", "heartbeat", SignalState.SILENT));
             // past 2262-04-11, the last instant the store's nanosecond times can hold

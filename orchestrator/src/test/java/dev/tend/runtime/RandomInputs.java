@@ -1,5 +1,7 @@
 package dev.tend.runtime;
 
+import dev.tend.shared.ApprovalState;
+import dev.tend.shared.RunState;
 import dev.tend.engine.ApprovalSnapshot;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
@@ -72,7 +74,7 @@ final class RandomInputs {
             else if (e instanceof Effect.CancelTimer c) timers.remove(c.key());
             else if (e instanceof Effect.CallExecutor c) calls.put(c.key(), c);
             else if (e instanceof Effect.ApprovalChanged a) {
-                if (a.approval().state().equals("pending")) pending.put(a.approval().runId(), a.approval());
+                if (a.approval().state() == ApprovalState.PENDING) pending.put(a.approval().runId(), a.approval());
                 else pending.remove(a.approval().runId());
             } else if (e instanceof Effect.RunChanged r) {
                 if (r.run().state().isActive()) active.put(r.run().runId(), r.run());
@@ -111,7 +113,7 @@ final class RandomInputs {
             return new Step(new Input.Tick(), now);
         }
         if (roll < 45) {
-            List<RunSnapshot> running = active.values().stream().filter(r -> r.state() == dev.tend.engine.RunState.RUNNING).toList();
+            List<RunSnapshot> running = active.values().stream().filter(r -> r.state() == dev.tend.shared.RunState.RUNNING).toList();
             if (!running.isEmpty()) return new Step(gateInput(pick(running)), now);
         }
         if (roll < 47) {

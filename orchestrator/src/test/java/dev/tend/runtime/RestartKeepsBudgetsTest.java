@@ -165,10 +165,9 @@ class RestartKeepsBudgetsTest {
                 BrakeThresholds.from(set.config().brake()), EventTimeMode.eventsOnly());
         Clock clock = Clock.systemUTC();
         try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100)) {
-            Orchestrator[] holder = new Orchestrator[1];
-            ScheduledTimers timers = new ScheduledTimers(clock, k -> holder[0].submit(new Input.TimerFired(k)));
+            QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, n -> { }, clock);
-            holder[0] = orch;
+            timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             orch.recover();
             Instant at = Instant.parse("2026-03-14T02:00:00Z");
             for (int c : clusters) {

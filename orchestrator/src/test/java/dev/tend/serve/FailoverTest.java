@@ -1,8 +1,7 @@
 package dev.tend.serve;
 
 import dev.tend.fault.FaultFiles;
-import dev.tend.fault.TendProcess;
-import com.fasterxml.jackson.databind.JsonNode;
+import dev.tend.serve.ServeInstances.Instance;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerFilter;
@@ -15,13 +14,11 @@ import org.junit.jupiter.api.io.TempDir;
 
 import java.io.IOException;
 import java.net.URI;
-import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
@@ -58,19 +55,14 @@ class FailoverTest {
     @TempDir
     Path dir;
 
-    private final HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1)
-            .connectTimeout(Duration.ofSeconds(2)).build();
     private String url;
     private String user;
-    private final List<Instance> instances = new ArrayList<>();
-    private int started;
+    /** The serve processes (created once the database and topic exist). */
+    private ServeInstances serves;
     private InProcessKafka kafka;
     /** The test's own view of the shared store (opened first, so it also migrates the database). */
     private Store watch;
     private FailoverStorm storm;
-
-    private record Instance(String name, int port, Process process) {
-    }
 
     @Test
     void killedLeadersAreReplacedWithinFifteenSecondsAndNothingIsLostOrDoneTwice() throws Exception {
@@ -83,14 +75,19 @@ class FailoverTest {
         watch = Store.openJdbc(url, user, null);
         try (KeyReceiver receiver = KeyReceiver.start(Duration.ofMillis(400))) {
             writePolicy(receiver.url());
-            Instance first = start();
-            assertThat(awaitRole(first, "leader", 90)).as(log(first)).isTrue();
-            Instance second = start();
-            assertThat(awaitRole(second, "standby", 90)).as(log(second)).isTrue();
+            serves = new ServeInstances(dir, TOKEN, List.of("--playbooks", dir.resolve("policy").toString(),
+                    "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
+                    "--tokens", dir.resolve("tokens.yaml").toString(), "--lease", LEASE,
+                    "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200",
+                    "--kafka", kafka.bootstrap(), "--topic", storm.topic()));
+            Instance first = serves.start();
+            assertThat(serves.awaitRole(first, "leader", 90)).as(serves.log(first)).isTrue();
+            Instance second = serves.start();
+            assertThat(serves.awaitRole(second, "standby", 90)).as(serves.log(second)).isTrue();
             // a standby names the leader once it has read the lease (its first look comes right after it starts)
             long seen = System.nanoTime() + TimeUnit.SECONDS.toNanos(30);
-            while (leaderUrl(second).isEmpty() && System.nanoTime() < seen) Thread.sleep(50);
-            HttpResponse<String> refused = postTo(second, "fares-1");
+            while (serves.leaderUrl(second).isEmpty() && System.nanoTime() < seen) Thread.sleep(50);
+            HttpResponse<String> refused = serves.postTo(second, "fares-1");
             assertThat(refused.statusCode()).as(refused.body()).isEqualTo(503);
             assertThat(refused.body()).contains("not-leader");
             assertThat(refused.headers().firstValue("X-Tend-Leader")).contains("http://127.0.0.1:" + first.port());
@@ -110,62 +107,62 @@ class FailoverTest {
                 long target = before + 200 + random.nextInt(800);
                 long by = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
                 while (storm.consumed(watch) < target && System.nanoTime() < by) Thread.sleep(10);
-                Instance leader = leader();
+                Instance leader = serves.leader();
                 consumedAtKill.add(storm.consumed(watch) + " of " + storm.produced());
                 long killedAt = System.nanoTime();
                 leader.process().destroyForcibly(); // SIGKILL
                 leader.process().waitFor(30, TimeUnit.SECONDS);
-                instances.remove(leader);
-                Instance standby = instances.get(0);
-                assertThat(awaitRole(standby, "leader", 60)).as(log(standby)).isTrue();
+                serves.instances.remove(leader);
+                Instance standby = serves.instances.get(0);
+                assertThat(serves.awaitRole(standby, "leader", 60)).as(serves.log(standby)).isTrue();
                 takeoverMs.add(TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - killedAt));
-                Instance fresh = start();
-                assertThat(awaitRole(fresh, "standby", 90)).as(log(fresh)).isTrue();
+                Instance fresh = serves.start();
+                assertThat(serves.awaitRole(fresh, "standby", 90)).as(serves.log(fresh)).isTrue();
                 sending.get(60, TimeUnit.SECONDS);
             }
             storm.produce(silenced.subList(posted, silenced.size())).get(60, TimeUnit.SECONDS);
             posted = silenced.size();
             assertThat(storm.awaitConsumed(watch, Duration.ofSeconds(120))).as("the storm's %d records consumed within 120 s; %s",
-                    storm.produced(), log(leader())).isTrue();
+                    storm.produced(), serves.log(serves.leader())).isTrue();
 
             // a leader paused past its lease: the standby takes over; resumed, it cannot commit and says so
-            Instance paused = leader();
-            Instance other = instances.stream().filter(i -> i != paused).findFirst().orElseThrow();
-            signal("STOP", paused);
+            Instance paused = serves.leader();
+            Instance other = serves.instances.stream().filter(i -> i != paused).findFirst().orElseThrow();
+            ServeInstances.signal("STOP", paused);
             long pausedAt = System.nanoTime();
-            assertThat(awaitRole(other, "leader", 60)).as(log(other)).isTrue();
+            assertThat(serves.awaitRole(other, "leader", 60)).as(serves.log(other)).isTrue();
             long pauseTakeoverMs = TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - pausedAt);
-            signal("CONT", paused);
+            ServeInstances.signal("CONT", paused);
             long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(30);
-            while (!stepsDown(paused) && System.nanoTime() < deadline) Thread.sleep(200);
-            String pausedLog = log(paused);
-            assertThat(stepsDown(paused)).as(pausedLog).isTrue();
+            while (!serves.stepsDown(paused) && System.nanoTime() < deadline) Thread.sleep(200);
+            String pausedLog = serves.log(paused);
+            assertThat(serves.stepsDown(paused)).as(pausedLog).isTrue();
 
             // the resumed instance may still call itself leader for a moment while it stops: ask the one that took over
-            assertThat(awaitRole(other, "leader", 30)).as(log(other)).isTrue();
+            assertThat(serves.awaitRole(other, "leader", 30)).as(serves.log(other)).isTrue();
             Instance last = other;
             // the storm engaged the brake (30 of 40 clusters silent), which holds until a person releases it
-            HttpResponse<String> released = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + last.port()
+            HttpResponse<String> released = serves.http().send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + last.port()
                             + "/api/v1/brake/release")).header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(30))
                     .POST(HttpRequest.BodyPublishers.ofString("{\"reason\":\"storm over\"}")).build(), HttpResponse.BodyHandlers.ofString());
             assertThat(released.statusCode()).as(released.body()).isEqualTo(200);
             deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(180);
-            while (activeRuns(last) > 0 && System.nanoTime() < deadline) Thread.sleep(300);
+            while (serves.activeRuns(last) > 0 && System.nanoTime() < deadline) Thread.sleep(300);
             // the standby answers reads from the shared store; both say who leads in /metrics
-            Instance standbyNow = instances.stream().filter(i -> i != last).findFirst().orElseThrow();
-            assertThat(awaitRole(standbyNow, "standby", 60)).as(log(standbyNow)).isTrue();
-            HttpResponse<String> runsOnStandby = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + standbyNow.port()
+            Instance standbyNow = serves.instances.stream().filter(i -> i != last).findFirst().orElseThrow();
+            assertThat(serves.awaitRole(standbyNow, "standby", 60)).as(serves.log(standbyNow)).isTrue();
+            HttpResponse<String> runsOnStandby = serves.http().send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + standbyNow.port()
                     + "/api/v1/runs")).header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(10)).build(),
                     HttpResponse.BodyHandlers.ofString());
             assertThat(runsOnStandby.statusCode()).isEqualTo(200);
             assertThat(JSON.readTree(runsOnStandby.body()).size()).isGreaterThanOrEqualTo(CLUSTERS);
-            String leaderMetrics = metrics(last);
-            String standbyMetrics = metrics(standbyNow);
-            System.out.println("failover: leader metrics " + metricLines(leaderMetrics) + "; standby " + metricLines(standbyMetrics));
+            String leaderMetrics = serves.metrics(last);
+            String standbyMetrics = serves.metrics(standbyNow);
+            System.out.println("failover: leader metrics " + ServeInstances.metricLines(leaderMetrics) + "; standby " + ServeInstances.metricLines(standbyMetrics));
             assertThat(leaderMetrics).contains("tend_leader 1.0").contains("tend_takeovers_total 1.0");
             assertThat(standbyMetrics).contains("tend_leader 0.0").contains("tend_standby_journal_lag ");
-            assertThat(metricValue(leaderMetrics, "tend_lease_epoch")).isGreaterThanOrEqualTo(KILLS + 2);
-            for (Instance i : List.copyOf(instances)) {
+            assertThat(ServeInstances.metricValue(leaderMetrics, "tend_lease_epoch")).isGreaterThanOrEqualTo(KILLS + 2);
+            for (Instance i : List.copyOf(serves.instances)) {
                 i.process().destroy(); // SIGTERM: a clean stop
                 assertThat(i.process().waitFor(60, TimeUnit.SECONDS)).isTrue();
             }
@@ -198,7 +195,7 @@ class FailoverTest {
             assertThat(audit).isZero();
         } catch (Throwable t) {
             // what each instance said, killed ones included: the figures alone do not tell why
-            for (int n = 1; n <= started; n++) {
+            for (int n = 1; serves != null && n <= serves.started(); n++) {
                 Path err = dir.resolve("tend-" + n + ".err");
                 if (!Files.exists(err)) continue;
                 List<String> lines = Files.readAllLines(err);
@@ -207,7 +204,7 @@ class FailoverTest {
             }
             throw t;
         } finally {
-            for (Instance i : instances) i.process().destroyForcibly();
+            if (serves != null) for (Instance i : serves.instances) i.process().destroyForcibly();
             if (watch != null) watch.close();
         }
     }
@@ -264,101 +261,6 @@ class FailoverTest {
         }
     }
 
-    private Instance start() throws IOException {
-        int port = TendProcess.freePort();
-        String name = "tend-" + (++started);
-        Process p = TendProcess.start(dir, name, List.of("serve", "--playbooks", dir.resolve("policy").toString(),
-                "--fleet", dir.resolve("policy/fleet.yaml").toString(), "--db", url, "--db-user", user,
-                "--tokens", dir.resolve("tokens.yaml").toString(), "--listen", "127.0.0.1:" + port, "--lease", LEASE,
-                "--ledger-key", dir.resolve("ledger.key").toString(), "--snapshot-every", "200",
-                "--kafka", kafka.bootstrap(), "--topic", storm.topic()));
-        Instance i = new Instance(name, port, p);
-        instances.add(i);
-        return i;
-    }
-
-    private String log(Instance i) throws IOException {
-        return i.name() + ":\n" + Files.readString(dir.resolve(i.name() + ".err"));
-    }
-
-    private boolean stepsDown(Instance i) throws IOException {
-        String text = Files.readString(dir.resolve(i.name() + ".err"));
-        return text.contains(" steps down: ") || text.contains(" lost the leader lease ");
-    }
-
-    private static void signal(String sig, Instance i) throws Exception {
-        Process kill = new ProcessBuilder("kill", "-" + sig, String.valueOf(i.process().pid())).inheritIO().start();
-        assertThat(kill.waitFor(10, TimeUnit.SECONDS)).isTrue();
-        assertThat(kill.exitValue()).isZero();
-    }
-
-    private JsonNode health(Instance i) {
-        try {
-            HttpResponse<String> r = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/health"))
-                    .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(2)).build(), HttpResponse.BodyHandlers.ofString());
-            return r.statusCode() == 200 ? JSON.readTree(r.body()) : null;
-        } catch (IOException | InterruptedException e) {
-            return null;
-        }
-    }
-
-    /** The leader's URL as {@code i}'s health names it; empty when it names none. */
-    private String leaderUrl(Instance i) {
-        JsonNode h = health(i);
-        return h == null ? "" : h.path("leader").path("leader_url").asText("");
-    }
-
-    private boolean awaitRole(Instance i, String role, int seconds) throws Exception {
-        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(seconds);
-        while (i.process().isAlive() && System.nanoTime() < deadline) {
-            JsonNode h = health(i);
-            if (h != null && role.equals(h.path("leader").path("role").asText())) return true;
-            Thread.sleep(50);
-        }
-        return false;
-    }
-
-    private Instance leader() {
-        for (Instance i : instances) {
-            JsonNode h = health(i);
-            if (h != null && "leader".equals(h.path("leader").path("role").asText())) return i;
-        }
-        throw new AssertionError("no instance leads");
-    }
-
-    private HttpResponse<String> postTo(Instance i, String cluster) throws Exception {
-        return http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/transitions"))
-                .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(30))
-                .POST(HttpRequest.BodyPublishers.ofString(line(cluster))).build(), HttpResponse.BodyHandlers.ofString());
-    }
-
-    private static String line(String cluster) {
-        return "{\"at\":\"" + Instant.now() + "\",\"cluster\":\"" + cluster + "\",\"node\":\"n1\",\"signal\":\"heartbeat\","
-                + "\"state\":\"silent\"}";
-    }
-
-    private String metrics(Instance i) throws Exception {
-        return http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/metrics")).timeout(Duration.ofSeconds(10))
-                .build(), HttpResponse.BodyHandlers.ofString()).body();
-    }
-
-    private static String metricLines(String text) {
-        return text.lines().filter(l -> l.startsWith("tend_leader") || l.startsWith("tend_lease_epoch")
-                || l.startsWith("tend_takeovers_total") || l.startsWith("tend_standby_journal_lag")).toList().toString();
-    }
-
-    private static double metricValue(String text, String name) {
-        return text.lines().filter(l -> l.startsWith(name + " ")).mapToDouble(l -> Double.parseDouble(l.substring(name.length() + 1)))
-                .findFirst().orElse(-1);
-    }
-
-    private int activeRuns(Instance i) throws Exception {
-        HttpResponse<String> r = http.send(HttpRequest.newBuilder(URI.create("http://127.0.0.1:" + i.port() + "/api/v1/runs?active=true"))
-                .header("Authorization", "Bearer " + TOKEN).timeout(Duration.ofSeconds(10)).build(), HttpResponse.BodyHandlers.ofString());
-        int n = 0;
-        for (JsonNode run : JSON.readTree(r.body())) if (!run.path("state").asText().equals("needs-human")) n++;
-        return n;
-    }
 
     /** {@code tend audit verify} on the store, as a person would run it; returns its exit code. */
     private int auditVerify() throws Exception {

@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.RunState;
+
 import java.time.Instant;
 import java.util.Objects;
 
@@ -11,7 +13,7 @@ import java.util.Objects;
  * @param playbookVersion that playbook's declared version, 0 or more
  * @param cluster         the cluster it acts on
  * @param node            the node it acts on; null for a cluster-scoped run
- * @param state           the engine's state name for the run
+ * @param state           where the run stands
  * @param shadow          true for a run in shadow mode (decided and recorded, never executed)
  * @param createdAt       when the run was created
  * @param startedAt       when it started executing; null until then
@@ -20,7 +22,7 @@ import java.util.Objects;
  * @param currentStep     the step it is at; null before the first and after the last
  * @param detail          more about the run as JSON text; null when there is nothing more
  */
-public record RunRow(String runId, String playbook, int playbookVersion, String cluster, String node, String state,
+public record RunRow(String runId, String playbook, int playbookVersion, String cluster, String node, RunState state,
                      boolean shadow, Instant createdAt, Instant startedAt, Instant endedAt, String outcome,
                      String currentStep, String detail) {
     public RunRow {

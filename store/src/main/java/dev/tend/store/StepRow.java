@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.StepState;
+
 import java.time.Instant;
 import java.util.Objects;
 
@@ -9,14 +11,14 @@ import java.util.Objects;
  * @param runId     the run it belongs to
  * @param stepId    the step's id in the playbook
  * @param ordinal   its position in the playbook's steps, from 0
- * @param state     the engine's state name for the step
+ * @param state     where the step stands
  * @param attempt   how many times it was tried so far, 0 or more
  * @param startedAt when its current attempt started; null before the first
  * @param endedAt   when it ended; null while pending or running
  * @param outcome   how it ended; null while pending or running
  * @param detail    more about the step as JSON text; null when there is nothing more
  */
-public record StepRow(String runId, String stepId, int ordinal, String state, int attempt, Instant startedAt,
+public record StepRow(String runId, String stepId, int ordinal, StepState state, int attempt, Instant startedAt,
                       Instant endedAt, String outcome, String detail) {
     public StepRow {
         Objects.requireNonNull(runId, "StepRow.runId must not be null");

@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.StepState;
+import dev.tend.shared.RunState;
 import dev.tend.shared.ApprovalState;
 import org.junit.jupiter.api.Test;
 
@@ -64,14 +66,14 @@ abstract class ProjectionContractTest extends StoreTestBase {
 
     @Test
     void runsRoundTripAndAreListedNewestFirstByFilter() {
-        RunRow old = new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", "succeeded", false, T0,
+        RunRow old = new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", RunState.SUCCEEDED, false, T0,
                 T0.plusSeconds(1), T0.plusSeconds(600), "succeeded", null, "{\"replaced\":\"n2\"}");
-        RunRow active = new RunRow("run-2", "replace-silent-node", 3, "dispatch-1", null, "running", true,
+        RunRow active = new RunRow("run-2", "replace-silent-node", 3, "dispatch-1", null, RunState.RUNNING, true,
                 T0.plusSeconds(60), T0.plusSeconds(61), null, null, "drain", null);
-        RunRow other = new RunRow("run-3", "restart-broker", 1, "fares-3", "n1", "running", false,
+        RunRow other = new RunRow("run-3", "restart-broker", 1, "fares-3", "n1", RunState.RUNNING, false,
                 T0.plusSeconds(120), null, null, null, null, null);
         store.useTransaction(tx -> {
-            tx.upsertRun(new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", "running", false, T0,
+            tx.upsertRun(new RunRow("run-1", "replace-silent-node", 3, "fares-3", "n2", RunState.RUNNING, false, T0,
                     T0.plusSeconds(1), null, null, "drain", null));
             tx.upsertRun(active);
             tx.upsertRun(other);
@@ -89,13 +91,13 @@ abstract class ProjectionContractTest extends StoreTestBase {
 
     @Test
     void stepsRoundTripInOrdinalOrder() {
-        StepRow drain = new StepRow("run-1", "drain", 0, "succeeded", 1, T0, T0.plusSeconds(30), "ok", null);
-        StepRow replace = new StepRow("run-1", "replace", 1, "running", 2, T0.plusSeconds(31), null, null, "{\"executor\":\"cmd\"}");
+        StepRow drain = new StepRow("run-1", "drain", 0, StepState.SUCCEEDED, 1, T0, T0.plusSeconds(30), "ok", null);
+        StepRow replace = new StepRow("run-1", "replace", 1, StepState.RUNNING, 2, T0.plusSeconds(31), null, null, "{\"executor\":\"cmd\"}");
         store.useTransaction(tx -> {
             tx.upsertStep(replace);
-            tx.upsertStep(new StepRow("run-1", "drain", 0, "running", 1, T0, null, null, null));
+            tx.upsertStep(new StepRow("run-1", "drain", 0, StepState.RUNNING, 1, T0, null, null, null));
             tx.upsertStep(drain);
-            tx.upsertStep(new StepRow("run-2", "drain", 0, "pending", 0, null, null, null, null));
+            tx.upsertStep(new StepRow("run-2", "drain", 0, StepState.RUNNING, 0, null, null, null, null));
         });
         assertThat(steps("run-1")).containsExactly(drain, replace);
         assertThat(steps("run-9")).isEmpty();

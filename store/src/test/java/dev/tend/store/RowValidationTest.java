@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.StepState;
+import dev.tend.shared.RunState;
 import dev.tend.store.internal.Rows;
 import org.assertj.core.api.ThrowableAssert.ThrowingCallable;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -27,18 +29,18 @@ class RowValidationTest {
                 rule(NULL, "InputRow.now must not be null", () -> InputRow.of("transition", null, T, "fares-3", "{}")),
                 rule(NULL, "InputRow.payload must not be null", () -> InputRow.of("transition", T, T, "fares-3", null)),
 
-                rule(NULL, "RunRow.runId must not be null", () -> run(null, "p", 1, "fares-3", "running", T)),
-                rule(NULL, "RunRow.playbook must not be null", () -> run("run-1", null, 1, "fares-3", "running", T)),
-                rule(BAD, "RunRow.playbookVersion must be 0 or more, got -2", () -> run("run-1", "p", -2, "fares-3", "running", T)),
-                rule(NULL, "RunRow.cluster must not be null", () -> run("run-1", "p", 1, null, "running", T)),
+                rule(NULL, "RunRow.runId must not be null", () -> run(null, "p", 1, "fares-3", RunState.RUNNING, T)),
+                rule(NULL, "RunRow.playbook must not be null", () -> run("run-1", null, 1, "fares-3", RunState.RUNNING, T)),
+                rule(BAD, "RunRow.playbookVersion must be 0 or more, got -2", () -> run("run-1", "p", -2, "fares-3", RunState.RUNNING, T)),
+                rule(NULL, "RunRow.cluster must not be null", () -> run("run-1", "p", 1, null, RunState.RUNNING, T)),
                 rule(NULL, "RunRow.state must not be null", () -> run("run-1", "p", 1, "fares-3", null, T)),
-                rule(NULL, "RunRow.createdAt must not be null", () -> run("run-1", "p", 1, "fares-3", "running", null)),
+                rule(NULL, "RunRow.createdAt must not be null", () -> run("run-1", "p", 1, "fares-3", RunState.RUNNING, null)),
 
-                rule(NULL, "StepRow.runId must not be null", () -> new StepRow(null, "drain", 0, "running", 1, T, null, null, null)),
-                rule(NULL, "StepRow.stepId must not be null", () -> new StepRow("run-1", null, 0, "running", 1, T, null, null, null)),
-                rule(BAD, "StepRow.ordinal must be 0 or more, got -1", () -> new StepRow("run-1", "drain", -1, "running", 1, T, null, null, null)),
+                rule(NULL, "StepRow.runId must not be null", () -> new StepRow(null, "drain", 0, StepState.RUNNING, 1, T, null, null, null)),
+                rule(NULL, "StepRow.stepId must not be null", () -> new StepRow("run-1", null, 0, StepState.RUNNING, 1, T, null, null, null)),
+                rule(BAD, "StepRow.ordinal must be 0 or more, got -1", () -> new StepRow("run-1", "drain", -1, StepState.RUNNING, 1, T, null, null, null)),
                 rule(NULL, "StepRow.state must not be null", () -> new StepRow("run-1", "drain", 0, null, 1, T, null, null, null)),
-                rule(BAD, "StepRow.attempt must be 0 or more, got -1", () -> new StepRow("run-1", "drain", 0, "running", -1, T, null, null, null)),
+                rule(BAD, "StepRow.attempt must be 0 or more, got -1", () -> new StepRow("run-1", "drain", 0, StepState.RUNNING, -1, T, null, null, null)),
 
                 rule(NULL, "TimerRow.key must not be null", () -> new TimerRow(null, T, null)),
                 rule(BAD, "TimerRow.key must not be empty", () -> new TimerRow("", T, null)),
@@ -93,7 +95,7 @@ class RowValidationTest {
                         () -> LedgerFilter.all().withSince(T).withUntil(T.minusSeconds(60))));
     }
 
-    static RunRow run(String id, String playbook, int version, String cluster, String state, Instant created) {
+    static RunRow run(String id, String playbook, int version, String cluster, RunState state, Instant created) {
         return new RunRow(id, playbook, version, cluster, null, state, false, created, null, null, null, null, null);
     }
 

@@ -1,5 +1,7 @@
 package dev.tend.store;
 
+import dev.tend.shared.StepState;
+import dev.tend.shared.RunState;
 import dev.tend.shared.ApprovalState;
 import org.junit.jupiter.api.Test;
 
@@ -26,9 +28,9 @@ abstract class TransactionContractTest extends StoreTestBase {
         tx.appendInput(input(1));
         tx.appendInputs(List.of(input(2), input(3)));
         tx.appendLedger(T0, "verdict", Map.of("cluster", "fares-3", "run", "run-" + suffix, "verdict", "start"));
-        tx.upsertRun(new RunRow("run-" + suffix, "replace-silent-node", 3, "fares-3", "n2", "running", false, T0, null, null,
+        tx.upsertRun(new RunRow("run-" + suffix, "replace-silent-node", 3, "fares-3", "n2", RunState.RUNNING, false, T0, null, null,
                 null, null, null));
-        tx.upsertStep(new StepRow("run-" + suffix, "drain", 0, "running", 1, T0, null, null, null));
+        tx.upsertStep(new StepRow("run-" + suffix, "drain", 0, StepState.RUNNING, 1, T0, null, null, null));
         tx.armTimer(new TimerRow("step/run-" + suffix + "/drain", T0.plusSeconds(600), null));
         tx.upsertExclusion(new ExclusionRow("tickets-12", "n" + suffix, "vendor test", "ops-lena", T0, null));
         tx.upsertApproval(new ApprovalRow("run-" + suffix, "replace-silent-node", "fares-3", "n2", "engine", T0,

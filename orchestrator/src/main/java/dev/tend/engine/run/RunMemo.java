@@ -1,6 +1,6 @@
 package dev.tend.engine.run;
 
-import dev.tend.engine.RunState;
+import dev.tend.shared.RunState;
 import dev.tend.engine.StepSnapshot;
 import dev.tend.shared.SignalKey;
 import dev.tend.shared.Target;

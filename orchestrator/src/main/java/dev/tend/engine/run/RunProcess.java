@@ -1,9 +1,9 @@
 package dev.tend.engine.run;
 
 import dev.tend.engine.RunSnapshot;
-import dev.tend.engine.RunState;
+import dev.tend.shared.RunState;
 import dev.tend.engine.StepSnapshot;
-import dev.tend.engine.StepState;
+import dev.tend.shared.StepState;
 import dev.tend.playbooks.ActionStep;
 import dev.tend.playbooks.PageStep;
 import dev.tend.playbooks.Playbook;

@@ -1,6 +1,8 @@
 package dev.tend.store.internal;
 
 import dev.tend.shared.ApprovalState;
+import dev.tend.shared.RunState;
+import dev.tend.shared.StepState;
 import dev.tend.store.ApprovalRow;
 import dev.tend.store.PageRow;
 import dev.tend.store.ExclusionRow;
@@ -38,12 +40,12 @@ public final class Rows {
 
     public static RunRow run(ResultSet rs) throws SQLException {
         return new RunRow(rs.getString(1), rs.getString(2), rs.getInt(3), rs.getString(4), rs.getString(5),
-                rs.getString(6), rs.getBoolean(7), Times.fromNanos(rs.getLong(8)), instant(rs, 9), instant(rs, 10),
+                runState(rs.getString(6)), rs.getBoolean(7), Times.fromNanos(rs.getLong(8)), instant(rs, 9), instant(rs, 10),
                 rs.getString(11), rs.getString(12), rs.getString(13));
     }
 
     public static StepRow step(ResultSet rs) throws SQLException {
-        return new StepRow(rs.getString(1), rs.getString(2), rs.getInt(3), rs.getString(4), rs.getInt(5),
+        return new StepRow(rs.getString(1), rs.getString(2), rs.getInt(3), stepState(rs.getString(4)), rs.getInt(5),
                 instant(rs, 6), instant(rs, 7), rs.getString(8), rs.getString(9));
     }
 
@@ -67,6 +69,18 @@ public final class Rows {
     public static ApprovalState approvalState(String text) {
         return ApprovalState.of(text).orElseThrow(() -> new IllegalArgumentException("ApprovalRow.state must be one of "
                 + String.join(", ", ApprovalState.wireNames()) + ", got '" + text + "'"));
+    }
+
+    /** The stored text of a run's state as its {@link RunState}; text that is none is refused. */
+    public static RunState runState(String text) {
+        return RunState.of(text).orElseThrow(() -> new IllegalArgumentException("RunRow.state must be a run state such as running"
+                + " or succeeded, got '" + text + "'"));
+    }
+
+    /** The stored text of a step's state as its {@link StepState}; text that is none is refused. */
+    public static StepState stepState(String text) {
+        return StepState.of(text).orElseThrow(() -> new IllegalArgumentException("StepRow.state must be a step state such as"
+                + " running or timed-out, got '" + text + "'"));
     }
 
     public static final String PAGE_COLUMNS = "id, channel, created_ns, payload, state, attempts, next_ns, last_answer, ended_ns";

@@ -1,9 +1,9 @@
-package dev.tend.engine;
+package dev.tend.shared;
 
 import java.util.Locale;
 
 /**
- * Where one step of a run stands ({@link StepSnapshot#state()} carries its {@link #wireName()}).
+ * Where one step of a run stands: the one definition the engine, its snapshots, the store's rows and the API use ({@link #wireName()} is what the store and the API carry).
  * An action step is {@link #RUNNING} while its call is out; a retried attempt first records
  * {@link #FAILED}, and the last attempt records how it ended.
  */

@@ -1,9 +1,10 @@
-package dev.tend.engine;
+package dev.tend.shared;
 
 import java.util.Locale;
 
 /**
- * Where a run stands. Terminal states: {@link #SUCCEEDED}, {@link #FAILED},
+ * Where a run stands: the one definition the engine, its snapshots, the store's rows and the
+ * API use. Terminal states: {@link #SUCCEEDED}, {@link #FAILED},
  * {@link #CANCELLED}, {@link #SHADOWED}, {@link #STOOD_DOWN}.
  */
 public enum RunState {
@@ -37,7 +38,14 @@ public enum RunState {
         return this == RUNNING || this == PAUSED || this == NEEDS_HUMAN;
     }
 
+    /** The state as the API, the store and reports show it, e.g. {@code needs-human}. */
     public String wireName() {
         return name().toLowerCase(Locale.ROOT).replace('_', '-');
+    }
+
+    /** The state named {@code wire} (as {@link #wireName()} writes it); empty for any other text. */
+    public static java.util.Optional<RunState> of(String wire) {
+        for (RunState s : values()) if (s.wireName().equals(wire)) return java.util.Optional.of(s);
+        return java.util.Optional.empty();
     }
 }
