@@ -81,7 +81,7 @@ public final class RunsCommand implements Callable<Integer> {
         m.put("version", r.playbookVersion());
         m.put("cluster", r.cluster());
         m.put("node", r.node());
-        m.put("state", r.state());
+        m.put("state", r.state().wireName());
         m.put("shadow", r.shadow());
         m.put("created_at", str(r.createdAt()));
         m.put("started_at", str(r.startedAt()));
@@ -91,7 +91,7 @@ public final class RunsCommand implements Callable<Integer> {
         for (StepRow st : steps) {
             Map<String, Object> sm = new LinkedHashMap<>();
             sm.put("step", st.stepId());
-            sm.put("state", st.state());
+            sm.put("state", st.state().wireName());
             sm.put("attempt", st.attempt());
             sm.put("started_at", str(st.startedAt()));
             sm.put("ended_at", str(st.endedAt()));
