@@ -32,7 +32,8 @@ import static org.assertj.core.api.Assertions.assertThat;
  * {@code tend serve --kafka}: a real broker from Kafka's test kit in this JVM, a real SQLite
  * store, the server consuming. Each record is journaled exactly once although the consumer
  * stops mid-stream and starts again; a bad record is refused on the record (naming its
- * partition and offset) and the records after it are consumed.
+ * partition and offset) and the records after it are consumed; partitions added to the topic
+ * while it reads are found and read from their start.
  */
 class KafkaIngestTest {
     private static final Path LIBRARY = dev.tend.testing.RepositoryRoot.path().resolve("playbooks/library");
@@ -125,6 +126,29 @@ class KafkaIngestTest {
             assertThat(refused.get(2)).contains("field 'at'");
             assertThat(refused.get(3)).contains("field 'state'");
             assertThat(log.toString()).contains("refused the record at topic " + topic + " partition 0 offset 1: ");
+            assertThat(server.port()).isPositive();
+        }
+    }
+
+    @Test
+    void partitionsAddedWhileItReadsAreReadFromTheirStart() throws Exception {
+        InProcessKafka kafka = InProcessKafka.get();
+        String topic = kafka.createTopic("larkspur-health", 1);
+        kafka.send(topic, 0, List.of(line(0), line(1)));
+        StringWriter log = new StringWriter();
+        try (Store store = Store.openSqlite(dir.resolve("tend.db"));
+             TendServer server = TendServer.start(store, settings(setup(), new StreamSource(kafka.bootstrap(), topic, "tend"),
+                     new PrintWriter(log, true)))) {
+            await(() -> offsetSum(store, topic) == 2, log);
+            kafka.addPartitions(topic, 3);
+            // sent before the consumer looks for new partitions: read from each new partition's start, none skipped
+            kafka.send(topic, 1, List.of(line(10), line(11)));
+            kafka.send(topic, 2, List.of(line(20)));
+            await(() -> offsetSum(store, topic) == 5, log);
+            Map<Integer, Long> offsets = store.read(r -> r.streamOffsets(topic));
+            assertThat(offsets).containsExactlyInAnyOrderEntriesOf(Map.of(0, 2L, 1, 2L, 2, 1L));
+            assertThat(journaled(store)).containsOnlyKeys(BASE, BASE.plusMillis(1), BASE.plusMillis(10), BASE.plusMillis(11),
+                    BASE.plusMillis(20)).allSatisfy((at, n) -> assertThat(n).isOne());
             assertThat(server.port()).isPositive();
         }
     }

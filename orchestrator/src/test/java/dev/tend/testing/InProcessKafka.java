@@ -77,6 +77,16 @@ public final class InProcessKafka {
         return name;
     }
 
+    /** Raises the partitions of {@code topic} to {@code total}, as an operator does while consumers read it. */
+    public void addPartitions(String topic, int total) {
+        try (Admin admin = cluster.admin()) {
+            admin.createPartitions(Map.of(topic, org.apache.kafka.clients.admin.NewPartitions.increaseTo(total))).all()
+                    .get(30, TimeUnit.SECONDS);
+        } catch (Exception e) {
+            throw new IllegalStateException("could not add partitions to " + topic + ": " + e, e);
+        }
+    }
+
     /** A producer that waits for the broker's acknowledgement of every record. */
     public KafkaProducer<String, String> producer() {
         Properties p = new Properties();
