@@ -244,6 +244,7 @@ public final class Orchestrator {
             failed = false;
             // a clean stop: the next start loads this state and replays nothing
             if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+            snapshots.collect(true);
         } finally {
             CheckpointWriter w = checkpoints;
             if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
@@ -324,6 +325,7 @@ public final class Orchestrator {
             return;
         }
         for (Effect e : all) effects.perform(e);
+        snapshots.collect(false);
         if (snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
         listener.committed(engine, java.util.Collections.unmodifiableList(batch), java.util.Collections.unmodifiableList(all));
         waiters.committed(batch, perInput);

@@ -21,6 +21,7 @@ import dev.tend.playbooks.Playbook;
 import dev.tend.shared.Id;
 import dev.tend.shared.time.InstantText;
 import dev.tend.shared.TendException;
+import dev.tend.shared.fleet.HealthMemo;
 import dev.tend.shared.json.Sha256;
 import dev.tend.store.SnapshotRow;
 
@@ -56,23 +57,34 @@ public final class SnapshotCodec {
     }
 
     private static ObjectMapper mapper() {
-        SimpleModule ids = new SimpleModule("tend-ids");
+        ObjectMapper m = recordMapper(textModule());
+        // the health view's signals are most of a snapshot: written without reflection, as the record mapping would
+        m.registerModule(new SimpleModule("tend-signals").addSerializer(HealthMemo.Signal.class, new SignalMemoWriter()));
+        return m;
+    }
+
+    /** Ids, step states and instants as text. */
+    static SimpleModule textModule() {
+        SimpleModule ids = new SimpleModule("tend-text");
         asText(ids, Id.class, Id::value, Id::of);
         // a step's state by its wire name, as snapshots held it while it was text
         asText(ids, StepState.class, StepState::wireName,
                 wire -> StepState.of(wire).orElseThrow(() -> new IllegalArgumentException("not a step state: '" + wire + "'")));
         // Instant.toString()'s text (what the time module writes too), without its formatter: a snapshot holds many
-        SimpleModule instants = new SimpleModule("tend-instants");
-        instants.addSerializer(Instant.class, new JsonSerializer<>() {
+        ids.addSerializer(Instant.class, new JsonSerializer<>() {
             @Override
             public void serialize(Instant t, JsonGenerator g, SerializerProvider p) throws IOException {
                 g.writeString(InstantText.of(t));
             }
         });
+        return ids;
+    }
+
+    /** Records as their components, with {@code text}: the mapping every snapshot's JSON follows. */
+    static ObjectMapper recordMapper(SimpleModule text) {
         ObjectMapper m = new ObjectMapper();
         m.registerModule(new JavaTimeModule());
-        m.registerModule(ids);
-        m.registerModule(instants);
+        m.registerModule(text);
         // Records as their components only: no derived getters (isCluster, isProblem, ...) in the file.
         m.setVisibility(PropertyAccessor.ALL, JsonAutoDetect.Visibility.NONE);
         m.setVisibility(PropertyAccessor.FIELD, JsonAutoDetect.Visibility.ANY);
@@ -113,7 +125,7 @@ public final class SnapshotCodec {
                                      Map<String, Long> sources) {
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
         // streamed: building the state as a tree first cost as much again as writing it
-        try (OutputStream out = new GZIPOutputStream(bytes, 1 << 16); JsonGenerator g = JSON.createGenerator(out)) {
+        try (OutputStream out = new FastGzip(bytes); JsonGenerator g = JSON.createGenerator(out)) {
             g.writeStartObject();
             g.writeNumberField("format", FORMAT);
             g.writeNumberField("seq", seq);
@@ -127,6 +139,18 @@ public final class SnapshotCodec {
             throw new UncheckedIOException(e);
         }
         return new SnapshotRow(seq, takenAt, FORMAT, setupFingerprint, bytes.toByteArray());
+    }
+
+    /**
+     * gzip at level 2 rather than the default 6: on a snapshot of 2,000 clusters (10 MB of
+     * JSON) about 40 ms instead of 140 ms, for a body about a third larger (measured
+     * 2026-12-03). Any gzip reader reads it.
+     */
+    private static final class FastGzip extends GZIPOutputStream {
+        FastGzip(OutputStream out) throws IOException {
+            super(out, 1 << 16);
+            def.setLevel(2);
+        }
     }
 
     /** {@code state} as the JSON text a snapshot holds (uncompressed): equal states give equal text. */

@@ -2,6 +2,7 @@ package dev.tend.runtime;
 
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EngineState;
 import dev.tend.store.SnapshotRow;
 import dev.tend.store.Store;
 import dev.tend.store.StoreReader;
@@ -11,6 +12,8 @@ import java.util.HashMap;
 import java.util.Map;
 import java.util.Objects;
 import java.util.TreeMap;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.Executor;
 
 /**
  * Where the {@link Orchestrator}'s engine starts from and what it leaves for the next start:
@@ -24,6 +27,15 @@ final class SnapshotKeeper {
     private final Store store;
     private final EngineSetup setup;
     private String fingerprint;
+    /** Runs each encoding on a daemon thread of its own (one every few thousand inputs at most). */
+    private static final Executor ENCODER = task -> {
+        Thread t = new Thread(task, "tend-snapshot");
+        t.setDaemon(true);
+        t.start();
+    };
+
+    /** The snapshot being encoded, not stored yet; null when none. */
+    private CompletableFuture<SnapshotRow> encoding;
     /** A warm engine to start from at the next {@link #tail}, or null. */
     private JournalTail warm;
     /** How far each input file was journaled, as the last {@link #tail} found it. */
@@ -58,18 +70,41 @@ final class SnapshotKeeper {
     }
 
     /**
-     * Writes {@code engine}'s state, with the progress of the inputs read from files (the
+     * Takes {@code engine}'s state, with the progress of the inputs read from files (the
      * current {@code source}, if not null, at {@code sourceDone} events), as the snapshot after
-     * the newest journal row; false when the journal is empty.
+     * the newest journal row, and has it encoded on a thread of its own (on a fleet of 2,000
+     * clusters the encoding costs as much as deciding thousands of inputs); {@link #collect}
+     * stores it once encoded. A snapshot still being encoded is stored first. False when the
+     * journal is empty.
      */
     boolean write(Engine engine, String source, long sourceDone, Instant at) {
+        collect(true);
         Map<String, Long> sources = new TreeMap<>(progressFound);
         if (source != null) sources.put(source, sourceDone);
         long seq = store.read(StoreReader::lastInputSeq);
         if (seq == 0) return false;
-        SnapshotRow row = SnapshotCodec.encode(seq, at, fingerprint(), engine.state(), sources);
-        store.useTransaction(tx -> tx.putSnapshot(row, KEPT));
+        EngineState state = engine.state(); // plain values, nothing shared with the engine
+        String setupPrint = fingerprint();
+        encoding = CompletableFuture.supplyAsync(() -> SnapshotCodec.encode(seq, at, setupPrint, state, sources), ENCODER);
         return true;
+    }
+
+    /**
+     * Stores the snapshot being encoded once it is ready ({@code wait}: waits for it), in a
+     * transaction of its own on the calling thread, the driver's. Throws what the encoding threw.
+     */
+    void collect(boolean wait) {
+        CompletableFuture<SnapshotRow> e = encoding;
+        if (e == null || (!wait && !e.isDone())) return;
+        encoding = null;
+        SnapshotRow row;
+        try {
+            row = e.join();
+        } catch (java.util.concurrent.CompletionException failed) {
+            if (failed.getCause() instanceof RuntimeException r) throw r;
+            throw failed;
+        }
+        store.useTransaction(tx -> tx.putSnapshot(row, KEPT));
     }
 
     private String fingerprint() {

@@ -42,26 +42,30 @@ import java.util.concurrent.atomic.AtomicBoolean;
  * verdicts, ledger entries). Not a unit test: run it with
  * {@code mvn -B -q -Pbench -pl orchestrator -am verify} (see DEVELOPERS.md).
  *
- * <p>Arguments: N (default 1,000,000), clusters (default 2,000).
+ * <p>Arguments: N (default 1,000,000), clusters (default 2,000), inputs between snapshots
+ * (default {@link Orchestrator#DEFAULT_SNAPSHOT_EVERY}, as {@code tend ingest}; 0: none).
  */
 public final class IngestBenchmark {
     public static void main(String[] args) throws Exception {
         int n = args.length > 0 ? Integer.parseInt(args[0]) : 1_000_000;
         int clusters = args.length > 1 ? Integer.parseInt(args[1]) : 2000;
+        int snapshotEvery = args.length > 2 ? Integer.parseInt(args[2]) : Orchestrator.DEFAULT_SNAPSHOT_EVERY;
         Path dir = Files.createTempDirectory("tend-bench");
         Path fleetFile = dir.resolve("fleet.yaml");
         Path events = dir.resolve("events.jsonl");
         IngestMix.writeFleet(fleetFile, clusters);
         IngestMix.writeEvents(events, n, clusters);
-        System.out.printf("benchmark: %,d transitions over %,d clusters (%,d bytes) in %s; %s%n", n, clusters, Files.size(events), dir,
-                ChildProcess.load());
+        System.out.printf("benchmark: %,d transitions over %,d clusters (%,d bytes), a snapshot every %,d inputs, in %s; %s%n", n,
+                clusters, Files.size(events), snapshotEvery, dir, ChildProcess.load());
 
         long c0 = ChildProcess.ownCpuNanos();
         double floor = rate(n, floor(events, dir.resolve("floor.db")));
         long c1 = ChildProcess.ownCpuNanos();
         System.out.printf("floor  (Jackson parse + batched SQLite insert): %,.0f events/s, %.2f s CPU%n", floor, (c1 - c0) / 1e9);
         long[] cpu = new long[1];
-        double tend = rate(n, tend(events, fleetFile, dir.resolve("tend.db"), cpu));
+        Map<String, Long> threadsBefore = ThreadCpu.byName();
+        double tend = rate(n, tend(events, fleetFile, dir.resolve("tend.db"), snapshotEvery, cpu));
+        System.out.printf("         CPU by thread: %s%n", ThreadCpu.since(threadsBefore));
         System.out.printf("tend   (journal + engine + ledger, durable):   %,.0f events/s, %.2f s CPU%n", tend, cpu[0] / 1e9);
         System.out.printf("ratio  tend/floor = %.2f by wall clock (target >= 0.50), %.2f by CPU time%n", tend / floor,
                 (double) (c1 - c0) / cpu[0]);
@@ -107,7 +111,7 @@ public final class IngestBenchmark {
     }
 
     /** Returns the wall time until every event is committed; {@code cpu[0]}: this process's CPU time meanwhile. */
-    static long tend(Path events, Path fleetFile, Path db, long[] cpu) throws Exception {
+    static long tend(Path events, Path fleetFile, Path db, int snapshotEvery, long[] cpu) throws Exception {
         Path library = Path.of(System.getProperty("tend.library", "playbooks/library"));
         if (!Files.isDirectory(library)) library = Path.of("..").resolve(library);
         PlaybookSet set = PlaybookLoader.load(library);
@@ -119,9 +123,11 @@ public final class IngestBenchmark {
         long c0 = ChildProcess.ownCpuNanos();
         try (Store store = Store.openSqlite(db); Executor sim = new SimulatedExecutor(1, 1_000_000)) {
             QuartzTimers timers = new QuartzTimers();
-            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, x -> { }, clock);
+            Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, x -> { }, clock,
+                    dev.tend.runtime.CommitListener.NONE, snapshotEvery);
             timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             AtomicBoolean eof = new AtomicBoolean();
+            long[] readerCpu = new long[1];
             Thread reader = new Thread(() -> {
                 try (BufferedReader in = Files.newBufferedReader(events, StandardCharsets.UTF_8)) {
                     WireReader.of(events.toString()).readAll(in, r -> {
@@ -136,6 +142,7 @@ public final class IngestBenchmark {
                 } catch (Exception e) {
                     throw new IllegalStateException(e);
                 } finally {
+                    readerCpu[0] = java.lang.management.ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
                     eof.set(true);
                 }
             });
@@ -147,6 +154,7 @@ public final class IngestBenchmark {
             long until = System.nanoTime() + 5_000_000_000L;
             orch.runUntil(() -> orch.isIdle() || System.nanoTime() > until);
             timers.close();
+            System.out.printf("         reader thread (wire reader): %.2f s CPU%n", readerCpu[0] / 1e9);
             System.out.printf("         runs: %d (%d still running after 5 s more)%n", orch.engine().runs().size(), orch.engine().activeRuns());
             return took;
         }

@@ -1,0 +1,76 @@
+package dev.tend.runtime;
+
+import dev.tend.shared.time.InstantText;
+
+import java.time.Instant;
+
+/**
+ * {@link InstantText#of}'s text of an instant, written into a buffer the caller keeps, with
+ * the calendar date computed by arithmetic instead of a {@code LocalDate}: what a snapshot
+ * writes several hundred thousand times.
+ */
+final class InstantChars {
+    /** The longest text: {@code 9999-12-31T23:59:59.999999999Z}. */
+    static final int MAX = 30;
+
+    private InstantChars() {
+    }
+
+    /**
+     * Writes the text of {@code t} into {@code out} (at least {@link #MAX} long) and returns its
+     * length, or -1 for a year outside 0000 to 9999 (which {@link InstantText#of} writes in
+     * another form).
+     */
+    static int write(Instant t, char[] out) {
+        long sec = t.getEpochSecond();
+        long day = Math.floorDiv(sec, 86_400L);
+        int s = (int) (sec - day * 86_400L);
+        // days since 1970-01-01 to a proleptic Gregorian date: H. Hinnant, "chrono-Compatible
+        // Low-Level Date Algorithms", days_from_civil's inverse civil_from_days (public domain)
+        long z = day + 719_468;
+        long era = Math.floorDiv(z, 146_097);
+        long doe = z - era * 146_097;
+        long yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+        long doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+        long mp = (5 * doy + 2) / 153;
+        int dayOfMonth = (int) (doy - (153 * mp + 2) / 5 + 1);
+        int month = (int) (mp < 10 ? mp + 3 : mp - 9);
+        long year = yoe + era * 400 + (month <= 2 ? 1 : 0);
+        if (year < 0 || year > 9999) return -1;
+        put(out, 0, (int) year, 4);
+        out[4] = '-';
+        put(out, 5, month, 2);
+        out[7] = '-';
+        put(out, 8, dayOfMonth, 2);
+        out[10] = 'T';
+        put(out, 11, s / 3600, 2);
+        out[13] = ':';
+        put(out, 14, s / 60 % 60, 2);
+        out[16] = ':';
+        put(out, 17, s % 60, 2);
+        int n = 19;
+        int nano = t.getNano();
+        if (nano > 0) {
+            out[n++] = '.';
+            if (nano % 1_000_000 == 0) {
+                put(out, n, nano / 1_000_000, 3);
+                n += 3;
+            } else if (nano % 1000 == 0) {
+                put(out, n, nano / 1000, 6);
+                n += 6;
+            } else {
+                put(out, n, nano, 9);
+                n += 9;
+            }
+        }
+        out[n++] = 'Z';
+        return n;
+    }
+
+    private static void put(char[] out, int at, int value, int digits) {
+        for (int i = at + digits - 1; i >= at; i--) {
+            out[i] = (char) ('0' + value % 10);
+            value /= 10;
+        }
+    }
+}
