@@ -37,8 +37,8 @@ public final class Orchestrator {
      */
     private static final long IDLE_NANOS = 20_000_000;
 
-    /** Inputs between two snapshots unless told otherwise. */
-    public static final int DEFAULT_SNAPSHOT_EVERY = 10_000;
+    /** Inputs between two snapshots unless told otherwise (a snapshot writes the whole state; see DEVELOPERS.md). */
+    public static final int DEFAULT_SNAPSHOT_EVERY = 50_000;
 
     private final Store store;
     private final int snapshotEvery;
