@@ -78,21 +78,21 @@ public record HandoverReport(ReportPeriod period, Map<String, RunCounts> byPlayb
     /**
      * Computes the report for {@code period} from the ledger {@code reader} sees: reads, in seq
      * order, the entries of the period and those before it that tell what was running,
-     * pending, engaged or stopped when it began ({@link LedgerTally#QUERY_KINDS}), then
-     * verifies the chain from the period's first entry to the newest (see {@link LedgerStatus};
-     * {@code tend audit verify} checks the whole chain). The work grows with the period, not
-     * with the ledger. Both passes see one snapshot. Throws
+     * pending, engaged or stopped when it began ({@link LedgerTally#query}), and verifies the
+     * chain from the period's first entry to the newest in the same walk, each entry read and
+     * parsed once (see {@link LedgerStatus}; {@code tend audit verify} checks the whole chain).
+     * The work grows with the period, not with the ledger. It all sees one snapshot. Throws
      * {@link dev.tend.store.StoreException} when the store fails.
      */
     public static HandoverReport from(StoreReader reader, ReportPeriod period) {
         Objects.requireNonNull(reader, "reader");
         Objects.requireNonNull(period, "period");
         LedgerTally tally = new LedgerTally(period);
-        reader.forEachLedgerOfPeriod(LedgerTally.query(period), tally::accept);
         long headSeq = reader.ledgerHead().map(dev.tend.store.LedgerEntry::seq).orElse(0L);
         long first = reader.firstLedgerSeqAt(period.since());
         long from = first == 0 ? headSeq + 1 : first;
-        LedgerVerification v = reader.verifyLedgerFrom(from);
+        // one walk: the chain is verified from the period's first entry while its entries are tallied
+        LedgerVerification v = reader.verifyLedgerFromReading(from, LedgerTally.query(period), tally::accept);
         return tally.toReport(v, headSeq, from);
     }
 

@@ -50,22 +50,26 @@ final class LedgerTally {
     }
 
     void accept(LedgerEntry e) {
-        boolean counted = period.contains(e.at());
         if (!e.at().isBefore(period.until())) return;
-        if (counted) inPeriod++;
         JsonNode f;
         try {
             f = JSON.readTree(e.entry());
         } catch (JsonProcessingException bad) {
+            f = null;
+        }
+        accept(e.seq(), e.at(), e.kind(), f != null && f.isObject() ? f : null);
+    }
+
+    /** Folds in an entry whose text was parsed already: {@code f} is null when the text is not a JSON object. */
+    void accept(long seq, Instant at, String kindColumn, JsonNode f) {
+        boolean counted = period.contains(at);
+        if (!at.isBefore(period.until())) return;
+        if (counted) inPeriod++;
+        if (f == null) {
             if (counted) unreadable++;
             return;
         }
-        if (f == null || !f.isObject()) {
-            if (counted) unreadable++;
-            return;
-        }
-        Instant at = e.at();
-        LedgerKind kind = LedgerKind.of(e.kind()).orElse(null);
+        LedgerKind kind = kindColumn == null ? null : LedgerKind.of(kindColumn).orElse(null);
         if (kind == null) return; // a kind this version does not write says nothing the report shows
         switch (kind) {
             case RUN_STARTED -> {

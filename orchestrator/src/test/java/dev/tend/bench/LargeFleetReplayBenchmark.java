@@ -47,7 +47,7 @@ public final class LargeFleetReplayBenchmark {
         System.out.printf(Locale.ROOT, "recorded %,d events (%,d MB) in %.1f s%n", events, Files.size(recording) >> 20, record.wall());
 
         ColdReplayBenchmark.Timing floor = ColdReplayBenchmark.run(dir, "floor", List.of(ChildProcess.java(), "-Xmx" + heap, "-cp",
-                System.getProperty("java.class.path"), JacksonFloor.class.getName(), recording.toString()), 0);
+                BenchClasspath.ofThisProcess(), JacksonFloor.class.getName(), recording.toString()), 0);
         Path gcLog = dir.resolve("replay-gc.log");
         Files.deleteIfExists(gcLog);
         ColdReplayBenchmark.Timing replay = ColdReplayBenchmark.run(dir, "replay", List.of(tend, "replay", recording.toString(),

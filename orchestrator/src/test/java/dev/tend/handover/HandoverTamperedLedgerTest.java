@@ -64,6 +64,26 @@ class HandoverTamperedLedgerTest {
     }
 
     @Test
+    void anEntryWhoseHashColumnIsNoLongerAHashIsNamedAndTheRestStillCounted() throws Exception {
+        Path db = playAndClose();
+        HandoverReport clean;
+        try (dev.tend.store.Store store = dev.tend.store.Store.openSqlite(db)) {
+            clean = store.read(x -> HandoverReport.from(x, ReportPeriod.of(SINCE, UNTIL)));
+        }
+        long seq = edit(db, "UPDATE ledger SET hash = 'not a hash' WHERE seq = ?",
+                "SELECT min(seq) FROM ledger WHERE kind = 'verdict' AND at_ns >= " + (SINCE.getEpochSecond() * 1_000_000_000L));
+
+        try (dev.tend.store.Store store = dev.tend.store.Store.openSqlite(db)) {
+            HandoverReport r = store.read(x -> HandoverReport.from(x, ReportPeriod.of(SINCE, UNTIL)));
+
+            assertThat(r.ledger().verified()).isFalse();
+            assertThat(r.ledger().firstBrokenSeq()).isEqualTo(seq);
+            assertThat(r.ledger().verifyMessage()).contains("its hash does not match its content");
+            assertThat(r.byPlaybook()).as("the tally reads on past the entry at fault").isEqualTo(clean.byPlaybook());
+        }
+    }
+
+    @Test
     void handoverCommandWritesTheReportAndExitsOneWhenVerifyFails() throws Exception {
         Path db = playAndClose();
         edit(db, "UPDATE ledger SET entry = replace(entry, '\"ana\"', '\"eve\"') WHERE seq = ?",

@@ -71,6 +71,15 @@ public interface StoreReader {
      */
     void forEachLedgerOfPeriod(LedgerPeriodQuery query, Consumer<LedgerEntry> consumer);
 
+    /**
+     * {@link #verifyLedgerFrom} and {@link #forEachLedgerOfPeriod} in one walk: verifies the
+     * entries from {@code fromSeq} to the newest and, as it goes, hands what {@code query} asks
+     * for to {@code consumer} in seq order, each entry with its text parsed, so that the period's entries are read and parsed once.
+     * Every entry is handed on even after one fails verify. Pass the seq of the period's first
+     * entry ({@link #firstLedgerSeqAt} of its start) or less.
+     */
+    LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query, LedgerEntryRead consumer);
+
     /** The lowest seq of an entry at or after {@code at}; 0 when there is none. */
     long firstLedgerSeqAt(Instant at);
 

@@ -146,6 +146,55 @@ abstract class LedgerQueryContractTest extends StoreTestBase {
     }
 
     @Test
+    void verifyingWhileReadingAPeriodHandsOnWhatTheReadAloneGivesAndVerifiesAsTheVerifierAloneEvenPastAFault() {
+        history();
+        LedgerPeriodQuery q = new LedgerPeriodQuery(minute(10), minute(14), Set.of("brake-engaged", "brake-released"),
+                Set.of("run-started", "approval-requested"), Set.of("run-ended"));
+        List<Long> alone = new ArrayList<>();
+        store.read(r -> {
+            r.forEachLedgerOfPeriod(q, e -> alone.add(e.seq()));
+            return null;
+        });
+        Map<Long, com.fasterxml.jackson.databind.JsonNode> handed = new LinkedHashMap<>();
+        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(9, q, (seq, at, kind, f) -> handed.put(seq, f)));
+
+        assertThat(handed.keySet()).containsExactlyElementsOf(alone);
+        assertThat(handed.get(10L).path("run").asText()).isEqualTo("r2");
+        assertThat(v).isEqualTo(verifyFrom(9));
+
+        db.execute("UPDATE ledger SET entry = replace(entry, 'fares-2', 'fares-7') WHERE seq = 10");
+        db.execute("UPDATE ledger SET entry = 'not json' WHERE seq = 11");
+        handed.clear();
+        v = store.read(r -> r.verifyLedgerFromReading(9, q, (seq, at, kind, f) -> handed.put(seq, f)));
+
+        assertThat(v.firstBrokenSeq()).isEqualTo(10);
+        assertThat(v).isEqualTo(verifyFrom(9));
+        assertThat(handed.keySet()).as("every entry is handed on after the fault").containsExactlyElementsOf(alone);
+        assertThat(handed.get(10L).path("cluster").asText()).isEqualTo("fares-7");
+        assertThat(handed.get(11L)).as("a text that is not JSON is handed on unparsed").isNull();
+    }
+
+    @Test
+    void verifyingWhileReadingWalksAChainLongerThanOneChunkAndNamesTheFirstEntryAtFault() {
+        List<LedgerDraft> d = new ArrayList<>();
+        for (int i = 0; i < 9_000; i++) d.add(draft(i, "verdict", null, "fares-" + (i % 7)));
+        store.useTransaction(tx -> tx.appendLedger(d));
+        LedgerPeriodQuery q = new LedgerPeriodQuery(minute(100), minute(8_990), Set.of(), Set.of("run-started"),
+                Set.of("run-ended"));
+        long[] handed = {0};
+        LedgerVerification whole = store.read(r -> r.verifyLedgerFromReading(101, q, (seq, at, kind, f) -> handed[0]++));
+        assertThat(whole).extracting(LedgerVerification::ok, LedgerVerification::entries).containsExactly(true, 8_900L);
+        assertThat(handed[0]).isEqualTo(8_890);
+
+        db.execute("UPDATE ledger SET entry = replace(entry, 'fares-', 'depots-') WHERE seq IN (5000, 8500)");
+        handed[0] = 0;
+        LedgerVerification v = store.read(r -> r.verifyLedgerFromReading(101, q, (seq, at, kind, f) -> handed[0]++));
+        assertThat(v.firstBrokenSeq()).isEqualTo(5000);
+        assertThat(v).isEqualTo(verifyFrom(101));
+        assertThat(handed[0]).isEqualTo(8_890);
+    }
+
+    @Test
     void theFirstEntryAtATimeAndTheKindsAreFoundByIndex() {
         history();
         assertThat(firstAt(minute(10))).isEqualTo(9);

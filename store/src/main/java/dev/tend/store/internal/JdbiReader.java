@@ -5,6 +5,7 @@ import dev.tend.store.ApprovalRow;
 import dev.tend.store.ExclusionRow;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerEntry;
+import dev.tend.store.LedgerEntryRead;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.LedgerPeriodQuery;
 import dev.tend.store.LedgerVerification;
@@ -276,40 +277,15 @@ public class JdbiReader implements StoreReader {
         Objects.requireNonNull(query, "query");
         Objects.requireNonNull(consumer, "consumer");
         beforeRead();
-        long since = Times.toNanos(query.since(), "LedgerPeriodQuery.since");
-        long until = Times.toNanos(query.until(), "LedgerPeriodQuery.until");
-        // before the period: the carried kinds, and every entry of a run still open at since (few, in seq order)
-        String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
-                + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
-        String before = "SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
-        if (!query.carriedKinds().isEmpty()) {
-            before = before + " UNION SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE kind IN (<carried>) AND at_ns < :since";
-        }
-        Query carriedQuery = handle.createQuery(before + " ORDER BY seq")
-                .bind("since", since)
-                .bindList("opening", List.copyOf(query.openingKinds()))
-                .bindList("closing", List.copyOf(query.closingKinds()));
-        if (!query.carriedKinds().isEmpty()) carriedQuery.bindList("carried", List.copyOf(query.carriedKinds()));
-        List<LedgerEntry> carried = carriedQuery.map((rs, ctx) -> Rows.ledger(rs)).list();
-        // the period: its seq range through the time index, then that range in seq order (no sort)
-        long[] range = handle.createQuery("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= :since AND at_ns < :until")
-                .bind("since", since).bind("until", until)
-                .map((rs, ctx) -> new long[]{rs.getLong(1), rs.getLong(2)}).one();
-        int next = 0;
-        if (range[1] > 0) {
-            try (var rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :lo AND seq <= :hi"
-                            + " AND at_ns >= :since AND at_ns < :until ORDER BY seq")
-                    .bind("lo", range[0]).bind("hi", range[1]).bind("since", since).bind("until", until)
-                    .setFetchSize(FETCH_SIZE)
-                    .map((rs, ctx) -> Rows.ledger(rs)).iterator()) {
-                while (rows.hasNext()) {
-                    LedgerEntry e = rows.next();
-                    while (next < carried.size() && carried.get(next).seq() < e.seq()) consumer.accept(carried.get(next++));
-                    consumer.accept(e);
-                }
-            }
-        }
-        while (next < carried.size()) consumer.accept(carried.get(next++));
+        new LedgerPeriodRead(handle, query).forEach(consumer);
+    }
+
+    @Override
+    public LedgerVerification verifyLedgerFromReading(long fromSeq, LedgerPeriodQuery query, LedgerEntryRead consumer) {
+        Objects.requireNonNull(query, "query");
+        Objects.requireNonNull(consumer, "consumer");
+        beforeRead();
+        return new LedgerPeriodRead(handle, query).verifyReading(fromSeq, consumer);
     }
 
     @Override

@@ -9,27 +9,47 @@ import dev.tend.store.LedgerVerification;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.result.ResultIterator;
 
+import java.nio.charset.StandardCharsets;
+import java.security.MessageDigest;
+import java.security.NoSuchAlgorithmException;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.CompletionException;
 import java.util.stream.IntStream;
 
 /**
- * Walks the ledger in seq order, one row at a time, and stops at the first entry that does
- * not verify. Rows are read as raw columns, not as {@link LedgerEntry}, because a tampered
- * row need not be a valid entry.
+ * Walks the ledger in seq order and names the first entry that does not verify. Rows are read
+ * as raw columns, not as {@link LedgerEntry}, because a tampered row need not be a valid entry.
+ * A walk may hand every row it reads, with its text parsed, to a {@link Sink} (the handover
+ * tallies the period it verifies in the same walk); it then reads on to the newest entry
+ * after a fault, so that the sink sees every row.
  */
 final class LedgerVerifier {
     private static final ObjectMapper JSON = new ObjectMapper();
     /** Rows read before their own checks are spread over the cores. */
     private static final int CHUNK = 4096;
+    private static final ThreadLocal<MessageDigest> SHA256 = ThreadLocal.withInitial(() -> {
+        try {
+            return MessageDigest.getInstance("SHA-256");
+        } catch (NoSuchAlgorithmException e) {
+            throw new IllegalStateException("every Java platform must provide SHA-256", e);
+        }
+    });
+    private static final byte[] HEX = "0123456789abcdef".getBytes(StandardCharsets.US_ASCII);
 
-    private record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, String entry,
-                       String prevHash, String hash) {
+    record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, String entry,
+               String prevHash, String hash) {
         String describe() {
             return "entry " + seq + " (" + kind + " at " + LedgerChain.formatAt(Times.fromNanos(atNs)) + ")";
         }
+    }
+
+    /** Receives every row a walk reads, in seq order, with its text parsed (null when not a JSON object). */
+    interface Sink {
+        void row(Raw row, JsonNode fields);
     }
 
     private final Handle handle;
@@ -37,6 +57,7 @@ final class LedgerVerifier {
     private long lastSeq;
     private String lastHash = LedgerEntry.GENESIS_HASH;
     private long first = 1;
+    private LedgerVerification broken;
 
     LedgerVerifier(Handle handle) {
         this.handle = handle;
@@ -48,6 +69,15 @@ final class LedgerVerifier {
 
     /** Checks the entries from {@code fromSeq} on; the entry before it only against its own text (see StoreReader). */
     LedgerVerification verifyFrom(long fromSeq) {
+        return verifyFrom(fromSeq, null);
+    }
+
+    /**
+     * Checks the entries from {@code fromSeq} on and, when {@code sink} is not null, hands it
+     * every row read. Reading the next chunk of rows overlaps the checks of the one before
+     * (on the other cores); the chain is then walked in order on this thread.
+     */
+    LedgerVerification verifyFrom(long fromSeq, Sink sink) {
         if (fromSeq > 1) {
             Optional<Raw> before = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq = :seq")
                     .bind("seq", fromSeq - 1)
@@ -55,14 +85,15 @@ final class LedgerVerifier {
                     .findOne();
             if (before.isPresent()) {
                 Raw b = before.get();
-                if (!LedgerChain.hash(b.prevHash(), b.entry()).equals(b.hash())) {
-                    return broken(b.seq(), b.describe() + " was changed after it was written: its hash does not match its content");
+                if (!hashMatches(b)) {
+                    broken = broken(b.seq(), b.describe() + " was changed after it was written: its hash does not match its content");
                 }
                 lastSeq = b.seq();
                 lastHash = b.hash();
             } else {
-                return broken(fromSeq - 1, "entry " + (fromSeq - 1) + " is missing; it was deleted after it was written");
+                broken = broken(fromSeq - 1, "entry " + (fromSeq - 1) + " is missing; it was deleted after it was written");
             }
+            if (broken != null && sink == null) return broken;
         }
         first = Math.max(1, fromSeq);
         try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :from ORDER BY seq")
@@ -71,62 +102,122 @@ final class LedgerVerifier {
                 .map((rs, ctx) -> raw(rs))
                 .iterator()) {
             List<Raw> chunk = new ArrayList<>(CHUNK);
+            CompletableFuture<Content[]> checking = null;
+            List<Raw> checked = null;
             while (rows.hasNext()) {
                 chunk.add(rows.next());
                 if (chunk.size() == CHUNK || !rows.hasNext()) {
-                    LedgerVerification broken = checkChunk(chunk);
-                    if (broken != null) return broken;
-                    chunk.clear();
+                    if (checking != null && !walk(checked, join(checking), sink)) return broken;
+                    checked = chunk;
+                    List<Raw> rowsToCheck = chunk;
+                    checking = CompletableFuture.supplyAsync(() -> contents(rowsToCheck));
+                    chunk = new ArrayList<>(CHUNK);
                 }
             }
+            if (checking != null && !walk(checked, join(checking), sink)) return broken;
         }
-        return checkHead();
+        return broken != null ? broken : checkHead();
+    }
+
+    /** The checks of a chunk; what failed in them is thrown as it was. */
+    private static Content[] join(CompletableFuture<Content[]> checking) {
+        try {
+            return checking.join();
+        } catch (CompletionException e) {
+            if (e.getCause() instanceof RuntimeException r) throw r;
+            if (e.getCause() instanceof Error err) throw err;
+            throw e;
+        }
+    }
+
+    private static Content[] contents(List<Raw> chunk) {
+        Content[] content = new Content[chunk.size()];
+        IntStream.range(0, content.length).parallel().forEach(i -> content[i] = content(chunk.get(i)));
+        return content;
     }
 
     /**
-     * Checks a run of rows in seq order. What each row says about itself (its hash, its text,
-     * its columns) does not depend on the others and is checked on all cores; the seq order and
-     * the chain links are then walked in order, so the first entry at fault and the sentence
-     * about it are those of a walk one entry at a time.
+     * Walks a run of checked rows in seq order: what each row says about itself was checked on
+     * all cores; the seq order and the chain links are walked here, so the first entry at fault
+     * and the sentence about it are those of a walk one entry at a time. Returns false when the
+     * walk can stop (a fault, and no sink to read on for).
      */
-    private LedgerVerification checkChunk(List<Raw> chunk) {
-        Content[] content = new Content[chunk.size()];
-        IntStream.range(0, content.length).parallel().forEach(i -> content[i] = content(chunk.get(i)));
+    private boolean walk(List<Raw> chunk, Content[] content, Sink sink) {
         for (int i = 0; i < content.length; i++) {
-            LedgerVerification broken = check(chunk.get(i), content[i]);
-            if (broken != null) return broken;
-            entries++;
-            lastSeq = chunk.get(i).seq();
-            lastHash = chunk.get(i).hash();
+            Raw row = chunk.get(i);
+            if (broken == null) {
+                broken = check(row, content[i]);
+                if (broken == null) {
+                    entries++;
+                    lastSeq = row.seq();
+                    lastHash = row.hash();
+                } else if (sink == null) {
+                    return false;
+                }
+            }
+            if (sink != null) sink.row(row, content[i].fields());
         }
-        return null;
+        return true;
     }
 
-    /** What a row says about itself: the first fault before the chain link is looked at, and after it. */
-    private record Content(String before, String after) {
+    /** What a row says about itself: the first fault before the chain link is looked at, and after it; its parsed text. */
+    private record Content(String before, String after, JsonNode fields) {
     }
 
     private static Content content(Raw row) {
-        if (!LedgerChain.hash(row.prevHash(), row.entry()).equals(row.hash())) {
-            return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null);
-        }
+        boolean hashed = hashMatches(row);
         JsonNode text;
+        boolean json = true;
         try {
             text = JSON.readTree(row.entry());
         } catch (JsonProcessingException e) {
-            return new Content(row.describe() + " was changed after it was written: its text is not JSON", null);
+            text = null;
+            json = false;
         }
-        if (text == null || !text.isObject() || !CanonicalJson.serialize(text).equals(row.entry())) {
-            return new Content(row.describe() + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null);
+        JsonNode fields = text != null && text.isObject() ? text : null;
+        if (!hashed) {
+            return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null, fields);
         }
-        JsonNode seq = text.get("seq");
+        if (!json) {
+            return new Content(row.describe() + " was changed after it was written: its text is not JSON", null, null);
+        }
+        if (fields == null || !CanonicalJson.serialize(fields).equals(row.entry())) {
+            return new Content(row.describe() + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null,
+                    fields);
+        }
+        JsonNode seq = fields.get("seq");
         if (seq == null || !seq.isIntegralNumber() || seq.longValue() != row.seq()) {
             return new Content(row.describe() + " is out of place: its text says it is entry " + seq
-                    + "; entries were reordered or renumbered after they were written", null);
+                    + "; entries were reordered or renumbered after they were written", null, fields);
         }
-        String column = disagreeingColumn(row, text);
+        String column = disagreeingColumn(row, fields);
         return new Content(null, column == null ? null
-                : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text");
+                : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text", fields);
+    }
+
+    /** The text of an entry parsed, or null when it is not a JSON object. */
+    static JsonNode fields(String entry) {
+        try {
+            JsonNode text = JSON.readTree(entry);
+            return text != null && text.isObject() ? text : null;
+        } catch (JsonProcessingException e) {
+            return null;
+        }
+    }
+
+    /** SHA-256 of prev_hash and text, as lowercase hex, equals the row's hash ({@link LedgerChain#hash}, without the strings). */
+    private static boolean hashMatches(Raw row) {
+        MessageDigest md = SHA256.get();
+        md.reset();
+        md.update(row.prevHash().getBytes(StandardCharsets.UTF_8));
+        md.update(row.entry().getBytes(StandardCharsets.UTF_8));
+        byte[] d = md.digest();
+        String hash = row.hash();
+        if (hash == null || hash.length() != 2 * d.length) return false;
+        for (int i = 0; i < d.length; i++) {
+            if (hash.charAt(2 * i) != HEX[(d[i] >> 4) & 0xf] || hash.charAt(2 * i + 1) != HEX[d[i] & 0xf]) return false;
+        }
+        return true;
     }
 
     private static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
