@@ -6,7 +6,6 @@ import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.executor.Executor;
 import dev.tend.engine.Input;
-import dev.tend.engine.LedgerKind;
 import dev.tend.shared.Id;
 import dev.tend.shared.TendException;
 import dev.tend.shared.time.Timers;
@@ -37,8 +36,8 @@ public final class Orchestrator {
      */
     private static final long IDLE_NANOS = 20_000_000;
 
-    /** Inputs between two snapshots unless told otherwise. */
-    public static final int DEFAULT_SNAPSHOT_EVERY = 10_000;
+    /** Inputs between two snapshots unless told otherwise (a snapshot writes the whole state; see DEVELOPERS.md). */
+    public static final int DEFAULT_SNAPSHOT_EVERY = 50_000;
 
     private final Store store;
     private final int snapshotEvery;
@@ -62,6 +61,7 @@ public final class Orchestrator {
     private volatile CheckpointWriter checkpoints;
     /** Callers waiting for their input's commit, and receipts to append with an input (see {@link #submitEventAndWait(Input, LedgerDraft)}). */
     private final Waiters waiters = new Waiters();
+    private final CommitWriter writer;
 
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock) {
@@ -88,6 +88,7 @@ public final class Orchestrator {
         this.snapshots = new SnapshotKeeper(store, setup);
         this.effects = new EffectRunner(executors, timers, notifier, inbox);
         this.clock = clock;
+        this.writer = new CommitWriter(store, waiters);
     }
 
     /** The engine; read it only from the driver thread or after {@link #runUntil} returned. */
@@ -290,7 +291,6 @@ public final class Orchestrator {
     private void process(List<Input> batch, java.util.BitSet queued) {
         List<InputRow> rows = new ArrayList<>(batch.size());
         List<Effect> all = new ArrayList<>();
-        List<LedgerDraft> ledger = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
         try {
@@ -306,16 +306,7 @@ public final class Orchestrator {
             }
             long done = sourceDone + queued.cardinality();
             if (source != null && done > sourceDone) rows.add(SourceProgress.row(source, done, times.get(times.size() - 1)));
-            Map<StreamPosition, Long> reached = waiters.reached(batch);
-            store.useTransaction(tx -> {
-                tx.appendInputs(rows);
-                for (int i = 0; i < perInput.size(); i++) {
-                    Projections.apply(tx, times.get(i), perInput.get(i), ledger);
-                    if (waiters.hasReceipts()) waiters.receiptInto(batch.get(i), times.get(i), ledger);
-                }
-                tx.appendLedger(ledger);
-                reached.forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
-            });
+            writer.batch(batch, rows, times, perInput, waiters.reached(batch));
             sourceDone = done;
             sinceSnapshot += batch.size();
         } catch (RuntimeException e) {
@@ -349,15 +340,7 @@ public final class Orchestrator {
             try {
                 rows.add(0, InputCodec.encode(in, now));
                 fx = engine.handle(in, now);
-                List<LedgerDraft> ledger = new ArrayList<>();
-                StreamPosition at = waiters.position(in);
-                store.useTransaction(tx -> {
-                    tx.appendInputs(rows);
-                    Projections.apply(tx, now, fx, ledger);
-                    waiters.receiptInto(in, now, ledger);
-                    tx.appendLedger(ledger);
-                    if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
-                });
+                writer.one(in, rows, now, fx);
             } catch (RuntimeException e) {
                 if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
                 rebuild();
@@ -379,18 +362,8 @@ public final class Orchestrator {
 
     private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
         String reason = InputRefusal.reason(cause);
-        StreamPosition at = waiters.position(in);
         try {
-            store.useTransaction(tx -> {
-                if (ofSource) tx.appendInputs(List.of(SourceProgress.row(source, sourceDone + 1, now)));
-                List<LedgerDraft> entries = new ArrayList<>(2);
-                Map<String, Object> fields = InputRefusal.fields(in, reason);
-                if (at != null) fields.put("from", at.describe());
-                entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(fields)));
-                waiters.receiptInto(in, now, entries);
-                tx.appendLedger(entries);
-                if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
-            });
+            writer.refusal(in, now, reason, ofSource ? SourceProgress.row(source, sourceDone + 1, now) : null);
         } catch (RuntimeException e) {
             stopOn(rest, e);
         }

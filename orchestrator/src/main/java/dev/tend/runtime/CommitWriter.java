@@ -1,0 +1,76 @@
+package dev.tend.runtime;
+
+import dev.tend.engine.Effect;
+import dev.tend.engine.Input;
+import dev.tend.engine.LedgerKind;
+import dev.tend.store.InputRow;
+import dev.tend.store.LedgerDraft;
+import dev.tend.store.Store;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * What one commit of the driver writes, in one transaction: the journal rows of its inputs,
+ * the projections and ledger entries of their effects, the receipts of inputs that carry one
+ * and the stream positions reached. The driver decides; this writes, so that a batch, an
+ * input retried on its own and a refused input are written the same way.
+ */
+final class CommitWriter {
+    private final Store store;
+    private final Waiters waiters;
+
+    CommitWriter(Store store, Waiters waiters) {
+        this.store = store;
+        this.waiters = waiters;
+    }
+
+    /** A whole batch: input {@code i} was decided at {@code times[i]} with {@code perInput[i]}. */
+    void batch(List<Input> batch, List<InputRow> rows, List<Instant> times, List<List<Effect>> perInput,
+               Map<StreamPosition, Long> reached) {
+        List<LedgerDraft> ledger = new ArrayList<>();
+        store.useTransaction(tx -> {
+            tx.appendInputs(rows);
+            for (int i = 0; i < perInput.size(); i++) {
+                Projections.apply(tx, times.get(i), perInput.get(i), ledger);
+                if (waiters.hasReceipts()) waiters.receiptInto(batch.get(i), times.get(i), ledger);
+            }
+            tx.appendLedger(ledger);
+            reached.forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
+        });
+    }
+
+    /** One input decided at {@code now} with {@code fx}, on its own. */
+    void one(Input in, List<InputRow> rows, Instant now, List<Effect> fx) {
+        List<LedgerDraft> ledger = new ArrayList<>();
+        StreamPosition at = waiters.position(in);
+        store.useTransaction(tx -> {
+            tx.appendInputs(rows);
+            Projections.apply(tx, now, fx, ledger);
+            waiters.receiptInto(in, now, ledger);
+            tx.appendLedger(ledger);
+            if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
+        });
+    }
+
+    /**
+     * An input refused for {@code reason}: its {@code input-refused} entry (naming the stream
+     * position it came from, if any), its receipt, the position passed and {@code progress}
+     * (the source's progress row; null when the input came from no source).
+     */
+    void refusal(Input in, Instant now, String reason, InputRow progress) {
+        StreamPosition at = waiters.position(in);
+        store.useTransaction(tx -> {
+            if (progress != null) tx.appendInputs(List.of(progress));
+            List<LedgerDraft> entries = new ArrayList<>(2);
+            Map<String, Object> fields = InputRefusal.fields(in, reason);
+            if (at != null) fields.put("from", at.describe());
+            entries.add(new LedgerDraft(now, LedgerKind.INPUT_REFUSED.wire(), LedgerKind.INPUT_REFUSED.check(fields)));
+            waiters.receiptInto(in, now, entries);
+            tx.appendLedger(entries);
+            if (at != null) tx.putStreamOffset(at.topic(), at.partition(), at.offset() + 1);
+        });
+    }
+}
