@@ -31,6 +31,12 @@ public final class FleetHealthView {
     private static final int CHANGE_HISTORY = 32;
 
     private Fleet topology;
+    /**
+     * Raised at every change of {@link #topology}: what a slot's remembered answer of
+     * {@link #isInTopology} is checked against (a number, not the fleet itself, so that no slot
+     * keeps an old topology alive: a fleet of 25,000 clusters is megabytes).
+     */
+    private long topologyVersion;
     /** One mutable slot per signal: a single map lookup per event. */
     private final Map<SignalKey, SignalSlot> signals = new HashMap<>(1 << 16);
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
@@ -102,6 +108,7 @@ public final class FleetHealthView {
             cluster = cluster.withNode(node);
         }
         topology = topology.withCluster(cluster);
+        topologyVersion++;
         return ApplyOutcome.TOPOLOGY;
     }
 
@@ -151,9 +158,9 @@ public final class FleetHealthView {
     public boolean isInTopology(SignalKey key) {
         SignalSlot s = signals.get(key);
         if (s == null) return topology.contains(key.cluster(), key.node());
-        if (s.checkedIn != topology) {
+        if (s.checkedVersion != topologyVersion) {
             s.inTopology = topology.contains(key.cluster(), key.node());
-            s.checkedIn = topology;
+            s.checkedVersion = topologyVersion;
         }
         return s.inTopology;
     }

@@ -17,8 +17,8 @@ final class SignalSlot {
     SignalState state;
     Instant since;
     Instant lastAt;
-    /** The topology {@link #inTopology} was answered for (topologies are immutable: a new one is a new instance). */
-    Fleet checkedIn;
+    /** The version of the view's topology {@link #inTopology} was answered for; -1: never asked. */
+    long checkedVersion = -1;
     boolean inTopology;
     private Instant[] ring;
     private int head;

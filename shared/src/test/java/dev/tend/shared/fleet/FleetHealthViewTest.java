@@ -135,6 +135,23 @@ class FleetHealthViewTest {
     }
 
     @Test
+    void aSignalsRememberedAnswerKeepsNoOldTopologyAlive() throws InterruptedException {
+        // a replay of a large fleet has thousands of topology changes; each old fleet must be collectable
+        FleetHealthView view = new FleetHealthView(fleet());
+        SignalKey n1 = new SignalKey(FARES, Id.of("n1"), Id.of("replica-lag"));
+        view.apply(t(0, "fares-3", "n1", "replica-lag", BREACH));
+        java.lang.ref.WeakReference<Fleet> before = new java.lang.ref.WeakReference<>(view.topology());
+        assertThat(view.isInTopology(n1)).isTrue();
+        view.apply(new TopologyEvent(T0.plusSeconds(60), FARES, Id.of("n4"), TopologyChange.JOINED, Map.of(), Map.of()));
+        // n1's slot is not asked again: what it remembers must not hold the old fleet
+        for (int i = 0; i < 20 && before.get() != null; i++) {
+            System.gc();
+            Thread.sleep(10);
+        }
+        assertThat(before.get()).as("the topology before the change, once replaced").isNull();
+    }
+
+    @Test
     void aSignalIsInTheTopologyWhileItsNodeIs() {
         FleetHealthView view = new FleetHealthView(fleet());
         SignalKey n4 = new SignalKey(FARES, Id.of("n4"), Id.of("replica-lag"));
