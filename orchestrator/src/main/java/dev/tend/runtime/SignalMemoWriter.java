@@ -32,7 +32,7 @@ final class SignalMemoWriter extends JsonSerializer<HealthMemo.Signal> {
 
     @Override
     public void serialize(HealthMemo.Signal s, JsonGenerator g, SerializerProvider p) throws IOException {
-        char[] text = new char[InstantChars.MAX];
+        char[] text = new char[InstantText.MAX];
         g.writeStartObject();
         SignalKey k = s.key();
         g.writeFieldName(KEY);
@@ -67,7 +67,7 @@ final class SignalMemoWriter extends JsonSerializer<HealthMemo.Signal> {
             g.writeNull();
             return;
         }
-        int n = InstantChars.write(t, text);
+        int n = InstantText.write(t, text);
         if (n < 0) g.writeString(InstantText.of(t));
         else g.writeString(text, 0, n);
     }

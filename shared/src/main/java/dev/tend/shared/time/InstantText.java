@@ -1,7 +1,6 @@
 package dev.tend.shared.time;
 
 import java.time.Instant;
-import java.time.LocalDate;
 
 /**
  * The formats tend writes instants in, one method each (all UTC, with {@code Z}):
@@ -20,21 +19,46 @@ public final class InstantText {
     private InstantText() {
     }
 
+    /** The longest text {@link #write} writes: {@code 9999-12-31T23:59:59.999999999Z}. */
+    public static final int MAX = 30;
+
     /** {@code t.toString()}, written without its formatter (the engine writes several per input); years outside 0000 to 9999 go to {@code toString()}. */
     public static String of(Instant t) {
+        char[] out = new char[MAX];
+        int n = write(t, out);
+        return n < 0 ? t.toString() : new String(out, 0, n);
+    }
+
+    /** {@code t} to the second: the fraction is dropped (truncated, not rounded). */
+    public static String toSecond(Instant t) {
+        return of(Instant.ofEpochSecond(t.getEpochSecond()));
+    }
+
+    /**
+     * Writes the text of {@code t} into {@code out} (at least {@link #MAX} long) and returns its
+     * length, or -1 for a year outside 0000 to 9999 (which {@link #of} leaves to {@code toString()}).
+     */
+    public static int write(Instant t, char[] out) {
         long sec = t.getEpochSecond();
         long day = Math.floorDiv(sec, 86_400L);
-        LocalDate date = LocalDate.ofEpochDay(day);
-        int year = date.getYear();
-        if (year < 0 || year > 9999) return t.toString();
         int s = (int) (sec - day * 86_400L);
-        int nano = t.getNano();
-        char[] out = new char[30];
-        put(out, 0, year, 4);
+        // days since 1970-01-01 to a proleptic Gregorian date: H. Hinnant, "chrono-Compatible
+        // Low-Level Date Algorithms", days_from_civil's inverse civil_from_days (public domain)
+        long z = day + 719_468;
+        long era = Math.floorDiv(z, 146_097);
+        long doe = z - era * 146_097;
+        long yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+        long doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+        long mp = (5 * doy + 2) / 153;
+        int dayOfMonth = (int) (doy - (153 * mp + 2) / 5 + 1);
+        int month = (int) (mp < 10 ? mp + 3 : mp - 9);
+        long year = yoe + era * 400 + (month <= 2 ? 1 : 0);
+        if (year < 0 || year > 9999) return -1;
+        put(out, 0, (int) year, 4);
         out[4] = '-';
-        put(out, 5, date.getMonthValue(), 2);
+        put(out, 5, month, 2);
         out[7] = '-';
-        put(out, 8, date.getDayOfMonth(), 2);
+        put(out, 8, dayOfMonth, 2);
         out[10] = 'T';
         put(out, 11, s / 3600, 2);
         out[13] = ':';
@@ -42,6 +66,7 @@ public final class InstantText {
         out[16] = ':';
         put(out, 17, s % 60, 2);
         int n = 19;
+        int nano = t.getNano();
         if (nano > 0) {
             out[n++] = '.';
             if (nano % 1_000_000 == 0) {
@@ -56,12 +81,7 @@ public final class InstantText {
             }
         }
         out[n++] = 'Z';
-        return new String(out, 0, n);
-    }
-
-    /** {@code t} to the second: the fraction is dropped (truncated, not rounded). */
-    public static String toSecond(Instant t) {
-        return of(Instant.ofEpochSecond(t.getEpochSecond()));
+        return n;
     }
 
     private static void put(char[] out, int at, int value, int digits) {
