@@ -8,14 +8,22 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 
 /** Collects the effects of handling one input, in order. Not thread-safe; one per input. */
 public final class Effects {
     private final List<Effect> out = new ArrayList<>();
     private final Instant now;
+    private final Set<LedgerKind> kept;
 
     public Effects(Instant now) {
+        this(now, null);
+    }
+
+    /** Effects that carry ledger entries of the kinds {@code kept} only (null: of every kind). */
+    Effects(Instant now, Set<LedgerKind> kept) {
         this.now = now;
+        this.kept = kept;
     }
 
     public Instant now() {
@@ -28,6 +36,7 @@ public final class Effects {
 
     /** A ledger entry; {@code kv} alternates keys and values; null values are left out. */
     public void ledger(LedgerKind kind, Object... kv) {
+        if (kept != null && !kept.contains(kind)) return;
         out.add(new Effect.Ledger(kind, fields(kv)));
     }
 

@@ -128,7 +128,7 @@ public final class Replayer {
         private final Recording recording;
         private final ReplayListener listener;
         private final RecordingHeader header;
-        private final Engine engine = new Engine(setup());
+        private final Engine engine = new Engine(setup(), ReportCollector.LEDGER_READ);
         private final Agenda agenda = new Agenda();
         private final SimulatedFleet responses = new SimulatedFleet(seed);
         private final FleetModel model = new FleetModel();

@@ -45,6 +45,9 @@ public final class FleetHealthView {
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
+    /** Problems of clusters healthy again, empty, to be used again rather than made anew. */
+    private final java.util.ArrayDeque<Problems> spare = new java.util.ArrayDeque<>();
+    private static final int MAX_SPARE = 64;
     private long lateEvents;
     private long appliedEvents;
 
@@ -130,7 +133,7 @@ public final class FleetHealthView {
     private void count(SignalKey key, int delta) {
         Problems p = problems.get(key.cluster());
         if (p == null) {
-            p = new Problems();
+            p = spare.isEmpty() ? new Problems() : spare.pop();
             problems.put(key.cluster(), p);
         }
         p.total += delta;
@@ -141,7 +144,11 @@ public final class FleetHealthView {
         } else if (p.perNode.merge(key.node(), delta, Integer::sum) == 0) {
             p.perNode.remove(key.node());
         }
-        if (p.total == 0) problems.remove(key.cluster());
+        if (p.total == 0) {
+            // its maps are empty again: kept for the next cluster that turns unhealthy (clusters come and go all day)
+            problems.remove(key.cluster());
+            if (spare.size() < MAX_SPARE) spare.push(p);
+        }
     }
 
     /**
