@@ -29,6 +29,7 @@ import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.FutureTask;
@@ -107,16 +108,14 @@ public final class ReplayCommand implements Callable<Integer> {
             });
             return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
-        // the second policy replays on its own thread at the same time (each replay is a fresh engine
-        // of its own: the reports are those of one after the other); progress and bad lines are the first's
-        FutureTask<ReplayReport> other = new FutureTask<>(() -> Replayer.of(b, topology, seed).replay(rec));
-        Thread thread = new Thread(other, "tend-replay-against");
-        thread.setDaemon(true);
-        thread.start();
-        ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName() + " with " + policy.playbooks.getFileName()
-                + " and " + against.getFileName(), err);
+        // the second policy replays on its own thread at the same time, from the same reading of the file
+        // (each replay is a fresh engine of its own: the reports are those of one after the other);
+        // progress and bad lines are the first's
+        List<ReplayReport> both = replayBoth(a, b, topology, rec, "replaying " + recording.getFileName() + " with "
+                + policy.playbooks.getFileName() + " and " + against.getFileName(), err);
+        ReplayReport first = both.get(0);
         boolean skipped = first.recording().badLines() > 0;
-        ReplayReport second = joined(other, "the replay of --against");
+        ReplayReport second = both.get(1);
         ReportComparison c = ReportComparison.of(policy.playbooks.toString(), first, against.toString(), second);
         write(switch (format) {
             case json -> ComparisonJson.toJson(c);
@@ -131,6 +130,17 @@ public final class ReplayCommand implements Callable<Integer> {
         Progress progress = Progress.onStderr(task, Files.size(recording), err);
         try (StopSummary onSignal = new StopSummary(err, () -> progress.summary() + "; no report was written")) {
             return Replayer.of(set, topology, seed).replay(rec, new ReplayProgress(err, progress));
+        } finally {
+            progress.close();
+        }
+    }
+
+    /** Two replays at once ({@link Replayer#replayWith}), the first's progress on standard error. */
+    private List<ReplayReport> replayBoth(PlaybookSet a, PlaybookSet b, Fleet topology, Recording rec, String task, PrintWriter err)
+            throws IOException {
+        Progress progress = Progress.onStderr(task, Files.size(recording), err);
+        try (StopSummary onSignal = new StopSummary(err, () -> progress.summary() + "; no report was written")) {
+            return Replayer.of(a, topology, seed).replayWith(Replayer.of(b, topology, seed), rec, new ReplayProgress(err, progress));
         } finally {
             progress.close();
         }
