@@ -71,7 +71,6 @@ public final class IngestBenchmark {
             variants.put("  JVM defaults (C2, G1)", Map.of("TEND_INGEST_OPTS", ""));
             variants.put("  C1 only", Map.of("TEND_INGEST_OPTS", "-XX:TieredStopAtLevel=1"));
             variants.put("  serial collector only", Map.of("TEND_INGEST_OPTS", "-XX:+UseSerialGC"));
-            variants.put("  C1 only and the serial collector", Map.of("TEND_INGEST_OPTS", "-XX:TieredStopAtLevel=1 -XX:+UseSerialGC"));
         }
         Map<String, ColdReplayBenchmark.Timing> timings = new LinkedHashMap<>();
         int i = 0;
