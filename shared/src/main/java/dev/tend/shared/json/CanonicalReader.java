@@ -24,7 +24,8 @@ import java.nio.charset.StandardCharsets;
  * so null says "not known to be canonical", never "not canonical".
  *
  * <p>The tree is the one Jackson's {@code readTree} gives for the text (int nodes where the
- * number fits an int, long nodes otherwise). Stateless and thread-safe.
+ * number fits an int, long nodes otherwise), its objects' members kept in a {@link MemberArray}.
+ * Stateless and thread-safe.
  */
 public final class CanonicalReader {
     private static final JsonNodeFactory NODES = JsonNodeFactory.instance;
@@ -58,7 +59,8 @@ public final class CanonicalReader {
     private ObjectNode object() {
         at++; // '{'
         if (++depth > MAX_DEPTH) return null;
-        ObjectNode o = NODES.objectNode();
+        MemberArray members = new MemberArray();
+        ObjectNode o = new ObjectNode(NODES, members);
         if (text[at] == '}') {
             at++;
             depth--;
@@ -71,7 +73,7 @@ public final class CanonicalReader {
             if (name == null || (previous != null && previous.compareTo(name) >= 0) || text[at++] != ':') return null;
             JsonNode v = value();
             if (v == null) return null;
-            o.set(name, v);
+            members.append(name, v);
             previous = name;
             byte c = text[at++];
             if (c == '}') {

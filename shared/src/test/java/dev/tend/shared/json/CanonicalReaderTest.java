@@ -54,6 +54,25 @@ class CanonicalReaderTest {
     }
 
     @Test
+    void givesATreeThatChangesAsJacksonsDoes() throws Exception {
+        String text = "{\"a\":1,\"b\":\"x\",\"c\":[true],\"d\":null,\"e\":{\"f\":2}}";
+        ObjectNode read = CanonicalReader.readObject(text.getBytes(StandardCharsets.UTF_8));
+        ObjectNode jackson = (ObjectNode) MAPPER.readTree(text);
+        for (ObjectNode o : List.of(read, jackson)) {
+            o.remove("b");
+            o.put("a", 3);
+            o.put("z", "last");
+            o.fields().next().setValue(MAPPER.getNodeFactory().textNode("first"));
+            var it = o.fields();
+            while (it.hasNext()) if (it.next().getKey().equals("d")) it.remove();
+        }
+        assertThat(read.toString()).isEqualTo(jackson.toString()).isEqualTo("{\"a\":\"first\",\"c\":[true],\"e\":{\"f\":2},\"z\":\"last\"}");
+        assertThat(read).isEqualTo(jackson);
+        assertThat(read.hashCode()).isEqualTo(jackson.hashCode());
+        assertThat(read.deepCopy()).isEqualTo(jackson);
+    }
+
+    @Test
     void leavesDeepTextsToTheSlowWay() {
         String deep = "{\"a\":" + "[".repeat(100) + "]".repeat(100) + "}";
         assertThat(CanonicalReader.readObject(deep.getBytes(StandardCharsets.UTF_8))).isNull();

@@ -207,6 +207,12 @@ final class LedgerVerifier {
                 : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text", fields);
     }
 
+    /** The text of an entry (its bytes as stored) parsed, or null when it is not a JSON object. */
+    static JsonNode fields(byte[] entry) {
+        JsonNode read = CanonicalReader.readObject(entry);
+        return read != null || entry == null ? read : fields(new String(entry, StandardCharsets.UTF_8));
+    }
+
     /** The text of an entry parsed, or null when it is not a JSON object. */
     static JsonNode fields(String entry) {
         try {
@@ -233,7 +239,7 @@ final class LedgerVerifier {
         return true;
     }
 
-    private static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
+    static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
         return new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5), rs.getString(6),
                 rs.getBytes(7), rs.getString(8), rs.getString(9));
     }
