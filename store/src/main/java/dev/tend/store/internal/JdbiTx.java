@@ -117,7 +117,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     }
 
     private Heads claim() {
-        if (heads == null) heads = headCache.claim(handle);
+        if (heads == null) heads = headCache.claim(handle, statements);
         return heads;
     }
 
