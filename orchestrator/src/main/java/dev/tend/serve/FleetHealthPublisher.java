@@ -7,6 +7,7 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.Input;
 import dev.tend.runtime.CommitListener;
+import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 import dev.tend.shared.fleet.ClusterSpec;
 import dev.tend.shared.fleet.Fleet;
@@ -86,16 +87,21 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     public void committed(Engine engine, List<Input> inputs, List<Effect> effects) {
         Set<Id> touched = new HashSet<>();
         boolean rebuild = false;
-        boolean other = false;
-        for (Input in : inputs) {
-            if (in instanceof Input.Transition t) touched.add(t.transition().cluster());
-            else if (in instanceof Input.Topology) rebuild = true;
-            else if (in instanceof Input.Command) other = true;
-        }
+        boolean refigure = false;
         FleetHealthView view = engine.health();
+        for (Input in : inputs) {
+            if (in instanceof Input.Transition t) {
+                refigure = true; // the figures change (the event time) even when no entry does
+                if (mayHaveChanged(view, t.transition())) touched.add(t.transition().cluster());
+            } else if (in instanceof Input.Topology) {
+                rebuild = true;
+            } else if (in instanceof Input.Command) {
+                refigure = true;
+            }
+        }
         if (rebuild || view.topology() != topologySeen()) {
             publish(engine);
-        } else if (!touched.isEmpty() || other) {
+        } else if (refigure) {
             Map<Id, Unhealthy> found = new HashMap<>();
             for (Id cluster : touched) found.put(cluster, entry(view, cluster));
             Figures f = figures(engine);
@@ -116,6 +122,17 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
                 if (picture != null) picture = picture.withRuns(at, runs, brake);
             }
         }
+    }
+
+    /**
+     * Whether {@code t} may have changed its cluster's entry: a transition that changed its
+     * signal's state left the signal's {@code since} at its own time. One that repeated the
+     * state (most of a pipeline's traffic) or came late did not, and its cluster is not looked
+     * at again; when in doubt (the same instant, or no signal kept) it is.
+     */
+    private static boolean mayHaveChanged(FleetHealthView view, HealthTransition t) {
+        Optional<SignalStatus> now = view.status(t.key());
+        return now.isEmpty() || now.get().since().equals(t.at());
     }
 
     private Fleet topologySeen() {

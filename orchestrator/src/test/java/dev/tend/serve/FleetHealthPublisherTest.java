@@ -71,7 +71,10 @@ class FleetHealthPublisherTest {
                             java.util.Map.of("zone", "z-" + (char) ('a' + random.nextInt(3))), java.util.Map.of()));
                 } else {
                     SignalState state = SignalState.values()[random.nextInt(3)];
-                    in = new Input.Transition(HealthTransition.of(now, cluster, node, signals[random.nextInt(signals.length)], state));
+                    // now and then late, or at the instant of the one before: a cluster such a transition
+                    // names is looked at again only when it may have changed something
+                    Instant at = random.nextInt(8) == 0 ? now.minusSeconds(random.nextInt(3)) : now;
+                    in = new Input.Transition(HealthTransition.of(at, cluster, node, signals[random.nextInt(signals.length)], state));
                 }
                 batch.add(in);
                 effects.addAll(engine.handle(in, now));

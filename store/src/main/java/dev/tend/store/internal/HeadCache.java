@@ -23,6 +23,7 @@ import java.util.concurrent.atomic.AtomicReference;
 public final class HeadCache {
     private static final String READ_HEAD = "SELECT seq, hash FROM ledger_head WHERE id = 1";
     private static final String READ_INPUT_SEQ = "SELECT COALESCE(MAX(seq), 0) FROM input_journal";
+    private static final String DATA_VERSION = "PRAGMA data_version";
     private static final String LOCK_HEAD = READ_HEAD + " FOR UPDATE";
 
     private final Dialect dialect;
@@ -35,7 +36,7 @@ public final class HeadCache {
     }
 
     /** The tails to continue from, inside the transaction of {@code handle}. */
-    public Heads claim(Handle handle) {
+    public Heads claim(Handle handle, StatementCache statements) {
         if (dialect == Dialect.POSTGRESQL) {
             Heads ledger = handle.createQuery(LOCK_HEAD)
                     .map((rs, ctx) -> new Heads(0, rs.getLong(1), rs.getString(2), null, 0))
@@ -47,7 +48,7 @@ public final class HeadCache {
             return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
         }
         Connection connection = physical(handle.getConnection());
-        long dataVersion = handle.createQuery("PRAGMA data_version").mapTo(Long.class).one();
+        long dataVersion = dataVersion(handle, statements);
         Heads cached = committed.get();
         if (cached != null && cached.connection() == connection && cached.dataVersion() == dataVersion) {
             return cached;
@@ -57,6 +58,23 @@ public final class HeadCache {
                 .findOne()
                 .orElseThrow(this::missingHead);
         return ledger.withInputSeq(handle.createQuery(READ_INPUT_SEQ).mapTo(Long.class).one());
+    }
+
+    /**
+     * PRAGMA data_version on a statement kept prepared: it runs in every transaction, and
+     * through Jdbi it was parsed, prepared and mapped anew each time.
+     */
+    private long dataVersion(Handle handle, StatementCache statements) {
+        try {
+            java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), DATA_VERSION);
+            try (java.sql.ResultSet rs = ps.executeQuery()) {
+                if (!rs.next()) throw new StoreException(location, "PRAGMA data_version gave no row on the store at " + location);
+                return rs.getLong(1);
+            }
+        } catch (java.sql.SQLException e) {
+            throw new StoreException(location, "could not read PRAGMA data_version of the store at " + location + ": "
+                    + e.getMessage(), e);
+        }
     }
 
     /**
