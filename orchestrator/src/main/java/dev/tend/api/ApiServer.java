@@ -19,7 +19,6 @@ import io.javalin.security.RouteRole;
 import java.io.PrintWriter;
 import java.time.Clock;
 import java.util.List;
-import java.util.Locale;
 import java.util.Objects;
 import java.util.Set;
 import java.util.function.Supplier;
@@ -136,7 +135,7 @@ public final class ApiServer implements AutoCloseable {
                     : "this needs a bearer token: send the header Authorization: Bearer <token>");
         }
         // the scheme is case-insensitive (RFC 7235 section 2.1)
-        if (h.length() < 8 || !h.substring(0, 7).toLowerCase(Locale.ROOT).equals("bearer ")) {
+        if (h.length() < 8 || !h.regionMatches(true, 0, "bearer ", 0, 7)) {
             throw new UnauthenticatedException("the Authorization header must be 'Bearer <token>'");
         }
         return h.substring(7).strip();
