@@ -94,6 +94,10 @@ public final class ApiServer implements AutoCloseable {
                 });
                 r.beforeMatched(ctx -> authorize(ctx, parts.tokens(), failed));
                 ApiErrors.install(r, parts.log());
+                // first: Javalin looks a request's route up several times per request, trying the
+                // routes of its method in the order mounted, a regex match each, and this is the
+                // route a health pipeline calls for every transition (no other path overlaps it)
+                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 runs.mount(r);
                 new ApprovalRoutes(parts.store(), parts.gateway(), runs).mount(r);
                 new ExclusionRoutes(parts.store(), parts.gateway(), parts.clock()).mount(r);
@@ -103,7 +107,6 @@ public final class ApiServer implements AutoCloseable {
                 new HandoverRoutes(parts.store(), parts.clock()).mount(r);
                 new PlaybookRoutes(parts.playbooks()).mount(r);
                 new VocabularyRoutes().mount(r);
-                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 new HealthRoutes(parts.health(), parts.metrics()).mount(r);
             });
         });
