@@ -29,6 +29,7 @@ import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.FutureTask;
@@ -74,11 +75,28 @@ public final class ReplayCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         PrintWriter err = spec.commandLine().getErr();
         Recording rec = Recording.open(recording);
-        Fleet topology = fleet != null ? FleetFile.load(fleet) : rec.headerFleet().orElseThrow(() -> new InvalidInputException(
-                Problem.at(recording.toString(), 0, 0, "fleet", "the recording's header names no fleet file, and no --fleet"
-                        + " was given: pass --fleet FILE (for the bundled library: playbooks/library/fleet.yaml)")));
-        PlaybookSet a = policy(policy.playbooks);
-        PlaybookSet b = against == null ? null : policy(against);
+        // the fleet file loads on a second thread while the playbooks load here (a start-up users wait
+        // for at every replay); a fleet that cannot be read is still the first error reported
+        FutureTask<Fleet> fleetLoad = new FutureTask<>(() -> fleet != null ? FleetFile.load(fleet)
+                : rec.headerFleet().orElseThrow(() -> new InvalidInputException(Problem.at(recording.toString(), 0, 0, "fleet",
+                        "the recording's header names no fleet file, and no --fleet was given: pass --fleet FILE"
+                                + " (for the bundled library: playbooks/library/fleet.yaml)"))));
+        Thread loader = new Thread(fleetLoad, "tend-fleet-loader");
+        loader.setDaemon(true);
+        loader.start();
+        PlaybookSet mine = null;
+        PlaybookSet theirs = null;
+        RuntimeException policyFailure = null;
+        try {
+            mine = policy(policy.playbooks);
+            theirs = against == null ? null : policy(against);
+        } catch (RuntimeException e) {
+            policyFailure = e;
+        }
+        Fleet topology = joined(fleetLoad, "loading the fleet");
+        if (policyFailure != null) throw policyFailure;
+        PlaybookSet a = mine;
+        PlaybookSet b = theirs;
 
         if (b == null) {
             ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName(), err);
@@ -90,16 +108,14 @@ public final class ReplayCommand implements Callable<Integer> {
             });
             return skipped ? ExitCodes.FINDINGS : ExitCodes.OK;
         }
-        // the second policy replays on its own thread at the same time (each replay is a fresh engine
-        // of its own: the reports are those of one after the other); progress and bad lines are the first's
-        FutureTask<ReplayReport> other = new FutureTask<>(() -> Replayer.of(b, topology, seed).replay(rec));
-        Thread thread = new Thread(other, "tend-replay-against");
-        thread.setDaemon(true);
-        thread.start();
-        ReplayReport first = replay(a, topology, rec, "replaying " + recording.getFileName() + " with " + policy.playbooks.getFileName()
-                + " and " + against.getFileName(), err);
+        // the second policy replays on its own thread at the same time, from the same reading of the file
+        // (each replay is a fresh engine of its own: the reports are those of one after the other);
+        // progress and bad lines are the first's
+        List<ReplayReport> both = replayBoth(a, b, topology, rec, "replaying " + recording.getFileName() + " with "
+                + policy.playbooks.getFileName() + " and " + against.getFileName(), err);
+        ReplayReport first = both.get(0);
         boolean skipped = first.recording().badLines() > 0;
-        ReplayReport second = joined(other);
+        ReplayReport second = both.get(1);
         ReportComparison c = ReportComparison.of(policy.playbooks.toString(), first, against.toString(), second);
         write(switch (format) {
             case json -> ComparisonJson.toJson(c);
@@ -119,17 +135,28 @@ public final class ReplayCommand implements Callable<Integer> {
         }
     }
 
-    /** What the replay on the other thread gave; what it threw, thrown here. */
-    private static ReplayReport joined(FutureTask<ReplayReport> task) {
+    /** Two replays at once ({@link Replayer#replayWith}), the first's progress on standard error. */
+    private List<ReplayReport> replayBoth(PlaybookSet a, PlaybookSet b, Fleet topology, Recording rec, String task, PrintWriter err)
+            throws IOException {
+        Progress progress = Progress.onStderr(task, Files.size(recording), err);
+        try (StopSummary onSignal = new StopSummary(err, () -> progress.summary() + "; no report was written")) {
+            return Replayer.of(a, topology, seed).replayWith(Replayer.of(b, topology, seed), rec, new ReplayProgress(err, progress));
+        } finally {
+            progress.close();
+        }
+    }
+
+    /** What the task on the other thread gave; what it threw, thrown here. */
+    private static <T> T joined(FutureTask<T> task, String what) {
         try {
             return task.get();
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
-            throw new TendException("the replay of --against was interrupted", e);
+            throw new TendException(what + " was interrupted", e);
         } catch (ExecutionException e) {
             if (e.getCause() instanceof RuntimeException r) throw r;
             if (e.getCause() instanceof Error r) throw r;
-            throw new TendException("the replay of --against failed: " + e.getCause(), e.getCause());
+            throw new TendException(what + " failed: " + e.getCause(), e.getCause());
         }
     }
 

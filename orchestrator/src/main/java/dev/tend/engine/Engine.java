@@ -24,6 +24,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.Set;
 import java.util.TreeMap;
 
 /**
@@ -50,12 +51,35 @@ public final class Engine implements RunHost {
     final Map<String, Instant> timers = new TreeMap<>();
     long runSeq;
     long inputs;
+    /** The ledger kinds this engine's effects carry; null for every kind. */
+    private final Set<LedgerKind> ledgered;
 
     public Engine(EngineSetup setup) {
-        this(setup, new FleetHealthView(setup.fleet()));
+        this(setup, new FleetHealthView(setup.fleet()), null);
+    }
+
+    /**
+     * An engine that decides exactly as {@link #Engine(EngineSetup)} does, but whose effects carry
+     * ledger entries of the kinds {@code ledgered} only: for a caller that keeps no ledger and reads
+     * a few kinds (a replay reads verdicts and approval requests), so that the entries of every
+     * other kind are not built for nothing. No decision reads a ledger entry.
+     */
+    public Engine(EngineSetup setup, Set<LedgerKind> ledgered) {
+        this(setup, new FleetHealthView(setup.fleet()), java.util.Objects.requireNonNull(ledgered, "ledgered"));
     }
 
     Engine(EngineSetup setup, FleetHealthView view) {
+        this(setup, view, null);
+    }
+
+    private Engine(EngineSetup setup, FleetHealthView view, Set<LedgerKind> ledgered) {
+        if (ledgered != null) {
+            Set<LedgerKind> kinds = java.util.EnumSet.noneOf(LedgerKind.class);
+            kinds.addAll(ledgered);
+            this.ledgered = kinds;
+        } else {
+            this.ledgered = null;
+        }
         this.setup = setup;
         this.ctx = new EngineContext(view, setup.config(), new FleetBrake(setup.brake(), setup.config().paging().brakeGather()));
         Host host = new Host();
@@ -69,7 +93,7 @@ public final class Engine implements RunHost {
     public List<Effect> handle(Input in, Instant now) {
         if (now.isAfter(ctx.now)) ctx.now = now;
         inputs++;
-        Effects fx = new Effects(ctx.now);
+        Effects fx = new Effects(ctx.now, ledgered);
         if (in instanceof Input.Transition t) onTransition(t.transition(), fx);
         else if (in instanceof Input.Topology t) {
             if (ctx.health.apply(t.event()) != ApplyOutcome.LATE) {

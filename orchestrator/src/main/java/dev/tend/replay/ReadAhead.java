@@ -60,51 +60,99 @@ final class ReadAhead {
      * engine's fleet and playbooks finds them by identity.
      */
     static ReadSummary read(Recording recording, Recording.Sink sink, Collection<Id> known) {
-        BlockingQueue<Batch> queue = new ArrayBlockingQueue<>(BATCHES_AHEAD);
-        Reader reader = new Reader(recording, queue);
+        return start(recording, known, 1).take(0, sink);
+    }
+
+    /**
+     * Starts reading {@code recording} on a second thread for {@code consumers} replays, each of
+     * which calls {@link Reading#take} with its own number, on its own thread: the file is read
+     * and parsed once, and every consumer receives every event (the same instances, which no one
+     * changes), as {@link #read} would give it.
+     */
+    static Reading start(Recording recording, Collection<Id> known, int consumers) {
+        Reader reader = new Reader(recording, consumers);
         for (Id id : known) reader.ids.putIfAbsent(id.value(), id);
         Thread thread = new Thread(reader, "tend-replay-reader");
         thread.setDaemon(true);
         thread.start();
-        boolean done = false;
-        try {
-            while (true) {
-                Batch b = queue.take();
-                for (int i = 0; i < b.size; i++) sink.event(b.events[i], b.lines[i]);
-                for (Problem p : b.problems) sink.problem(p);
-                if (b.bytesRead >= 0) sink.progress(b.bytesRead);
-                if (b.failure != null) {
-                    done = true;
-                    if (b.failure instanceof RuntimeException e) throw e;
-                    if (b.failure instanceof Error e) throw e;
-                    throw new TendException("reading " + recording.file() + " failed: " + b.failure, b.failure);
+        return new Reading(recording, reader, thread);
+    }
+
+    /** A reading under way: what its consumers take. */
+    static final class Reading {
+        private final Recording recording;
+        private final Reader reader;
+        private final Thread thread;
+
+        private Reading(Recording recording, Reader reader, Thread thread) {
+            this.recording = recording;
+            this.reader = reader;
+            this.thread = thread;
+        }
+
+        /** Hands consumer {@code consumer}'s share of the reading to {@code sink}, on the calling thread. */
+        ReadSummary take(int consumer, Recording.Sink sink) {
+            BlockingQueue<Batch> queue = reader.queues.get(consumer);
+            boolean done = false;
+            try {
+                while (true) {
+                    Batch b = queue.take();
+                    for (int i = 0; i < b.size; i++) sink.event(b.events[i], b.lines[i]);
+                    for (Problem p : b.problems) sink.problem(p);
+                    if (b.bytesRead >= 0) sink.progress(b.bytesRead);
+                    if (b.failure != null) {
+                        done = true;
+                        if (b.failure instanceof RuntimeException e) throw e;
+                        if (b.failure instanceof Error e) throw e;
+                        throw new TendException("reading " + recording.file() + " failed: " + b.failure, b.failure);
+                    }
+                    if (b.summary != null) {
+                        done = true;
+                        return b.summary;
+                    }
                 }
-                if (b.summary != null) {
-                    done = true;
-                    return b.summary;
-                }
-            }
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new TendException("the replay of " + recording.file() + " was interrupted", e);
-        } finally {
-            if (!done) {
-                reader.stop = true;
-                thread.interrupt();
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new TendException("the replay of " + recording.file() + " was interrupted", e);
+            } finally {
+                if (!done && reader.leave(consumer)) thread.interrupt();
             }
         }
     }
 
     private static final class Reader implements Runnable, Recording.Sink {
         private final Recording recording;
-        private final BlockingQueue<Batch> queue;
+        final List<BlockingQueue<Batch>> queues = new ArrayList<>();
+        /** Per consumer: it stopped before the end (threw), and takes no more. */
+        private final boolean[] gone;
         final Map<String, Id> ids = new HashMap<>();
         private Batch batch = new Batch();
         volatile boolean stop;
 
-        Reader(Recording recording, BlockingQueue<Batch> queue) {
+        Reader(Recording recording, int consumers) {
             this.recording = recording;
-            this.queue = queue;
+            for (int i = 0; i < consumers; i++) queues.add(new ArrayBlockingQueue<>(BATCHES_AHEAD));
+            this.gone = new boolean[consumers];
+        }
+
+        /**
+         * Consumer {@code i} takes no more; true when it was the last, and the reading stops. Its
+         * queue is emptied, so that a reader waiting to hand it a batch goes on to the others.
+         */
+        boolean leave(int i) {
+            synchronized (gone) {
+                gone[i] = true;
+                queues.get(i).clear();
+                for (boolean g : gone) if (!g) return false;
+                stop = true;
+                return true;
+            }
+        }
+
+        private boolean isGone(int i) {
+            synchronized (gone) {
+                return gone[i];
+            }
         }
 
         @Override
@@ -146,7 +194,9 @@ final class ReadAhead {
         private void hand() {
             if (stop) throw new Stopped();
             try {
-                queue.put(batch);
+                for (int i = 0; i < queues.size(); i++) {
+                    if (!isGone(i)) queues.get(i).put(batch);
+                }
             } catch (InterruptedException e) {
                 throw new Stopped();
             }

@@ -42,6 +42,8 @@ import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Objects;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.FutureTask;
 
 /**
  * Replays a recording through the production engine in virtual time (DESIGN.md section 7)
@@ -98,8 +100,47 @@ public final class Replayer {
      * @throws dev.tend.shared.InvalidInputException when the recording cannot be read
      */
     public ReplayReport replay(Recording recording, ReplayListener listener) {
+        return replay(recording, listener, ReadAhead.start(recording.withDeclaredSignals(policy.config().signals()), knownIds(), 1), 0);
+    }
+
+    /**
+     * Replays {@code recording} with this replayer and with {@code other} at once, the other on a
+     * thread of its own (each with its own engine: the reports are those of {@link #replay} one
+     * after the other). When both policies declare the same signals, the file is read and parsed
+     * once for both. Bad lines are handed to the listener as this replay meets them; the other's
+     * go only into its report. Returns this replay's report, then the other's.
+     */
+    public List<ReplayReport> replayWith(Replayer other, Recording recording, ReplayListener listener) {
+        FutureTask<ReplayReport> theirs;
+        ReadAhead.Reading shared = null;
+        if (policy.config().signals().equals(other.policy.config().signals())) {
+            List<Id> known = knownIds();
+            known.addAll(other.knownIds());
+            ReadAhead.Reading reading = ReadAhead.start(recording.withDeclaredSignals(policy.config().signals()), known, 2);
+            shared = reading;
+            theirs = new FutureTask<>(() -> other.replay(recording, ReplayListener.SILENT, reading, 1));
+        } else {
+            theirs = new FutureTask<>(() -> other.replay(recording));
+        }
+        Thread thread = new Thread(theirs, "tend-replay-against");
+        thread.setDaemon(true);
+        thread.start();
+        ReplayReport mine = shared != null ? replay(recording, listener, shared, 0) : replay(recording, listener);
+        try {
+            return List.of(mine, theirs.get());
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new TendException("the second replay of " + recording.file() + " was interrupted", e);
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) throw r;
+            if (e.getCause() instanceof Error r) throw r;
+            throw new TendException("the second replay of " + recording.file() + " failed: " + e.getCause(), e.getCause());
+        }
+    }
+
+    private ReplayReport replay(Recording recording, ReplayListener listener, ReadAhead.Reading reading, int consumer) {
         Run run = new Run(recording, listener);
-        ReadSummary read = ReadAhead.read(recording.withDeclaredSignals(policy.config().signals()), run, knownIds());
+        ReadSummary read = reading.take(consumer, run);
         listener.done();
         Instant horizon = run.finish();
         return run.report(read, horizon);
@@ -128,7 +169,7 @@ public final class Replayer {
         private final Recording recording;
         private final ReplayListener listener;
         private final RecordingHeader header;
-        private final Engine engine = new Engine(setup());
+        private final Engine engine = new Engine(setup(), ReportCollector.LEDGER_READ);
         private final Agenda agenda = new Agenda();
         private final SimulatedFleet responses = new SimulatedFleet(seed);
         private final FleetModel model = new FleetModel();

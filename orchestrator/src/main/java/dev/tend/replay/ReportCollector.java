@@ -36,6 +36,12 @@ final class ReportCollector {
     static final int MAX_HEALTH_POINTS = 720;
     private static final long[] INTERVALS_MINUTES = {1, 2, 5, 10, 15, 30, 60, 120, 180, 360, 720, 1440};
 
+    /**
+     * The ledger entries {@link #observe} reads: a replay's engine makes no others (a replay keeps
+     * no ledger, and an entry of a transition, a step or a dropped candidate is built for nothing).
+     */
+    static final java.util.Set<LedgerKind> LEDGER_READ = java.util.Set.of(LedgerKind.VERDICT, LedgerKind.APPROVAL_REQUESTED);
+
     private final List<DecisionEntry> decisions = new ArrayList<>();
     private final List<BrakePeriod> brakePeriods = new ArrayList<>();
     private final List<NotificationEntry> notifications = new ArrayList<>();

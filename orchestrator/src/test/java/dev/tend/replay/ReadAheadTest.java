@@ -73,4 +73,54 @@ class ReadAheadTest {
         }, List.of())).isInstanceOf(IllegalStateException.class).hasMessage("stop here");
         assertThat(seen[0]).isEqualTo(3000);
     }
+
+    @Test
+    void twoConsumersOfOneReadingEachReceiveEveryEventAndProblem() throws Exception {
+        Path f = recording(100_000, 997);
+        ReadAhead.Reading reading = ReadAhead.start(Recording.open(f), List.of(), 2);
+        List<Long> second = new ArrayList<>();
+        List<Integer> secondProblems = new ArrayList<>();
+        Thread other = new Thread(() -> reading.take(1, new Recording.Sink() {
+            @Override
+            public void event(WireEvent event, long line) {
+                second.add(line);
+            }
+
+            @Override
+            public void problem(Problem problem) {
+                secondProblems.add(problem.line());
+            }
+        }));
+        other.start();
+        List<Long> first = new ArrayList<>();
+        List<Integer> firstProblems = new ArrayList<>();
+        ReadSummary s = reading.take(0, new Recording.Sink() {
+            @Override
+            public void event(WireEvent event, long line) {
+                first.add(line);
+            }
+
+            @Override
+            public void problem(Problem problem) {
+                firstProblems.add(problem.line());
+            }
+        });
+        other.join();
+        assertThat(s.events()).isEqualTo(100_000 - 100);
+        assertThat(first).hasSize(100_000 - 100).isSorted().isEqualTo(second);
+        assertThat(firstProblems).hasSize(100).isEqualTo(secondProblems);
+    }
+
+    @Test
+    void aConsumerThatStopsLeavesTheOtherReadingToTheEnd() throws Exception {
+        Path f = recording(100_000, 0);
+        ReadAhead.Reading reading = ReadAhead.start(Recording.open(f), List.of(), 2);
+        assertThatThrownBy(() -> reading.take(0, (e, line) -> {
+            if (line == 10) throw new IllegalStateException("stop here");
+        })).hasMessage("stop here");
+        long[] seen = {0};
+        ReadSummary s = reading.take(1, (e, line) -> seen[0]++);
+        assertThat(seen[0]).isEqualTo(100_000);
+        assertThat(s.events()).isEqualTo(100_000);
+    }
 }

@@ -35,7 +35,7 @@ public final class GuardChain {
         List<Objection> objections = new ArrayList<>();
         for (Guard g : guards) {
             Optional<Objection> o = g.check(candidate, context);
-            o.ifPresent(objections::add);
+            if (o.isPresent()) objections.add(o.get());
         }
         return Decision.of(objections);
     }

@@ -39,9 +39,15 @@ public final class FleetHealthView {
     private long topologyVersion;
     /** One mutable slot per signal: a single map lookup per event. */
     private final Map<SignalKey, SignalSlot> signals = new HashMap<>(1 << 16);
+    /** The last slot looked up or made, and its key ({@link #slot}). */
+    private SignalKey lastKey;
+    private SignalSlot lastSlot;
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
+    /** Problems of clusters healthy again, empty, to be used again rather than made anew. */
+    private final java.util.ArrayDeque<Problems> spare = new java.util.ArrayDeque<>();
+    private static final int MAX_SPARE = 64;
     private long lateEvents;
     private long appliedEvents;
 
@@ -56,7 +62,7 @@ public final class FleetHealthView {
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
         SignalKey key = t.key();
-        SignalSlot slot = signals.get(key);
+        SignalSlot slot = slot(key);
         Instant at = t.at();
         if (slot != null && at.isBefore(slot.lastAt)) {
             lateEvents++;
@@ -67,6 +73,8 @@ public final class FleetHealthView {
         if (fresh) {
             slot = new SignalSlot(CHANGE_HISTORY);
             signals.put(key, slot);
+            lastKey = key;
+            lastSlot = slot;
         }
         if (!fresh && slot.state == t.state()) {
             slot.lastAt = at;
@@ -125,7 +133,7 @@ public final class FleetHealthView {
     private void count(SignalKey key, int delta) {
         Problems p = problems.get(key.cluster());
         if (p == null) {
-            p = new Problems();
+            p = spare.isEmpty() ? new Problems() : spare.pop();
             problems.put(key.cluster(), p);
         }
         p.total += delta;
@@ -136,17 +144,37 @@ public final class FleetHealthView {
         } else if (p.perNode.merge(key.node(), delta, Integer::sum) == 0) {
             p.perNode.remove(key.node());
         }
-        if (p.total == 0) problems.remove(key.cluster());
+        if (p.total == 0) {
+            // its maps are empty again: kept for the next cluster that turns unhealthy (clusters come and go all day)
+            problems.remove(key.cluster());
+            if (spare.size() < MAX_SPARE) spare.push(p);
+        }
+    }
+
+    /**
+     * The slot of {@code key}, or null. The engine asks about the signal of the input at hand
+     * several times (applied, in the topology, since when, still active when its candidate is
+     * evaluated, how often it changed): the last slot found is remembered, so that only the
+     * first asking looks in the map. A slot stays the key's for the view's life.
+     */
+    private SignalSlot slot(SignalKey key) {
+        if (key.equals(lastKey)) return lastSlot;
+        SignalSlot s = signals.get(key);
+        if (s != null) {
+            lastKey = key;
+            lastSlot = s;
+        }
+        return s;
     }
 
     public Optional<SignalStatus> status(SignalKey key) {
-        SignalSlot s = signals.get(key);
+        SignalSlot s = slot(key);
         return s == null ? Optional.empty() : Optional.of(s.status());
     }
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        SignalSlot s = signals.get(new SignalKey(cluster, node, signal));
+        SignalSlot s = slot(new SignalKey(cluster, node, signal));
         return s != null && s.isProblem();
     }
 
@@ -156,7 +184,7 @@ public final class FleetHealthView {
      * for every transition; the signal's slot is at hand, the fleet's clusters and nodes are not).
      */
     public boolean isInTopology(SignalKey key) {
-        SignalSlot s = signals.get(key);
+        SignalSlot s = slot(key);
         if (s == null) return topology.contains(key.cluster(), key.node());
         if (s.checkedVersion != topologyVersion) {
             s.inTopology = topology.contains(key.cluster(), key.node());
@@ -178,7 +206,7 @@ public final class FleetHealthView {
 
     /** How many times the signal changed state at or after {@code since} (event time), up to the last 32. */
     public int changesSince(SignalKey key, Instant since) {
-        SignalSlot slot = signals.get(key);
+        SignalSlot slot = slot(key);
         return slot == null ? 0 : slot.changesSince(since);
     }
 

@@ -5,6 +5,7 @@ import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.core.JsonToken;
 import com.fasterxml.jackson.core.io.JsonEOFException;
+import com.fasterxml.jackson.core.json.ReaderBasedJsonParser;
 
 import java.io.IOException;
 import java.math.BigInteger;
@@ -89,21 +90,20 @@ final class JsonLine {
                 }
                 while ((t = p.nextToken()) == JsonToken.FIELD_NAME) {
                     String name = p.currentName();
-                    int nameColumn = column(p.currentTokenLocation());
                     if (isDuplicate(name)) {
-                        throw new LineRejected(nameColumn, name, "field '" + WireText.shown(name) + "' is given twice");
+                        throw new LineRejected(column(p.currentTokenLocation()), name, "field '" + WireText.shown(name) + "' is given twice");
                     }
                     t = p.nextToken();
-                    int valueColumn = column(p.currentTokenLocation());
+                    int valueColumn = valueColumn(p);
                     add(name, value(p, t, name), valueColumn);
                 }
             } catch (JsonProcessingException e) {
                 throw notJson(e);
             }
-            int after;
+            int after = 0;
             try {
                 t = p.nextToken();
-                after = column(p.currentTokenLocation());
+                if (t != null) after = column(p.currentTokenLocation());
             } catch (JsonProcessingException e) {
                 t = JsonToken.NOT_AVAILABLE;
                 after = e.getLocation() == null ? 0 : column(e.getLocation());
@@ -226,6 +226,21 @@ final class JsonLine {
             case VALUE_NULL -> "JSON null";
             default -> "not a JSON object";
         };
+    }
+
+    /**
+     * The column {@link #column(JsonLocation)} gives for the current token, a value (not a field
+     * name), without the location object Jackson builds for each call of
+     * {@code currentTokenLocation()}: every field of every line asks. A parser of a string
+     * reports there its token's 0-based column ({@code getTokenColumnNr()} is that plus one);
+     * {@code JsonLineTest} holds the two equal.
+     */
+    static int valueColumn(JsonParser p) {
+        if (p instanceof ReaderBasedJsonParser r) {
+            int c = r.getTokenColumnNr() - 1;
+            return c <= 0 ? 0 : c;
+        }
+        return column(p.currentTokenLocation());
     }
 
     private static int column(JsonLocation loc) {
