@@ -290,6 +290,9 @@ class ServeApiTest {
         serve.post("/api/v1/approvals/" + approved + "/approve", ServeFixture.ANNA, "");
         awaitTrue("the approved run succeeded", Duration.ofSeconds(10),
                 () -> serve.run(approved).get("state").asText().equals("succeeded"));
+        // the figures are taken on the driver thread right after the commit the run's state is read from
+        awaitTrue("the metrics show the run ended", Duration.ofSeconds(10),
+                () -> serve.get("/metrics", null).text().contains("tend_runs_ended_total{playbook=\"restart-critical\",state=\"succeeded\"} 1.0"));
 
         ServeFixture.Response m = serve.get("/metrics", null);
 
