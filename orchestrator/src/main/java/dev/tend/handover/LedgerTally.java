@@ -192,10 +192,11 @@ final class LedgerTally {
         int slot = "hold".equals(verdict) ? 0 : "deny".equals(verdict) ? 1 : -1;
         if (slot < 0) return;
         String pb = orUnknown(text(f, "playbook"));
-        String target = orUnknown(text(f, "cluster")) + (text(f, "node") == null ? "" : "/" + text(f, "node"));
-        playbook(pb).add(slot == 0, target);
+        // one key for the playbook's count and every reason's: no text is built per verdict
+        Candidate c = new Candidate(pb, orUnknown(text(f, "cluster")), text(f, "node"));
+        playbook(pb).add(slot == 0, c);
         for (JsonNode code : f.path("reasons")) {
-            reasons.computeIfAbsent(code.asText(), k -> new Candidates()).add(slot == 0, pb + " " + target);
+            reasons.computeIfAbsent(code.asText(), k -> new Candidates()).add(slot == 0, c);
         }
     }
 
@@ -343,12 +344,16 @@ final class LedgerTally {
         }
     }
 
+    /** A candidate: a playbook on a target (a cluster, or a node of it). */
+    private record Candidate(String playbook, String cluster, String node) {
+    }
+
     /** Distinct candidates held and denied. */
     private static class Candidates {
-        final Set<String> held = new HashSet<>();
-        final Set<String> denied = new HashSet<>();
+        final Set<Candidate> held = new HashSet<>();
+        final Set<Candidate> denied = new HashSet<>();
 
-        void add(boolean hold, String candidate) {
+        void add(boolean hold, Candidate candidate) {
             (hold ? held : denied).add(candidate);
         }
     }

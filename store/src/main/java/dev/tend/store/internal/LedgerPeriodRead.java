@@ -6,6 +6,7 @@ import dev.tend.store.LedgerPeriodQuery;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.statement.Query;
 
+import java.nio.charset.StandardCharsets;
 import java.util.List;
 import java.util.function.Consumer;
 
@@ -20,7 +21,7 @@ final class LedgerPeriodRead {
     private final Handle handle;
     private final long since;
     private final long until;
-    private final List<LedgerEntry> carried;
+    private final List<LedgerVerifier.Raw> carried;
     private int next;
 
     LedgerPeriodRead(Handle handle, LedgerPeriodQuery query) {
@@ -31,7 +32,7 @@ final class LedgerPeriodRead {
     }
 
     /** Before the period: the carried kinds, and every entry of a run still open at since (few, in seq order). */
-    private List<LedgerEntry> carried(LedgerPeriodQuery query) {
+    private List<LedgerVerifier.Raw> carried(LedgerPeriodQuery query) {
         String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
         String before = "SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
@@ -43,7 +44,7 @@ final class LedgerPeriodRead {
                 .bindList("opening", List.copyOf(query.openingKinds()))
                 .bindList("closing", List.copyOf(query.closingKinds()));
         if (!query.carriedKinds().isEmpty()) carriedQuery.bindList("carried", List.copyOf(query.carriedKinds()));
-        return carriedQuery.map((rs, ctx) -> Rows.ledger(rs)).list();
+        return carriedQuery.map((rs, ctx) -> LedgerVerifier.raw(rs)).list();
     }
 
     /** The lowest and highest seq of an entry in the period (through the time index); {0, 0} when it has none. */
@@ -73,7 +74,19 @@ final class LedgerPeriodRead {
     }
 
     private void carriedBefore(long seq, Consumer<LedgerEntry> consumer) {
-        while (next < carried.size() && carried.get(next).seq() < seq) consumer.accept(carried.get(next++));
+        while (next < carried.size() && carried.get(next).seq() < seq) {
+            LedgerVerifier.Raw r = carried.get(next++);
+            consumer.accept(new LedgerEntry(r.seq(), Times.fromNanos(r.atNs()), r.kind(), r.cluster(), r.playbook(), r.run(),
+                    r.entry() == null ? null : new String(r.entry(), StandardCharsets.UTF_8), r.prevHash(), r.hash()));
+        }
+    }
+
+    /** The carried entries before {@code seq}, their text parsed (the usual one in one pass, as the walk does). */
+    private void carriedBefore(long seq, LedgerEntryRead consumer) {
+        while (next < carried.size() && carried.get(next).seq() < seq) {
+            LedgerVerifier.Raw r = carried.get(next++);
+            consumer.accept(r.seq(), Times.fromNanos(r.atNs()), r.kind(), LedgerVerifier.fields(r.entry()));
+        }
     }
 
     /**
@@ -91,10 +104,10 @@ final class LedgerPeriodRead {
         }
         dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, fields) -> {
             if (row.atNs() < since || row.atNs() >= until) return;
-            carriedBefore(row.seq(), parsed);
+            carriedBefore(row.seq(), consumer);
             consumer.accept(row.seq(), Times.fromNanos(row.atNs()), row.kind(), fields);
         });
-        carriedBefore(Long.MAX_VALUE, parsed);
+        carriedBefore(Long.MAX_VALUE, consumer);
         return v;
     }
 }

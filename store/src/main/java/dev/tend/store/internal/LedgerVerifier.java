@@ -3,7 +3,9 @@ package dev.tend.store.internal;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.ObjectReader;
 import dev.tend.shared.json.CanonicalJson;
+import dev.tend.shared.json.CanonicalReader;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerVerification;
 import org.jdbi.v3.core.Handle;
@@ -29,6 +31,8 @@ import java.util.stream.IntStream;
  */
 final class LedgerVerifier {
     private static final ObjectMapper JSON = new ObjectMapper();
+    /** Made once: {@code ObjectMapper.readTree} looks the tree's type up on every call. */
+    private static final ObjectReader READER = JSON.readerFor(JsonNode.class);
     /** Rows read before their own checks are spread over the cores. */
     private static final int CHUNK = 4096;
     private static final ThreadLocal<MessageDigest> SHA256 = ThreadLocal.withInitial(() -> {
@@ -40,7 +44,8 @@ final class LedgerVerifier {
     });
     private static final byte[] HEX = "0123456789abcdef".getBytes(StandardCharsets.US_ASCII);
 
-    record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, String entry,
+    /** A row as stored; {@code entry} is the text's bytes as SQLite holds them (what the writer hashed), null when NULL. */
+    record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, byte[] entry,
                String prevHash, String hash) {
         String describe() {
             return "entry " + seq + " (" + kind + " at " + LedgerChain.formatAt(Times.fromNanos(atNs)) + ")";
@@ -166,22 +171,29 @@ final class LedgerVerifier {
 
     private static Content content(Raw row) {
         boolean hashed = hashMatches(row);
-        JsonNode text;
+        // the usual entry is read and found canonical in one pass; any other text is parsed and written again to tell
+        JsonNode fields = CanonicalReader.readObject(row.entry());
+        boolean canonical = fields != null;
         boolean json = true;
-        try {
-            text = JSON.readTree(row.entry());
-        } catch (JsonProcessingException e) {
-            text = null;
-            json = false;
+        if (!canonical) {
+            String entry = row.entry() == null ? "" : new String(row.entry(), StandardCharsets.UTF_8);
+            JsonNode text;
+            try {
+                text = READER.readTree(entry);
+            } catch (JsonProcessingException e) {
+                text = null;
+                json = false;
+            }
+            fields = text != null && text.isObject() ? text : null;
+            canonical = fields != null && CanonicalJson.serialize(fields).equals(entry);
         }
-        JsonNode fields = text != null && text.isObject() ? text : null;
         if (!hashed) {
             return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null, fields);
         }
         if (!json) {
             return new Content(row.describe() + " was changed after it was written: its text is not JSON", null, null);
         }
-        if (fields == null || !CanonicalJson.serialize(fields).equals(row.entry())) {
+        if (!canonical) {
             return new Content(row.describe() + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null,
                     fields);
         }
@@ -195,10 +207,16 @@ final class LedgerVerifier {
                 : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text", fields);
     }
 
+    /** The text of an entry (its bytes as stored) parsed, or null when it is not a JSON object. */
+    static JsonNode fields(byte[] entry) {
+        JsonNode read = CanonicalReader.readObject(entry);
+        return read != null || entry == null ? read : fields(new String(entry, StandardCharsets.UTF_8));
+    }
+
     /** The text of an entry parsed, or null when it is not a JSON object. */
     static JsonNode fields(String entry) {
         try {
-            JsonNode text = JSON.readTree(entry);
+            JsonNode text = READER.readTree(entry);
             return text != null && text.isObject() ? text : null;
         } catch (JsonProcessingException e) {
             return null;
@@ -207,10 +225,11 @@ final class LedgerVerifier {
 
     /** SHA-256 of prev_hash and text, as lowercase hex, equals the row's hash ({@link LedgerChain#hash}, without the strings). */
     private static boolean hashMatches(Raw row) {
+        if (row.prevHash() == null || row.entry() == null) return false;
         MessageDigest md = SHA256.get();
         md.reset();
         md.update(row.prevHash().getBytes(StandardCharsets.UTF_8));
-        md.update(row.entry().getBytes(StandardCharsets.UTF_8));
+        md.update(row.entry());
         byte[] d = md.digest();
         String hash = row.hash();
         if (hash == null || hash.length() != 2 * d.length) return false;
@@ -220,9 +239,9 @@ final class LedgerVerifier {
         return true;
     }
 
-    private static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
+    static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
         return new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5), rs.getString(6),
-                rs.getString(7), rs.getString(8), rs.getString(9));
+                rs.getBytes(7), rs.getString(8), rs.getString(9));
     }
 
     private LedgerVerification check(Raw row, Content content) {
