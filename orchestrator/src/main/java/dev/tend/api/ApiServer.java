@@ -19,7 +19,6 @@ import io.javalin.security.RouteRole;
 import java.io.PrintWriter;
 import java.time.Clock;
 import java.util.List;
-import java.util.Locale;
 import java.util.Objects;
 import java.util.Set;
 import java.util.function.Supplier;
@@ -95,6 +94,10 @@ public final class ApiServer implements AutoCloseable {
                 });
                 r.beforeMatched(ctx -> authorize(ctx, parts.tokens(), failed));
                 ApiErrors.install(r, parts.log());
+                // first: Javalin looks a request's route up several times per request, trying the
+                // routes of its method in the order mounted, a regex match each, and this is the
+                // route a health pipeline calls for every transition (no other path overlaps it)
+                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 runs.mount(r);
                 new ApprovalRoutes(parts.store(), parts.gateway(), runs).mount(r);
                 new ExclusionRoutes(parts.store(), parts.gateway(), parts.clock()).mount(r);
@@ -104,7 +107,6 @@ public final class ApiServer implements AutoCloseable {
                 new HandoverRoutes(parts.store(), parts.clock()).mount(r);
                 new PlaybookRoutes(parts.playbooks()).mount(r);
                 new VocabularyRoutes().mount(r);
-                new TransitionRoutes(parts.gateway(), parts.metrics(), parts.store(), parts.clock(), parts.playbooks().config()).mount(r);
                 new HealthRoutes(parts.health(), parts.metrics()).mount(r);
             });
         });
@@ -136,7 +138,7 @@ public final class ApiServer implements AutoCloseable {
                     : "this needs a bearer token: send the header Authorization: Bearer <token>");
         }
         // the scheme is case-insensitive (RFC 7235 section 2.1)
-        if (h.length() < 8 || !h.substring(0, 7).toLowerCase(Locale.ROOT).equals("bearer ")) {
+        if (h.length() < 8 || !h.regionMatches(true, 0, "bearer ", 0, 7)) {
             throw new UnauthenticatedException("the Authorization header must be 'Bearer <token>'");
         }
         return h.substring(7).strip();

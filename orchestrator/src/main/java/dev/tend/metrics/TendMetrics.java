@@ -47,13 +47,14 @@ import java.util.Map;
  */
 public final class TendMetrics implements CommitListener {
     private final PrometheusRegistry registry = new PrometheusRegistry();
+    // counted on every request: no exemplars (tend has no trace to link, and the sampler schedules a task now and then)
     private final Counter transitions = Counter.builder().name("tend_transitions_received_total")
-            .help("Transitions and topology events accepted over HTTP").register(registry);
+            .help("Transitions and topology events accepted over HTTP").withoutExemplars().register(registry);
     private final Counter rejectedLines = Counter.builder().name("tend_transition_lines_rejected_total")
-            .help("Lines of transition requests refused").register(registry);
+            .help("Lines of transition requests refused").withoutExemplars().register(registry);
     private final Counter timeRefused = Counter.builder().name("tend_event_time_refused_total")
             .help("Lines refused for their time (before 1970, after 2200, ahead of the clock by more than max-skew)")
-            .labelNames("reason").register(registry);
+            .labelNames("reason").withoutExemplars().register(registry);
     private final Counter refusedInputs = Counter.builder().name("tend_inputs_refused_total")
             .help("Inputs refused because of a value the store or the engine cannot hold").labelNames("input").register(registry);
     private final Counter verdicts = Counter.builder().name("tend_verdicts_total")
@@ -90,6 +91,8 @@ public final class TendMetrics implements CommitListener {
             .register(registry);
 
     public TendMetrics(Store store) {
+        // every reason shown from the start, at 0 until one happens
+        for (TimeRefusal r : TimeRefusal.values()) timeRefused.labelValues(r.wireName());
         GaugeWithCallback.builder().name("tend_ledger_entries").help("Entries in the audit ledger")
                 .callback(cb -> cb.call(store.read(r -> r.ledgerHead().map(e -> (double) e.seq()).orElse(0.0))))
                 .register(registry);
@@ -140,7 +143,9 @@ public final class TendMetrics implements CommitListener {
 
     /** Counts lines refused for their time, by reason; every reason is shown, at 0 until one happens. */
     public void timeRefused(Map<TimeRefusal, Long> byReason) {
-        byReason.forEach((why, n) -> timeRefused.labelValues(why.wireName()).inc(n));
+        byReason.forEach((why, n) -> {
+            if (n > 0) timeRefused.labelValues(why.wireName()).inc(n);
+        });
     }
 
     public void executorAnswered(String kind, boolean success, Duration took) {

@@ -53,7 +53,8 @@ class ServeApiTest {
         assertThat(r.json().at("/problems/1/message").asText()).contains("2261-03-14T02:17:00Z is after 2200");
         String metrics = serve.get("/metrics", null).text();
         assertThat(metrics).contains("tend_event_time_refused_total{reason=\"ahead-of-clock\"} 1.0")
-                .contains("tend_event_time_refused_total{reason=\"after-2200\"} 1.0");
+                .contains("tend_event_time_refused_total{reason=\"after-2200\"} 1.0")
+                .contains("tend_event_time_refused_total{reason=\"before-1970\"} 0.0"); // every reason shown, at 0 until one happens
         JsonNode health = serve.get("/api/v1/health", VERA).json();
         assertThat(health.at("/unhealthy_clusters/0/signals/0/node").asText()).isEqualTo("n9");
         assertThat(health.at("/unhealthy_clusters/0/signals/0/unknown_target").asBoolean()).isTrue();
@@ -289,6 +290,9 @@ class ServeApiTest {
         serve.post("/api/v1/approvals/" + approved + "/approve", ServeFixture.ANNA, "");
         awaitTrue("the approved run succeeded", Duration.ofSeconds(10),
                 () -> serve.run(approved).get("state").asText().equals("succeeded"));
+        // the figures are taken on the driver thread right after the commit the run's state is read from
+        awaitTrue("the metrics show the run ended", Duration.ofSeconds(10),
+                () -> serve.get("/metrics", null).text().contains("tend_runs_ended_total{playbook=\"restart-critical\",state=\"succeeded\"} 1.0"));
 
         ServeFixture.Response m = serve.get("/metrics", null);
 

@@ -72,6 +72,27 @@ public final class WireWriter implements Flushable {
 
     /** The line for {@code event}, without the line break. */
     public static String line(WireEvent event) {
+        if (event instanceof HealthTransition t && t.detail().isEmpty() && t.extra().isEmpty()) return plain(t);
+        return generated(event);
+    }
+
+    /**
+     * Most transitions, written without a generator: every value of such a line is an id, a
+     * state or a time, none of which holds a character JSON escapes, so the text is the
+     * generator's (each line of {@code tend ingest} and {@code POST /api/v1/transitions} is
+     * written once for the journal, on the reader's thread).
+     */
+    private static String plain(HealthTransition t) {
+        String at = Rfc3339.format(t.at());
+        StringBuilder sb = new StringBuilder(96);
+        sb.append("{\"at\":\"").append(at).append("\",\"cluster\":\"").append(t.cluster().value());
+        if (t.node() != null) sb.append("\",\"node\":\"").append(t.node().value());
+        sb.append("\",\"signal\":\"").append(t.signal().value()).append("\",\"state\":\"").append(t.state().wireName()).append("\"}");
+        return sb.toString();
+    }
+
+    /** The line for {@code event} as the JSON generator writes it (every event can be written so). */
+    static String generated(WireEvent event) {
         StringWriter sw = new StringWriter(160);
         try (JsonGenerator g = WireJson.FACTORY.createGenerator(sw)) {
             g.writeStartObject();

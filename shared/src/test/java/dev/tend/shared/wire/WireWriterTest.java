@@ -43,6 +43,20 @@ class WireWriterTest {
     }
 
     @Test
+    void aTransitionWithoutDetailOrExtraFieldsIsWrittenAsTheJsonGeneratorWritesIt() {
+        java.util.SplittableRandom random = new java.util.SplittableRandom(3);
+        String[] ids = {"fares-3", "a", "Z9", "dispatch.east_1:x-2", "n" + "0".repeat(60)};
+        for (int i = 0; i < 2000; i++) {
+            Instant at = Instant.ofEpochSecond(random.nextLong(0, 7_000_000_000L), random.nextInt(4) == 0 ? 0 : random.nextInt(1_000_000_000));
+            String node = random.nextBoolean() ? null : ids[random.nextInt(ids.length)];
+            HealthTransition t = HealthTransition.of(at, ids[random.nextInt(ids.length)], node, ids[random.nextInt(ids.length)],
+                    SignalState.values()[random.nextInt(SignalState.values().length)]);
+            assertThat(WireWriter.line(t)).isEqualTo(WireWriter.generated(t));
+            assertThat(((LineResult.Event) WireReader.of("t").parseLine(WireWriter.line(t), 1)).event()).isEqualTo(t);
+        }
+    }
+
+    @Test
     void writesFieldsInTheFixedOrderWhateverTheOrderRead() {
         WireEvent e = ((LineResult.Event) WireReader.of("t").parseLine("{\"z\":1,\"detail\":{\"b\":1,\"a\":2},\"state\":\"clear\","
                 + "\"signal\":\"lag\",\"node\":\"n1\",\"cluster\":\"dispatch-1\",\"at\":\"2027-03-14T03:17:00+01:00\",\"a\":2}", 1)).event();
