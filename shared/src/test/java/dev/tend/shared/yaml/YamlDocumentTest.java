@@ -104,15 +104,14 @@ class YamlDocumentTest {
     }
 
     @Test
-    void refusesADoublingChainOfAliasesWithinASecond() {
+    void refusesADoublingChainOfAliasesAtItsLimitInsteadOfExpandingIt() {
         StringBuilder doc = new StringBuilder("a0: &a0 [x, x]\n");
         for (int i = 1; i <= 48; i++) {
             doc.append("a").append(i).append(": &a").append(i).append(" [*a").append(i - 1).append(", *a").append(i - 1).append("]\n");
         }
-        long start = System.nanoTime();
+        // Expanded, the last alias would stand for 2^49 values: the refusal naming the limit is the
+        // proof that the parser stopped counting there (no wall-clock bound: the suite keeps none)
         InvalidInputException e = catchThrowableOfType(InvalidInputException.class, () -> YamlDocument.parse("tend.yaml", doc.toString()));
-        long millis = (System.nanoTime() - start) / 1_000_000;
-        assertThat(millis).isLessThan(1000);
         assertThat(e.problems().get(0).line()).isGreaterThan(0);
         assertThat(e.problems().get(0).message()).contains("repeat more than " + YamlDocument.MAX_ALIASED_VALUES);
     }
