@@ -37,7 +37,7 @@ final class JsonLine {
     private int size;
     private Set<String> seen;
 
-    private JsonLine() {
+    JsonLine() {
     }
 
     int size() {
@@ -72,8 +72,18 @@ final class JsonLine {
         return indexOf(name) >= 0;
     }
 
-    /** The fields of {@code line}, which must hold exactly one JSON object. */
+    /**
+     * The fields of {@code line}, which must hold exactly one JSON object. A line of the usual
+     * shape is taken apart by hand ({@link FlatLine}); any other, and every line with a fault,
+     * goes through Jackson, whose reading (and wording of refusals) the fast path matches.
+     */
     static JsonLine parse(String line) throws LineRejected {
+        JsonLine fast = FlatLine.read(line);
+        return fast != null ? fast : parseWithJackson(line);
+    }
+
+    /** The fields of {@code line} as Jackson reads them: the reference the fast path is held to. */
+    static JsonLine parseWithJackson(String line) throws LineRejected {
         JsonLine fields = new JsonLine();
         fields.read(line);
         return fields;
@@ -124,7 +134,7 @@ final class JsonLine {
         return false;
     }
 
-    private void add(String name, Object value, int column) {
+    void add(String name, Object value, int column) {
         if (size == names.length) {
             names = Arrays.copyOf(names, size * 2);
             values = Arrays.copyOf(values, size * 2);
