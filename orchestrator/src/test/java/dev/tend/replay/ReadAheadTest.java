@@ -36,22 +36,11 @@ class ReadAheadTest {
     @Test
     void handsEveryEventOverInFileOrderAcrossBatchesWithTheProblems() throws Exception {
         Path f = recording(10_000, 1000);
-        List<Long> lines = new ArrayList<>();
-        List<Problem> problems = new ArrayList<>();
-        ReadSummary s = ReadAhead.read(Recording.open(f), new Recording.Sink() {
-            @Override
-            public void event(WireEvent event, long line) {
-                lines.add(line);
-            }
-
-            @Override
-            public void problem(Problem problem) {
-                problems.add(problem);
-            }
-        }, List.of());
+        Collected got = new Collected();
+        ReadSummary s = ReadAhead.read(Recording.open(f), got, List.of());
         assertThat(s.events()).isEqualTo(9_990);
-        assertThat(lines).hasSize(9_990).isSorted();
-        assertThat(problems).hasSize(10).extracting(Problem::line).startsWith(1000, 2000);
+        assertThat(got.lines).hasSize(9_990).isSorted();
+        assertThat(got.problems).hasSize(10).extracting(Problem::line).startsWith(1000, 2000);
     }
 
     @Test
@@ -78,37 +67,16 @@ class ReadAheadTest {
     void twoConsumersOfOneReadingEachReceiveEveryEventAndProblem() throws Exception {
         Path f = recording(100_000, 997);
         ReadAhead.Reading reading = ReadAhead.start(Recording.open(f), List.of(), 2);
-        List<Long> second = new ArrayList<>();
-        List<Integer> secondProblems = new ArrayList<>();
-        Thread other = new Thread(() -> reading.take(1, new Recording.Sink() {
-            @Override
-            public void event(WireEvent event, long line) {
-                second.add(line);
-            }
-
-            @Override
-            public void problem(Problem problem) {
-                secondProblems.add(problem.line());
-            }
-        }));
+        Collected second = new Collected();
+        Thread other = new Thread(() -> reading.take(1, second));
         other.start();
-        List<Long> first = new ArrayList<>();
-        List<Integer> firstProblems = new ArrayList<>();
-        ReadSummary s = reading.take(0, new Recording.Sink() {
-            @Override
-            public void event(WireEvent event, long line) {
-                first.add(line);
-            }
-
-            @Override
-            public void problem(Problem problem) {
-                firstProblems.add(problem.line());
-            }
-        });
+        Collected first = new Collected();
+        ReadSummary s = reading.take(0, first);
         other.join();
         assertThat(s.events()).isEqualTo(100_000 - 100);
-        assertThat(first).hasSize(100_000 - 100).isSorted().isEqualTo(second);
-        assertThat(firstProblems).hasSize(100).isEqualTo(secondProblems);
+        assertThat(first.lines).hasSize(100_000 - 100).isSorted().isEqualTo(second.lines);
+        assertThat(first.problems).hasSize(100).extracting(Problem::line)
+                .isEqualTo(second.problems.stream().map(Problem::line).toList());
     }
 
     @Test
@@ -122,5 +90,21 @@ class ReadAheadTest {
         ReadSummary s = reading.take(1, (e, line) -> seen[0]++);
         assertThat(seen[0]).isEqualTo(100_000);
         assertThat(s.events()).isEqualTo(100_000);
+    }
+
+    /** A sink that keeps the line numbers of the events and the problems it is handed, in order. */
+    private static final class Collected implements Recording.Sink {
+        final List<Long> lines = new ArrayList<>();
+        final List<Problem> problems = new ArrayList<>();
+
+        @Override
+        public void event(WireEvent event, long line) {
+            lines.add(line);
+        }
+
+        @Override
+        public void problem(Problem problem) {
+            problems.add(problem);
+        }
     }
 }
