@@ -32,8 +32,6 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     private static final String ARM_TIMER = "INSERT INTO timers (" + Rows.TIMER_COLUMNS + ") VALUES (?, ?, ?) "
             + "ON CONFLICT (timer_key) DO UPDATE SET due_ns = excluded.due_ns, payload = excluded.payload";
     private static final String CANCEL_TIMER = "DELETE FROM timers WHERE timer_key = ?";
-    private static final String ENQUEUE_PAGE = "INSERT INTO page_outbox (" + Rows.PAGE_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)"
-            + " ON CONFLICT (id) DO NOTHING";
 
     private final HeadCache headCache;
     private final StatementCache statements;
@@ -115,7 +113,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         }
     }
 
-    private static void text(java.sql.PreparedStatement ps, int i, String value) throws java.sql.SQLException {
+    static void text(java.sql.PreparedStatement ps, int i, String value) throws java.sql.SQLException {
         if (value == null) ps.setNull(i, java.sql.Types.VARCHAR);
         else ps.setString(i, value);
     }
@@ -359,26 +357,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     @Override
     public void enqueuePage(PageRow p) {
         requireOpen();
-        Objects.requireNonNull(p, "page");
-        long created = Times.nanos(p.createdAt(), "PageRow.createdAt");
-        long next = Times.nanos(p.nextAt(), "PageRow.nextAt");
-        Long ended = p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt");
-        try {
-            java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), ENQUEUE_PAGE);
-            ps.setString(1, p.id());
-            ps.setString(2, p.channel());
-            ps.setLong(3, created);
-            text(ps, 4, p.payload());
-            text(ps, 5, p.state());
-            ps.setInt(6, p.attempts());
-            ps.setLong(7, next);
-            text(ps, 8, p.lastAnswer());
-            if (ended == null) ps.setNull(9, java.sql.Types.BIGINT);
-            else ps.setLong(9, ended);
-            ps.executeUpdate();
-        } catch (java.sql.SQLException e) {
-            throw new org.jdbi.v3.core.ConnectionException(e);
-        }
+        PageWrites.enqueue(handle, statements, p);
     }
 
     @Override
@@ -396,25 +375,6 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     @Override
     public void updatePage(PageRow p) {
         requireOpen();
-        Objects.requireNonNull(p, "page");
-        handle.createUpdate("UPDATE page_outbox SET channel = :channel, created_ns = :created_ns, payload = :payload,"
-                        + " state = :state, attempts = :attempts, next_ns = :next_ns, last_answer = :last_answer,"
-                        + " ended_ns = :ended_ns WHERE id = :id")
-                .bindMap(pageColumns(p))
-                .execute();
-    }
-
-    private static java.util.Map<String, Object> pageColumns(PageRow p) {
-        java.util.Map<String, Object> m = new java.util.HashMap<>();
-        m.put("id", p.id());
-        m.put("channel", p.channel());
-        m.put("created_ns", Times.toNanos(p.createdAt(), "PageRow.createdAt"));
-        m.put("payload", p.payload());
-        m.put("state", p.state());
-        m.put("attempts", p.attempts());
-        m.put("next_ns", Times.toNanos(p.nextAt(), "PageRow.nextAt"));
-        m.put("last_answer", p.lastAnswer());
-        m.put("ended_ns", p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt"));
-        return m;
+        PageWrites.update(handle, p);
     }
 }
