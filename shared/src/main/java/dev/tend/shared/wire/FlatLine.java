@@ -62,17 +62,29 @@ final class FlatLine {
             Object v = value(1);
             if (v == DECLINE) return false;
             into.add(name, v, column);
-            skip();
-            if (at(',')) {
-                i++;
-                skip();
-            } else if (at('}')) {
-                i++;
-                return rest();
-            } else {
-                return false;
-            }
+            int after = separator('}');
+            if (after == CLOSED) return rest();
+            if (after == BROKEN) return false;
         }
+    }
+
+    private static final int MORE = 0;
+    private static final int CLOSED = 1;
+    private static final int BROKEN = 2;
+
+    /** After a member or an element: a comma (more follow), the closing {@code close}, or anything else. */
+    private int separator(char close) {
+        skip();
+        if (at(',')) {
+            i++;
+            skip();
+            return MORE;
+        }
+        if (at(close)) {
+            i++;
+            return CLOSED;
+        }
+        return BROKEN;
     }
 
     /** Only whitespace may follow the object. */
@@ -123,16 +135,9 @@ final class FlatLine {
             Object v = value(depth);
             if (v == DECLINE) return DECLINE;
             map.put((String) key, v);
-            skip();
-            if (at(',')) {
-                i++;
-                skip();
-            } else if (at('}')) {
-                i++;
-                return map;
-            } else {
-                return DECLINE;
-            }
+            int after = separator('}');
+            if (after == CLOSED) return map;
+            if (after == BROKEN) return DECLINE;
         }
     }
 
@@ -148,16 +153,9 @@ final class FlatLine {
             Object v = value(depth);
             if (v == DECLINE) return DECLINE;
             list.add(v);
-            skip();
-            if (at(',')) {
-                i++;
-                skip();
-            } else if (at(']')) {
-                i++;
-                return list;
-            } else {
-                return DECLINE;
-            }
+            int after = separator(']');
+            if (after == CLOSED) return list;
+            if (after == BROKEN) return DECLINE;
         }
     }
 
