@@ -208,14 +208,12 @@ final class Driver {
 
     /** Lets the engine decide {@code batch} after the batch in flight, if any; writes and performs nothing. */
     private DecidedBatch decide(List<Input> batch, java.util.BitSet queued) {
-        List<InputRow> rows = new ArrayList<>(batch.size() + 1);
         List<Effect> all = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
         for (int i = 0; i < batch.size(); i++) {
             Input in = batch.get(i);
             Instant now = clock.instant();
-            rows.add(InputCodec.encode(in, now));
             List<Effect> fx = engine.handle(in, now);
             all.addAll(fx);
             times.add(now);
@@ -224,12 +222,20 @@ final class Driver {
         }
         long before = inFlight != null ? inFlight.sourceAfter() : sourceDone;
         long after = before + queued.cardinality();
-        if (source != null && after > before) rows.add(SourceProgress.row(source, after, times.get(times.size() - 1)));
-        return new DecidedBatch(batch, queued, rows, times, perInput, all, after, waiters.reached(batch));
+        InputRow progress = source != null && after > before ? SourceProgress.row(source, after, times.get(times.size() - 1)) : null;
+        return new DecidedBatch(batch, queued, progress, times, perInput, all, after, waiters.reached(batch));
     }
 
+    /**
+     * Writes {@code b} (on the committing thread when the driver goes on deciding): its journal
+     * rows are encoded here, off the driver thread; an input that cannot be encoded fails the
+     * commit, and the batch is taken apart as for any input the store cannot hold.
+     */
     private void commit(DecidedBatch b) {
-        writer.batch(b.inputs(), b.rows(), b.times(), b.perInput(), b.reached());
+        List<InputRow> rows = new ArrayList<>(b.size() + 1);
+        for (int i = 0; i < b.size(); i++) rows.add(InputCodec.encode(b.inputs().get(i), b.times().get(i)));
+        if (b.progress() != null) rows.add(b.progress());
+        writer.batch(b.inputs(), rows, b.times(), b.perInput(), b.reached());
     }
 
     /** Acts on a committed batch: its side effects, the listener, its waiting callers. */
