@@ -7,6 +7,9 @@ import java.util.HexFormat;
 
 /** SHA-256 (FIPS 180-4) as lowercase hex. Thread-safe. */
 public final class Sha256 {
+    /** One digest per thread: every ledger entry is hashed, and looking the algorithm up costs more than a short entry's hash. */
+    private static final ThreadLocal<MessageDigest> PER_THREAD = ThreadLocal.withInitial(Sha256::digest);
+
     private Sha256() {
     }
 
@@ -20,7 +23,8 @@ public final class Sha256 {
 
     /** SHA-256 over the concatenation of the UTF-8 bytes of {@code parts}. */
     public static String hexOf(String... parts) {
-        MessageDigest md = digest();
+        MessageDigest md = PER_THREAD.get(); // digest() leaves it reset
+        md.reset();
         for (String p : parts) md.update(p.getBytes(StandardCharsets.UTF_8));
         return HexFormat.of().formatHex(md.digest());
     }
