@@ -32,9 +32,10 @@ public final class FleetHealthView {
 
     private Fleet topology;
     /**
-     * Raised at every change of {@link #topology}: what a slot's remembered answer of
-     * {@link #isInTopology} is checked against (a number, not the fleet itself, so that no slot
-     * keeps an old topology alive: a fleet of 25,000 clusters is megabytes).
+     * Raised at every change of which clusters and nodes {@link #topology} holds (not at a
+     * change of a node's zone or attributes, which leaves every answer as it was): what a slot's
+     * remembered answer of {@link #isInTopology} is checked against (a number, not the fleet
+     * itself, so that no slot keeps an old topology alive: a fleet of 25,000 clusters is megabytes).
      */
     private long topologyVersion;
     /** One mutable slot per signal: a single map lookup per event. */
@@ -42,6 +43,13 @@ public final class FleetHealthView {
     /** The last slot looked up or made, and its key ({@link #slot}). */
     private SignalKey lastKey;
     private SignalSlot lastSlot;
+    /**
+     * Slots by number, for keys of {@link #numbering} (the first numbering the view is handed): a
+     * cache of {@link #signals}, filled as numbered keys are met (a slot stays its key's for the
+     * view's life, so no entry goes stale). Keys of another numbering are looked up in the map.
+     */
+    private SignalNumbering numbering;
+    private SignalSlot[] numbered = new SignalSlot[0];
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
@@ -61,8 +69,19 @@ public final class FleetHealthView {
 
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
-        SignalKey key = t.key();
-        SignalSlot slot = slot(key);
+        return apply(t, t.key(), null);
+    }
+
+    /**
+     * As {@link #apply(HealthTransition)}, with the transition's key numbered by its reader
+     * ({@code key.key()} equal to {@code t.key()}): the signal's slot is found by its number.
+     */
+    public ApplyOutcome apply(HealthTransition t, SignalNumbering.Numbered key) {
+        return apply(t, key.key(), key);
+    }
+
+    private ApplyOutcome apply(HealthTransition t, SignalKey key, SignalNumbering.Numbered numberedKey) {
+        SignalSlot slot = numberedKey == null ? slot(key) : slot(numberedKey);
         Instant at = t.at();
         if (slot != null && at.isBefore(slot.lastAt)) {
             lateEvents++;
@@ -73,6 +92,7 @@ public final class FleetHealthView {
         if (fresh) {
             slot = new SignalSlot(CHANGE_HISTORY);
             signals.put(key, slot);
+            if (numberedKey != null) remember(numberedKey, slot);
             lastKey = key;
             lastSlot = slot;
         }
@@ -106,6 +126,8 @@ public final class FleetHealthView {
         }
         appliedEvents++;
         topologyAppliedAt.put(key, e.at());
+        boolean clusterBefore = topology.contains(e.cluster(), null);
+        boolean nodeBefore = topology.contains(e.cluster(), e.node());
         ClusterSpec cluster = topology.cluster(e.cluster())
                 .orElse(new ClusterSpec(e.cluster(), Map.of(), null, false, java.util.List.of()));
         if (e.change() == TopologyChange.LEFT) {
@@ -116,7 +138,10 @@ public final class FleetHealthView {
             cluster = cluster.withNode(node);
         }
         topology = topology.withCluster(cluster);
-        topologyVersion++;
+        // an answer of isInTopology depends only on whether the cluster and the node are there
+        if (clusterBefore != topology.contains(e.cluster(), null) || nodeBefore != topology.contains(e.cluster(), e.node())) {
+            topologyVersion++;
+        }
         return ApplyOutcome.TOPOLOGY;
     }
 
@@ -167,6 +192,30 @@ public final class FleetHealthView {
         return s;
     }
 
+    /** {@link #slot(SignalKey)} of a numbered key: by its number when the view knows it, else from the map (and then known). */
+    private SignalSlot slot(SignalNumbering.Numbered n) {
+        SignalKey key = n.key();
+        if (key == lastKey) return lastSlot;
+        int i = n.number();
+        SignalSlot s = n.numbering() == numbering && i < numbered.length ? numbered[i] : null;
+        if (s == null) {
+            s = signals.get(key);
+            if (s == null) return null;
+            remember(n, s);
+        }
+        lastKey = key;
+        lastSlot = s;
+        return s;
+    }
+
+    private void remember(SignalNumbering.Numbered n, SignalSlot s) {
+        if (numbering == null) numbering = n.numbering();
+        else if (n.numbering() != numbering) return;
+        int i = n.number();
+        if (i >= numbered.length) numbered = java.util.Arrays.copyOf(numbered, Math.max(i + 1, Math.max(1024, numbered.length * 2)));
+        numbered[i] = s;
+    }
+
     public Optional<SignalStatus> status(SignalKey key) {
         SignalSlot s = slot(key);
         return s == null ? Optional.empty() : Optional.of(s.status());
@@ -174,8 +223,9 @@ public final class FleetHealthView {
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        SignalSlot s = slot(new SignalKey(cluster, node, signal));
-        return s != null && s.isProblem();
+        // the active signals of unhealthy clusters, a few hundred small sets, rather than the map of every signal
+        Problems p = problems.get(cluster);
+        return p != null && p.active.contains(new SignalKey(cluster, node, signal));
     }
 
     /**
