@@ -129,17 +129,24 @@ public final class Engine implements RunHost {
         boolean mattered = false;
         if (outcome == ApplyOutcome.CLEARED) {
             for (Candidate.Key k : candidates.triggeredBy(signal)) {
-                flow.drop(k, t.signal() + " cleared on " + k.target(), fx);
+                flow.drop(k, () -> t.signal() + " cleared on " + k.target(), fx);
                 mattered = true;
             }
-            for (RunProcess r : new ArrayList<>(ctx.active.values())) {
+            // the active runs on the cluster, as they stand before any of them is told (telling one may end it)
+            List<RunProcess> onCluster = null;
+            for (RunProcess r : ctx.active.values()) {
                 if (r.target().cluster().equals(t.cluster())) {
-                    machine.onHealthChange(r, fx);
-                    mattered = true;
+                    if (onCluster == null) onCluster = new ArrayList<>(2);
+                    onCluster.add(r);
                 }
             }
+            if (onCluster != null) {
+                for (RunProcess r : onCluster) machine.onHealthChange(r, fx);
+                mattered = true;
+            }
         } else {
-            Map<String, String> tags = ctx.health.topology().cluster(t.cluster()).map(c -> c.tags()).orElse(Map.of());
+            dev.tend.shared.fleet.ClusterSpec spec = ctx.health.clusterSpec(t.cluster());
+            Map<String, String> tags = spec != null ? spec.tags() : Map.of();
             for (Playbook p : setup.playbooks().match(t, tags)) {
                 Target target = p.trigger().scope() == Scope.NODE ? Target.node(t.cluster(), t.node()) : Target.cluster(t.cluster());
                 Candidate.Key key = new Candidate.Key(p.id(), target);
@@ -151,7 +158,7 @@ public final class Engine implements RunHost {
             }
         }
         boolean unknown = !ctx.health.isInTopology(signal);
-        if (mattered || unknown) {
+        if ((mattered || unknown) && fx.keeps(LedgerKind.TRANSITION)) {
             fx.ledger(LedgerKind.TRANSITION, "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
                     "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
@@ -228,7 +235,8 @@ public final class Engine implements RunHost {
     }
 
     private void track(List<Effect> effects) {
-        for (Effect e : effects) {
+        for (int i = 0; i < effects.size(); i++) {
+            Effect e = effects.get(i);
             if (e instanceof Effect.ArmTimer a) timers.put(a.key(), a.due());
             else if (e instanceof Effect.CancelTimer c) timers.remove(c.key());
         }

@@ -282,7 +282,8 @@ public final class Replayer {
             Instant now = clock.instant();
             List<Effect> effects = engine.handle(in, now);
             collector.observe(effects, now);
-            for (Effect e : effects) {
+            for (int i = 0; i < effects.size(); i++) {
+                Effect e = effects.get(i);
                 if (e instanceof Effect.ArmTimer a) agenda.arm(a.key(), a.due());
                 else if (e instanceof Effect.CancelTimer c) agenda.cancel(c.key());
                 else if (e instanceof Effect.CallExecutor call) responses.answer(call, now, agenda);

@@ -50,6 +50,9 @@ public final class FleetHealthView {
      */
     private SignalNumbering numbering;
     private SignalSlot[] numbered = new SignalSlot[0];
+    /** The last answer of {@link #clusterSpec} and for which id (the instance); forgotten when the topology changes. */
+    private Id lastClusterId;
+    private ClusterSpec lastCluster;
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
@@ -65,6 +68,19 @@ public final class FleetHealthView {
 
     public Fleet topology() {
         return topology;
+    }
+
+    /**
+     * The cluster {@code id} of the topology, or null: {@code topology().cluster(id).orElse(null)},
+     * the last answer remembered (the guards of one evaluation ask about the same cluster five
+     * times or more) until the topology changes.
+     */
+    public ClusterSpec clusterSpec(Id id) {
+        if (id == lastClusterId) return lastCluster;
+        ClusterSpec spec = topology.cluster(id).orElse(null);
+        lastClusterId = id;
+        lastCluster = spec;
+        return spec;
     }
 
     /** Applies a transition and says what it did. */
@@ -138,6 +154,8 @@ public final class FleetHealthView {
             cluster = cluster.withNode(node);
         }
         topology = topology.withCluster(cluster);
+        lastClusterId = null;
+        lastCluster = null;
         // an answer of isInTopology depends only on whether the cluster and the node are there
         if (clusterBefore != topology.contains(e.cluster(), null) || nodeBefore != topology.contains(e.cluster(), e.node())) {
             topologyVersion++;
@@ -267,6 +285,12 @@ public final class FleetHealthView {
     public boolean isNodeImpaired(Id cluster, Id node) {
         Problems p = problems.get(cluster);
         return p != null && p.perNode.containsKey(node);
+    }
+
+    /** How many nodes of a cluster have at least one signal in breach or silent: {@code impairedNodes(cluster).size()}, without a copy. */
+    public int impairedNodeCount(Id cluster) {
+        Problems p = problems.get(cluster);
+        return p == null ? 0 : p.perNode.size();
     }
 
     /** The nodes of a cluster with at least one signal in breach or silent. */
