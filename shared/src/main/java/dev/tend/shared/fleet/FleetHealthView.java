@@ -99,7 +99,7 @@ public final class FleetHealthView {
     private ApplyOutcome apply(HealthTransition t, SignalKey key, SignalNumbering.Numbered numberedKey) {
         SignalSlot slot = numberedKey == null ? slot(key) : slot(numberedKey);
         Instant at = t.at();
-        if (slot != null && at.isBefore(slot.lastAt)) {
+        if (slot != null && slot.isBeforeLast(at)) {
             lateEvents++;
             return ApplyOutcome.LATE;
         }
@@ -113,19 +113,19 @@ public final class FleetHealthView {
             lastSlot = slot;
         }
         if (!fresh && slot.state == t.state()) {
-            slot.lastAt = at;
+            slot.lastAt(at);
             return ApplyOutcome.REPEATED;
         }
         if (fresh && t.state() == SignalState.CLEAR) {
             slot.state = SignalState.CLEAR;
             slot.since = at;
-            slot.lastAt = at;
+            slot.lastAt(at);
             return ApplyOutcome.REPEATED;
         }
         boolean wasProblem = !fresh && slot.isProblem();
         slot.state = t.state();
         slot.since = at;
-        slot.lastAt = at;
+        slot.lastAt(at);
         slot.changed(at);
         if (t.state().isProblem() && !wasProblem) count(key, +1);
         if (!t.state().isProblem() && wasProblem) count(key, -1);
@@ -345,7 +345,7 @@ public final class FleetHealthView {
         java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
         for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) {
             SignalSlot st = e.getValue();
-            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt, java.util.List.copyOf(st.changes())));
+            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt(), java.util.List.copyOf(st.changes())));
         }
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
@@ -370,7 +370,7 @@ public final class FleetHealthView {
             SignalSlot slot = new SignalSlot(CHANGE_HISTORY);
             slot.state = s.state();
             slot.since = s.since();
-            slot.lastAt = s.lastAt();
+            slot.lastAt(s.lastAt());
             for (Instant c : s.changes()) slot.changed(c);
             v.signals.put(s.key(), slot);
             if (s.state().isProblem()) v.count(s.key(), +1);
