@@ -75,7 +75,7 @@ final class Waiters {
     /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
     void receiptInto(Input in, Instant at, List<LedgerDraft> ledger) {
         LedgerDraft r = receipts.get(in);
-        if (r != null) ledger.add(new LedgerDraft(at, r.kind(), r.fields()));
+        if (r != null) ledger.add(r.stampedAt(at));
     }
 
     /** {@code in} was committed with effects {@code fx}. */

@@ -45,8 +45,8 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
     private Map<String, int[]> clustersPerZone = new TreeMap<>();
     /** Each zone's own nodes (a cluster usually has nodes in several zones). */
     private Map<String, int[]> nodesPerZone = new TreeMap<>();
-    /** Unhealthy clusters, by id, with what the picture shows of each. */
-    private final TreeMap<Id, Unhealthy> unhealthy = new TreeMap<>();
+    /** Unhealthy clusters, by id, with what the picture shows of each (ordered by id when assembled, not at every commit). */
+    private final HashMap<Id, Unhealthy> unhealthy = new HashMap<>();
     private Figures figures;
     /** The picture of the entries and figures above; null until it is asked for again after a change. */
     private FleetHealth picture = FleetHealth.empty();
@@ -198,7 +198,7 @@ final class FleetHealthPublisher implements CommitListener, Supplier<FleetHealth
         Map<String, List<String>> unhealthyPerZone = new TreeMap<>();
         Map<String, Integer> impaired = new TreeMap<>();
         List<FleetHealth.ClusterProblem> problems = new ArrayList<>(unhealthy.size());
-        for (Unhealthy u : unhealthy.values()) {
+        for (Unhealthy u : new TreeMap<>(unhealthy).values()) {
             problems.add(u.problem());
             for (String z : u.problem().zones()) unhealthyPerZone.computeIfAbsent(z, k -> new ArrayList<>()).add(u.problem().cluster());
             u.impairedPerZone().forEach((z, n) -> impaired.merge(z, n, Integer::sum));

@@ -19,7 +19,7 @@ import java.time.Duration;
 import static dev.tend.serve.ServeFixture.VERA;
 import static org.assertj.core.api.Assertions.assertThat;
 
-/** The server's edges: whom it answers, the headers of its console, and guessing tokens. */
+/** The server's edges: whom it answers, the headers of its console and its answers, and guessing tokens. */
 class ServeEdgesTest {
     @TempDir
     Path dir;
@@ -75,6 +75,21 @@ class ServeEdgesTest {
         assertThat(blocked.headers().firstValue("Retry-After")).isPresent();
         assertThat(get("/api/v1/me", VERA).statusCode()).as("the address waits, whatever token it sends").isEqualTo(429);
         assertThat(get("/api/v1/me", null).statusCode()).as("without a token it is no guess").isEqualTo(429);
+    }
+
+    @Test
+    void anAcceptedTransitionIsAnsweredWithItsCountsAsJsonAndTheSameHeadersAsEveryRoute() throws Exception {
+        serve.start(dir);
+        HttpRequest post = HttpRequest.newBuilder(URI.create(serve.server().url() + "/api/v1/transitions")).timeout(Duration.ofSeconds(10))
+                .header("Authorization", "Bearer " + ServeFixture.OLGA)
+                .POST(HttpRequest.BodyPublishers.ofString(ServeFixture.transition("fares-3", "n1", "process-down", "clear"))).build();
+        HttpResponse<String> r = HttpClient.newHttpClient().send(post, HttpResponse.BodyHandlers.ofString());
+        assertThat(r.statusCode()).isEqualTo(200);
+        assertThat(r.body()).isEqualTo("{\"accepted\":1,\"rejected\":0,\"problems\":[]}");
+        assertThat(r.headers().firstValue("Content-Type").orElseThrow()).startsWith("application/json");
+        assertThat(r.headers().firstValue("Content-Length")).hasValue(String.valueOf(r.body().length()));
+        assertThat(r.headers().firstValue("X-Content-Type-Options")).hasValue("nosniff");
+        assertThat(r.headers().firstValue("X-Frame-Options")).hasValue("DENY");
     }
 
     private HttpResponse<String> get(String path, String token) {

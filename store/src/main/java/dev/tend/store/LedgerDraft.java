@@ -4,6 +4,7 @@ import dev.tend.shared.Id;
 import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
+import java.util.AbstractMap;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -11,6 +12,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import java.util.Set;
+import java.util.function.BiConsumer;
 
 /**
  * A ledger entry before it is appended: the store adds {@code seq}, {@code at} and
@@ -21,7 +23,9 @@ import java.util.Set;
  * {@link Id} (written as its text) and enums (their {@code toString()}). It must not hold
  * the keys {@code seq}, {@code at} or {@code kind}. When present, {@code cluster},
  * {@code playbook} and {@code run} must be text: they are copied to indexed columns.
- * The map is copied (deeply) and the copy is unmodifiable.
+ * The map is copied (deeply) and the copy is unmodifiable; the fields of another draft are
+ * taken as they are (they were checked and copied when that draft was made), so restamping a
+ * draft ({@link #stampedAt(Instant)}) costs no copy.
  */
 public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
     /** Keys the store writes itself. */
@@ -34,6 +38,15 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
         Objects.requireNonNull(kind, "LedgerDraft.kind must not be null");
         if (kind.isBlank()) throw new IllegalArgumentException("LedgerDraft.kind must not be blank");
         Objects.requireNonNull(fields, "LedgerDraft.fields must not be null (pass an empty map)");
+        if (!(fields instanceof Checked)) fields = new Checked(checkedCopy(fields));
+    }
+
+    /** This draft stamped {@code newAt}, sharing its checked fields. */
+    public LedgerDraft stampedAt(Instant newAt) {
+        return new LedgerDraft(newAt, kind, fields);
+    }
+
+    private static Map<String, Object> checkedCopy(Map<String, Object> fields) {
         Map<String, Object> copy = new LinkedHashMap<>();
         for (Map.Entry<?, ?> e : fields.entrySet()) {
             if (!(e.getKey() instanceof String key)) {
@@ -48,7 +61,7 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
             }
             copy.put(key, value);
         }
-        fields = Collections.unmodifiableMap(copy);
+        return Collections.unmodifiableMap(copy);
     }
 
     public static LedgerDraft of(Instant at, String kind, Map<String, Object> fields) {
@@ -58,6 +71,48 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
     /** The text of an indexed field ({@code cluster}, {@code playbook}, {@code run}), or null. */
     public String indexed(String key) {
         return (String) fields.get(key);
+    }
+
+    /**
+     * The fields of a draft, checked and copied by its constructor: only that constructor
+     * makes one, so a map of this class needs no second look.
+     */
+    private static final class Checked extends AbstractMap<String, Object> {
+        private final Map<String, Object> fields;
+
+        private Checked(Map<String, Object> fields) {
+            this.fields = fields;
+        }
+
+        @Override
+        public Set<Entry<String, Object>> entrySet() {
+            return fields.entrySet();
+        }
+
+        @Override
+        public Object get(Object key) {
+            return fields.get(key);
+        }
+
+        @Override
+        public boolean containsKey(Object key) {
+            return fields.containsKey(key);
+        }
+
+        @Override
+        public int size() {
+            return fields.size();
+        }
+
+        @Override
+        public Set<String> keySet() {
+            return fields.keySet();
+        }
+
+        @Override
+        public void forEach(BiConsumer<? super String, ? super Object> action) {
+            fields.forEach(action);
+        }
     }
 
     private static Object normalize(Object v, String path) {

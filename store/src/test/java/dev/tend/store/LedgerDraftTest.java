@@ -69,4 +69,23 @@ class LedgerDraftTest {
         assertThat(d.indexed("run")).isNull();
         assertThatThrownBy(() -> d.fields().put("x", 1)).isInstanceOf(UnsupportedOperationException.class);
     }
+
+    @Test
+    void aRestampedDraftHoldsTheSameFieldsAsOneMadeAnewAtThatTime() {
+        Map<String, Object> fields = new HashMap<>();
+        fields.put("by", "bench-feed");
+        fields.put("from", "127.0.0.1");
+        fields.put("accepted", 1);
+        fields.put("rejected", 0);
+        LedgerDraft first = LedgerDraft.of(T, "transitions-received", fields);
+        Instant later = T.plusMillis(3);
+        LedgerDraft restamped = first.stampedAt(later);
+        assertThat(restamped).isEqualTo(LedgerDraft.of(later, "transitions-received", fields));
+        assertThat(restamped.fields()).isEqualTo(fields).containsExactlyEntriesOf(first.fields());
+        // a draft made from another's fields keeps them as they are, and they still cannot be changed
+        assertThat(LedgerDraft.of(later, "transitions-received", first.fields())).isEqualTo(restamped);
+        assertThatThrownBy(() -> restamped.fields().put("accepted", 2)).isInstanceOf(UnsupportedOperationException.class);
+        assertThatThrownBy(() -> restamped.fields().entrySet().iterator().next().setValue("x"))
+                .isInstanceOf(UnsupportedOperationException.class);
+    }
 }

@@ -25,6 +25,7 @@ class PostgresLedgerQueryTest extends LedgerQueryContractTest {
             while (rs.next()) defs.add(rs.getString(1));
         }
         assertThat(defs).anySatisfy(d -> assertThat(d).contains("ledger_kind ON").contains("(kind, seq)"))
-                .anySatisfy(d -> assertThat(d).contains("ledger_playbook ON").contains("(playbook, seq)"));
+                .anySatisfy(d -> assertThat(d).contains("ledger_playbook ON").contains("(playbook, seq)"))
+                .anySatisfy(d -> assertThat(d).contains("ledger_kind_time ON").contains("(kind, at_ns, run)"));
     }
 }

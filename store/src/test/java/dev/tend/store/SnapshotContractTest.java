@@ -42,12 +42,13 @@ abstract class SnapshotContractTest extends StoreTestBase {
         db.execute("DROP TABLE stream_offsets");
         db.execute("DROP INDEX ledger_kind");
         db.execute("DROP INDEX ledger_playbook");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20"))
-                .isEqualTo(4);
+        db.execute("DROP INDEX ledger_kind_time");
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20",
+                "2.21")).isEqualTo(5);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?) AND success = ?", "2.17",
-                "2.18", "2.19", "2.20", true)).isEqualTo("4");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?) AND success = ?", "2.17",
+                "2.18", "2.19", "2.20", "2.21", true)).isEqualTo("5");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }

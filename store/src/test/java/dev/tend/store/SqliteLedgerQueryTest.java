@@ -31,7 +31,9 @@ class SqliteLedgerQueryTest extends LedgerQueryContractTest {
                 .contains("ledger_playbook").doesNotContain("TEMP B-TREE");
         assertThat(plan("SELECT run FROM ledger WHERE kind IN ('run-started', 'run-shadowed') AND at_ns < 5 AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN ('run-ended') AND at_ns < 5 AND run IS NOT NULL"))
-                .contains("ledger_kind").doesNotContain("SCAN ledger\n");
+                .contains("COVERING INDEX ledger_kind_time").doesNotContain("SCAN ledger\n");
+        assertThat(plan("SELECT seq FROM ledger WHERE kind IN ('loop-stopped', 'loop-cleared') AND at_ns < 5"))
+                .contains("ledger_kind_time (kind=? AND at_ns<?)").doesNotContain("SCAN ledger\n");
         assertThat(plan("SELECT MIN(seq), MAX(seq) FROM ledger WHERE at_ns >= 1 AND at_ns < 5")).contains("COVERING INDEX ledger_at");
         assertThat(plan("SELECT MIN(seq + 0) FROM ledger WHERE at_ns >= 1")).contains("COVERING INDEX ledger_at");
         assertThat(plan("SELECT seq FROM ledger WHERE seq < 9223372036854775807 AND seq IN (SELECT seq FROM ledger"

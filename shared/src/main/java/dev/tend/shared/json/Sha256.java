@@ -7,11 +7,18 @@ import java.util.HexFormat;
 
 /** SHA-256 (FIPS 180-4) as lowercase hex. Thread-safe. */
 public final class Sha256 {
+    private static final HexFormat HEX = HexFormat.of();
+    /**
+     * One digest per thread, reset by each {@code digest()}: looking the algorithm up in the
+     * providers at every hash cost more than hashing a ledger entry or a token.
+     */
+    private static final ThreadLocal<MessageDigest> DIGEST = ThreadLocal.withInitial(Sha256::newDigest);
+
     private Sha256() {
     }
 
     public static String hex(byte[] data) {
-        return HexFormat.of().formatHex(digest().digest(data));
+        return HEX.formatHex(digest().digest(data));
     }
 
     public static String hex(String utf8) {
@@ -22,10 +29,16 @@ public final class Sha256 {
     public static String hexOf(String... parts) {
         MessageDigest md = digest();
         for (String p : parts) md.update(p.getBytes(StandardCharsets.UTF_8));
-        return HexFormat.of().formatHex(md.digest());
+        return HEX.formatHex(md.digest());
     }
 
     private static MessageDigest digest() {
+        MessageDigest md = DIGEST.get();
+        md.reset(); // digest() resets it; this covers an update cut off by an error
+        return md;
+    }
+
+    private static MessageDigest newDigest() {
         try {
             return MessageDigest.getInstance("SHA-256");
         } catch (NoSuchAlgorithmException e) {

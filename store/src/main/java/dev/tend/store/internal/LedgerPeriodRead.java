@@ -1,5 +1,6 @@
 package dev.tend.store.internal;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import dev.tend.store.LedgerEntry;
 import dev.tend.store.LedgerEntryRead;
 import dev.tend.store.LedgerPeriodQuery;
@@ -8,7 +9,9 @@ import org.jdbi.v3.core.statement.Query;
 
 import java.nio.charset.StandardCharsets;
 import java.util.List;
+import java.util.concurrent.CompletableFuture;
 import java.util.function.Consumer;
+import java.util.stream.IntStream;
 
 /**
  * What a report of a period reads of the ledger ({@link LedgerPeriodQuery}): the few entries
@@ -31,15 +34,19 @@ final class LedgerPeriodRead {
         this.carried = carried(query);
     }
 
-    /** Before the period: the carried kinds, and every entry of a run still open at since (few, in seq order). */
+    /**
+     * Before the period: the carried kinds, and every entry of a run still open at since (few, in
+     * seq order). Their seqs come from the indexes alone (ledger_kind_time, ledger_run), then the
+     * rows by seq in order, so that no row is sorted.
+     */
     private List<LedgerVerifier.Raw> carried(LedgerPeriodQuery query) {
         String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
-        String before = "SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
+        String seqs = "SELECT seq FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
         if (!query.carriedKinds().isEmpty()) {
-            before = before + " UNION SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE kind IN (<carried>) AND at_ns < :since";
+            seqs = seqs + " UNION ALL SELECT seq FROM ledger WHERE kind IN (<carried>) AND at_ns < :since";
         }
-        Query carriedQuery = handle.createQuery(before + " ORDER BY seq")
+        Query carriedQuery = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq IN (" + seqs + ") ORDER BY seq")
                 .bind("since", since)
                 .bindList("opening", List.copyOf(query.openingKinds()))
                 .bindList("closing", List.copyOf(query.closingKinds()));
@@ -82,11 +89,20 @@ final class LedgerPeriodRead {
     }
 
     /** The carried entries before {@code seq}, their text parsed (the usual one in one pass, as the walk does). */
-    private void carriedBefore(long seq, LedgerEntryRead consumer) {
+    private void carriedBefore(long seq, JsonNode[] fields, LedgerEntryRead consumer) {
         while (next < carried.size() && carried.get(next).seq() < seq) {
-            LedgerVerifier.Raw r = carried.get(next++);
-            consumer.accept(r.seq(), Times.fromNanos(r.atNs()), r.kind(), LedgerVerifier.fields(r.entry()));
+            LedgerVerifier.Raw r = carried.get(next);
+            consumer.accept(r.seq(), Times.fromNanos(r.atNs()), r.kind(), fields[next++]);
         }
+    }
+
+    /** The carried entries' texts parsed, on the pool (they are parsed while the walk reads its first rows). */
+    private CompletableFuture<JsonNode[]> parseCarried() {
+        return CompletableFuture.supplyAsync(() -> {
+            JsonNode[] fields = new JsonNode[carried.size()];
+            IntStream.range(0, fields.length).parallel().forEach(i -> fields[i] = LedgerVerifier.fields(carried.get(i).entry()));
+            return fields;
+        });
     }
 
     /**
@@ -102,12 +118,13 @@ final class LedgerPeriodRead {
             forEach(parsed);
             return new LedgerVerifier(handle).verifyFrom(fromSeq);
         }
+        CompletableFuture<JsonNode[]> parsing = parseCarried();
         dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, fields) -> {
             if (row.atNs() < since || row.atNs() >= until) return;
-            carriedBefore(row.seq(), consumer);
+            carriedBefore(row.seq(), parsing.join(), consumer);
             consumer.accept(row.seq(), Times.fromNanos(row.atNs()), row.kind(), fields);
         });
-        carriedBefore(Long.MAX_VALUE, consumer);
+        carriedBefore(Long.MAX_VALUE, parsing.join(), consumer);
         return v;
     }
 }

@@ -20,6 +20,10 @@ import java.util.Objects;
 import java.util.Optional;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Semaphore;
+import java.util.concurrent.ThreadFactory;
 import java.util.stream.IntStream;
 
 /**
@@ -27,7 +31,7 @@ import java.util.stream.IntStream;
  * as raw columns, not as {@link LedgerEntry}, because a tampered row need not be a valid entry.
  * A walk may hand every row it reads, with its text parsed, to a {@link Sink} (the handover
  * tallies the period it verifies in the same walk); it then reads on to the newest entry
- * after a fault, so that the sink sees every row.
+ * after a fault, so that the sink sees every row. The sink is called on one thread, not the caller's.
  */
 final class LedgerVerifier {
     private static final ObjectMapper JSON = new ObjectMapper();
@@ -35,6 +39,13 @@ final class LedgerVerifier {
     private static final ObjectReader READER = JSON.readerFor(JsonNode.class);
     /** Rows read before their own checks are spread over the cores. */
     private static final int CHUNK = 4096;
+    /** Chunks read ahead of the walk at most (the memory of a walk over millions of entries stays bounded). */
+    private static final int IN_FLIGHT = 4;
+    private static final ThreadFactory WALKER = task -> {
+        Thread t = new Thread(task, "tend-ledger-walk");
+        t.setDaemon(true);
+        return t;
+    };
     private static final ThreadLocal<MessageDigest> SHA256 = ThreadLocal.withInitial(() -> {
         try {
             return MessageDigest.getInstance("SHA-256");
@@ -63,6 +74,8 @@ final class LedgerVerifier {
     private String lastHash = LedgerEntry.GENESIS_HASH;
     private long first = 1;
     private LedgerVerification broken;
+    /** Set by the walk when the rows after it need not be read. */
+    private volatile boolean stopped;
 
     LedgerVerifier(Handle handle) {
         this.handle = handle;
@@ -79,8 +92,9 @@ final class LedgerVerifier {
 
     /**
      * Checks the entries from {@code fromSeq} on and, when {@code sink} is not null, hands it
-     * every row read. Reading the next chunk of rows overlaps the checks of the one before
-     * (on the other cores); the chain is then walked in order on this thread.
+     * every row read. This thread reads the rows; what each says about itself is checked on the
+     * other cores, a chunk at a time, and the chain is walked in order (and the sink called) on a
+     * thread of its own while the next chunks are read.
      */
     LedgerVerification verifyFrom(long fromSeq, Sink sink) {
         if (fromSeq > 1) {
@@ -101,31 +115,50 @@ final class LedgerVerifier {
             if (broken != null && sink == null) return broken;
         }
         first = Math.max(1, fromSeq);
+        // this thread only reads rows; each chunk's own checks run on the pool, and the walk (and the sink) on one
+        // thread of its own, chunk after chunk in seq order; at most IN_FLIGHT chunks are read ahead of the walk
+        ExecutorService walker = Executors.newSingleThreadExecutor(WALKER);
+        Semaphore room = new Semaphore(IN_FLIGHT);
+        CompletableFuture<Boolean> walked = CompletableFuture.completedFuture(true);
         try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :from ORDER BY seq")
                 .bind("from", first)
                 .setFetchSize(JdbiReader.FETCH_SIZE)
                 .map((rs, ctx) -> raw(rs))
                 .iterator()) {
             List<Raw> chunk = new ArrayList<>(CHUNK);
-            CompletableFuture<Content[]> checking = null;
-            List<Raw> checked = null;
             while (rows.hasNext()) {
                 chunk.add(rows.next());
                 if (chunk.size() == CHUNK || !rows.hasNext()) {
-                    if (checking != null && !walk(checked, join(checking), sink)) return broken;
-                    checked = chunk;
+                    acquire(room);
+                    if (stopped) break; // the walk stopped (a fault, and no sink to read on for) or failed: read no further
                     List<Raw> rowsToCheck = chunk;
-                    checking = CompletableFuture.supplyAsync(() -> contents(rowsToCheck));
+                    CompletableFuture<Content[]> checking = CompletableFuture.supplyAsync(() -> contents(rowsToCheck));
+                    walked = walked.thenCombineAsync(checking, (going, content) -> going && walk(rowsToCheck, content, sink), walker);
+                    walked.whenComplete((going, failure) -> {
+                        if (failure != null || !going) stopped = true;
+                        room.release();
+                    });
                     chunk = new ArrayList<>(CHUNK);
                 }
             }
-            if (checking != null && !walk(checked, join(checking), sink)) return broken;
+            if (!join(walked)) return broken;
+        } finally {
+            walker.shutdown();
         }
         return broken != null ? broken : checkHead();
     }
 
-    /** The checks of a chunk; what failed in them is thrown as it was. */
-    private static Content[] join(CompletableFuture<Content[]> checking) {
+    private static void acquire(Semaphore room) {
+        try {
+            room.acquire();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("interrupted while verifying the ledger", e);
+        }
+    }
+
+    /** What a chunk's checks or its walk gave; what failed in them is thrown as it was. */
+    private static <T> T join(CompletableFuture<T> checking) {
         try {
             return checking.join();
         } catch (CompletionException e) {
