@@ -5,46 +5,93 @@ import dev.tend.engine.Input;
 import dev.tend.store.LedgerDraft;
 
 import java.time.Instant;
-import java.util.Collections;
-import java.util.IdentityHashMap;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.atomic.AtomicInteger;
 
 /**
  * The callers of the {@link Orchestrator} that wait for an input to be committed (to answer a
  * person with its effects), the receipts to append to the ledger with an input, and where an
  * event read from a stream was read (its offset is stored with it). Inputs are told apart by
  * identity: the same input object submitted, the same one answered.
+ *
+ * <p>What is kept for one input is one entry of one concurrent map (an HTTP request: put once
+ * by its thread, read and removed once by the driver), so the request threads and the driver
+ * do not queue on one lock for every request.
  */
 final class Waiters {
-    private final Map<Input, CompletableFuture<List<Effect>>> waiting = Collections.synchronizedMap(new IdentityHashMap<>());
-    /** Ledger entries to append right after an input's own, in the transaction that commits it. */
-    private final Map<Input, LedgerDraft> receipts = Collections.synchronizedMap(new IdentityHashMap<>());
-    /** Where events read from a stream were read, until their commit or refusal. */
-    private final Map<Input, StreamPosition> positions = Collections.synchronizedMap(new IdentityHashMap<>());
+    private final Map<Key, Pending> pending = new ConcurrentHashMap<>();
+    /** Entries holding a receipt, and a stream position: when none does, a batch skips the look-ups. */
+    private final AtomicInteger receipts = new AtomicInteger();
+    private final AtomicInteger positions = new AtomicInteger();
+
+    /** An input, equal only to itself (inputs are records: two alike are still two inputs). */
+    private static final class Key {
+        private final Input in;
+        private final int hash;
+
+        Key(Input in) {
+            this.in = in;
+            this.hash = System.identityHashCode(in);
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof Key k && k.in == in;
+        }
+
+        @Override
+        public int hashCode() {
+            return hash;
+        }
+    }
+
+    /**
+     * What waits with one input. Set by the thread that submits it, before it is queued (the
+     * queue hands it to the driver with everything set); read by the driver and the commit.
+     */
+    private static final class Pending {
+        volatile CompletableFuture<List<Effect>> future;
+        volatile LedgerDraft receipt;
+        volatile StreamPosition position;
+    }
+
+    private Pending of(Input in) {
+        return pending.computeIfAbsent(new Key(in), k -> new Pending());
+    }
 
     /** A future completed with {@code in}'s effects once committed. */
     CompletableFuture<List<Effect>> await(Input in) {
         CompletableFuture<List<Effect>> f = new CompletableFuture<>();
-        waiting.put(in, f);
+        of(in).future = f;
         return f;
     }
 
     /** Appends {@code receipt} with {@code in} when it commits. */
     void withReceipt(Input in, LedgerDraft receipt) {
-        receipts.put(in, Objects.requireNonNull(receipt, "receipt"));
+        Objects.requireNonNull(receipt, "receipt");
+        Pending p = of(in);
+        if (p.receipt == null) receipts.incrementAndGet();
+        p.receipt = receipt;
     }
 
     /** Stores the offset after {@code at} when {@code in} commits (or is refused). */
     void withPosition(Input in, StreamPosition at) {
-        positions.put(in, Objects.requireNonNull(at, "at"));
+        Objects.requireNonNull(at, "at");
+        Pending p = of(in);
+        if (p.position == null) positions.incrementAndGet();
+        p.position = at;
     }
 
     /** Where {@code in} was read from a stream; null when it was not. */
     StreamPosition position(Input in) {
-        return positions.isEmpty() ? null : positions.get(in);
+        if (positions.get() == 0) return null;
+        Pending p = pending.get(new Key(in));
+        return p == null ? null : p.position;
     }
 
     /**
@@ -52,10 +99,10 @@ final class Waiters {
      * with offset 0), each with the offset after the last of them: what the batch's commit stores.
      */
     Map<StreamPosition, Long> reached(List<Input> batch) {
-        if (positions.isEmpty()) return Map.of();
-        Map<StreamPosition, Long> out = new java.util.HashMap<>();
+        if (positions.get() == 0) return Map.of();
+        Map<StreamPosition, Long> out = new HashMap<>();
         for (Input in : batch) {
-            StreamPosition p = positions.get(in);
+            StreamPosition p = position(in);
             if (p != null) out.merge(new StreamPosition(p.topic(), p.partition(), 0), p.offset() + 1, Math::max);
         }
         return out;
@@ -63,50 +110,49 @@ final class Waiters {
 
     /** Forgets {@code in} (it was never queued). */
     void forget(Input in) {
-        waiting.remove(in);
-        receipts.remove(in);
-        positions.remove(in);
+        remove(in);
     }
 
+    /** Whether some input may carry a receipt (false: no input does, and {@link #receiptInto} adds nothing). */
     boolean hasReceipts() {
-        return !receipts.isEmpty();
+        return receipts.get() > 0;
     }
 
     /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
     void receiptInto(Input in, Instant at, List<LedgerDraft> ledger) {
-        LedgerDraft r = receipts.get(in);
+        if (receipts.get() == 0) return;
+        Pending p = pending.get(new Key(in));
+        LedgerDraft r = p == null ? null : p.receipt;
         if (r != null) ledger.add(r.stampedAt(at));
     }
 
     /** {@code in} was committed with effects {@code fx}. */
     void committed(Input in, List<Effect> fx) {
-        receipts.remove(in);
-        positions.remove(in);
-        CompletableFuture<List<Effect>> f = waiting.remove(in);
-        if (f != null) f.complete(fx);
+        Pending p = remove(in);
+        if (p != null && p.future != null) p.future.complete(fx);
     }
 
     /** {@code in} was committed, in a batch: completes the waiting callers of all its inputs. */
     void committed(List<Input> batch, List<List<Effect>> perInput) {
-        if (!receipts.isEmpty()) {
-            for (Input in : batch) receipts.remove(in);
-        }
-        if (!positions.isEmpty()) {
-            for (Input in : batch) positions.remove(in);
-        }
-        if (!waiting.isEmpty()) {
-            for (int i = 0; i < batch.size(); i++) {
-                CompletableFuture<List<Effect>> f = waiting.remove(batch.get(i));
-                if (f != null) f.complete(perInput.get(i));
-            }
+        if (pending.isEmpty()) return;
+        for (int i = 0; i < batch.size(); i++) {
+            Pending p = remove(batch.get(i));
+            if (p != null && p.future != null) p.future.complete(perInput.get(i));
         }
     }
 
     /** {@code in} will not be committed: its caller gets {@code cause}. */
     void failed(Input in, Throwable cause) {
-        receipts.remove(in);
-        positions.remove(in);
-        CompletableFuture<List<Effect>> f = waiting.remove(in);
-        if (f != null) f.completeExceptionally(cause);
+        Pending p = remove(in);
+        if (p != null && p.future != null) p.future.completeExceptionally(cause);
+    }
+
+    private Pending remove(Input in) {
+        Pending p = pending.remove(new Key(in));
+        if (p != null) {
+            if (p.receipt != null) receipts.decrementAndGet();
+            if (p.position != null) positions.decrementAndGet();
+        }
+        return p;
     }
 }
