@@ -27,7 +27,10 @@ public final class LedgerChain {
     }
 
     public static String entryText(long seq, Instant at, String kind, Map<String, Object> fields) {
-        Map<String, Object> m = new HashMap<>(fields);
+        // sized for the fields and the three keys added, so it never grows; filled by forEach
+        // (a draft's fields walked as entries would wrap each entry: they are unmodifiable)
+        Map<String, Object> m = new HashMap<>(2 * (fields.size() + 3));
+        fields.forEach(m::put);
         m.put("seq", seq);
         m.put("at", formatAt(at));
         m.put("kind", kind);
