@@ -7,7 +7,6 @@ import dev.tend.store.LedgerDraft;
 import dev.tend.store.LedgerEntry;
 
 import java.time.Instant;
-import java.util.HashMap;
 import java.util.Map;
 
 /**
@@ -27,14 +26,7 @@ public final class LedgerChain {
     }
 
     public static String entryText(long seq, Instant at, String kind, Map<String, Object> fields) {
-        // sized for the fields and the three keys added, so it never grows; filled by forEach
-        // (a draft's fields walked as entries would wrap each entry: they are unmodifiable)
-        Map<String, Object> m = new HashMap<>(2 * (fields.size() + 3));
-        fields.forEach(m::put);
-        m.put("seq", seq);
-        m.put("at", formatAt(at));
-        m.put("kind", kind);
-        return CanonicalJson.serialize(m);
+        return CanonicalJson.serializeObject(fields, "seq", seq, "at", formatAt(at), "kind", kind);
     }
 
     public static String hash(String prevHash, String entryText) {
