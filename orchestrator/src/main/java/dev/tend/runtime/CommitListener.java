@@ -8,10 +8,13 @@ import java.util.List;
 
 /**
  * Told about every batch of inputs after it was committed and its side effects were
- * started. Called on the driver thread, which is the one thread allowed to read the
- * engine: a listener may read {@code engine} during the call, and must publish anything
- * other threads need as an immutable copy. It must return quickly; an exception it throws
- * stops the driver like a failed commit would.
+ * started, in the order of the batches. Called on the driver thread, which is the one thread
+ * allowed to read the engine: a listener may read {@code engine} during the call, and must
+ * publish anything other threads need as an immutable copy. The engine may already hold the
+ * decisions of the next batch (decided while this one was committed, its commit under way;
+ * should that commit fail, the engine is rebuilt and its inputs are told about again one by
+ * one, or refused). It must return quickly; an exception it throws stops the driver like a
+ * failed commit would.
  */
 @FunctionalInterface
 public interface CommitListener {

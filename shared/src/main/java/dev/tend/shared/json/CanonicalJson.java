@@ -30,6 +30,44 @@ public final class CanonicalJson {
         return sb.toString();
     }
 
+    /**
+     * {@link #serialize} of {@code fields} with the members {@code extra} (name, value, name,
+     * value ...) added, a member of {@code extra} replacing one of {@code fields} of the same
+     * name: the same text as serializing the merged map, without building it (every ledger
+     * entry is written so, with its seq, at and kind).
+     */
+    public static String serializeObject(Map<String, ?> fields, Object... extra) {
+        if (extra.length % 2 != 0) throw new IllegalArgumentException("extra holds name, value pairs; got " + extra.length + " items");
+        String[] keys = new String[fields.size() + extra.length / 2];
+        int n = 0;
+        for (int i = 0; i < extra.length; i += 2) {
+            if (!(extra[i] instanceof String k)) throw new IllegalArgumentException("JSON object keys must be strings, got " + extra[i]);
+            keys[n++] = k;
+        }
+        for (Object k : fields.keySet()) {
+            if (!(k instanceof String ks)) throw new IllegalArgumentException("JSON object keys must be strings, got " + k);
+            if (extraAt(extra, ks) < 0) keys[n++] = ks;
+        }
+        java.util.Arrays.sort(keys, 0, n); // String.compareTo orders by UTF-16 code units, as RFC 8785 section 3.2.3 asks
+        StringBuilder sb = new StringBuilder(256);
+        sb.append('{');
+        for (int i = 0; i < n; i++) {
+            if (i > 0) sb.append(',');
+            writeString(sb, keys[i]);
+            sb.append(':');
+            int e = extraAt(extra, keys[i]);
+            write(sb, e >= 0 ? extra[e + 1] : fields.get(keys[i]));
+        }
+        sb.append('}');
+        return sb.toString();
+    }
+
+    /** Where the member {@code key} is named in {@code extra}; -1 when it is not. */
+    private static int extraAt(Object[] extra, String key) {
+        for (int i = 0; i < extra.length; i += 2) if (extra[i].equals(key)) return i;
+        return -1;
+    }
+
     private static void write(StringBuilder sb, Object v) {
         if (v == null) {
             sb.append("null");

@@ -113,4 +113,35 @@ class CanonicalJsonTest {
         assertThat(CanonicalJson.serialize("\b\f\n\r\t\u0001\u001f \"\\/\u007f\u00e9"))
                 .isEqualTo("\"\\b\\f\\n\\r\\t\\u0001\\u001f \\\"\\\\/\u007f\u00e9\"");
     }
+
+    @Test
+    void anObjectWithMembersAddedIsWrittenAsTheMergedMapWouldBe() {
+        java.util.Random random = new java.util.Random(8785);
+        List<String> names = List.of("seq", "at", "kind", "cluster", "run", "\u00e9t\u00e9", "\ud83d\ude00", "a", "Z", "reasons");
+        for (int round = 0; round < 2000; round++) {
+            Map<String, Object> fields = new LinkedHashMap<>();
+            for (String k : names) if (random.nextInt(3) == 0) fields.put(k, value(random));
+            List<Object> extra = new java.util.ArrayList<>();
+            Map<String, Object> merged = new java.util.HashMap<>(fields);
+            for (String k : List.of("seq", "at", "kind")) {
+                if (random.nextBoolean()) continue;
+                Object v = value(random);
+                extra.add(k);
+                extra.add(v);
+                merged.put(k, v);
+            }
+            assertThat(CanonicalJson.serializeObject(fields, extra.toArray())).isEqualTo(CanonicalJson.serialize(merged));
+        }
+    }
+
+    private static Object value(java.util.Random random) {
+        return switch (random.nextInt(6)) {
+            case 0 -> random.nextLong();
+            case 1 -> "t\"" + random.nextInt(100) + "\n\u00e9";
+            case 2 -> random.nextDouble() * 1e6;
+            case 3 -> List.of(random.nextInt(9), "x");
+            case 4 -> Map.of("b", random.nextBoolean(), "a", random.nextInt(5));
+            default -> null;
+        };
+    }
 }

@@ -7,7 +7,6 @@ import dev.tend.store.LedgerDraft;
 import dev.tend.store.LedgerEntry;
 
 import java.time.Instant;
-import java.util.HashMap;
 import java.util.Map;
 
 /**
@@ -27,11 +26,7 @@ public final class LedgerChain {
     }
 
     public static String entryText(long seq, Instant at, String kind, Map<String, Object> fields) {
-        Map<String, Object> m = new HashMap<>(fields);
-        m.put("seq", seq);
-        m.put("at", formatAt(at));
-        m.put("kind", kind);
-        return CanonicalJson.serialize(m);
+        return CanonicalJson.serializeObject(fields, "seq", seq, "at", formatAt(at), "kind", kind);
     }
 
     public static String hash(String prevHash, String entryText) {

@@ -1,0 +1,393 @@
+package dev.tend.runtime;
+
+import dev.tend.audit.CheckpointWriter;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.Input;
+import dev.tend.shared.Id;
+import dev.tend.shared.TendException;
+import dev.tend.store.InputRow;
+import dev.tend.store.Store;
+
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.CompletableFuture;
+import java.util.function.BooleanSupplier;
+
+/**
+ * The {@link Orchestrator}'s driver loop: takes inputs in order, lets the engine decide a
+ * batch, commits the journal rows, ledger entries and projections of the batch in one
+ * transaction ({@link CommitWriter}), and only after that commit performs the batch's side
+ * effects. Batches are decided on the driver thread while the batch before is committed on
+ * the {@link CommitThread}; an input that cannot be decided or kept takes its batch apart.
+ */
+final class Driver {
+    private static final int BATCH = 2000;
+    /**
+     * How long the idle driver sleeps before it looks at {@code done} and the checkpoints
+     * again; any input wakes it at once (see {@link Inbox}).
+     */
+    private static final long IDLE_NANOS = 20_000_000;
+
+    private final Store store;
+    private final int snapshotEvery;
+    /**
+     * Replaced at {@link #loadState} and by a rebuilt one when a batch must be taken apart (see
+     * {@link #retryOneByOne}); read by other threads only through {@link #engine()}.
+     */
+    private volatile Engine engine;
+    private final SnapshotKeeper snapshots;
+    private long sinceSnapshot;
+    private final Clock clock;
+    private final CommitListener listener;
+    private final Inbox inbox;
+    private final EffectRunner effects;
+    private final Waiters waiters;
+    private volatile boolean stopping;
+    /** The input the events queue is fed from (see {@link #readFrom}); null when it has no identity. */
+    private volatile String source;
+    /** Events of {@link #source} journaled (or refused) so far, from the journal's progress rows on. */
+    private long sourceDone;
+    /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
+    private volatile CheckpointWriter checkpoints;
+    private final CommitWriter writer;
+    private final CommitThread committer = new CommitThread();
+    /** The batch being committed on {@link #committer} while the next one is decided; null when none. */
+    private DecidedBatch inFlight;
+    private CompletableFuture<Void> inFlightCommit;
+
+    Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, int snapshotEvery,
+           Inbox inbox, EffectRunner effects, Waiters waiters) {
+        this.store = store;
+        this.snapshotEvery = snapshotEvery;
+        this.engine = new Engine(setup);
+        this.snapshots = new SnapshotKeeper(store, setup);
+        this.clock = clock;
+        this.listener = java.util.Objects.requireNonNull(listener, "listener");
+        this.inbox = inbox;
+        this.effects = effects;
+        this.waiters = waiters;
+        this.writer = new CommitWriter(store, waiters);
+    }
+
+    Engine engine() {
+        return engine;
+    }
+
+    SnapshotKeeper snapshots() {
+        return snapshots;
+    }
+
+    /** {@link #loadState} at a start: the inputs replayed count towards the next snapshot. */
+    long[] start() {
+        long[] loaded = loadState();
+        sinceSnapshot = loaded[1];
+        return loaded;
+    }
+
+    /**
+     * Builds the engine from the newest snapshot and the journal after it, or from the whole
+     * journal (when there is no snapshot, or it was taken under another policy or fleet and
+     * the whole journal is still there to replay under this one). Journaled inputs are fed
+     * to the engine with their effects discarded (they are already in the store). Returns
+     * the snapshot's seq (0: none used) and how many inputs were replayed.
+     */
+    long[] loadState() {
+        JournalTail tail = snapshots.tail();
+        long before = tail.replayed();
+        tail.catchUp();
+        snapshots.caughtUp(tail);
+        engine = tail.engine();
+        return new long[]{tail.snapshotSeq(), tail.replayed() - before};
+    }
+
+    /** See {@link Orchestrator#readingFrom}. */
+    long readFrom(String sourceIdentity) {
+        this.source = java.util.Objects.requireNonNull(sourceIdentity, "sourceIdentity");
+        sourceDone = snapshots.progressOf(sourceIdentity);
+        return sourceDone;
+    }
+
+    void checkpointWith(CheckpointWriter w) {
+        this.checkpoints = w;
+    }
+
+    void stop() {
+        stopping = true;
+        inbox.wake();
+    }
+
+    /** Processes inputs on the calling thread until {@code done} holds with nothing queued, or {@link #stop()}. */
+    void run(BooleanSupplier done) throws InterruptedException {
+        boolean failed = true;
+        try {
+            loop(done);
+            settle(List.of()); // stopped with a batch in flight: it is committed and acted on first
+            failed = false;
+            // a clean stop: the next start loads this state and replays nothing
+            if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+            snapshots.collect(true);
+        } finally {
+            abandonInFlight();
+            committer.close();
+            CheckpointWriter w = checkpoints;
+            if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
+        }
+    }
+
+    /**
+     * Writes the engine's state, with the progress of the inputs read from files, as the
+     * snapshot after the newest journal row (everything decided is committed: the driver calls
+     * it between batches with no batch in flight).
+     */
+    private void writeSnapshot() {
+        if (snapshots.write(engine, source, sourceDone, clock.instant())) sinceSnapshot = 0;
+    }
+
+    /**
+     * Group commit that waits on work, not on timers: a batch is whatever waits when the
+     * driver looks (up to {@link #BATCH}). An input arriving at an idle driver is decided and
+     * committed at once, on the driver thread. When more is waiting, the batch is committed on
+     * the {@link CommitThread} while the driver decides the next one (on the engine's state
+     * after it); the driver then waits for that commit and only then performs its effects, so
+     * side effects follow their commit, in batch order, with one batch in flight at most.
+     */
+    private void loop(BooleanSupplier done) throws InterruptedException {
+        while (!stopping) {
+            List<Input> batch = new ArrayList<>(BATCH);
+            java.util.BitSet queued = new java.util.BitSet(BATCH);
+            inbox.drainTo(batch, queued, BATCH);
+            if (batch.isEmpty()) {
+                if (inFlight != null) {
+                    settle(List.of()); // nothing more to decide: act on the batch being committed
+                    continue;
+                }
+                if (done.getAsBoolean() && inbox.isEmpty()) return;
+                CheckpointWriter w = checkpoints;
+                if (w != null) w.maybeWrite(clock.instant());
+                inbox.awaitInput(IDLE_NANOS);
+                if (Thread.interrupted()) throw new InterruptedException("the driver was interrupted");
+                continue;
+            }
+            process(batch, queued);
+            CheckpointWriter w = checkpoints;
+            if (w != null) w.maybeWrite(clock.instant());
+        }
+    }
+
+    private void process(List<Input> batch, java.util.BitSet queued) {
+        DecidedBatch next;
+        try {
+            next = decide(batch, queued);
+        } catch (RuntimeException e) {
+            // what one input carries cannot be decided: nothing of the batch was written or done
+            takeApart(batch, queued);
+            return;
+        }
+        if (!settle(next.inputs())) {
+            // the batch in flight failed and was redone input by input; next was decided on what never became durable
+            retryOneByOne(next.inputs(), next.queued());
+        } else if (inbox.isEmpty() || (snapshotEvery > 0 && sinceSnapshot + next.size() >= snapshotEvery)) {
+            // nothing else waits (an idle driver commits at once), or a snapshot of this state is due
+            try {
+                commit(next);
+            } catch (RuntimeException e) {
+                redo(next, e, List.of());
+                return;
+            }
+            finish(next);
+        } else {
+            inFlight = next;
+            inFlightCommit = committer.start(() -> commit(next));
+        }
+        if (inFlight == null && snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
+    }
+
+    /** Lets the engine decide {@code batch} after the batch in flight, if any; writes and performs nothing. */
+    private DecidedBatch decide(List<Input> batch, java.util.BitSet queued) {
+        List<Effect> all = new ArrayList<>();
+        List<Instant> times = new ArrayList<>(batch.size());
+        List<List<Effect>> perInput = new ArrayList<>(batch.size());
+        for (int i = 0; i < batch.size(); i++) {
+            Input in = batch.get(i);
+            Instant now = clock.instant();
+            List<Effect> fx = engine.handle(in, now);
+            all.addAll(fx);
+            times.add(now);
+            perInput.add(fx);
+            if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) reportCleared(r, batch);
+        }
+        long before = inFlight != null ? inFlight.sourceAfter() : sourceDone;
+        long after = before + queued.cardinality();
+        InputRow progress = source != null && after > before ? SourceProgress.row(source, after, times.get(times.size() - 1)) : null;
+        return new DecidedBatch(batch, queued, progress, times, perInput, all, after, waiters.reached(batch));
+    }
+
+    /**
+     * Writes {@code b} (on the committing thread when the driver goes on deciding): its journal
+     * rows are encoded here, off the driver thread; an input that cannot be encoded fails the
+     * commit, and the batch is taken apart as for any input the store cannot hold.
+     */
+    private void commit(DecidedBatch b) {
+        List<InputRow> rows = new ArrayList<>(b.size() + 1);
+        for (int i = 0; i < b.size(); i++) rows.add(InputCodec.encode(b.inputs().get(i), b.times().get(i)));
+        if (b.progress() != null) rows.add(b.progress());
+        writer.batch(b.inputs(), rows, b.times(), b.perInput(), b.reached());
+    }
+
+    /** Acts on a committed batch: its side effects, the listener, its waiting callers. */
+    private void finish(DecidedBatch b) {
+        sourceDone = b.sourceAfter();
+        sinceSnapshot += b.size();
+        for (Effect e : b.all()) effects.perform(e);
+        snapshots.collect(false);
+        listener.committed(engine, java.util.Collections.unmodifiableList(b.inputs()), java.util.Collections.unmodifiableList(b.all()));
+        waiters.committed(b.inputs(), b.perInput());
+    }
+
+    /**
+     * Waits for the batch in flight (if any) to be committed and acts on it; true when it was
+     * (or none was in flight). When its commit failed, it is redone input by input on an engine
+     * rebuilt from the journal, and false says that {@code decidedAfter}, decided on its
+     * state, must be redone too (see {@link #redo}).
+     */
+    private boolean settle(List<Input> decidedAfter) {
+        DecidedBatch b = inFlight;
+        if (b == null) return true;
+        inFlight = null;
+        RuntimeException failed = CommitThread.outcome(inFlightCommit);
+        inFlightCommit = null;
+        if (failed != null) {
+            redo(b, failed, decidedAfter);
+            return false;
+        }
+        finish(b);
+        return true;
+    }
+
+    /**
+     * After {@code batch} could not be decided, part-way: the batch in flight is settled on
+     * an engine rebuilt from the journal (its listener must not see the part-way state), then
+     * {@code batch} is taken apart.
+     */
+    private void takeApart(List<Input> batch, java.util.BitSet queued) {
+        DecidedBatch before = inFlight;
+        if (before != null) {
+            inFlight = null;
+            RuntimeException failed = CommitThread.outcome(inFlightCommit);
+            inFlightCommit = null;
+            if (failed != null) {
+                redo(before, failed, batch);
+            } else {
+                rebuild();
+                finish(before);
+            }
+        }
+        retryOneByOne(batch, queued);
+    }
+
+    /**
+     * The commit of {@code b} failed ({@code e}): nothing of it was written or done. A failure
+     * of the database stops tend (the callers of {@code b} and of {@code decidedAfter} are
+     * told); else {@code b} is taken apart.
+     */
+    private void redo(DecidedBatch b, RuntimeException e, List<Input> decidedAfter) {
+        if (InputRefusal.isDatabaseFailure(e)) {
+            List<Input> all = new ArrayList<>(b.inputs());
+            all.addAll(decidedAfter);
+            stopOn(all, e);
+        }
+        retryOneByOne(b.inputs(), b.queued());
+    }
+
+    /**
+     * The driver fails with a batch in flight (a listener or a checkpoint threw): its commit
+     * is waited for, so that nothing writes to the store once {@link #run} has returned.
+     * Its effects are not performed (the next start arms what it committed, as after a crash)
+     * and its callers are told so.
+     */
+    private void abandonInFlight() {
+        DecidedBatch b = inFlight;
+        if (b == null) return;
+        inFlight = null;
+        RuntimeException failed = CommitThread.outcome(inFlightCommit);
+        inFlightCommit = null;
+        TendException stopped = new TendException("tend stopped before acting on this input"
+                + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
+        for (Input in : b.inputs()) waiters.failed(in, stopped);
+    }
+
+    /**
+     * Takes a batch apart after an input in it could not be decided or committed: the engine
+     * is rebuilt from the journal (which holds exactly what was committed, so the rebuilt
+     * engine is the one before the batch, and no effect of the batch has been performed),
+     * then each input is decided and committed on its own. The input at fault is refused on
+     * the record (a ledger entry naming it, and the listener is told) and the others go on.
+     */
+    private void retryOneByOne(List<Input> batch, java.util.BitSet queued) {
+        rebuild();
+        for (int i = 0; i < batch.size(); i++) {
+            Input in = batch.get(i);
+            Instant now = clock.instant();
+            List<InputRow> rows = new ArrayList<>(2);
+            if (source != null && queued.get(i)) rows.add(SourceProgress.row(source, sourceDone + 1, now));
+            List<Effect> fx;
+            try {
+                rows.add(0, InputCodec.encode(in, now));
+                fx = engine.handle(in, now);
+                writer.one(in, rows, now, fx);
+            } catch (RuntimeException e) {
+                if (InputRefusal.isDatabaseFailure(e)) stopOn(batch.subList(i, batch.size()), e);
+                rebuild();
+                refuse(batch.subList(i, batch.size()), in, now, e, source != null && queued.get(i));
+                continue;
+            }
+            if (source != null && queued.get(i)) sourceDone++;
+            sinceSnapshot++;
+            for (Effect e : fx) effects.perform(e);
+            listener.committed(engine, List.of(in), java.util.Collections.unmodifiableList(fx));
+            waiters.committed(in, fx);
+        }
+    }
+
+    /** The engine of what the journal holds: the newest snapshot and the inputs after it. */
+    private void rebuild() {
+        loadState();
+    }
+
+    private void refuse(List<Input> rest, Input in, Instant now, RuntimeException cause, boolean ofSource) {
+        String reason = InputRefusal.reason(cause);
+        try {
+            writer.refusal(in, now, reason, ofSource ? SourceProgress.row(source, sourceDone + 1, now) : null);
+        } catch (RuntimeException e) {
+            stopOn(rest, e);
+        }
+        if (ofSource) sourceDone++;
+        listener.refused(in, reason);
+        waiters.failed(in, InputRefusal.asInvalidInput(in, reason));
+    }
+
+    /** A failure of the database itself: tend stops safely and resumes from the journal when started again. */
+    private void stopOn(List<Input> batch, RuntimeException e) {
+        stopping = true;
+        for (Input in : batch) waiters.failed(in, e);
+        throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
+                + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
+    }
+
+    /**
+     * The simulated fleet reports the signals an action cleared, as a health pipeline would:
+     * one clear transition per signal at the engine's event time, queued right behind the
+     * result in the same batch. On the driver thread, the only one that reads the engine.
+     */
+    private void reportCleared(Input.ExecutorResult r, List<Input> batch) {
+        engine.run(r.runId()).ifPresent(run -> {
+            for (Id s : r.clears()) {
+                batch.add(Input.Transition.simulatedClear(engine.eventTime(), run.target(), s));
+            }
+        });
+    }
+}

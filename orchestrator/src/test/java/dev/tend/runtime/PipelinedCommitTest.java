@@ -1,0 +1,265 @@
+package dev.tend.runtime;
+
+import dev.tend.engine.BrakeThresholds;
+import dev.tend.engine.Effect;
+import dev.tend.engine.Engine;
+import dev.tend.engine.EngineSetup;
+import dev.tend.engine.EventTimeMode;
+import dev.tend.engine.Input;
+import dev.tend.executor.Executor;
+import dev.tend.executor.SimulatedExecutor;
+import dev.tend.playbooks.PlaybookSet;
+import dev.tend.playbooks.load.PlaybookLoader;
+import dev.tend.shared.HealthTransition;
+import dev.tend.shared.SignalState;
+import dev.tend.shared.fleet.FleetFile;
+import dev.tend.shared.time.Timers;
+import dev.tend.store.LedgerFilter;
+import dev.tend.store.StepRow;
+import dev.tend.store.Store;
+import dev.tend.store.StoreReader;
+import dev.tend.store.TimerRow;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.IdentityHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.concurrent.CompletableFuture;
+import java.util.function.Consumer;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+/**
+ * The driver commits a batch on a thread of its own while it decides the next one: every
+ * side effect still follows its own commit, in the order of the inputs, and a commit that
+ * fails with the next batch already decided has both redone input by input.
+ */
+class PipelinedCommitTest {
+    /** More than two of the driver's batches (2,000 inputs each), all queued before it starts. */
+    private static final int INPUTS = 4500;
+    private static final Instant AT = Instant.parse("2027-03-14T02:00:00Z");
+
+    @TempDir
+    Path dir;
+
+    @Test
+    void aCommitThatFailsWhileTheNextBatchIsDecidedHasBothRedoneOneByOneAndNoEffectPrecedesItsCommit() throws Exception {
+        List<Input> inputs = transitions();
+        // past 2262-04-11, the last instant the store's nanosecond times can hold: the first batch's commit fails
+        Input bad = new Input.Transition(HealthTransition.of(Instant.parse("2263-01-01T00:00:00Z"), "fares-2", "n1",
+                "heartbeat", SignalState.SILENT));
+        inputs.set(1000, bad);
+        Told told = new Told();
+        try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
+             QuartzTimers quartz = new QuartzTimers()) {
+            Checked checked = new Checked(store);
+            Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
+                    n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
+            quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
+            orch.recover();
+            List<CompletableFuture<List<Effect>>> answered = new ArrayList<>();
+            for (int i = 0; i < inputs.size(); i++) {
+                Input in = inputs.get(i);
+                if (i % 500 == 7) {
+                    CompletableFuture<List<Effect>> f = orch.submitEventAndWait(in);
+                    // completed on the driver thread once committed: the journal holds it by then
+                    answered.add(f.thenApply(fx -> {
+                        checked.journalHolds(told.position(in) + 1, "a caller answered");
+                        return fx;
+                    }));
+                } else {
+                    orch.submitEvent(in);
+                }
+            }
+            orch.runUntil(orch::isIdle);
+
+            assertThat(told.refused).containsExactly(bad);
+            List<Input> expected = new ArrayList<>(inputs);
+            expected.remove(bad);
+            assertThat(told.transitionsIn(Set.copyOf(expected))).as("told in the order queued").isEqualTo(expected);
+            // the first two batches (the failed one and the one decided on its state) were told one input at a time
+            assertThat(told.callSizeOf(inputs.get(0))).isEqualTo(1);
+            assertThat(told.callSizeOf(inputs.get(3999))).isEqualTo(1);
+            assertThat(told.callSizeOf(inputs.get(4499))).isGreaterThan(1);
+            assertThat(answered).allSatisfy(f -> assertThat(f).isCompleted());
+            assertThat(checked.calls).as("executor calls checked").isPositive();
+            assertThat(checked.arms).as("timers armed checked").isPositive();
+            assertThat(told.violations).isEmpty();
+            assertThat(checked.violations).isEmpty();
+            assertThat(store.read(StoreReader::lastInputSeq)).isGreaterThanOrEqualTo(INPUTS - 1);
+            List<String> kinds = new ArrayList<>();
+            store.read(r -> {
+                r.forEachLedger(LedgerFilter.all(), e -> kinds.add(e.kind()));
+                return null;
+            });
+            assertThat(kinds).containsOnlyOnce("input-refused").contains("run-started");
+            assertThat(store.read(StoreReader::verifyLedger).ok()).isTrue();
+        }
+    }
+
+    @Test
+    void batchesCommittedWhileTheNextIsDecidedAreToldInOrderEachAfterItsCommit() throws Exception {
+        List<Input> inputs = transitions();
+        Told told = new Told();
+        try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
+             QuartzTimers quartz = new QuartzTimers()) {
+            Checked checked = new Checked(store);
+            Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
+                    n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
+            quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
+            orch.recover();
+            for (Input in : inputs) orch.submitEvent(in);
+            orch.runUntil(orch::isIdle);
+
+            assertThat(told.refused).isEmpty();
+            assertThat(told.transitionsIn(Set.copyOf(inputs))).isEqualTo(inputs);
+            assertThat(told.callSizeOf(inputs.get(0))).isEqualTo(2000);
+            assertThat(checked.calls).isPositive();
+            assertThat(told.violations).isEmpty();
+            assertThat(checked.violations).isEmpty();
+            assertThat(store.read(StoreReader::verifyLedger).ok()).isTrue();
+        }
+    }
+
+    /** Silences and recoveries of heartbeats over 4 clusters of 3 nodes, a second apart. */
+    private static List<Input> transitions() {
+        List<Input> out = new ArrayList<>(INPUTS);
+        for (int i = 0; i < INPUTS; i++) {
+            SignalState state = (i / 12) % 2 == 0 ? SignalState.SILENT : SignalState.CLEAR;
+            out.add(new Input.Transition(HealthTransition.of(AT.plusSeconds(i), "fares-" + (i % 4 + 1), "n" + (i / 4 % 3 + 1),
+                    "heartbeat", state)));
+        }
+        return out;
+    }
+
+    /** What the listener was told, each call checked against the journal at that moment. */
+    private static final class Told {
+        final List<Input> refused = Collections.synchronizedList(new ArrayList<>());
+        final List<String> violations = Collections.synchronizedList(new ArrayList<>());
+        private final List<Input> inOrder = new ArrayList<>();
+        private final Map<Input, Integer> callSize = new IdentityHashMap<>();
+        private final Map<Input, Integer> position = new IdentityHashMap<>();
+        private long inputsTold;
+
+        CommitListener checkingAgainst(Store store) {
+            return new CommitListener() {
+                @Override
+                public void committed(Engine engine, List<Input> batch, List<Effect> effects) {
+                    inputsTold += batch.size();
+                    long journaled = store.read(StoreReader::lastInputSeq);
+                    if (journaled < inputsTold) violations.add("told of " + inputsTold + " inputs with " + journaled + " journaled");
+                    for (Input in : batch) {
+                        position.put(in, inOrder.size());
+                        inOrder.add(in);
+                        callSize.put(in, batch.size());
+                    }
+                }
+
+                @Override
+                public void refused(Input input, String reason) {
+                    refused.add(input);
+                }
+            };
+        }
+
+        /** Where {@code in} is among the inputs told so far (journal rows count the same way: no source, nothing refused before it). */
+        int position(Input in) {
+            Integer p = position.get(in);
+            return p == null ? Integer.MAX_VALUE : p;
+        }
+
+        List<Input> transitionsIn(Set<Input> of) {
+            Set<Input> ids = Collections.newSetFromMap(new IdentityHashMap<>());
+            ids.addAll(of);
+            return inOrder.stream().filter(ids::contains).toList();
+        }
+
+        int callSizeOf(Input in) {
+            return callSize.getOrDefault(in, 0);
+        }
+    }
+
+    /** An executor and timers that check, when asked, that what asks is committed. */
+    private static final class Checked {
+        private final Store store;
+        final List<String> violations = Collections.synchronizedList(new ArrayList<>());
+        volatile int calls;
+        volatile int arms;
+
+        Checked(Store store) {
+            this.store = store;
+        }
+
+        Executor executor(Executor inner) {
+            return new Executor() {
+                @Override
+                public String kind() {
+                    return inner.kind();
+                }
+
+                @Override
+                public void execute(Effect.CallExecutor call, Consumer<Input.ExecutorResult> done) {
+                    calls++;
+                    List<StepRow> steps = store.read(r -> r.steps(call.runId()));
+                    boolean committed = steps.stream().anyMatch(s -> s.stepId().equals(call.stepId()) && s.attempt() >= call.attempt());
+                    if (!committed) violations.add("executor called for " + call.key() + " before its step was committed");
+                    inner.execute(call, done);
+                }
+
+                @Override
+                public boolean canAskAgain(Effect.CallExecutor call) {
+                    return inner.canAskAgain(call);
+                }
+            };
+        }
+
+        Timers timers(Timers inner) {
+            return new Timers() {
+                @Override
+                public void arm(String key, Instant due) {
+                    arms++;
+                    List<TimerRow> rows = store.read(StoreReader::timers);
+                    if (rows.stream().noneMatch(t -> t.key().equals(key))) violations.add("timer " + key + " armed before its commit");
+                    inner.arm(key, due);
+                }
+
+                @Override
+                public void cancel(String key) {
+                    inner.cancel(key);
+                }
+            };
+        }
+
+        void journalHolds(long rows, String what) {
+            long journaled = store.read(StoreReader::lastInputSeq);
+            if (journaled < rows) violations.add(what + " with " + journaled + " of " + rows + " inputs journaled");
+        }
+    }
+
+    private EngineSetup setup() throws Exception {
+        Files.writeString(dir.resolve("actions.yaml"), "actions:\n  fix: { simulated: { duration: 1s, success: 1.0 } }\n");
+        Files.writeString(dir.resolve("tend.yaml"), "brake: { engage-at: { clusters: 100 }, release-below: { clusters: 50 } }\n");
+        Files.writeString(dir.resolve("fix.yaml"), """
+                playbook: fix-heartbeat
+                version: 1
+                trigger: { signal: heartbeat, state: silent, scope: node }
+                limits: { keep-replicas: false }
+                steps:
+                  - { id: fix, action: fix, timeout: 1m }
+                """);
+        StringBuilder fleet = new StringBuilder("fleet: larkspur\nclusters:\n");
+        for (int c = 1; c <= 4; c++) fleet.append("  - id: fares-").append(c).append("\n    nodes: [ { id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c } ]\n");
+        Files.writeString(dir.resolve("fleet.yaml"), fleet);
+        PlaybookSet set = PlaybookLoader.load(dir);
+        return new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")),
+                BrakeThresholds.from(set.config().brake()), EventTimeMode.eventsOnly());
+    }
+}
