@@ -25,7 +25,7 @@ import java.util.List;
 final class CandidateFlow {
     private static final Comparator<Candidates.Entry> OLDEST_PROBLEM_FIRST = Comparator
             .comparing((Candidates.Entry e) -> e.candidate().problemSince())
-            .thenComparing(e -> e.candidate().key().toString());
+            .thenComparing(Candidates.Entry::name);
 
     private final EngineSetup setup;
     private final EngineContext ctx;
@@ -50,7 +50,7 @@ final class CandidateFlow {
 
     /** Looks at the candidate {@code key} again before the input is done. */
     void queue(Candidate.Key key) {
-        work.add(key.toString());
+        work.add(candidates.name(key));
     }
 
     /** Looks at the candidates named (as {@link Candidate.Key#toString()}) again before the input is done. */
@@ -90,7 +90,8 @@ final class CandidateFlow {
         Candidates.Entry e = candidates.get(key);
         Candidate c = e.candidate();
         if (!ctx.health.isActive(c.trigger().cluster(), c.trigger().node(), c.trigger().signal())) {
-            drop(key, c.trigger().signal() + " is no longer active", fx);
+            dev.tend.shared.Id signal = c.trigger().signal();
+            drop(key, () -> signal + " is no longer active", fx);
             return;
         }
         Decision d = guards.evaluate(c, ctx);
@@ -119,15 +120,15 @@ final class CandidateFlow {
     }
 
     private void hold(Candidate c, Decision d, Effects fx) {
-        candidates.put(c, d);
+        String name = candidates.put(c, d);
         Instant retry = d.retryAt();
         Instant et = d.retryAtEventTime();
         if (et != null && setup.eventTime().follows()) {
             Instant p = setup.eventTime().processingTimeFor(et);
             retry = retry == null || p.isAfter(retry) ? p : retry;
         }
-        if (retry != null && d.wakes().contains(Wake.TIME) || retry != null && et != null) {
-            fx.arm(new TimerKey.Recheck(c.key().toString()), retry);
+        if (retry != null && d.wakesOn(Wake.TIME) || retry != null && et != null) {
+            fx.arm(new TimerKey.Recheck(name), retry);
         }
         escalations.held(c, d, fx);
         if (c.runId() != null) approvals.onHeldOrDenied(c, d, fx);
@@ -151,16 +152,17 @@ final class CandidateFlow {
     }
 
     /** Forgets the candidate {@code key} (its problem went away), withdrawing its approval request if any. */
-    void drop(Candidate.Key key, String why, Effects fx) {
+    void drop(Candidate.Key key, java.util.function.Supplier<String> reason, Effects fx) {
         Candidates.Entry e = candidates.get(key);
         if (e == null) return;
         candidates.remove(key);
-        fx.cancel(new TimerKey.Recheck(key.toString()));
-        if (e.decision() != null) {
+        fx.cancel(new TimerKey.Recheck(e.name()));
+        // the reason's text only when someone reads it (a replay ledgers no dropped candidate)
+        if (e.decision() != null && fx.keeps(LedgerKind.CANDIDATE_DROPPED)) {
             fx.ledger(LedgerKind.CANDIDATE_DROPPED, "playbook", key.playbook(), "cluster", key.target().cluster(),
-                    "node", key.target().node(), "reason", why, "run", e.candidate().runId());
+                    "node", key.target().node(), "reason", reason.get(), "run", e.candidate().runId());
         }
-        if (e.candidate().runId() != null) approvals.withdraw(e.candidate().runId(), why, fx);
+        if (e.candidate().runId() != null) approvals.withdraw(e.candidate().runId(), reason.get(), fx);
     }
 
     private void ledgerVerdict(Candidate c, Decision d, Effects fx) {

@@ -20,7 +20,8 @@ import java.util.TreeSet;
  * holds use timers). Iteration orders are sorted, so the engine stays deterministic.
  */
 final class Candidates {
-    record Entry(Candidate candidate, Decision decision) {
+    /** A candidate, its last verdict (null before the first), and its key's text {@code name} (made once per candidate, not at every use). */
+    record Entry(Candidate candidate, Decision decision, String name) {
     }
 
     private final Map<Candidate.Key, Entry> entries = new HashMap<>();
@@ -50,41 +51,50 @@ final class Candidates {
         return entries.size();
     }
 
-    void put(Candidate c, Decision d) {
+    /** Puts {@code c} with its verdict, replacing the candidate of its key; returns its name ({@link Candidate.Key#toString()}). */
+    String put(Candidate c, Decision d) {
         Candidate.Key key = c.key();
-        unindex(key);
-        entries.put(key, new Entry(c, d));
-        String name = key.toString();
+        Entry old = entries.get(key);
+        String name = old != null ? old.name() : key.toString();
+        unindex(old, key);
+        entries.put(key, new Entry(c, d, name));
         byName.put(name, key);
         byTrigger.computeIfAbsent(c.trigger(), k -> new TreeSet<>()).add(name);
-        if (d == null) return;
-        Set<Wake> wakes = d.wakes();
-        if (wakes.contains(Wake.CLUSTER) || wakes.contains(Wake.HUMAN)) {
+        if (d == null) return name;
+        if (d.wakesOn(Wake.CLUSTER) || d.wakesOn(Wake.HUMAN)) {
             byCluster.computeIfAbsent(c.target().cluster(), k -> new TreeSet<>()).add(name);
         }
-        if (wakes.contains(Wake.FLEET)) fleetWide.add(name);
+        if (d.wakesOn(Wake.FLEET)) fleetWide.add(name);
         Instant et = d.retryAtEventTime();
         if (et != null) eventAgenda.computeIfAbsent(et, k -> new TreeSet<>()).add(name);
-        if (wakes.contains(Wake.TIME) && d.retryAt() != null) timeAgenda.computeIfAbsent(d.retryAt(), k -> new TreeSet<>()).add(name);
+        if (d.wakesOn(Wake.TIME) && d.retryAt() != null) timeAgenda.computeIfAbsent(d.retryAt(), k -> new TreeSet<>()).add(name);
+        return name;
+    }
+
+    /** The name of the candidate {@code key}: {@link Candidate.Key#toString()}, kept with the candidate while there is one. */
+    String name(Candidate.Key key) {
+        Entry e = entries.get(key);
+        return e != null ? e.name() : key.toString();
     }
 
     void remove(Candidate.Key key) {
-        unindex(key);
         Entry e = entries.remove(key);
-        byName.remove(key.toString());
+        unindex(e, key);
+        String name = e != null ? e.name() : key.toString();
+        byName.remove(name);
         if (e != null) {
             Set<String> t = byTrigger.get(e.candidate().trigger());
             if (t != null) {
-                t.remove(key.toString());
+                t.remove(name);
                 if (t.isEmpty()) byTrigger.remove(e.candidate().trigger());
             }
         }
     }
 
-    private void unindex(Candidate.Key key) {
-        Entry e = entries.get(key);
+    /** Takes the entry {@code e} of {@code key} (null: none) out of the indexes its verdict put it in. */
+    private void unindex(Entry e, Candidate.Key key) {
         if (e == null || e.decision() == null) return;
-        String name = key.toString();
+        String name = e.name();
         Set<String> s = byCluster.get(key.target().cluster());
         if (s != null) {
             s.remove(name);

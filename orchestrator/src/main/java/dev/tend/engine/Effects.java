@@ -34,6 +34,11 @@ public final class Effects {
         out.add(e);
     }
 
+    /** True when these effects carry ledger entries of {@code kind}: a caller may skip making an entry's values otherwise. */
+    boolean keeps(LedgerKind kind) {
+        return kept == null || kept.contains(kind);
+    }
+
     /** A ledger entry; {@code kv} alternates keys and values; null values are left out. */
     public void ledger(LedgerKind kind, Object... kv) {
         if (kept != null && !kept.contains(kind)) return;

@@ -12,6 +12,7 @@ import dev.tend.playbooks.Playbook;
 import dev.tend.playbooks.Scope;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
+import dev.tend.shared.SignalKey;
 import dev.tend.shared.Target;
 import dev.tend.shared.TendException;
 import dev.tend.shared.fleet.ApplyOutcome;
@@ -94,7 +95,7 @@ public final class Engine implements RunHost {
         if (now.isAfter(ctx.now)) ctx.now = now;
         inputs++;
         Effects fx = new Effects(ctx.now, ledgered);
-        if (in instanceof Input.Transition t) onTransition(t.transition(), fx);
+        if (in instanceof Input.Transition t) onTransition(t, fx);
         else if (in instanceof Input.Topology t) {
             if (ctx.health.apply(t.event()) != ApplyOutcome.LATE) {
                 advanceEventTime(t.event().at());
@@ -115,8 +116,11 @@ public final class Engine implements RunHost {
         return fx.list();
     }
 
-    private void onTransition(HealthTransition t, Effects fx) {
-        ApplyOutcome outcome = ctx.health.apply(t);
+    private void onTransition(Input.Transition in, Effects fx) {
+        HealthTransition t = in.transition();
+        // one key instance for the whole input: the health view remembers the last slot it found by it
+        SignalKey signal = in.key();
+        ApplyOutcome outcome = in.numbered() != null ? ctx.health.apply(t, in.numbered()) : ctx.health.apply(t);
         if (outcome != ApplyOutcome.LATE) advanceEventTime(t.at());
         if (!outcome.isStateChange()) return;
         boolean released = ctx.brake.reconsider(ctx.health, fx);
@@ -124,30 +128,37 @@ public final class Engine implements RunHost {
         queueCluster(t.cluster());
         boolean mattered = false;
         if (outcome == ApplyOutcome.CLEARED) {
-            for (Candidate.Key k : candidates.triggeredBy(t.key())) {
-                flow.drop(k, t.signal() + " cleared on " + k.target(), fx);
+            for (Candidate.Key k : candidates.triggeredBy(signal)) {
+                flow.drop(k, () -> t.signal() + " cleared on " + k.target(), fx);
                 mattered = true;
             }
-            for (RunProcess r : new ArrayList<>(ctx.active.values())) {
+            // the active runs on the cluster, as they stand before any of them is told (telling one may end it)
+            List<RunProcess> onCluster = null;
+            for (RunProcess r : ctx.active.values()) {
                 if (r.target().cluster().equals(t.cluster())) {
-                    machine.onHealthChange(r, fx);
-                    mattered = true;
+                    if (onCluster == null) onCluster = new ArrayList<>(2);
+                    onCluster.add(r);
                 }
             }
+            if (onCluster != null) {
+                for (RunProcess r : onCluster) machine.onHealthChange(r, fx);
+                mattered = true;
+            }
         } else {
-            Map<String, String> tags = ctx.health.topology().cluster(t.cluster()).map(c -> c.tags()).orElse(Map.of());
+            dev.tend.shared.fleet.ClusterSpec spec = ctx.health.clusterSpec(t.cluster());
+            Map<String, String> tags = spec != null ? spec.tags() : Map.of();
             for (Playbook p : setup.playbooks().match(t, tags)) {
                 Target target = p.trigger().scope() == Scope.NODE ? Target.node(t.cluster(), t.node()) : Target.cluster(t.cluster());
                 Candidate.Key key = new Candidate.Key(p.id(), target);
                 mattered = true;
                 if (hasLiveRun(key) || candidates.get(key) != null) continue;
-                Instant since = ctx.health.status(t.key()).map(s -> s.since()).orElse(t.at());
-                candidates.put(new Candidate(p, target, t.key(), since, ctx.now, null, false, null), null);
+                Instant since = ctx.health.status(signal).map(s -> s.since()).orElse(t.at());
+                candidates.put(new Candidate(p, target, signal, since, ctx.now, null, false, null), null);
                 flow.queue(key);
             }
         }
-        boolean unknown = !ctx.health.isInTopology(t.key());
-        if (mattered || unknown) {
+        boolean unknown = !ctx.health.isInTopology(signal);
+        if ((mattered || unknown) && fx.keeps(LedgerKind.TRANSITION)) {
             fx.ledger(LedgerKind.TRANSITION, "cluster", t.cluster(), "node", t.node(), "signal", t.signal(),
                     "state", t.state().wireName(), "at_event", t.at(), "unknown_target", unknown ? Boolean.TRUE : null);
         }
@@ -224,7 +235,8 @@ public final class Engine implements RunHost {
     }
 
     private void track(List<Effect> effects) {
-        for (Effect e : effects) {
+        for (int i = 0; i < effects.size(); i++) {
+            Effect e = effects.get(i);
             if (e instanceof Effect.ArmTimer a) timers.put(a.key(), a.due());
             else if (e instanceof Effect.CancelTimer c) timers.remove(c.key());
         }

@@ -35,6 +35,7 @@ final class EngineContext implements GuardContext {
     final Set<Candidate.Key> loopStopped = new HashSet<>();
     final Map<Target, Exclusion> exclusions = new LinkedHashMap<>();
     private final Map<Id, EffectiveLimits> limits = new HashMap<>();
+    private final Map<Id, String> budgetNames = new HashMap<>();
     Instant now = Instant.EPOCH;
     Instant eventTime = Instant.EPOCH;
 
@@ -53,7 +54,12 @@ final class EngineContext implements GuardContext {
 
     @Override
     public EffectiveLimits limits(Playbook p) {
-        return limits.computeIfAbsent(p.id(), k -> config.effectiveLimits(p));
+        EffectiveLimits l = limits.get(p.id()); // asked by most guards at every evaluation: no lambda made each time
+        if (l == null) {
+            l = config.effectiveLimits(p);
+            limits.put(p.id(), l);
+        }
+        return l;
     }
 
     @Override
@@ -91,11 +97,14 @@ final class EngineContext implements GuardContext {
 
     @Override
     public Set<Id> nodesUnderRemediation(Id cluster) {
-        Set<Id> out = new HashSet<>();
+        Set<Id> out = null; // asked by three guards per evaluation: most often none, and then no set is made
         for (RunProcess r : active.values()) {
-            if (r.target().cluster().equals(cluster) && r.target().node() != null) out.add(r.target().node());
+            if (r.target().cluster().equals(cluster) && r.target().node() != null) {
+                if (out == null) out = new HashSet<>();
+                out.add(r.target().node());
+            }
         }
-        return out;
+        return out == null ? Set.of() : out;
     }
 
     @Override
@@ -118,7 +127,7 @@ final class EngineContext implements GuardContext {
     @Override
     public RateCheck rateCheck(Playbook p) {
         RateLimit own = limits(p).rate();
-        Instant next = budgets.nextPermit("playbook " + p.id(), own);
+        Instant next = budgets.nextPermit(budgetName(p), own);
         if (next.isAfter(now)) return new RateCheck(false, next, "playbook " + p.id() + " (" + own + ")");
         RateLimit fleet = config.rate();
         if (fleet != null) {
@@ -128,9 +137,14 @@ final class EngineContext implements GuardContext {
         return new RateCheck(true, now, null);
     }
 
+    /** The name of a playbook's own start budget, made once per playbook (asked at every evaluation). */
+    private String budgetName(Playbook p) {
+        return budgetNames.computeIfAbsent(p.id(), id -> "playbook " + id);
+    }
+
     /** Takes the permits for a start that passed every guard. */
     void consumePermits(Playbook p) {
-        budgets.acquire("playbook " + p.id(), limits(p).rate());
+        budgets.acquire(budgetName(p), limits(p).rate());
         if (config.rate() != null) budgets.acquire("fleet", config.rate());
     }
 

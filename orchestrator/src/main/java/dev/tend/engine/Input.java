@@ -2,9 +2,11 @@ package dev.tend.engine;
 
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
+import dev.tend.shared.SignalKey;
 import dev.tend.shared.SignalState;
 import dev.tend.shared.Target;
 import dev.tend.shared.TopologyEvent;
+import dev.tend.shared.fleet.SignalNumbering;
 
 import java.time.Instant;
 import java.util.List;
@@ -28,10 +30,32 @@ public sealed interface Input {
     /**
      * A health transition. {@code wire} is its wire format v1 line when the reader already
      * has it (so the journal need not write it again on the engine's thread), else null.
+     * {@code numbered} is its signal's key numbered by the reader ({@link SignalNumbering}), so
+     * that the engine's health view finds the signal without a map lookup, else null.
      */
-    record Transition(HealthTransition transition, String wire) implements Input {
+    record Transition(HealthTransition transition, String wire, SignalNumbering.Numbered numbered) implements Input {
+        public Transition {
+            Objects.requireNonNull(transition, "transition");
+            if (numbered != null) {
+                SignalKey k = numbered.key();
+                if (!k.cluster().equals(transition.cluster()) || !Objects.equals(k.node(), transition.node())
+                        || !k.signal().equals(transition.signal())) {
+                    throw new IllegalArgumentException("the numbered key " + k + " is not the transition's " + transition.key());
+                }
+            }
+        }
+
         public Transition(HealthTransition transition) {
-            this(transition, null);
+            this(transition, null, null);
+        }
+
+        public Transition(HealthTransition transition, String wire) {
+            this(transition, wire, null);
+        }
+
+        /** The transition's signal key: the numbered key's instance when there is one. */
+        public SignalKey key() {
+            return numbered != null ? numbered.key() : transition.key();
         }
 
         /** The transition with its wire line computed now, on the calling thread. */

@@ -34,8 +34,19 @@ final class RateBudgets {
         this.now = now;
     }
 
-    private static String key(String name, RateLimit rate) {
-        return name + "|" + rate;
+    /** Each budget name's last key, with its rate: the key's text (the rate formatted) is made once, not at every check. */
+    private final Map<String, Keyed> keys = new HashMap<>();
+
+    private record Keyed(RateLimit rate, String key) {
+    }
+
+    private String key(String name, RateLimit rate) {
+        Keyed k = keys.get(name);
+        if (k == null || !k.rate().equals(rate)) {
+            k = new Keyed(rate, name + "|" + rate);
+            keys.put(name, k);
+        }
+        return k.key();
     }
 
     /** The earliest instant, now or later, at which one more start keeps {@code rate}. */

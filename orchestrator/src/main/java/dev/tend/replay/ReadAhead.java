@@ -6,6 +6,7 @@ import dev.tend.shared.Problem;
 import dev.tend.shared.TendException;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
+import dev.tend.shared.fleet.SignalNumbering;
 import dev.tend.shared.wire.ReadSummary;
 import dev.tend.simulator.Recording;
 
@@ -23,7 +24,8 @@ import java.util.concurrent.BlockingQueue;
  * sink on the calling thread in file order, a batch at a time, so the replay is exactly what
  * reading on one thread would give. Ids are made canonical on the way (one instance per
  * distinct id), so the engine's maps compare them by identity rather than character by
- * character.
+ * character, and each transition's signal is numbered ({@link SignalNumbering}), so the
+ * engine's health view finds it by number rather than by hashing.
  */
 final class ReadAhead {
     private static final int BATCH = 2048;
@@ -32,6 +34,8 @@ final class ReadAhead {
     private static final class Batch {
         final WireEvent[] events = new WireEvent[BATCH];
         final long[] lines = new long[BATCH];
+        /** A transition's signal numbered by the reader's {@link SignalNumbering}; null for a topology event. */
+        final SignalNumbering.Numbered[] keys = new SignalNumbering.Numbered[BATCH];
         int size;
         final List<Problem> problems = new ArrayList<>(0);
         long bytesRead = -1;
@@ -51,6 +55,12 @@ final class ReadAhead {
     }
 
     private ReadAhead() {
+    }
+
+    /** A sink that takes each transition's signal numbered as well (see {@link SignalNumbering}). */
+    interface NumberedSink extends Recording.Sink {
+        /** {@link #event(WireEvent, long)} with {@code key}, the numbered key of a transition's signal (null for a topology event). */
+        void event(WireEvent event, long line, SignalNumbering.Numbered key);
     }
 
     /**
@@ -93,11 +103,16 @@ final class ReadAhead {
         /** Hands consumer {@code consumer}'s share of the reading to {@code sink}, on the calling thread. */
         ReadSummary take(int consumer, Recording.Sink sink) {
             BlockingQueue<Batch> queue = reader.queues.get(consumer);
+            NumberedSink numbered = sink instanceof NumberedSink n ? n : null;
             boolean done = false;
             try {
                 while (true) {
                     Batch b = queue.take();
-                    for (int i = 0; i < b.size; i++) sink.event(b.events[i], b.lines[i]);
+                    if (numbered != null) {
+                        for (int i = 0; i < b.size; i++) numbered.event(b.events[i], b.lines[i], b.keys[i]);
+                    } else {
+                        for (int i = 0; i < b.size; i++) sink.event(b.events[i], b.lines[i]);
+                    }
                     for (Problem p : b.problems) sink.problem(p);
                     if (b.bytesRead >= 0) sink.progress(b.bytesRead);
                     if (b.failure != null) {
@@ -126,6 +141,7 @@ final class ReadAhead {
         /** Per consumer: it stopped before the end (threw), and takes no more. */
         private final boolean[] gone;
         final Map<String, Id> ids = new HashMap<>();
+        private final SignalNumbering numbering = new SignalNumbering();
         private Batch batch = new Batch();
         volatile boolean stop;
 
@@ -175,8 +191,10 @@ final class ReadAhead {
 
         @Override
         public void event(WireEvent event, long line) {
-            batch.events[batch.size] = canonical(event);
+            WireEvent e = canonical(event);
+            batch.events[batch.size] = e;
             batch.lines[batch.size] = line;
+            batch.keys[batch.size] = e instanceof HealthTransition t ? numbering.of(t.cluster(), t.node(), t.signal()) : null;
             batch.size++;
             if (batch.isFull()) hand();
         }

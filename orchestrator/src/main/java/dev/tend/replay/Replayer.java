@@ -23,6 +23,7 @@ import dev.tend.shared.WireEvent;
 import dev.tend.shared.fleet.ClusterSpec;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.NodeSpec;
+import dev.tend.shared.fleet.SignalNumbering;
 import dev.tend.shared.time.TimeLimits;
 import dev.tend.shared.time.VirtualClock;
 import dev.tend.shared.wire.ReadSummary;
@@ -165,7 +166,7 @@ public final class Replayer {
     }
 
     /** The state of one replay. */
-    private final class Run implements Recording.Sink {
+    private final class Run implements ReadAhead.NumberedSink {
         private final Recording recording;
         private final ReplayListener listener;
         private final RecordingHeader header;
@@ -189,6 +190,11 @@ public final class Replayer {
 
         @Override
         public void event(WireEvent event, long line) {
+            event(event, line, null);
+        }
+
+        @Override
+        public void event(WireEvent event, long line, SignalNumbering.Numbered key) {
             events++;
             Instant at = event.at();
             if (!TimeLimits.isKeepable(at)) {
@@ -203,7 +209,7 @@ public final class Replayer {
             advanceTo(at);
             if (lastEventAt == null || at.isAfter(lastEventAt)) lastEventAt = at;
             if (event instanceof HealthTransition t) {
-                if (model.admits(t)) feed(new Input.Transition(t));
+                if (model.admits(t)) feed(new Input.Transition(t, null, key));
             } else {
                 feed(new Input.Topology((TopologyEvent) event));
             }
@@ -276,7 +282,8 @@ public final class Replayer {
             Instant now = clock.instant();
             List<Effect> effects = engine.handle(in, now);
             collector.observe(effects, now);
-            for (Effect e : effects) {
+            for (int i = 0; i < effects.size(); i++) {
+                Effect e = effects.get(i);
                 if (e instanceof Effect.ArmTimer a) agenda.arm(a.key(), a.due());
                 else if (e instanceof Effect.CancelTimer c) agenda.cancel(c.key());
                 else if (e instanceof Effect.CallExecutor call) responses.answer(call, now, agenda);

@@ -74,7 +74,8 @@ final class ReportCollector {
 
     /** Takes the effects of one input handled at {@code now}. */
     void observe(List<Effect> effects, Instant now) {
-        for (Effect e : effects) {
+        for (int i = 0; i < effects.size(); i++) {
+            Effect e = effects.get(i);
             if (e instanceof Effect.Ledger l) {
                 if (l.type() == LedgerKind.VERDICT) decisions.add(decision(l.fields(), now));
                 else if (l.type() == LedgerKind.APPROVAL_REQUESTED) approvalsRequested++;

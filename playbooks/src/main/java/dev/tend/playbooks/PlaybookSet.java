@@ -72,9 +72,16 @@ public final class PlaybookSet {
      * here; they are guards.
      */
     public List<Playbook> match(HealthTransition t, Map<String, String> clusterTags) {
-        List<Playbook> out = new ArrayList<>();
-        for (Playbook p : playbooks) if (p.matches(t, clusterTags)) out.add(p);
-        return List.copyOf(out);
+        // asked for every problem a fleet reports: no iterator, and no list at all when nothing matches
+        List<Playbook> out = null;
+        for (int i = 0; i < playbooks.size(); i++) {
+            Playbook p = playbooks.get(i);
+            if (p.matches(t, clusterTags)) {
+                if (out == null) out = new ArrayList<>(2);
+                out.add(p);
+            }
+        }
+        return out == null ? List.of() : List.copyOf(out);
     }
 
     public int size() {

@@ -25,8 +25,11 @@ public enum ReasonCode {
 
     private final Verdict verdict;
     private final String meaning;
+    /** {@link #code()}, made once (every ledgered verdict names its codes). */
+    private final String code;
 
     ReasonCode(Verdict verdict, String meaning) {
+        this.code = name().toLowerCase(Locale.ROOT).replace('_', '-');
         this.verdict = verdict;
         this.meaning = meaning;
     }
@@ -43,7 +46,7 @@ public enum ReasonCode {
 
     /** The contract code, e.g. {@code fleet-brake}. */
     public String code() {
-        return name().toLowerCase(Locale.ROOT).replace('_', '-');
+        return code;
     }
 
     public static ReasonCode parse(String code) {

@@ -3,6 +3,7 @@ package dev.tend.engine.guard;
 import dev.tend.engine.Candidate;
 import dev.tend.playbooks.EffectiveLimits;
 import dev.tend.shared.ReasonCode;
+import dev.tend.shared.fleet.ClusterSpec;
 import dev.tend.shared.fleet.NodeSpec;
 
 import java.util.Optional;
@@ -34,8 +35,8 @@ public final class BlastRadiusGuard implements Guard {
             return Optional.of(Objection.on(code(), Wake.FLEET, fleet + " runs active fleet-wide (cap " + l.fleet() + ")"));
         }
         if (c.target().node() != null) {
-            String zone = ctx.health().topology().cluster(c.target().cluster())
-                    .flatMap(s -> s.node(c.target().node())).map(NodeSpec::zone).orElse(null);
+            ClusterSpec spec = ctx.health().clusterSpec(c.target().cluster());
+            String zone = spec == null ? null : spec.node(c.target().node()).map(NodeSpec::zone).orElse(null);
             if (zone != null) {
                 int inZone = ctx.activeRunsInZone(zone);
                 if (inZone >= l.perZone()) {

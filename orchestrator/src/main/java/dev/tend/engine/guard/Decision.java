@@ -20,8 +20,8 @@ public record Decision(Verdict verdict, List<Objection> objections) {
 
     public static Decision of(List<Objection> objections) {
         Verdict v = Verdict.START;
-        for (Objection o : objections) {
-            Verdict ov = o.code().verdict();
+        for (int i = 0; i < objections.size(); i++) {
+            Verdict ov = objections.get(i).code().verdict();
             if (ov == Verdict.DENY) v = Verdict.DENY;
             else if (ov == Verdict.HOLD && v != Verdict.DENY) v = Verdict.HOLD;
             else if (ov == Verdict.AWAIT_APPROVAL && v == Verdict.START) v = Verdict.AWAIT_APPROVAL;
@@ -41,8 +41,9 @@ public record Decision(Verdict verdict, List<Objection> objections) {
         return out;
     }
 
+    // indexed loops, no iterator: the engine asks these at every evaluation
     public boolean has(ReasonCode code) {
-        for (Objection o : objections) if (o.code() == code) return true;
+        for (int i = 0; i < objections.size(); i++) if (objections.get(i).code() == code) return true;
         return false;
     }
 
@@ -52,14 +53,21 @@ public record Decision(Verdict verdict, List<Objection> objections) {
         return w;
     }
 
+    /** True when some objection wakes on {@code wake}: {@code wakes().contains(wake)}, without the set. */
+    public boolean wakesOn(Wake wake) {
+        for (int i = 0; i < objections.size(); i++) if (objections.get(i).wake() == wake) return true;
+        return false;
+    }
+
     /**
      * The earliest processing time at which every time-based objection may be gone (the
      * latest of their retry times), or null when none is time-based.
      */
     public Instant retryAt() {
         Instant t = null;
-        for (Objection o : objections) {
-            if (o.retryAt() != null && (t == null || o.retryAt().isAfter(t))) t = o.retryAt();
+        for (int i = 0; i < objections.size(); i++) {
+            Instant r = objections.get(i).retryAt();
+            if (r != null && (t == null || r.isAfter(t))) t = r;
         }
         return t;
     }
@@ -67,8 +75,9 @@ public record Decision(Verdict verdict, List<Objection> objections) {
     /** Like {@link #retryAt()} for event-time objections. */
     public Instant retryAtEventTime() {
         Instant t = null;
-        for (Objection o : objections) {
-            if (o.retryAtEventTime() != null && (t == null || o.retryAtEventTime().isAfter(t))) t = o.retryAtEventTime();
+        for (int i = 0; i < objections.size(); i++) {
+            Instant r = objections.get(i).retryAtEventTime();
+            if (r != null && (t == null || r.isAfter(t))) t = r;
         }
         return t;
     }

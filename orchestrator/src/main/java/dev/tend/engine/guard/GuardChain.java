@@ -32,9 +32,9 @@ public final class GuardChain {
     }
 
     public Decision evaluate(Candidate candidate, GuardContext context) {
-        List<Objection> objections = new ArrayList<>();
-        for (Guard g : guards) {
-            Optional<Objection> o = g.check(candidate, context);
+        List<Objection> objections = new ArrayList<>(4);
+        for (int i = 0; i < guards.size(); i++) {
+            Optional<Objection> o = guards.get(i).check(candidate, context);
             if (o.isPresent()) objections.add(o.get());
         }
         return Decision.of(objections);

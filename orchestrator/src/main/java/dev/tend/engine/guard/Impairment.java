@@ -3,7 +3,9 @@ package dev.tend.engine.guard;
 import dev.tend.engine.Candidate;
 import dev.tend.shared.Id;
 
-import java.util.HashSet;
+import dev.tend.shared.fleet.ClusterSpec;
+import dev.tend.shared.fleet.FleetHealthView;
+
 import java.util.Set;
 
 /**
@@ -16,17 +18,25 @@ final class Impairment {
     }
 
     static int ifStarted(Candidate c, GuardContext ctx) {
+        // the size of (impaired nodes + nodes under remediation + the target's node), counted without building the union
         Id cluster = c.target().cluster();
-        Set<Id> impaired = new HashSet<>(ctx.health().impairedNodes(cluster));
-        impaired.addAll(ctx.nodesUnderRemediation(cluster));
+        FleetHealthView health = ctx.health();
+        Set<Id> remediated = ctx.nodesUnderRemediation(cluster);
+        int impaired = health.impairedNodeCount(cluster);
+        for (Id node : remediated) if (!health.isNodeImpaired(cluster, node)) impaired++;
         int extra = ctx.clusterScopeRunsOn(cluster);
-        if (c.target().node() != null) impaired.add(c.target().node());
-        else extra++;
-        return impaired.size() + extra;
+        Id node = c.target().node();
+        if (node != null) {
+            if (!health.isNodeImpaired(cluster, node) && !remediated.contains(node)) impaired++;
+        } else {
+            extra++;
+        }
+        return impaired + extra;
     }
 
     static int clusterSize(Candidate c, GuardContext ctx, int impaired) {
-        int size = ctx.health().topology().cluster(c.target().cluster()).map(s -> s.size()).orElse(0);
+        ClusterSpec spec = ctx.health().clusterSpec(c.target().cluster());
+        int size = spec != null ? spec.size() : 0;
         return Math.max(size, impaired);
     }
 }

@@ -25,7 +25,8 @@ public final class LoopGuard implements Guard {
         EffectiveLimits l = ctx.limits(c.playbook());
         List<Instant> starts = ctx.startsOf(c.playbook().id(), c.target());
         Instant from = ctx.now().minus(l.loop().period());
-        long recent = starts.stream().filter(s -> s.isAfter(from)).count();
+        long recent = 0;
+        for (int i = 0; i < starts.size(); i++) if (starts.get(i).isAfter(from)) recent++;
         if (recent < l.loop().count()) return Optional.empty();
         return Optional.of(Objection.on(code(), Wake.HUMAN, c.playbook().id() + " already ran " + recent + " times on "
                 + c.target() + " in " + Durations.format(l.loop().period()) + " (limit " + l.loop().count()

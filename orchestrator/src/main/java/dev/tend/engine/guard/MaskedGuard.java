@@ -30,7 +30,7 @@ public final class MaskedGuard implements Guard {
                     return Optional.of(masked(rule.signal() + " is active on " + c.target()));
                 }
             } else {
-                ClusterSpec spec = ctx.health().topology().cluster(cluster).orElse(null);
+                ClusterSpec spec = ctx.health().clusterSpec(cluster);
                 if (spec == null) continue;
                 for (NodeSpec n : spec.nodes()) {
                     if (ctx.health().isActive(cluster, n.id(), rule.signal())) {

@@ -19,7 +19,7 @@ public final class QuorumGuard implements Guard {
     @Override
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
         if (!ctx.limits(c.playbook()).keepQuorum()) return Optional.empty();
-        ClusterSpec spec = ctx.health().topology().cluster(c.target().cluster()).orElse(null);
+        ClusterSpec spec = ctx.health().clusterSpec(c.target().cluster());
         if (spec == null || !spec.quorum()) return Optional.empty();
         int n = spec.size();
         int impaired = Impairment.ifStarted(c, ctx);

@@ -23,7 +23,7 @@ public final class ReplicationGuard implements Guard {
     @Override
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
         if (!ctx.limits(c.playbook()).keepReplicas()) return Optional.empty();
-        ClusterSpec spec = ctx.health().topology().cluster(c.target().cluster()).orElse(null);
+        ClusterSpec spec = ctx.health().clusterSpec(c.target().cluster());
         if (spec == null || spec.replication() == null) return Optional.empty();
         Replication r = spec.replication();
         int impaired = Impairment.ifStarted(c, ctx);

@@ -24,7 +24,8 @@ public final class WindowGuard implements Guard {
 
     @Override
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
-        Map<String, String> tags = ctx.health().topology().cluster(c.target().cluster()).map(s -> s.tags()).orElse(Map.of());
+        var spec = ctx.health().clusterSpec(c.target().cluster());
+        Map<String, String> tags = spec != null ? spec.tags() : Map.of();
         Instant now = ctx.now();
         if (isAllowed(c, ctx, tags, now)) return Optional.empty();
         Instant t = now;

@@ -32,9 +32,10 @@ public final class FleetHealthView {
 
     private Fleet topology;
     /**
-     * Raised at every change of {@link #topology}: what a slot's remembered answer of
-     * {@link #isInTopology} is checked against (a number, not the fleet itself, so that no slot
-     * keeps an old topology alive: a fleet of 25,000 clusters is megabytes).
+     * Raised at every change of which clusters and nodes {@link #topology} holds (not at a
+     * change of a node's zone or attributes, which leaves every answer as it was): what a slot's
+     * remembered answer of {@link #isInTopology} is checked against (a number, not the fleet
+     * itself, so that no slot keeps an old topology alive: a fleet of 25,000 clusters is megabytes).
      */
     private long topologyVersion;
     /** One mutable slot per signal: a single map lookup per event. */
@@ -42,6 +43,16 @@ public final class FleetHealthView {
     /** The last slot looked up or made, and its key ({@link #slot}). */
     private SignalKey lastKey;
     private SignalSlot lastSlot;
+    /**
+     * Slots by number, for keys of {@link #numbering} (the first numbering the view is handed): a
+     * cache of {@link #signals}, filled as numbered keys are met (a slot stays its key's for the
+     * view's life, so no entry goes stale). Keys of another numbering are looked up in the map.
+     */
+    private SignalNumbering numbering;
+    private SignalSlot[] numbered = new SignalSlot[0];
+    /** The last answer of {@link #clusterSpec} and for which id (the instance); forgotten when the topology changes. */
+    private Id lastClusterId;
+    private ClusterSpec lastCluster;
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
@@ -59,12 +70,36 @@ public final class FleetHealthView {
         return topology;
     }
 
+    /**
+     * The cluster {@code id} of the topology, or null: {@code topology().cluster(id).orElse(null)},
+     * the last answer remembered (the guards of one evaluation ask about the same cluster five
+     * times or more) until the topology changes.
+     */
+    public ClusterSpec clusterSpec(Id id) {
+        if (id == lastClusterId) return lastCluster;
+        ClusterSpec spec = topology.cluster(id).orElse(null);
+        lastClusterId = id;
+        lastCluster = spec;
+        return spec;
+    }
+
     /** Applies a transition and says what it did. */
     public ApplyOutcome apply(HealthTransition t) {
-        SignalKey key = t.key();
-        SignalSlot slot = slot(key);
+        return apply(t, t.key(), null);
+    }
+
+    /**
+     * As {@link #apply(HealthTransition)}, with the transition's key numbered by its reader
+     * ({@code key.key()} equal to {@code t.key()}): the signal's slot is found by its number.
+     */
+    public ApplyOutcome apply(HealthTransition t, SignalNumbering.Numbered key) {
+        return apply(t, key.key(), key);
+    }
+
+    private ApplyOutcome apply(HealthTransition t, SignalKey key, SignalNumbering.Numbered numberedKey) {
+        SignalSlot slot = numberedKey == null ? slot(key) : slot(numberedKey);
         Instant at = t.at();
-        if (slot != null && at.isBefore(slot.lastAt)) {
+        if (slot != null && slot.isBeforeLast(at)) {
             lateEvents++;
             return ApplyOutcome.LATE;
         }
@@ -73,23 +108,24 @@ public final class FleetHealthView {
         if (fresh) {
             slot = new SignalSlot(CHANGE_HISTORY);
             signals.put(key, slot);
+            if (numberedKey != null) remember(numberedKey, slot);
             lastKey = key;
             lastSlot = slot;
         }
         if (!fresh && slot.state == t.state()) {
-            slot.lastAt = at;
+            slot.lastAt(at);
             return ApplyOutcome.REPEATED;
         }
         if (fresh && t.state() == SignalState.CLEAR) {
             slot.state = SignalState.CLEAR;
             slot.since = at;
-            slot.lastAt = at;
+            slot.lastAt(at);
             return ApplyOutcome.REPEATED;
         }
         boolean wasProblem = !fresh && slot.isProblem();
         slot.state = t.state();
         slot.since = at;
-        slot.lastAt = at;
+        slot.lastAt(at);
         slot.changed(at);
         if (t.state().isProblem() && !wasProblem) count(key, +1);
         if (!t.state().isProblem() && wasProblem) count(key, -1);
@@ -106,6 +142,8 @@ public final class FleetHealthView {
         }
         appliedEvents++;
         topologyAppliedAt.put(key, e.at());
+        boolean clusterBefore = topology.contains(e.cluster(), null);
+        boolean nodeBefore = topology.contains(e.cluster(), e.node());
         ClusterSpec cluster = topology.cluster(e.cluster())
                 .orElse(new ClusterSpec(e.cluster(), Map.of(), null, false, java.util.List.of()));
         if (e.change() == TopologyChange.LEFT) {
@@ -116,7 +154,12 @@ public final class FleetHealthView {
             cluster = cluster.withNode(node);
         }
         topology = topology.withCluster(cluster);
-        topologyVersion++;
+        lastClusterId = null;
+        lastCluster = null;
+        // an answer of isInTopology depends only on whether the cluster and the node are there
+        if (clusterBefore != topology.contains(e.cluster(), null) || nodeBefore != topology.contains(e.cluster(), e.node())) {
+            topologyVersion++;
+        }
         return ApplyOutcome.TOPOLOGY;
     }
 
@@ -167,6 +210,30 @@ public final class FleetHealthView {
         return s;
     }
 
+    /** {@link #slot(SignalKey)} of a numbered key: by its number when the view knows it, else from the map (and then known). */
+    private SignalSlot slot(SignalNumbering.Numbered n) {
+        SignalKey key = n.key();
+        if (key == lastKey) return lastSlot;
+        int i = n.number();
+        SignalSlot s = n.numbering() == numbering && i < numbered.length ? numbered[i] : null;
+        if (s == null) {
+            s = signals.get(key);
+            if (s == null) return null;
+            remember(n, s);
+        }
+        lastKey = key;
+        lastSlot = s;
+        return s;
+    }
+
+    private void remember(SignalNumbering.Numbered n, SignalSlot s) {
+        if (numbering == null) numbering = n.numbering();
+        else if (n.numbering() != numbering) return;
+        int i = n.number();
+        if (i >= numbered.length) numbered = java.util.Arrays.copyOf(numbered, Math.max(i + 1, Math.max(1024, numbered.length * 2)));
+        numbered[i] = s;
+    }
+
     public Optional<SignalStatus> status(SignalKey key) {
         SignalSlot s = slot(key);
         return s == null ? Optional.empty() : Optional.of(s.status());
@@ -174,8 +241,9 @@ public final class FleetHealthView {
 
     /** True when {@code signal} on the node (or the cluster, node null) is in breach or silent. */
     public boolean isActive(Id cluster, Id node, Id signal) {
-        SignalSlot s = slot(new SignalKey(cluster, node, signal));
-        return s != null && s.isProblem();
+        // the active signals of unhealthy clusters, a few hundred small sets, rather than the map of every signal
+        Problems p = problems.get(cluster);
+        return p != null && p.active.contains(new SignalKey(cluster, node, signal));
     }
 
     /**
@@ -217,6 +285,12 @@ public final class FleetHealthView {
     public boolean isNodeImpaired(Id cluster, Id node) {
         Problems p = problems.get(cluster);
         return p != null && p.perNode.containsKey(node);
+    }
+
+    /** How many nodes of a cluster have at least one signal in breach or silent: {@code impairedNodes(cluster).size()}, without a copy. */
+    public int impairedNodeCount(Id cluster) {
+        Problems p = problems.get(cluster);
+        return p == null ? 0 : p.perNode.size();
     }
 
     /** The nodes of a cluster with at least one signal in breach or silent. */
@@ -271,7 +345,7 @@ public final class FleetHealthView {
         java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
         for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) {
             SignalSlot st = e.getValue();
-            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt, java.util.List.copyOf(st.changes())));
+            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt(), java.util.List.copyOf(st.changes())));
         }
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
@@ -296,7 +370,7 @@ public final class FleetHealthView {
             SignalSlot slot = new SignalSlot(CHANGE_HISTORY);
             slot.state = s.state();
             slot.since = s.since();
-            slot.lastAt = s.lastAt();
+            slot.lastAt(s.lastAt());
             for (Instant c : s.changes()) slot.changed(c);
             v.signals.put(s.key(), slot);
             if (s.state().isProblem()) v.count(s.key(), +1);

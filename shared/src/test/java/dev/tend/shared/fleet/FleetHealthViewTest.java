@@ -164,4 +164,23 @@ class FleetHealthViewTest {
         assertThat(view.isInTopology(new SignalKey(Id.of("fares-33"), null, Id.of("key-revoked")))).isFalse();
         assertThat(view.isInTopology(new SignalKey(FARES, null, Id.of("key-revoked")))).isTrue();
     }
+
+    @Test
+    void aChangeOfZoneLeavesEveryAnswerAndAChangeOfAnUnknownNodeAddsIt() {
+        FleetHealthView view = new FleetHealthView(fleet());
+        SignalKey n1 = new SignalKey(FARES, Id.of("n1"), Id.of("replica-lag"));
+        SignalKey other = new SignalKey(Id.of("fares-33"), null, Id.of("key-revoked"));
+        view.apply(t(0, "fares-3", "n1", "replica-lag", BREACH));
+        assertThat(view.isInTopology(n1)).isTrue();
+        assertThat(view.isInTopology(other)).isFalse();
+        view.apply(new TopologyEvent(T0.plusSeconds(60), FARES, Id.of("n1"), TopologyChange.CHANGED, Map.of("zone", "z-c"), Map.of()));
+        assertThat(view.isInTopology(n1)).isTrue();
+        assertThat(view.isInTopology(other)).isFalse();
+        // a change reported for a node the topology lacks adds the node, and its cluster
+        view.apply(new TopologyEvent(T0.plusSeconds(120), Id.of("fares-33"), Id.of("n1"), TopologyChange.CHANGED, Map.of(), Map.of()));
+        assertThat(view.isInTopology(other)).isTrue();
+        assertThat(view.isInTopology(new SignalKey(Id.of("fares-33"), Id.of("n1"), Id.of("replica-lag")))).isTrue();
+        view.apply(new TopologyEvent(T0.plusSeconds(180), FARES, Id.of("n1"), TopologyChange.LEFT, Map.of(), Map.of()));
+        assertThat(view.isInTopology(n1)).isFalse();
+    }
 }
