@@ -30,7 +30,8 @@ import java.util.Map;
  * {@link Orchestrator#DEFAULT_SNAPSHOT_EVERY}, as {@code tend ingest}; 0: none), and
  * optionally {@code --root DIR} (the repository: bin/tend, playbooks/library; default .),
  * {@code --variants yes} (also tend with the JVM's defaults instead of the launcher's
- * options, and with each of them alone), {@code --in-process yes} (instead: both in this
+ * options, with each of the compiler and collector options alone, and with both but the
+ * default young generation), {@code --in-process yes} (instead: both in this
  * JVM, with the CPU of each of tend's threads, see {@link IngestInProcess}).
  */
 public final class IngestBenchmark {
@@ -71,6 +72,7 @@ public final class IngestBenchmark {
             variants.put("  JVM defaults (C2, G1)", Map.of("TEND_INGEST_OPTS", ""));
             variants.put("  C1 only", Map.of("TEND_INGEST_OPTS", "-XX:TieredStopAtLevel=1"));
             variants.put("  serial collector only", Map.of("TEND_INGEST_OPTS", "-XX:+UseSerialGC"));
+            variants.put("  C1, serial, default young generation", Map.of("TEND_INGEST_OPTS", "-XX:TieredStopAtLevel=1 -XX:+UseSerialGC"));
         }
         Map<String, ColdReplayBenchmark.Timing> timings = new LinkedHashMap<>();
         int i = 0;
