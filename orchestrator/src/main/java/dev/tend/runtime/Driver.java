@@ -27,6 +27,12 @@ import java.util.function.BooleanSupplier;
 final class Driver {
     private static final int BATCH = 2000;
     /**
+     * The smallest batch committed on the {@link CommitThread}: a smaller one (the live path's
+     * few requests at a time) is committed on the driver thread, where handing it over and
+     * waking the driver again would cost more than deciding the next batch meanwhile saves.
+     */
+    private static final int PIPELINE_FROM = 64;
+    /**
      * How long the idle driver sleeps before it looks at {@code done} and the checkpoints
      * again; any input wakes it at once (see {@link Inbox}).
      */
@@ -190,8 +196,9 @@ final class Driver {
         if (!settle(next.inputs())) {
             // the batch in flight failed and was redone input by input; next was decided on what never became durable
             retryOneByOne(next.inputs(), next.queued());
-        } else if (inbox.isEmpty() || (snapshotEvery > 0 && sinceSnapshot + next.size() >= snapshotEvery)) {
-            // nothing else waits (an idle driver commits at once), or a snapshot of this state is due
+        } else if (next.size() < PIPELINE_FROM || inbox.isEmpty()
+                || (snapshotEvery > 0 && sinceSnapshot + next.size() >= snapshotEvery)) {
+            // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
             try {
                 commit(next);
             } catch (RuntimeException e) {
