@@ -1,7 +1,6 @@
 package dev.tend.cli;
 
 import java.io.PrintWriter;
-import java.util.concurrent.atomic.AtomicBoolean;
 
 /**
  * The one line a long-running command prints when it stops, whether the main thread gets
@@ -10,17 +9,23 @@ import java.util.concurrent.atomic.AtomicBoolean;
 final class StopLine {
     private final PrintWriter out;
     private final String line;
-    private final AtomicBoolean printed = new AtomicBoolean();
+    private boolean printed;
 
     StopLine(PrintWriter out, String line) {
         this.out = out;
         this.line = line;
     }
 
-    void print() {
-        if (printed.compareAndSet(false, true)) {
-            out.println(line);
-            out.flush();
-        }
+    /**
+     * Prints the line unless it was printed. Held under the lock while it writes: when the main
+     * thread gets here first, a shutdown hook calling this waits until the line is out instead
+     * of returning at once and letting the JVM halt before the main thread wrote it (a race
+     * that could lose the line; a serve test once missed it under heavy load).
+     */
+    synchronized void print() {
+        if (printed) return;
+        printed = true;
+        out.println(line);
+        out.flush();
     }
 }
