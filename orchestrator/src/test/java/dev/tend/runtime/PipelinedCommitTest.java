@@ -1,18 +1,13 @@
 package dev.tend.runtime;
 
-import dev.tend.engine.BrakeThresholds;
 import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
-import dev.tend.engine.EventTimeMode;
 import dev.tend.engine.Input;
 import dev.tend.executor.Executor;
 import dev.tend.executor.SimulatedExecutor;
-import dev.tend.playbooks.PlaybookSet;
-import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.SignalState;
-import dev.tend.shared.fleet.FleetFile;
 import dev.tend.shared.time.Timers;
 import dev.tend.store.LedgerFilter;
 import dev.tend.store.StepRow;
@@ -22,7 +17,6 @@ import dev.tend.store.TimerRow;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Instant;
@@ -245,21 +239,6 @@ class PipelinedCommitTest {
     }
 
     private EngineSetup setup() throws Exception {
-        Files.writeString(dir.resolve("actions.yaml"), "actions:\n  fix: { simulated: { duration: 1s, success: 1.0 } }\n");
-        Files.writeString(dir.resolve("tend.yaml"), "brake: { engage-at: { clusters: 100 }, release-below: { clusters: 50 } }\n");
-        Files.writeString(dir.resolve("fix.yaml"), """
-                playbook: fix-heartbeat
-                version: 1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                limits: { keep-replicas: false }
-                steps:
-                  - { id: fix, action: fix, timeout: 1m }
-                """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur\nclusters:\n");
-        for (int c = 1; c <= 4; c++) fleet.append("  - id: fares-").append(c).append("\n    nodes: [ { id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c } ]\n");
-        Files.writeString(dir.resolve("fleet.yaml"), fleet);
-        PlaybookSet set = PlaybookLoader.load(dir);
-        return new EngineSetup(set, set.config(), FleetFile.load(dir.resolve("fleet.yaml")),
-                BrakeThresholds.from(set.config().brake()), EventTimeMode.eventsOnly());
+        return FixHeartbeatFixture.setup(dir);
     }
 }

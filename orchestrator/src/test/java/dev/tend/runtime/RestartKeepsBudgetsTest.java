@@ -31,20 +31,7 @@ class RestartKeepsBudgetsTest {
 
     @Test
     void aRestartGrantsNoFreshBurstTheBudgetIsRebuiltFromRecordedStarts() throws Exception {
-        Files.writeString(dir.resolve("actions.yaml"), "actions:\n  fix: { simulated: { duration: 1s, success: 1.0 } }\n");
-        Files.writeString(dir.resolve("tend.yaml"), "defaults: { rate: 2/1h, fleet: 50, per-zone: 50 }\n"
-                + "brake: { engage-at: { clusters: 100 }, release-below: { clusters: 50 } }\n");
-        Files.writeString(dir.resolve("fix.yaml"), """
-                playbook: fix-heartbeat
-                version: 1
-                trigger: { signal: heartbeat, state: silent, scope: node }
-                limits: { keep-replicas: false }
-                steps:
-                  - { id: fix, action: fix, timeout: 1m }
-                """);
-        StringBuilder fleet = new StringBuilder("fleet: larkspur\nclusters:\n");
-        for (int c = 1; c <= 6; c++) fleet.append("  - id: fares-").append(c).append("\n    nodes: [ { id: n1, zone: z-a }, { id: n2, zone: z-b }, { id: n3, zone: z-c } ]\n");
-        Files.writeString(dir.resolve("fleet.yaml"), fleet);
+        FixHeartbeatFixture.write(dir, "defaults: { rate: 2/1h, fleet: 50, per-zone: 50 }\n" + FixHeartbeatFixture.BRAKE, 6);
         Path db = dir.resolve("tend.db");
 
         ingest(db, 1, 2, 3);   // two start, the third is held by the playbook's budget
