@@ -55,10 +55,7 @@ class PipelinedCommitTest {
         try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
              QuartzTimers quartz = new QuartzTimers()) {
             Checked checked = new Checked(store);
-            Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
-                    n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
-            quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
-            orch.recover();
+            Orchestrator orch = recovered(store, checked, sim, quartz, told);
             List<CompletableFuture<List<Effect>>> answered = new ArrayList<>();
             for (int i = 0; i < inputs.size(); i++) {
                 Input in = inputs.get(i);
@@ -106,10 +103,7 @@ class PipelinedCommitTest {
         try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
              QuartzTimers quartz = new QuartzTimers()) {
             Checked checked = new Checked(store);
-            Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
-                    n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
-            quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
-            orch.recover();
+            Orchestrator orch = recovered(store, checked, sim, quartz, told);
             for (Input in : inputs) orch.submitEvent(in);
             orch.runUntil(orch::isIdle);
 
@@ -236,6 +230,15 @@ class PipelinedCommitTest {
             long journaled = store.read(StoreReader::lastInputSeq);
             if (journaled < rows) violations.add(what + " with " + journaled + " of " + rows + " inputs journaled");
         }
+    }
+
+    /** An orchestrator on {@code store} whose executor calls, timers and listener are checked against it, recovered and ready. */
+    private Orchestrator recovered(Store store, Checked checked, SimulatedExecutor sim, QuartzTimers quartz, Told told) throws Exception {
+        Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
+                n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
+        quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
+        orch.recover();
+        return orch;
     }
 
     private EngineSetup setup() throws Exception {
