@@ -264,15 +264,21 @@ final class Driver {
     private boolean settle(List<Input> decidedAfter) {
         DecidedBatch b = inFlight;
         if (b == null) return true;
-        inFlight = null;
-        RuntimeException failed = CommitThread.outcome(inFlightCommit);
-        inFlightCommit = null;
+        RuntimeException failed = awaitInFlight();
         if (failed != null) {
             redo(b, failed, decidedAfter);
             return false;
         }
         finish(b);
         return true;
+    }
+
+    /** Waits for the batch in flight to be committed and clears it; returns its commit's failure, or null. */
+    private RuntimeException awaitInFlight() {
+        CompletableFuture<Void> commit = inFlightCommit;
+        inFlight = null;
+        inFlightCommit = null;
+        return CommitThread.outcome(commit);
     }
 
     /**
@@ -283,9 +289,7 @@ final class Driver {
     private void takeApart(List<Input> batch, java.util.BitSet queued) {
         DecidedBatch before = inFlight;
         if (before != null) {
-            inFlight = null;
-            RuntimeException failed = CommitThread.outcome(inFlightCommit);
-            inFlightCommit = null;
+            RuntimeException failed = awaitInFlight();
             if (failed != null) {
                 redo(before, failed, batch);
             } else {
@@ -319,9 +323,7 @@ final class Driver {
     private void abandonInFlight() {
         DecidedBatch b = inFlight;
         if (b == null) return;
-        inFlight = null;
-        RuntimeException failed = CommitThread.outcome(inFlightCommit);
-        inFlightCommit = null;
+        RuntimeException failed = awaitInFlight();
         TendException stopped = new TendException("tend stopped before acting on this input"
                 + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
         for (Input in : b.inputs()) waiters.failed(in, stopped);
