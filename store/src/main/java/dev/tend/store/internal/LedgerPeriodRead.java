@@ -7,7 +7,6 @@ import dev.tend.store.LedgerPeriodQuery;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.statement.Query;
 
-import java.nio.charset.StandardCharsets;
 import java.util.List;
 import java.util.concurrent.CompletableFuture;
 import java.util.function.Consumer;
@@ -24,7 +23,7 @@ final class LedgerPeriodRead {
     private final Handle handle;
     private final long since;
     private final long until;
-    private final List<LedgerVerifier.Raw> carried;
+    private final List<RawLedgerRow> carried;
     private int next;
 
     LedgerPeriodRead(Handle handle, LedgerPeriodQuery query) {
@@ -39,7 +38,7 @@ final class LedgerPeriodRead {
      * seq order). Their seqs come from the indexes alone (ledger_kind_time, ledger_run), then the
      * rows by seq in order, so that no row is sorted.
      */
-    private List<LedgerVerifier.Raw> carried(LedgerPeriodQuery query) {
+    private List<RawLedgerRow> carried(LedgerPeriodQuery query) {
         String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
         String seqs = "SELECT seq FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
@@ -51,7 +50,7 @@ final class LedgerPeriodRead {
                 .bindList("opening", List.copyOf(query.openingKinds()))
                 .bindList("closing", List.copyOf(query.closingKinds()));
         if (!query.carriedKinds().isEmpty()) carriedQuery.bindList("carried", List.copyOf(query.carriedKinds()));
-        return carriedQuery.map((rs, ctx) -> LedgerVerifier.raw(rs)).list();
+        return carriedQuery.map((rs, ctx) -> RawLedgerRow.of(rs)).list();
     }
 
     /** The lowest and highest seq of an entry in the period (through the time index); {0, 0} when it has none. */
@@ -82,16 +81,16 @@ final class LedgerPeriodRead {
 
     private void carriedBefore(long seq, Consumer<LedgerEntry> consumer) {
         while (next < carried.size() && carried.get(next).seq() < seq) {
-            LedgerVerifier.Raw r = carried.get(next++);
+            RawLedgerRow r = carried.get(next++);
             consumer.accept(new LedgerEntry(r.seq(), Times.fromNanos(r.atNs()), r.kind(), r.cluster(), r.playbook(), r.run(),
-                    r.entry() == null ? null : new String(r.entry(), StandardCharsets.UTF_8), r.prevHash(), r.hash()));
+                    RawLedgerRow.text(r.entry()), RawLedgerRow.text(r.prevHash()), RawLedgerRow.text(r.hash())));
         }
     }
 
     /** The carried entries before {@code seq}, their text parsed (the usual one in one pass, as the walk does). */
     private void carriedBefore(long seq, JsonNode[] fields, LedgerEntryRead consumer) {
         while (next < carried.size() && carried.get(next).seq() < seq) {
-            LedgerVerifier.Raw r = carried.get(next);
+            RawLedgerRow r = carried.get(next);
             consumer.accept(r.seq(), Times.fromNanos(r.atNs()), r.kind(), fields[next++]);
         }
     }
@@ -119,10 +118,10 @@ final class LedgerPeriodRead {
             return new LedgerVerifier(handle).verifyFrom(fromSeq);
         }
         CompletableFuture<JsonNode[]> parsing = parseCarried();
-        dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, fields) -> {
+        dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, kind, fields) -> {
             if (row.atNs() < since || row.atNs() >= until) return;
             carriedBefore(row.seq(), parsing.join(), consumer);
-            consumer.accept(row.seq(), Times.fromNanos(row.atNs()), row.kind(), fields);
+            consumer.accept(row.seq(), Times.fromNanos(row.atNs()), kind, fields);
         });
         carriedBefore(Long.MAX_VALUE, parsing.join(), consumer);
         return v;
