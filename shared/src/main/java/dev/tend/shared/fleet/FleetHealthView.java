@@ -343,10 +343,7 @@ public final class FleetHealthView {
     /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
     public HealthMemo memo() {
         java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
-        for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) {
-            SignalSlot st = e.getValue();
-            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt(), java.util.List.copyOf(st.changes())));
-        }
+        for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) out.add(e.getValue().memo(e.getKey()));
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
         for (Map.Entry<dev.tend.shared.Target, Instant> e : topologyAppliedAt.entrySet()) {

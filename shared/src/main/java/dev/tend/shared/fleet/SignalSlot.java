@@ -3,8 +3,6 @@ package dev.tend.shared.fleet;
 import dev.tend.shared.SignalState;
 
 import java.time.Instant;
-import java.util.ArrayList;
-import java.util.List;
 
 /**
  * Where one signal of the {@link FleetHealthView} stands, mutable, so that an event costs one
@@ -29,6 +27,12 @@ final class SignalSlot {
     private int[] ringNanos;
     private int head;
     private int count;
+    /**
+     * This slot as a snapshot's signal, made by the last {@link #memo} and forgotten at the next
+     * event: a snapshot takes again, without copying, every signal no event touched since the
+     * last one (the memo is immutable).
+     */
+    private HealthMemo.Signal memo;
 
     SignalSlot(int limit) {
         this.limit = limit;
@@ -47,6 +51,7 @@ final class SignalSlot {
     }
 
     void lastAt(Instant at) {
+        memo = null;
         lastAt = at;
         lastSecond = at == null ? Long.MIN_VALUE : at.getEpochSecond();
         lastNano = at == null ? 0 : at.getNano();
@@ -60,6 +65,7 @@ final class SignalSlot {
 
     /** Remembers a state change at {@code at}, forgetting the oldest beyond the limit. */
     void changed(Instant at) {
+        memo = null;
         if (ringSeconds == null) {
             ringSeconds = new long[4];
             ringNanos = new int[4];
@@ -103,13 +109,24 @@ final class SignalSlot {
         return n;
     }
 
-    /** The remembered changes, oldest first. */
-    List<Instant> changes() {
-        List<Instant> out = new ArrayList<>(count);
-        for (int i = 0; i < count; i++) {
-            int j = (head + i) % ringSeconds.length;
-            out.add(Instant.ofEpochSecond(ringSeconds[j], ringNanos[j]));
+    /**
+     * This slot as a snapshot's signal under {@code key}, its key in the view: the one made for
+     * the last snapshot when no event reached the slot since ({@link #lastAt(Instant)} comes with
+     * every change of its state or times).
+     */
+    HealthMemo.Signal memo(dev.tend.shared.SignalKey key) {
+        HealthMemo.Signal m = memo;
+        if (m == null) {
+            long[] seconds = new long[count];
+            int[] nanos = new int[count];
+            for (int i = 0; i < count; i++) {
+                int j = (head + i) % ringSeconds.length;
+                seconds[i] = ringSeconds[j];
+                nanos[i] = ringNanos[j];
+            }
+            m = new HealthMemo.Signal(key, state, since, lastAt, new InstantList(seconds, nanos));
+            memo = m;
         }
-        return out;
+        return m;
     }
 }
