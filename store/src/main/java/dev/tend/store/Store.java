@@ -1,8 +1,10 @@
 package dev.tend.store;
 
 import dev.tend.store.internal.Database;
+import dev.tend.store.internal.Dialect;
 import dev.tend.store.internal.Failures;
 import dev.tend.store.internal.HeadCache;
+import dev.tend.store.internal.SqliteWriteTransaction;
 import dev.tend.store.internal.StatementCache;
 import dev.tend.store.internal.JdbiReader;
 import dev.tend.store.internal.JdbiTx;
@@ -102,7 +104,7 @@ public final class Store implements AutoCloseable {
             requireOpen();
             JdbiTx[] done = new JdbiTx[1];
             long epoch = fence;
-            T result = db.writeJdbi().inTransaction(handle -> {
+            org.jdbi.v3.core.HandleCallback<T, RuntimeException> body = handle -> {
                 if (epoch >= 0) LeaderLease.check(handle, location(), epoch);
                 JdbiTx tx = new JdbiTx(handle, location(), heads, statements);
                 try {
@@ -113,7 +115,11 @@ public final class Store implements AutoCloseable {
                 } finally {
                     tx.end();
                 }
-            });
+            };
+            // SQLite: one transaction begun and committed by kept statements (see SqliteWriteTransaction)
+            T result = db.dialect() == Dialect.SQLITE
+                    ? db.writeJdbi().withHandle(handle -> SqliteWriteTransaction.run(handle, statements, body, db::discardWriter))
+                    : db.writeJdbi().inTransaction(body);
             if (done[0].heads() != null) heads.publish(done[0].heads());
             db.committed();
             return result;

@@ -43,12 +43,17 @@ abstract class SnapshotContractTest extends StoreTestBase {
         db.execute("DROP INDEX ledger_kind");
         db.execute("DROP INDEX ledger_playbook");
         db.execute("DROP INDEX ledger_kind_time");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20",
-                "2.21")).isEqualTo(5);
+        // version 1's indexes by cluster and run held every entry
+        db.execute("DROP INDEX ledger_cluster");
+        db.execute("CREATE INDEX ledger_cluster ON ledger (cluster, seq)");
+        db.execute("DROP INDEX ledger_run");
+        db.execute("CREATE INDEX ledger_run ON ledger (run, seq)");
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?)", "2.17", "2.18", "2.19", "2.20",
+                "2.21", "2.22")).isEqualTo(6);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?) AND success = ?", "2.17",
-                "2.18", "2.19", "2.20", "2.21", true)).isEqualTo("5");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?) AND success = ?",
+                "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", true)).isEqualTo("6");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }

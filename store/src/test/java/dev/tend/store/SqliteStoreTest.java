@@ -113,4 +113,38 @@ class SqliteStoreTest {
             assertThat(store.read(StoreReader::verifyLedger).ok()).isTrue();
         }
     }
+
+    @Test
+    void aCommittedOrRolledBackWriteLeavesNoTransactionOpenForAnotherWriterToWaitOn() throws Exception {
+        Path file = dir.resolve("tend.db");
+        try (Store store = Store.openSqlite(file)) {
+            store.useTransaction(tx -> tx.putState("brake", "{}"));
+            assertThat(writesAtOnce(file, "fares-3")).isTrue();
+            assertThatThrownBy(() -> store.useTransaction(tx -> {
+                tx.putState("brake", "{\"engaged\":true}");
+                throw new IllegalStateException("dispatch-1 went away");
+            })).isInstanceOf(IllegalStateException.class);
+            assertThat(writesAtOnce(file, "dispatch-1")).isTrue();
+            store.useTransaction(tx -> tx.putState("loops", "{}"));
+            assertThat(state(store, "brake")).contains("{}");
+            assertThat(state(store, "loops")).contains("{}");
+            assertThat(state(store, "other-fares-3")).contains("1");
+            assertThat(state(store, "other-dispatch-1")).contains("1");
+        }
+    }
+
+    private static Optional<String> state(Store store, String key) {
+        return store.read(r -> r.state(key));
+    }
+
+    /** Whether a connection of its own writes to {@code file} without waiting for any lock (it throws SQLITE_BUSY if held). */
+    private static boolean writesAtOnce(Path file, String cluster) throws Exception {
+        try (java.sql.Connection c = new SqliteTestDatabase(file).connect(); java.sql.Statement s = c.createStatement()) {
+            s.execute("PRAGMA busy_timeout = 0");
+            s.execute("BEGIN IMMEDIATE");
+            s.execute("INSERT INTO fleet_state (state_key, json) VALUES ('other-" + cluster + "', '1')");
+            s.execute("COMMIT");
+            return true;
+        }
+    }
 }

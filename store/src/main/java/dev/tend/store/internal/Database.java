@@ -215,6 +215,14 @@ public final class Database implements AutoCloseable {
         return writeLock;
     }
 
+    /**
+     * Takes a writer connection out of the pool (closed once given back, which rolls back
+     * whatever it held open): a transaction on it could be neither committed nor rolled back.
+     */
+    public void discardWriter(Connection pooled) {
+        writers.evictConnection(pooled);
+    }
+
     /** A write transaction committed (on SQLite, its log wants checkpointing). */
     public void committed() {
         if (checkpointer != null) checkpointer.committed();
