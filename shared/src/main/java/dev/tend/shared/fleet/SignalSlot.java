@@ -27,12 +27,11 @@ final class SignalSlot {
     private int[] ringNanos;
     private int head;
     private int count;
-    /**
-     * This slot as a snapshot's signal, made by the last {@link #memo} and forgotten at the next
-     * event: a snapshot takes again, without copying, every signal no event touched since the
-     * last one (the memo is immutable).
-     */
-    private HealthMemo.Signal memo;
+    /** The slot's key in the view, and its number in the order the view met it ({@link SignalMemos}). */
+    dev.tend.shared.SignalKey key;
+    int number;
+    /** An event reached the slot since the last snapshot took it ({@link SignalMemos#touched}). */
+    boolean touched;
 
     SignalSlot(int limit) {
         this.limit = limit;
@@ -51,7 +50,6 @@ final class SignalSlot {
     }
 
     void lastAt(Instant at) {
-        memo = null;
         lastAt = at;
         lastSecond = at == null ? Long.MIN_VALUE : at.getEpochSecond();
         lastNano = at == null ? 0 : at.getNano();
@@ -65,7 +63,6 @@ final class SignalSlot {
 
     /** Remembers a state change at {@code at}, forgetting the oldest beyond the limit. */
     void changed(Instant at) {
-        memo = null;
         if (ringSeconds == null) {
             ringSeconds = new long[4];
             ringNanos = new int[4];
@@ -109,24 +106,15 @@ final class SignalSlot {
         return n;
     }
 
-    /**
-     * This slot as a snapshot's signal under {@code key}, its key in the view: the one made for
-     * the last snapshot when no event reached the slot since ({@link #lastAt(Instant)} comes with
-     * every change of its state or times).
-     */
-    HealthMemo.Signal memo(dev.tend.shared.SignalKey key) {
-        HealthMemo.Signal m = memo;
-        if (m == null) {
-            long[] seconds = new long[count];
-            int[] nanos = new int[count];
-            for (int i = 0; i < count; i++) {
-                int j = (head + i) % ringSeconds.length;
-                seconds[i] = ringSeconds[j];
-                nanos[i] = ringNanos[j];
-            }
-            m = new HealthMemo.Signal(key, state, since, lastAt, new InstantList(seconds, nanos));
-            memo = m;
+    /** This slot as a snapshot's signal, its recent changes copied as numbers. */
+    HealthMemo.Signal memo() {
+        long[] seconds = new long[count];
+        int[] nanos = new int[count];
+        for (int i = 0; i < count; i++) {
+            int j = (head + i) % ringSeconds.length;
+            seconds[i] = ringSeconds[j];
+            nanos[i] = ringNanos[j];
         }
-        return m;
+        return new HealthMemo.Signal(key, state, since, lastAt, new InstantList(seconds, nanos));
     }
 }
