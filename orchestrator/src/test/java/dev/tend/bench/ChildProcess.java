@@ -80,6 +80,11 @@ final class ChildProcess implements AutoCloseable {
         return ((com.sun.management.OperatingSystemMXBean) ManagementFactory.getOperatingSystemMXBean()).getProcessCpuTime();
     }
 
+    /** The process id (its threads' CPU: {@link ThreadCpu#ofProcess}). */
+    long pid() {
+        return process.pid();
+    }
+
     /** The CPU time the process has used so far (user and system), in nanoseconds; -1 when unknown. */
     long cpuNanos() {
         return process.toHandle().info().totalCpuDuration().map(d -> d.toNanos()).orElse(-1L);

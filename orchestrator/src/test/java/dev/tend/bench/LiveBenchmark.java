@@ -9,6 +9,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HexFormat;
 import java.util.List;
+import java.util.Map;
 import java.util.SplittableRandom;
 import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.concurrent.atomic.AtomicLong;
@@ -24,7 +25,8 @@ import java.util.concurrent.atomic.AtomicLong;
  * {@code -Pbench} (see DEVELOPERS.md).
  *
  * <p>Arguments: {@code --jar FILE --test-classes DIR --library DIR [--seconds S]
- * [--connections C] [--idle-requests N] [--clusters N]}.
+ * [--connections C] [--idle-requests N] [--clusters N] [--warmup S] [--warm-idle yes|no]
+ * [--serve-java-options "..."]}.
  */
 public final class LiveBenchmark {
     private LiveBenchmark() {
@@ -61,6 +63,8 @@ public final class LiveBenchmark {
         int clusters = Integer.parseInt(arg(args, "--clusters", "300"));
         // a server runs for days: its figures are those after the JIT compiled the request path
         int warmup = Integer.parseInt(arg(args, "--warmup", "15"));
+        // and with the idle path too (see warm)
+        boolean warmIdle = !arg(args, "--warm-idle", "yes").equals("no");
         Path dir = Files.createTempDirectory("tend-live-bench");
         Path fleet = dir.resolve("fleet.yaml");
         IngestMix.writeFleet(fleet, clusters);
@@ -76,14 +80,18 @@ public final class LiveBenchmark {
 
         int floorPort = ChildProcess.freePort();
         Figures floorIdle, floorLoad;
+        String floorThreads, tendThreads;
+        long floorWarm, tendWarm;
         try (ChildProcess floor = ChildProcess.startAndAwait(ChildProcess.javaCommand(jvm, "-cp", jar + java.io.File.pathSeparator
                 + testClasses, BareEndpoint.class.getName(), String.valueOf(floorPort)), dir.resolve("floor.log"), "listening on", 120)) {
-            load(floorPort, null, connections, warmup, clusters);
+            floorWarm = warm(floorPort, null, connections, warmup, warmIdle, idleRequests, clusters, floor.pid());
             long c0 = floor.cpuNanos();
             floorIdle = idle(floorPort, null, idleRequests, clusters);
             long c1 = floor.cpuNanos();
+            var threads = ThreadCpu.ofProcess(floor.pid());
             floorLoad = load(floorPort, null, connections, seconds, clusters);
             long c2 = floor.cpuNanos();
+            floorThreads = ThreadCpu.between(threads, ThreadCpu.ofProcess(floor.pid()));
             floorIdle = floorIdle.withServerCpu(c1 - c0);
             floorLoad = floorLoad.withServerCpu(c2 - c1);
         }
@@ -92,12 +100,14 @@ public final class LiveBenchmark {
         try (ChildProcess tend = ChildProcess.startAndAwait(ChildProcess.javaCommand(serveJvm, "-jar", jar.toString(), "serve",
                 "--playbooks", library.toString(), "--fleet", fleet.toString(), "--db", dir.resolve("live.db").toString(),
                 "--listen", "127.0.0.1:" + tendPort, "--tokens", tokens.toString()), dir.resolve("serve.log"), "tend: serving", 180)) {
-            load(tendPort, token, connections, warmup, clusters);
+            tendWarm = warm(tendPort, token, connections, warmup, warmIdle, idleRequests, clusters, tend.pid());
             long c0 = tend.cpuNanos();
             tendIdle = idle(tendPort, token, idleRequests, clusters);
             long c1 = tend.cpuNanos();
+            var threads = ThreadCpu.ofProcess(tend.pid());
             tendLoad = load(tendPort, token, connections, seconds, clusters);
             long c2 = tend.cpuNanos();
+            tendThreads = ThreadCpu.between(threads, ThreadCpu.ofProcess(tend.pid()));
             tendIdle = tendIdle.withServerCpu(c1 - c0);
             tendLoad = tendLoad.withServerCpu(c2 - c1);
         }
@@ -106,6 +116,11 @@ public final class LiveBenchmark {
         row("tend,  idle (one request at a time)", tendIdle);
         row("floor, " + connections + " connections, one line per request", floorLoad);
         row("tend,  " + connections + " connections, one line per request", tendLoad);
+        System.out.printf("warm-up: floor %d s, tend %d s (until the JIT compiler threads used under 5%% of the server's CPU for 3 s)%n",
+                floorWarm, tendWarm);
+        // where the servers' CPU went under load: the JIT compiler threads should be near idle by then
+        System.out.printf("server threads' CPU during the %d connections: floor: %s%n", connections, floorThreads);
+        System.out.printf("                                        tend: %s%n", tendThreads);
         System.out.printf("idle tend p99 = %.2f ms (target < 5 ms): %s%n", tendIdle.percentileMs(0.99),
                 tendIdle.percentileMs(0.99) < 5 ? "met" : "NOT met");
         double ratio = tendLoad.rate() / floorLoad.rate();
@@ -120,6 +135,36 @@ public final class LiveBenchmark {
     private static void row(String what, Figures f) {
         System.out.printf("%-44s %12.0f %9.2f %9.2f %11.0f µs %7d%n", what, f.rate(), f.percentileMs(0.5), f.percentileMs(0.99),
                 f.cpuMicrosPerRequest(), f.failures());
+    }
+
+    /**
+     * Warms a server up and returns for how long, in seconds: {@code seconds} under
+     * {@code connections}, then (with {@code idleToo}) as many idle requests as are measured
+     * (a server sees quiet and busy spells alike, and the idle requests measured next would
+     * otherwise make the JIT drop code compiled for the busy path), then slices of 3 s under the
+     * connections until the JIT compiler threads used under 5% of the server's CPU in one, for at
+     * most twice {@code seconds} more. On 2 shared cores under load, 15 s left the compiler
+     * threads busy with tend's request path in the measured window: a sixth of its CPU there,
+     * 80 against 66 µs per request with 45 s (2026-12-03, load 11 to 21).
+     */
+    static long warm(int port, String token, int connections, int seconds, boolean idleToo, int idleRequests, int clusters,
+                     long pid) throws Exception {
+        long t0 = System.nanoTime();
+        load(port, token, connections, seconds, clusters);
+        if (idleToo) idle(port, token, idleRequests, clusters);
+        long deadline = System.nanoTime() + 2L * seconds * 1_000_000_000L;
+        while (true) {
+            Map<String, Long> before = ThreadCpu.ofProcess(pid);
+            load(port, token, connections, 3, clusters);
+            Map<String, Long> after = ThreadCpu.ofProcess(pid);
+            long all = 0, compilers = 0;
+            for (Map.Entry<String, Long> e : after.entrySet()) {
+                long used = e.getValue() - before.getOrDefault(e.getKey(), 0L);
+                all += used;
+                if (e.getKey().contains("Compiler")) compilers += used;
+            }
+            if (compilers * 20 <= all || System.nanoTime() > deadline) return Math.round((System.nanoTime() - t0) / 1e9);
+        }
     }
 
     /** One connection, one one-line request at a time with a pause of 5 ms between: the server is idle at each. */

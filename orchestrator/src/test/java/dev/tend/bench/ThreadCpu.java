@@ -23,8 +23,16 @@ final class ThreadCpu {
 
     /** Milliseconds of CPU (user + system) so far, by thread name. */
     static Map<String, Long> byName() {
+        return byName(Path.of("/proc/self/task"));
+    }
+
+    /** As {@link #byName()}, for the threads of the process {@code pid} (a server under measurement). */
+    static Map<String, Long> ofProcess(long pid) {
+        return byName(Path.of("/proc/" + pid + "/task"));
+    }
+
+    private static Map<String, Long> byName(Path tasks) {
         Map<String, Long> out = new TreeMap<>();
-        Path tasks = Path.of("/proc/self/task");
         if (!Files.isDirectory(tasks)) return out;
         try (Stream<Path> list = Files.list(tasks)) {
             for (Path t : list.toList()) {
@@ -48,7 +56,12 @@ final class ThreadCpu {
 
     /** The threads' CPU since {@code before}, largest first, as "name 1.23 s" items (threads under 50 ms left out). */
     static String since(Map<String, Long> before) {
-        return byName().entrySet().stream()
+        return between(before, byName());
+    }
+
+    /** The threads' CPU from {@code before} to {@code after}, as {@link #since}. */
+    static String between(Map<String, Long> before, Map<String, Long> after) {
+        return after.entrySet().stream()
                 .map(e -> Map.entry(e.getKey(), e.getValue() - before.getOrDefault(e.getKey(), 0L)))
                 .filter(e -> e.getValue() >= 50)
                 .sorted(Map.Entry.<String, Long>comparingByValue().reversed())
