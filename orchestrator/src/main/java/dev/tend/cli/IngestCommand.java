@@ -12,14 +12,13 @@ import dev.tend.executor.ExecutorRegistry;
 import dev.tend.http.OutgoingHttp;
 import dev.tend.page.Courier;
 import dev.tend.page.Senders;
+import dev.tend.runtime.NumberedInputs;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.Recovery;
 import dev.tend.runtime.QuartzTimers;
 import dev.tend.runtime.SourceProgress;
-import dev.tend.shared.HealthTransition;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
-import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
 import dev.tend.shared.wire.WireReader;
@@ -114,13 +113,13 @@ public final class IngestCommand implements Callable<Integer> {
             CountingInput counted = new CountingInput(source);
             WireReader wire = WireReader.of(input).withLiveClock(clock::instant, setup.config().maxSkew())
                     .withSignals(setup.config().signals());
+            NumberedInputs inputs = new NumberedInputs();
             Thread reader = new Thread(() -> {
                 try (InputStream in = counted) {
                     summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
-                                Input next = e.event() instanceof HealthTransition t ? Input.Transition.withWire(t)
-                                        : new Input.Topology((TopologyEvent) e.event());
+                                Input next = inputs.of(e.event());
                                 refusals.submitted(next, e.line());
                                 orch.submitEvent(next);
                                 if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);

@@ -7,6 +7,7 @@ import com.fasterxml.jackson.databind.SerializerProvider;
 import dev.tend.shared.Id;
 import dev.tend.shared.SignalKey;
 import dev.tend.shared.fleet.HealthMemo;
+import dev.tend.shared.fleet.InstantList;
 import dev.tend.shared.time.InstantText;
 
 import java.io.IOException;
@@ -18,7 +19,7 @@ import java.time.Instant;
  * the JSON that {@link SnapshotCodec}'s record mapping writes for it ({@code key} with
  * {@code cluster}, {@code node} and {@code signal}, then {@code state}, {@code since},
  * {@code lastAt} and {@code changes}), without looking each component up by reflection and
- * without a string per instant. Reading goes through the record mapping as before.
+ * without a string per instant (nor an instant per change, when they come as an {@link InstantList}). Reading goes through the record mapping as before.
  */
 final class SignalMemoWriter extends JsonSerializer<HealthMemo.Signal> {
     private static final SerializedString KEY = new SerializedString("key");
@@ -50,7 +51,15 @@ final class SignalMemoWriter extends JsonSerializer<HealthMemo.Signal> {
         instant(g, s.lastAt(), text);
         g.writeFieldName(CHANGES);
         g.writeStartArray();
-        for (Instant t : s.changes()) instant(g, t, text);
+        if (s.changes() instanceof InstantList list) {
+            for (int i = 0; i < list.size(); i++) {
+                int n = InstantText.write(list.epochSecond(i), list.nano(i), text);
+                if (n < 0) g.writeString(InstantText.of(list.get(i)));
+                else g.writeString(text, 0, n);
+            }
+        } else {
+            for (Instant t : s.changes()) instant(g, t, text);
+        }
         g.writeEndArray();
         g.writeEndObject();
     }

@@ -10,7 +10,6 @@ import dev.tend.playbooks.PlaybookSet;
 import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.runtime.Orchestrator;
 import dev.tend.runtime.QuartzTimers;
-import dev.tend.shared.HealthTransition;
 import dev.tend.shared.fleet.Fleet;
 import dev.tend.shared.fleet.FleetFile;
 import dev.tend.shared.wire.LineResult;
@@ -69,13 +68,14 @@ final class IngestInProcess {
                     dev.tend.runtime.CommitListener.NONE, snapshotEvery);
             timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             AtomicBoolean eof = new AtomicBoolean();
+            dev.tend.runtime.NumberedInputs inputs = new dev.tend.runtime.NumberedInputs();
             long[] readerCpu = new long[1];
             Thread reader = new Thread(() -> {
                 try (BufferedReader in = Files.newBufferedReader(events, StandardCharsets.UTF_8)) {
                     WireReader.of(events.toString()).readAll(in, r -> {
                         if (r instanceof LineResult.Event e) {
                             try {
-                                orch.submitEvent(Input.Transition.withWire((HealthTransition) e.event()));
+                                orch.submitEvent(inputs.of(e.event()));
                             } catch (InterruptedException ie) {
                                 throw new IllegalStateException(ie);
                             }

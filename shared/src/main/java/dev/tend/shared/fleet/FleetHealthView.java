@@ -40,6 +40,8 @@ public final class FleetHealthView {
     private long topologyVersion;
     /** One mutable slot per signal: a single map lookup per event. */
     private final Map<SignalKey, SignalSlot> signals = new HashMap<>(1 << 16);
+    /** The slots' memos for {@link #memo}, remade for the slots events reached since the last. */
+    private final SignalMemos memos = new SignalMemos();
     /** The last slot looked up or made, and its key ({@link #slot}). */
     private SignalKey lastKey;
     private SignalSlot lastSlot;
@@ -108,9 +110,12 @@ public final class FleetHealthView {
         if (fresh) {
             slot = new SignalSlot(CHANGE_HISTORY);
             signals.put(key, slot);
+            memos.added(key, slot);
             if (numberedKey != null) remember(numberedKey, slot);
             lastKey = key;
             lastSlot = slot;
+        } else {
+            memos.touched(slot);
         }
         if (!fresh && slot.state == t.state()) {
             slot.lastAt(at);
@@ -342,11 +347,7 @@ public final class FleetHealthView {
 
     /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
     public HealthMemo memo() {
-        java.util.List<HealthMemo.Signal> out = new java.util.ArrayList<>(signals.size());
-        for (Map.Entry<SignalKey, SignalSlot> e : signals.entrySet()) {
-            SignalSlot st = e.getValue();
-            out.add(new HealthMemo.Signal(e.getKey(), st.state, st.since, st.lastAt(), java.util.List.copyOf(st.changes())));
-        }
+        java.util.List<HealthMemo.Signal> out = memos.take();
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
         for (Map.Entry<dev.tend.shared.Target, Instant> e : topologyAppliedAt.entrySet()) {
@@ -373,6 +374,7 @@ public final class FleetHealthView {
             slot.lastAt(s.lastAt());
             for (Instant c : s.changes()) slot.changed(c);
             v.signals.put(s.key(), slot);
+            v.memos.added(s.key(), slot);
             if (s.state().isProblem()) v.count(s.key(), +1);
         }
         for (HealthMemo.TopologyMark m : memo.topologyApplied()) v.topologyAppliedAt.put(m.node(), m.at());

@@ -21,10 +21,13 @@ public record HealthMemo(List<Signal> signals, List<TopologyMark> topologyApplie
         changedClusters = List.copyOf(changedClusters);
     }
 
-    /** One signal: its state since {@code since}, last seen at {@code lastAt}, and its recent state changes. */
+    /**
+     * One signal: its state since {@code since}, last seen at {@code lastAt}, and its recent state
+     * changes (an {@link InstantList} when taken from a view: it is unmodifiable already).
+     */
     public record Signal(SignalKey key, SignalState state, Instant since, Instant lastAt, List<Instant> changes) {
         public Signal {
-            changes = List.copyOf(changes);
+            changes = changes instanceof InstantList ? changes : List.copyOf(changes);
         }
     }
 

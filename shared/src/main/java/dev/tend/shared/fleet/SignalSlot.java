@@ -3,8 +3,6 @@ package dev.tend.shared.fleet;
 import dev.tend.shared.SignalState;
 
 import java.time.Instant;
-import java.util.ArrayList;
-import java.util.List;
 
 /**
  * Where one signal of the {@link FleetHealthView} stands, mutable, so that an event costs one
@@ -29,6 +27,11 @@ final class SignalSlot {
     private int[] ringNanos;
     private int head;
     private int count;
+    /** The slot's key in the view, and its number in the order the view met it ({@link SignalMemos}). */
+    dev.tend.shared.SignalKey key;
+    int number;
+    /** An event reached the slot since the last snapshot took it ({@link SignalMemos#touched}). */
+    boolean touched;
 
     SignalSlot(int limit) {
         this.limit = limit;
@@ -103,13 +106,15 @@ final class SignalSlot {
         return n;
     }
 
-    /** The remembered changes, oldest first. */
-    List<Instant> changes() {
-        List<Instant> out = new ArrayList<>(count);
+    /** This slot as a snapshot's signal, its recent changes copied as numbers. */
+    HealthMemo.Signal memo() {
+        long[] seconds = new long[count];
+        int[] nanos = new int[count];
         for (int i = 0; i < count; i++) {
             int j = (head + i) % ringSeconds.length;
-            out.add(Instant.ofEpochSecond(ringSeconds[j], ringNanos[j]));
+            seconds[i] = ringSeconds[j];
+            nanos[i] = ringNanos[j];
         }
-        return out;
+        return new HealthMemo.Signal(key, state, since, lastAt, new InstantList(seconds, nanos));
     }
 }

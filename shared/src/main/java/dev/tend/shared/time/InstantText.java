@@ -39,7 +39,11 @@ public final class InstantText {
      * length, or -1 for a year outside 0000 to 9999 (which {@link #of} leaves to {@code toString()}).
      */
     public static int write(Instant t, char[] out) {
-        long sec = t.getEpochSecond();
+        return write(t.getEpochSecond(), t.getNano(), out);
+    }
+
+    /** {@link #write(Instant, char[])} of the instant {@code sec} seconds and {@code nano} nanoseconds after the epoch, without it. */
+    public static int write(long sec, int nano, char[] out) {
         long day = Math.floorDiv(sec, 86_400L);
         int s = (int) (sec - day * 86_400L);
         // days since 1970-01-01 to a proleptic Gregorian date: H. Hinnant, "chrono-Compatible
@@ -66,7 +70,6 @@ public final class InstantText {
         out[16] = ':';
         put(out, 17, s % 60, 2);
         int n = 19;
-        int nano = t.getNano();
         if (nano > 0) {
             out[n++] = '.';
             if (nano % 1_000_000 == 0) {
@@ -84,10 +87,28 @@ public final class InstantText {
         return n;
     }
 
-    private static void put(char[] out, int at, int value, int digits) {
-        for (int i = at + digits - 1; i >= at; i--) {
-            out[i] = (char) ('0' + value % 10);
-            value /= 10;
+    /** The tens and the units digit of 0 to 99: two digits a division (a snapshot writes hundreds of thousands of instants). */
+    private static final char[] TENS = new char[100];
+    private static final char[] UNITS = new char[100];
+
+    static {
+        for (int i = 0; i < 100; i++) {
+            TENS[i] = (char) ('0' + i / 10);
+            UNITS[i] = (char) ('0' + i % 10);
         }
+    }
+
+    /** {@code value} (0 or more, at most {@code digits} digits) as {@code digits} digits with leading zeros, at {@code at}. */
+    private static void put(char[] out, int at, int value, int digits) {
+        int i = at + digits - 1;
+        while (i > at) {
+            int q = value / 100;
+            int r = value - q * 100;
+            out[i] = UNITS[r];
+            out[i - 1] = TENS[r];
+            value = q;
+            i -= 2;
+        }
+        if (i == at) out[i] = (char) ('0' + value);
     }
 }

@@ -3,7 +3,6 @@ package dev.tend.shared.wire;
 import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
-import java.time.LocalDate;
 import java.time.LocalDateTime;
 import java.time.ZoneOffset;
 
@@ -116,16 +115,25 @@ public final class Rfc3339 {
      *         which RFC 3339 cannot write
      */
     public static String format(Instant t) {
-        int year = LocalDate.ofEpochDay(Math.floorDiv(t.getEpochSecond(), 86_400L)).getYear();
-        if (year < 0 || year > 9999) {
-            throw new IllegalArgumentException("RFC 3339 writes years 0000 to 9999 only, got " + t);
-        }
+        char[] out = new char[InstantText.MAX];
+        return new String(out, 0, write(t, out));
+    }
+
+    /**
+     * Writes {@link #format}'s text of {@code t} into {@code out} (at least
+     * {@link InstantText#MAX} long) and returns its length: the journal writes one per line read.
+     *
+     * @throws IllegalArgumentException as {@link #format}
+     */
+    public static int write(Instant t, char[] out) {
+        int n = InstantText.write(t, out);
+        if (n < 0) throw new IllegalArgumentException("RFC 3339 writes years 0000 to 9999 only, got " + t);
+        if (t.getNano() == 0) return n;
         // InstantText writes the fraction in groups of three digits; RFC 3339 (section 5.6) needs none of its trailing zeros
-        String text = InstantText.of(t);
-        if (t.getNano() == 0) return text;
-        int end = text.length() - 1;
-        while (text.charAt(end - 1) == '0') end--;
-        return text.substring(0, end) + "Z";
+        int end = n - 1;
+        while (out[end - 1] == '0') end--;
+        out[end] = 'Z';
+        return end + 1;
     }
 
     private static int lengthOfMonth(int year, int month) {

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonGenerator;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
+import dev.tend.shared.time.InstantText;
 
 import java.io.Flushable;
 import java.io.IOException;
@@ -83,9 +84,10 @@ public final class WireWriter implements Flushable {
      * written once for the journal, on the reader's thread).
      */
     private static String plain(HealthTransition t) {
-        String at = Rfc3339.format(t.at());
-        StringBuilder sb = new StringBuilder(96);
-        sb.append("{\"at\":\"").append(at).append("\",\"cluster\":\"").append(t.cluster().value());
+        char[] at = new char[InstantText.MAX];
+        int atLength = Rfc3339.write(t.at(), at);
+        StringBuilder sb = new StringBuilder(160);
+        sb.append("{\"at\":\"").append(at, 0, atLength).append("\",\"cluster\":\"").append(t.cluster().value());
         if (t.node() != null) sb.append("\",\"node\":\"").append(t.node().value());
         sb.append("\",\"signal\":\"").append(t.signal().value()).append("\",\"state\":\"").append(t.state().wireName()).append("\"}");
         return sb.toString();

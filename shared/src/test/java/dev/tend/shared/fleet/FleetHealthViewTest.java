@@ -135,6 +135,34 @@ class FleetHealthViewTest {
     }
 
     @Test
+    void aSnapshotTakesAgainTheSignalsNoEventReachedAndTakesTheOthersAsTheyAreNow() {
+        FleetHealthView view = new FleetHealthView(fleet());
+        view.apply(t(0, "fares-3", "n1", "heartbeat", SILENT));
+        view.apply(t(1, "fares-3", "n2", "replica-lag", BREACH));
+        view.apply(t(2, "fares-3", "n2", "replica-lag", CLEAR));
+        Map<SignalKey, HealthMemo.Signal> first = bySignal(view.memo());
+        view.apply(t(3, "fares-3", "n2", "replica-lag", CLEAR)); // a repeat moves only lastAt
+        view.apply(t(4, "dispatch-1", null, "cert-expiry", BREACH));
+        Map<SignalKey, HealthMemo.Signal> second = bySignal(view.memo());
+        SignalKey silent = new SignalKey(FARES, Id.of("n1"), Id.of("heartbeat"));
+        SignalKey lag = new SignalKey(FARES, Id.of("n2"), Id.of("replica-lag"));
+        assertThat(second.get(silent)).isSameAs(first.get(silent));
+        assertThat(second.get(lag)).isNotSameAs(first.get(lag));
+        assertThat(second.get(lag).lastAt()).isEqualTo(T0.plusSeconds(180));
+        assertThat(second.get(lag).since()).isEqualTo(T0.plusSeconds(120));
+        assertThat(second.get(lag).changes()).containsExactly(T0.plusSeconds(60), T0.plusSeconds(120));
+        assertThat(second).hasSize(3);
+        FleetHealthView restored = FleetHealthView.restore(fleet(), view.memo());
+        assertThat(bySignal(restored.memo())).isEqualTo(second);
+    }
+
+    private static Map<SignalKey, HealthMemo.Signal> bySignal(HealthMemo memo) {
+        Map<SignalKey, HealthMemo.Signal> out = new java.util.HashMap<>();
+        for (HealthMemo.Signal s : memo.signals()) out.put(s.key(), s);
+        return out;
+    }
+
+    @Test
     void aSignalsRememberedAnswerKeepsNoOldTopologyAlive() throws InterruptedException {
         // a replay of a large fleet has thousands of topology changes; each old fleet must be collectable
         FleetHealthView view = new FleetHealthView(fleet());

@@ -31,6 +31,9 @@ class InstantTextWriteTest {
             int n = InstantText.write(t, buf);
             assertThat(new String(buf, 0, n)).as("%s", t).isEqualTo(t.toString());
             assertThat(InstantText.of(t)).isEqualTo(t.toString());
+            char[] fromNumbers = new char[InstantText.MAX];
+            int m = InstantText.write(sec, nano, fromNumbers);
+            assertThat(new String(fromNumbers, 0, m)).as("%s from its numbers", t).isEqualTo(t.toString());
         }
     }
 
