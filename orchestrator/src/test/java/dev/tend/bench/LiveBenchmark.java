@@ -140,12 +140,11 @@ public final class LiveBenchmark {
     /**
      * Warms a server up and returns for how long, in seconds: {@code seconds} under
      * {@code connections}, then (with {@code idleToo}) as many idle requests as are measured
-     * (a server sees quiet and busy spells alike, and the idle requests measured next would
-     * otherwise make the JIT drop code compiled for the busy path), then slices of 3 s under the
-     * connections until the JIT compiler threads used under 5% of the server's CPU in one, for at
-     * most twice {@code seconds} more. On 2 shared cores under load, 15 s left the compiler
-     * threads busy with tend's request path in the measured window: a sixth of its CPU there,
-     * 80 against 66 µs per request with 45 s (2026-12-03, load 11 to 21).
+     * (a server sees quiet and busy spells alike), then slices of 3 s under the connections
+     * until the JIT compiler threads used under 5% of the server's CPU in one, for at most twice
+     * {@code seconds} more. On 2 shared cores under load, 15 s left the compiler threads busy
+     * with tend's request path in the measured window: a sixth of its CPU there, 80 against
+     * 66 µs per request with 45 s (one run each, 2026-12-03, load 11 to 21).
      */
     static long warm(int port, String token, int connections, int seconds, boolean idleToo, int idleRequests, int clusters,
                      long pid) throws Exception {

@@ -25,23 +25,42 @@ import java.nio.charset.StandardCharsets;
  *
  * <p>The tree is the one Jackson's {@code readTree} gives for the text (int nodes where the
  * number fits an int, long nodes otherwise), its objects' members kept in a {@link MemberArray}.
- * Stateless and thread-safe.
+ * Short texts met again and again (kinds, clusters, playbooks, nodes, reason codes; not times)
+ * are one shared, immutable text node per thread instead of a new string each time.
+ * Thread-safe.
  */
 public final class CanonicalReader {
     private static final JsonNodeFactory NODES = JsonNodeFactory.instance;
     /** Member names met on every entry, shared instead of copied from each text. */
     private static final String[] COMMON = {"action", "at", "attempt", "by", "cluster", "kind", "node", "playbook", "reason",
             "reasons", "run", "seq", "signal", "state", "step", "verdict"};
+    /** {@link #COMMON} by the hash of their bytes (String's hash of an ASCII text), open addressing: a name is found in a probe or two. */
+    private static final String[] COMMON_BY_HASH = new String[64];
+
+    static {
+        for (String n : COMMON) {
+            int i = slot(n.hashCode(), COMMON_BY_HASH.length);
+            while (COMMON_BY_HASH[i] != null) i = (i + 1) & (COMMON_BY_HASH.length - 1);
+            COMMON_BY_HASH[i] = n;
+        }
+    }
     private static final long MAX_EXACT = 1L << 53;
     /** Deeper texts are left to the slow way (entries are two levels deep). */
     private static final int MAX_DEPTH = 64;
+    /** Plain texts of at most this many bytes that do not start with a digit (a time does) are shared. */
+    private static final int SHARED_MAX = 32;
+    private static final int SHARED_SLOTS = 1024;
+    /** Each thread's shared texts, by a hash of their bytes; a slot keeps the last text that hashed to it. */
+    private static final ThreadLocal<TextNode[]> SHARED = ThreadLocal.withInitial(() -> new TextNode[SHARED_SLOTS]);
 
     private final byte[] text;
+    private final TextNode[] shared;
     private int at;
     private int depth;
 
     private CanonicalReader(byte[] text) {
         this.text = text;
+        this.shared = SHARED.get();
     }
 
     /** The object {@code text} holds when it is canonical JSON in the form described above; null otherwise or when unsure. */
@@ -110,6 +129,8 @@ public final class CanonicalReader {
         byte c = text[at];
         switch (c) {
             case '"' -> {
+                TextNode plain = shared();
+                if (plain != null) return plain;
                 String s = string();
                 return s == null ? null : TextNode.valueOf(s);
             }
@@ -157,21 +178,57 @@ public final class CanonicalReader {
         return v == (int) v ? IntNode.valueOf((int) v) : LongNode.valueOf(v);
     }
 
-    /** A member name: one of the common ones without a copy, else as {@link #string}. */
+    /** A member name: one of the common ones without a copy, else a shared one ({@link #shared}), else as {@link #string}. */
     private String name() {
         int start = at + 1;
         int end = start;
-        while (end < text.length && text[end] != '"' && text[end] != '\\' && text[end] >= 0x20) end++;
+        int h = 0;
+        while (end < text.length && text[end] != '"' && text[end] != '\\' && text[end] >= 0x20) h = 31 * h + text[end++];
         if (end < text.length && text[end] == '"') {
             int len = end - start;
-            for (String n : COMMON) {
+            for (int i = slot(h, COMMON_BY_HASH.length); COMMON_BY_HASH[i] != null; i = (i + 1) & (COMMON_BY_HASH.length - 1)) {
+                String n = COMMON_BY_HASH[i];
                 if (n.length() == len && same(n, start)) {
                     at = end + 1;
                     return n;
                 }
             }
         }
-        return string();
+        TextNode plain = shared();
+        return plain != null ? plain.textValue() : string();
+    }
+
+    private static int slot(int hash, int slots) {
+        return (hash ^ (hash >>> 16)) & (slots - 1);
+    }
+
+    /**
+     * The string at {@code at} as this thread's shared node when it is plain (printable ASCII, no
+     * escape), at most {@link #SHARED_MAX} bytes and does not start with a digit; null, and
+     * {@code at} unmoved, otherwise ({@link #string} reads it then).
+     */
+    private TextNode shared() {
+        int start = at + 1;
+        int end = start;
+        int h = 0;
+        int limit = Math.min(text.length, start + SHARED_MAX + 1);
+        while (end < limit) {
+            byte c = text[end];
+            if (c == '"' || c == '\\' || c < 0x20) break; // a byte above 127 is negative: not plain either
+            h = 31 * h + c;
+            end++;
+        }
+        if (end >= limit || text[end] != '"') return null;
+        int len = end - start;
+        if (len > 0 && text[start] >= '0' && text[start] <= '9') return null;
+        int slot = slot(h, SHARED_SLOTS);
+        TextNode n = shared[slot];
+        if (n == null || n.textValue().length() != len || !same(n.textValue(), start)) {
+            n = TextNode.valueOf(new String(text, start, len, StandardCharsets.ISO_8859_1));
+            shared[slot] = n;
+        }
+        at = end + 1;
+        return n;
     }
 
     private boolean same(String s, int from) {

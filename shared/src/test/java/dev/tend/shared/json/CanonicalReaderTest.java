@@ -109,4 +109,16 @@ class CanonicalReaderTest {
         }
         assertThat(agreed).as("changed texts read as canonical (a change to a letter inside a string stays canonical)").isGreaterThan(50);
     }
+
+    @Test
+    void readsShortTextsMetAgainAsJacksonDoesThoughTheyShareNodes() throws Exception {
+        // 5,000 clusters and names of 31 to 34 bytes: more texts than shared slots, and both sides of the length kept shared
+        for (int i = 0; i < 5000; i++) {
+            String text = "{\"cluster\":\"fares-" + i + "\",\"kind\":\"verdict\",\"n\":\"" + "x".repeat(31 + i % 4)
+                    + "\",\"node\":\"n" + (i % 7) + "\",\"z\":[\"unconfirmed\",\"" + i + "\",\"\"]}";
+            ObjectNode read = CanonicalReader.readObject(text.getBytes(StandardCharsets.UTF_8));
+            assertThat(read).as(text).isEqualTo(MAPPER.readTree(text));
+            assertThat(read.toString()).isEqualTo(MAPPER.readTree(text).toString());
+        }
+    }
 }

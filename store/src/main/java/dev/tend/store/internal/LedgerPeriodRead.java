@@ -7,7 +7,6 @@ import dev.tend.store.LedgerPeriodQuery;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.statement.Query;
 
-import java.nio.charset.StandardCharsets;
 import java.util.List;
 import java.util.concurrent.CompletableFuture;
 import java.util.function.Consumer;
@@ -24,34 +23,40 @@ final class LedgerPeriodRead {
     private final Handle handle;
     private final long since;
     private final long until;
-    private final List<LedgerVerifier.Raw> carried;
+    private final LedgerPeriodQuery query;
+    private List<RawLedgerRow> carried;
     private int next;
 
     LedgerPeriodRead(Handle handle, LedgerPeriodQuery query) {
         this.handle = handle;
+        this.query = query;
         this.since = Times.toNanos(query.since(), "LedgerPeriodQuery.since");
         this.until = Times.toNanos(query.until(), "LedgerPeriodQuery.until");
-        this.carried = carried(query);
     }
 
     /**
      * Before the period: the carried kinds, and every entry of a run still open at since (few, in
      * seq order). Their seqs come from the indexes alone (ledger_kind_time, ledger_run), then the
-     * rows by seq in order, so that no row is sorted.
+     * rows by seq in order, so that no row is sorted. A tally of them reads only their seq, time,
+     * kind and text ({@code everyColumn} false; the other columns are then null): each column is
+     * a call into SQLite per row, and these rows are read before the walk can begin.
      */
-    private List<LedgerVerifier.Raw> carried(LedgerPeriodQuery query) {
+    private List<RawLedgerRow> carried(boolean everyColumn) {
         String openRuns = "SELECT run FROM ledger WHERE kind IN (<opening>) AND at_ns < :since AND run IS NOT NULL"
                 + " EXCEPT SELECT run FROM ledger WHERE kind IN (<closing>) AND at_ns < :since AND run IS NOT NULL";
         String seqs = "SELECT seq FROM ledger WHERE run IN (" + openRuns + ") AND at_ns < :since";
         if (!query.carriedKinds().isEmpty()) {
             seqs = seqs + " UNION ALL SELECT seq FROM ledger WHERE kind IN (<carried>) AND at_ns < :since";
         }
-        Query carriedQuery = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq IN (" + seqs + ") ORDER BY seq")
+        String columns = everyColumn ? Rows.LEDGER_COLUMNS : "seq, at_ns, kind, entry";
+        Query carriedQuery = handle.createQuery("SELECT " + columns + " FROM ledger WHERE seq IN (" + seqs + ") ORDER BY seq")
                 .bind("since", since)
                 .bindList("opening", List.copyOf(query.openingKinds()))
                 .bindList("closing", List.copyOf(query.closingKinds()));
         if (!query.carriedKinds().isEmpty()) carriedQuery.bindList("carried", List.copyOf(query.carriedKinds()));
-        return carriedQuery.map((rs, ctx) -> LedgerVerifier.raw(rs)).list();
+        return everyColumn ? carriedQuery.map((rs, ctx) -> RawLedgerRow.of(rs)).list()
+                : carriedQuery.map((rs, ctx) -> new RawLedgerRow(rs.getLong(1), rs.getLong(2), rs.getBytes(3), null, null, null,
+                        rs.getBytes(4), null, null)).list();
     }
 
     /** The lowest and highest seq of an entry in the period (through the time index); {0, 0} when it has none. */
@@ -63,6 +68,7 @@ final class LedgerPeriodRead {
 
     /** Hands every entry of the query to {@code consumer} in seq order. */
     void forEach(Consumer<LedgerEntry> consumer) {
+        carried = carried(true);
         long[] range = range();
         if (range[1] > 0) {
             try (var rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :lo AND seq <= :hi"
@@ -82,16 +88,16 @@ final class LedgerPeriodRead {
 
     private void carriedBefore(long seq, Consumer<LedgerEntry> consumer) {
         while (next < carried.size() && carried.get(next).seq() < seq) {
-            LedgerVerifier.Raw r = carried.get(next++);
+            RawLedgerRow r = carried.get(next++);
             consumer.accept(new LedgerEntry(r.seq(), Times.fromNanos(r.atNs()), r.kind(), r.cluster(), r.playbook(), r.run(),
-                    r.entry() == null ? null : new String(r.entry(), StandardCharsets.UTF_8), r.prevHash(), r.hash()));
+                    RawLedgerRow.text(r.entry()), RawLedgerRow.text(r.prevHash()), RawLedgerRow.text(r.hash())));
         }
     }
 
     /** The carried entries before {@code seq}, their text parsed (the usual one in one pass, as the walk does). */
     private void carriedBefore(long seq, JsonNode[] fields, LedgerEntryRead consumer) {
         while (next < carried.size() && carried.get(next).seq() < seq) {
-            LedgerVerifier.Raw r = carried.get(next);
+            RawLedgerRow r = carried.get(next);
             consumer.accept(r.seq(), Times.fromNanos(r.atNs()), r.kind(), fields[next++]);
         }
     }
@@ -118,11 +124,12 @@ final class LedgerPeriodRead {
             forEach(parsed);
             return new LedgerVerifier(handle).verifyFrom(fromSeq);
         }
+        carried = carried(false);
         CompletableFuture<JsonNode[]> parsing = parseCarried();
-        dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, fields) -> {
+        dev.tend.store.LedgerVerification v = new LedgerVerifier(handle).verifyFrom(fromSeq, (row, kind, fields) -> {
             if (row.atNs() < since || row.atNs() >= until) return;
             carriedBefore(row.seq(), parsing.join(), consumer);
-            consumer.accept(row.seq(), Times.fromNanos(row.atNs()), row.kind(), fields);
+            consumer.accept(row.seq(), Times.fromNanos(row.atNs()), kind, fields);
         });
         carriedBefore(Long.MAX_VALUE, parsing.join(), consumer);
         return v;

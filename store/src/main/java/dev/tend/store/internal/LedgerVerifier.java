@@ -12,9 +12,12 @@ import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.result.ResultIterator;
 
 import java.nio.charset.StandardCharsets;
+import dev.tend.shared.time.InstantText;
+import java.security.DigestException;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
@@ -53,25 +56,25 @@ final class LedgerVerifier {
             throw new IllegalStateException("every Java platform must provide SHA-256", e);
         }
     });
+    /** Each thread's digest of a row, so that hashing one allocates nothing. */
+    private static final ThreadLocal<byte[]> DIGEST = ThreadLocal.withInitial(() -> new byte[32]);
+    /** Each thread's text of a row's time, compared with the entry's "at" without a string. */
+    private static final ThreadLocal<char[]> AT = ThreadLocal.withInitial(() -> new char[InstantText.MAX]);
     private static final byte[] HEX = "0123456789abcdef".getBytes(StandardCharsets.US_ASCII);
+    private static final byte[] GENESIS = LedgerEntry.GENESIS_HASH.getBytes(StandardCharsets.US_ASCII);
 
-    /** A row as stored; {@code entry} is the text's bytes as SQLite holds them (what the writer hashed), null when NULL. */
-    record Raw(long seq, long atNs, String kind, String cluster, String playbook, String run, byte[] entry,
-               String prevHash, String hash) {
-        String describe() {
-            return "entry " + seq + " (" + kind + " at " + LedgerChain.formatAt(Times.fromNanos(atNs)) + ")";
-        }
-    }
-
-    /** Receives every row a walk reads, in seq order, with its text parsed (null when not a JSON object). */
+    /**
+     * Receives every row a walk reads, in seq order, with its kind column as text and its text
+     * parsed (null when not a JSON object).
+     */
     interface Sink {
-        void row(Raw row, JsonNode fields);
+        void row(RawLedgerRow row, String kind, JsonNode fields);
     }
 
     private final Handle handle;
     private long entries;
     private long lastSeq;
-    private String lastHash = LedgerEntry.GENESIS_HASH;
+    private byte[] lastHash = GENESIS;
     private long first = 1;
     private LedgerVerification broken;
     /** Set by the walk when the rows after it need not be read. */
@@ -98,12 +101,12 @@ final class LedgerVerifier {
      */
     LedgerVerification verifyFrom(long fromSeq, Sink sink) {
         if (fromSeq > 1) {
-            Optional<Raw> before = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq = :seq")
+            Optional<RawLedgerRow> before = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq = :seq")
                     .bind("seq", fromSeq - 1)
-                    .map((rs, ctx) -> raw(rs))
+                    .map((rs, ctx) -> RawLedgerRow.of(rs))
                     .findOne();
             if (before.isPresent()) {
-                Raw b = before.get();
+                RawLedgerRow b = before.get();
                 if (!hashMatches(b)) {
                     broken = broken(b.seq(), b.describe() + " was changed after it was written: its hash does not match its content");
                 }
@@ -120,18 +123,18 @@ final class LedgerVerifier {
         ExecutorService walker = Executors.newSingleThreadExecutor(WALKER);
         Semaphore room = new Semaphore(IN_FLIGHT);
         CompletableFuture<Boolean> walked = CompletableFuture.completedFuture(true);
-        try (ResultIterator<Raw> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :from ORDER BY seq")
+        try (ResultIterator<RawLedgerRow> rows = handle.createQuery("SELECT " + Rows.LEDGER_COLUMNS + " FROM ledger WHERE seq >= :from ORDER BY seq")
                 .bind("from", first)
                 .setFetchSize(JdbiReader.FETCH_SIZE)
-                .map((rs, ctx) -> raw(rs))
+                .map((rs, ctx) -> RawLedgerRow.of(rs))
                 .iterator()) {
-            List<Raw> chunk = new ArrayList<>(CHUNK);
+            List<RawLedgerRow> chunk = new ArrayList<>(CHUNK);
             while (rows.hasNext()) {
                 chunk.add(rows.next());
                 if (chunk.size() == CHUNK || !rows.hasNext()) {
                     acquire(room);
                     if (stopped) break; // the walk stopped (a fault, and no sink to read on for) or failed: read no further
-                    List<Raw> rowsToCheck = chunk;
+                    List<RawLedgerRow> rowsToCheck = chunk;
                     CompletableFuture<Content[]> checking = CompletableFuture.supplyAsync(() -> contents(rowsToCheck));
                     walked = walked.thenCombineAsync(checking, (going, content) -> going && walk(rowsToCheck, content, sink), walker);
                     walked.whenComplete((going, failure) -> {
@@ -168,7 +171,7 @@ final class LedgerVerifier {
         }
     }
 
-    private static Content[] contents(List<Raw> chunk) {
+    private static Content[] contents(List<RawLedgerRow> chunk) {
         Content[] content = new Content[chunk.size()];
         IntStream.range(0, content.length).parallel().forEach(i -> content[i] = content(chunk.get(i)));
         return content;
@@ -180,9 +183,9 @@ final class LedgerVerifier {
      * and the sentence about it are those of a walk one entry at a time. Returns false when the
      * walk can stop (a fault, and no sink to read on for).
      */
-    private boolean walk(List<Raw> chunk, Content[] content, Sink sink) {
+    private boolean walk(List<RawLedgerRow> chunk, Content[] content, Sink sink) {
         for (int i = 0; i < content.length; i++) {
-            Raw row = chunk.get(i);
+            RawLedgerRow row = chunk.get(i);
             if (broken == null) {
                 broken = check(row, content[i]);
                 if (broken == null) {
@@ -193,16 +196,29 @@ final class LedgerVerifier {
                     return false;
                 }
             }
-            if (sink != null) sink.row(row, content[i].fields());
+            if (sink != null) sink.row(row, content[i].kind(), content[i].fields());
         }
         return true;
     }
 
-    /** What a row says about itself: the first fault before the chain link is looked at, and after it; its parsed text. */
-    private record Content(String before, String after, JsonNode fields) {
+    /**
+     * What a row says about itself: the first fault before the chain link is looked at, and
+     * after it; its kind column as text; its parsed text.
+     */
+    private record Content(String before, String after, String kind, JsonNode fields) {
+        Content(String before, String after, RawLedgerRow row, JsonNode fields) {
+            this(before, after, kindOf(row, fields), fields);
+        }
     }
 
-    private static Content content(Raw row) {
+    /** The row's kind column as text: the text's own kind string when the two agree (as they do unless tampered with). */
+    private static String kindOf(RawLedgerRow row, JsonNode fields) {
+        JsonNode kind = fields == null ? null : fields.get("kind");
+        if (kind != null && kind.isTextual() && RawLedgerRow.same(row.kindBytes(), kind.textValue())) return kind.textValue();
+        return row.kind();
+    }
+
+    private static Content content(RawLedgerRow row) {
         boolean hashed = hashMatches(row);
         // the usual entry is read and found canonical in one pass; any other text is parsed and written again to tell
         JsonNode fields = CanonicalReader.readObject(row.entry());
@@ -221,23 +237,23 @@ final class LedgerVerifier {
             canonical = fields != null && CanonicalJson.serialize(fields).equals(entry);
         }
         if (!hashed) {
-            return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null, fields);
+            return new Content(row.describe() + " was changed after it was written: its hash does not match its content", null, row, fields);
         }
         if (!json) {
-            return new Content(row.describe() + " was changed after it was written: its text is not JSON", null, null);
+            return new Content(row.describe() + " was changed after it was written: its text is not JSON", null, row, null);
         }
         if (!canonical) {
             return new Content(row.describe() + " was changed after it was written: its text is not canonical JSON (RFC 8785)", null,
-                    fields);
+                    row, fields);
         }
         JsonNode seq = fields.get("seq");
         if (seq == null || !seq.isIntegralNumber() || seq.longValue() != row.seq()) {
             return new Content(row.describe() + " is out of place: its text says it is entry " + seq
-                    + "; entries were reordered or renumbered after they were written", null, fields);
+                    + "; entries were reordered or renumbered after they were written", null, row, fields);
         }
         String column = disagreeingColumn(row, fields);
         return new Content(null, column == null ? null
-                : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text", fields);
+                : row.describe() + " was changed after it was written: its " + column + " column disagrees with its text", row, fields);
     }
 
     /** The text of an entry (its bytes as stored) parsed, or null when it is not a JSON object. */
@@ -256,28 +272,34 @@ final class LedgerVerifier {
         }
     }
 
-    /** SHA-256 of prev_hash and text, as lowercase hex, equals the row's hash ({@link LedgerChain#hash}, without the strings). */
-    private static boolean hashMatches(Raw row) {
-        if (row.prevHash() == null || row.entry() == null) return false;
+    /**
+     * SHA-256 of prev_hash and text, as lowercase hex, equals the row's hash ({@link LedgerChain#hash}, without the
+     * strings): the columns' bytes are hashed as stored (a prev_hash that is not ASCII as the UTF-8 of its text, as
+     * {@code ResultSet.getString} would give it), and the digest is compared with the hash column digit by digit.
+     */
+    private static boolean hashMatches(RawLedgerRow row) {
+        byte[] prev = row.prevHash();
+        if (prev == null || row.entry() == null) return false;
         MessageDigest md = SHA256.get();
         md.reset();
-        md.update(row.prevHash().getBytes(StandardCharsets.UTF_8));
+        md.update(RawLedgerRow.ascii(prev) ? prev : RawLedgerRow.text(prev).getBytes(StandardCharsets.UTF_8));
         md.update(row.entry());
-        byte[] d = md.digest();
-        String hash = row.hash();
-        if (hash == null || hash.length() != 2 * d.length) return false;
+        byte[] d = DIGEST.get();
+        try {
+            md.digest(d, 0, d.length);
+        } catch (DigestException e) {
+            throw new IllegalStateException("SHA-256 gives 32 bytes", e);
+        }
+        byte[] hash = row.hash();
+        // a hash column that is not ASCII has no lowercase hex digit where one is expected (its bytes are negative)
+        if (hash == null || hash.length != 2 * d.length) return false;
         for (int i = 0; i < d.length; i++) {
-            if (hash.charAt(2 * i) != HEX[(d[i] >> 4) & 0xf] || hash.charAt(2 * i + 1) != HEX[d[i] & 0xf]) return false;
+            if (hash[2 * i] != HEX[(d[i] >> 4) & 0xf] || hash[2 * i + 1] != HEX[d[i] & 0xf]) return false;
         }
         return true;
     }
 
-    static Raw raw(java.sql.ResultSet rs) throws java.sql.SQLException {
-        return new Raw(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4), rs.getString(5), rs.getString(6),
-                rs.getBytes(7), rs.getString(8), rs.getString(9));
-    }
-
-    private LedgerVerification check(Raw row, Content content) {
+    private LedgerVerification check(RawLedgerRow row, Content content) {
         long expected = lastSeq + 1;
         if (row.seq() != expected) {
             if (row.seq() < expected) {
@@ -289,7 +311,7 @@ final class LedgerVerifier {
             return broken(expected, "entry " + expected + " is missing: " + where + "; it was deleted after it was written");
         }
         if (content.before() != null) return broken(row.seq(), content.before());
-        if (!row.prevHash().equals(lastHash)) {
+        if (!Arrays.equals(row.prevHash(), lastHash)) {
             String link = row.seq() == 1 ? "does not start the chain: its prev_hash is not 64 zeros"
                     : "does not follow entry " + lastSeq + ": its prev_hash is not that entry's hash";
             return broken(row.seq(), row.describe() + " " + link + "; entries were reordered, or one was replaced");
@@ -299,13 +321,25 @@ final class LedgerVerifier {
     }
 
     /** The first indexed column whose value is not the one in the entry text, or null. */
-    private static String disagreeingColumn(Raw row, JsonNode text) {
-        if (!Objects.equals(LedgerChain.formatAt(Times.fromNanos(row.atNs())), textOf(text, "at"))) return "at";
-        if (!Objects.equals(row.kind(), textOf(text, "kind"))) return "kind";
-        if (!Objects.equals(row.cluster(), textOf(text, "cluster"))) return "cluster";
-        if (!Objects.equals(row.playbook(), textOf(text, "playbook"))) return "playbook";
-        if (!Objects.equals(row.run(), textOf(text, "run"))) return "run";
+    private static String disagreeingColumn(RawLedgerRow row, JsonNode text) {
+        if (!atAgrees(row.atNs(), textOf(text, "at"))) return "at";
+        if (!RawLedgerRow.same(row.kindBytes(), textOf(text, "kind"))) return "kind";
+        if (!RawLedgerRow.same(row.clusterBytes(), textOf(text, "cluster"))) return "cluster";
+        if (!RawLedgerRow.same(row.playbookBytes(), textOf(text, "playbook"))) return "playbook";
+        if (!RawLedgerRow.same(row.runBytes(), textOf(text, "run"))) return "run";
         return null;
+    }
+
+    /** {@code LedgerChain.formatAt(at_ns).equals(at)}, the time written into this thread's buffer instead of a string. */
+    private static boolean atAgrees(long atNs, String at) {
+        if (at == null) return false;
+        java.time.Instant t = Times.fromNanos(atNs);
+        char[] out = AT.get();
+        int n = InstantText.write(t, out);
+        if (n < 0) return LedgerChain.formatAt(t).equals(at);
+        if (n != at.length()) return false;
+        for (int i = 0; i < n; i++) if (out[i] != at.charAt(i)) return false;
+        return true;
     }
 
     /** The text of a field; null when absent or null; a marker that equals no column when not text. */
@@ -316,8 +350,10 @@ final class LedgerVerifier {
     }
 
     private LedgerVerification checkHead() {
-        Optional<Raw> head = handle.createQuery("SELECT seq, hash FROM ledger_head WHERE id = 1")
-                .map((rs, ctx) -> new Raw(rs.getLong(1), 0, null, null, null, null, null, null, rs.getString(2)))
+        record Head(long seq, String hash) {
+        }
+        Optional<Head> head = handle.createQuery("SELECT seq, hash FROM ledger_head WHERE id = 1")
+                .map((rs, ctx) -> new Head(rs.getLong(1), rs.getString(2)))
                 .findOne();
         if (head.isEmpty()) {
             return broken(Math.max(1, lastSeq), "the ledger_head row is missing, so the newest entries cannot be checked; "
@@ -334,18 +370,23 @@ final class LedgerVerifier {
                     + headSeq + " entries but the ledger goes on to entry " + lastSeq + "; the head row was changed or entries were added "
                     + "behind the store's back");
         }
-        if (!lastHash.equals(headHash)) {
+        if (!RawLedgerRow.same(lastHash, headHash)) {
             String which = lastSeq == 0 ? "the ledger is empty but its head records hash " + headHash
-                    : "entry " + lastSeq + " has hash " + lastHash + " but the ledger head records " + headHash;
+                    : "entry " + lastSeq + " has hash " + lastHashText() + " but the ledger head records " + headHash;
             return broken(Math.max(1, lastSeq), which + "; the entry or the head row was changed after it was written");
         }
         String what = first == 1 ? (entries == 0 ? "the ledger is empty" : "all " + entries + " entries verify")
                 : entries == 0 ? "no entry follows entry " + lastSeq
                 : "entries " + first + " to " + lastSeq + " verify (the " + (first - 1) + " before them were not read)";
-        return new LedgerVerification(true, entries, lastHash, 0, first == 1 && entries == 0 ? what : what + "; the head hash is " + lastHash);
+        return new LedgerVerification(true, entries, lastHashText(), 0,
+                first == 1 && entries == 0 ? what : what + "; the head hash is " + lastHashText());
+    }
+
+    private String lastHashText() {
+        return RawLedgerRow.text(lastHash);
     }
 
     private LedgerVerification broken(long seq, String reason) {
-        return new LedgerVerification(false, entries, lastHash, seq, reason);
+        return new LedgerVerification(false, entries, lastHashText(), seq, reason);
     }
 }
