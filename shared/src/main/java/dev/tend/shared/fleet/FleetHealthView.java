@@ -347,7 +347,7 @@ public final class FleetHealthView {
 
     /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
     public HealthMemo memo() {
-        java.util.List<HealthMemo.Signal> out = memos.take();
+        java.util.List<HealthMemo.Signal> out = memos.take(signals);
         java.util.List<HealthMemo.TopologyMark> marks = new java.util.ArrayList<>();
         java.util.Set<Id> touched = new java.util.HashSet<>();
         for (Map.Entry<dev.tend.shared.Target, Instant> e : topologyAppliedAt.entrySet()) {
@@ -367,6 +367,7 @@ public final class FleetHealthView {
         Fleet topology = start;
         for (ClusterSpec c : memo.changedClusters()) topology = topology.withCluster(c);
         FleetHealthView v = new FleetHealthView(topology);
+        v.memos.track(); // the memo's order, kept
         for (HealthMemo.Signal s : memo.signals()) {
             SignalSlot slot = new SignalSlot(CHANGE_HISTORY);
             slot.state = s.state();

@@ -154,6 +154,12 @@ class FleetHealthViewTest {
         assertThat(second).hasSize(3);
         FleetHealthView restored = FleetHealthView.restore(fleet(), view.memo());
         assertThat(bySignal(restored.memo())).isEqualTo(second);
+        // both go on alike: a restored view lists its signals in the order of the view it was taken from
+        for (FleetHealthView v : List.of(view, restored)) {
+            v.apply(t(5, "dispatch-1", "n3", "heartbeat", SILENT));
+            v.apply(t(6, "fares-3", "n1", "heartbeat", CLEAR));
+        }
+        assertThat(restored.memo().signals()).isEqualTo(view.memo().signals()).hasSize(4);
     }
 
     private static Map<SignalKey, HealthMemo.Signal> bySignal(HealthMemo memo) {
