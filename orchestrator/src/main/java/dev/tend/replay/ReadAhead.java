@@ -1,10 +1,10 @@
 package dev.tend.replay;
 
+import dev.tend.shared.CanonicalEvents;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 import dev.tend.shared.Problem;
 import dev.tend.shared.TendException;
-import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.fleet.SignalNumbering;
 import dev.tend.shared.wire.ReadSummary;
@@ -12,9 +12,7 @@ import dev.tend.simulator.Recording;
 
 import java.util.ArrayList;
 import java.util.Collection;
-import java.util.HashMap;
 import java.util.List;
-import java.util.Map;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.BlockingQueue;
 
@@ -81,7 +79,7 @@ final class ReadAhead {
      */
     static Reading start(Recording recording, Collection<Id> known, int consumers) {
         Reader reader = new Reader(recording, consumers);
-        for (Id id : known) reader.ids.putIfAbsent(id.value(), id);
+        for (Id id : known) reader.events.know(id);
         Thread thread = new Thread(reader, "tend-replay-reader");
         thread.setDaemon(true);
         thread.start();
@@ -140,7 +138,7 @@ final class ReadAhead {
         final List<BlockingQueue<Batch>> queues = new ArrayList<>();
         /** Per consumer: it stopped before the end (threw), and takes no more. */
         private final boolean[] gone;
-        final Map<String, Id> ids = new HashMap<>();
+        final CanonicalEvents events = new CanonicalEvents();
         private final SignalNumbering numbering = new SignalNumbering();
         private Batch batch = new Batch();
         volatile boolean stop;
@@ -191,7 +189,7 @@ final class ReadAhead {
 
         @Override
         public void event(WireEvent event, long line) {
-            WireEvent e = canonical(event);
+            WireEvent e = events.of(event);
             batch.events[batch.size] = e;
             batch.lines[batch.size] = line;
             batch.keys[batch.size] = e instanceof HealthTransition t ? numbering.of(t.cluster(), t.node(), t.signal()) : null;
@@ -219,20 +217,6 @@ final class ReadAhead {
                 throw new Stopped();
             }
             batch = new Batch();
-        }
-
-        private WireEvent canonical(WireEvent e) {
-            if (e instanceof HealthTransition t) {
-                return new HealthTransition(t.at(), id(t.cluster()), id(t.node()), id(t.signal()), t.state(), t.detail(), t.extra());
-            }
-            TopologyEvent o = (TopologyEvent) e;
-            return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
-        }
-
-        private Id id(Id id) {
-            if (id == null) return null;
-            Id known = ids.putIfAbsent(id.value(), id);
-            return known == null ? id : known;
         }
     }
 }

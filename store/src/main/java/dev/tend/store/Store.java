@@ -9,6 +9,8 @@ import dev.tend.store.internal.StatementCache;
 import dev.tend.store.internal.JdbiReader;
 import dev.tend.store.internal.JdbiTx;
 
+import org.jdbi.v3.core.HandleCallback;
+
 import java.nio.file.Path;
 import java.util.Objects;
 import java.util.concurrent.locks.ReentrantLock;
@@ -104,7 +106,7 @@ public final class Store implements AutoCloseable {
             requireOpen();
             JdbiTx[] done = new JdbiTx[1];
             long epoch = fence;
-            org.jdbi.v3.core.HandleCallback<T, RuntimeException> body = handle -> {
+            HandleCallback<T, RuntimeException> body = handle -> {
                 if (epoch >= 0) LeaderLease.check(handle, location(), epoch);
                 JdbiTx tx = new JdbiTx(handle, location(), heads, statements);
                 try {

@@ -1,5 +1,6 @@
 package dev.tend.store.internal;
 
+import org.jdbi.v3.core.ConnectionException;
 import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.HandleCallback;
 
@@ -60,7 +61,7 @@ public final class SqliteWriteTransaction {
         try {
             statements.prepare(c, sql).execute();
         } catch (SQLException e) {
-            throw new org.jdbi.v3.core.ConnectionException(e);
+            throw new ConnectionException(e);
         }
     }
 }
