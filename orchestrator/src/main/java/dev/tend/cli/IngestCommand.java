@@ -92,7 +92,7 @@ public final class IngestCommand implements Callable<Integer> {
             CommitRefusals refusals = new CommitRefusals(input, err);
             QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, executors.byKind(), timers,
-                    n -> courier.wake(), clock, refusals, snapshots.every());
+                    n -> courier.wake(), clock, refusals, snapshots.policy());
             courier.start();
             timers.fireInto(key -> orch.submit(new Input.TimerFired(key)));
             if (ledger != null) orch.checkpointWith(new CheckpointWriter(store, ledger, CheckpointWriter.EVERY));

@@ -128,7 +128,7 @@ public final class ServeCommand implements Callable<Integer> {
         if (tokens.isEmpty()) err.println("tend: no --tokens given: every API request will be refused (401)");
         Clock clock = Clock.systemUTC();
         ServeSettings settings = ServeSettings.builder(setup).listen(listen.host(), listen.port()).tokens(tokens)
-                .speedup(simulation.speedup).seed(simulation.seed).log(err).allowHosts(allowHosts).snapshotEvery(snapshots.every())
+                .speedup(simulation.speedup).seed(simulation.seed).log(err).allowHosts(allowHosts).snapshots(snapshots.policy())
                 .tls(tlsCert == null ? null : new TlsFiles(tlsCert, tlsKey, checkEvery)).stream(stream).build();
         if (db.address().isPostgres()) return serveShared(err, settings, listen, tokens, key, setup, clock);
         try (Store store = db.open()) {

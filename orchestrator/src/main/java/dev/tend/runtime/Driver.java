@@ -39,7 +39,7 @@ final class Driver {
     private static final long IDLE_NANOS = 20_000_000;
 
     private final Store store;
-    private final int snapshotEvery;
+    private final SnapshotPolicy snapshotPolicy;
     /**
      * Replaced at {@link #loadState} and by a rebuilt one when a batch must be taken apart (see
      * {@link #retryOneByOne}); read by other threads only through {@link #engine()}.
@@ -65,10 +65,10 @@ final class Driver {
     private DecidedBatch inFlight;
     private CompletableFuture<Void> inFlightCommit;
 
-    Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, int snapshotEvery,
+    Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, SnapshotPolicy snapshotPolicy,
            Inbox inbox, EffectRunner effects, Waiters waiters) {
         this.store = store;
-        this.snapshotEvery = snapshotEvery;
+        this.snapshotPolicy = java.util.Objects.requireNonNull(snapshotPolicy, "snapshotPolicy");
         this.engine = new Engine(setup);
         this.snapshots = new SnapshotKeeper(store, setup);
         this.clock = clock;
@@ -134,7 +134,7 @@ final class Driver {
             settle(List.of()); // stopped with a batch in flight: it is committed and acted on first
             failed = false;
             // a clean stop: the next start loads this state and replays nothing
-            if (snapshotEvery > 0 && sinceSnapshot > 0) writeSnapshot();
+            if (snapshotPolicy.isEnabled() && sinceSnapshot > 0) writeSnapshot();
             snapshots.collect(true);
         } finally {
             abandonInFlight();
@@ -197,7 +197,7 @@ final class Driver {
             // the batch in flight failed and was redone input by input; next was decided on what never became durable
             retryOneByOne(next.inputs(), next.queued());
         } else if (next.size() < PIPELINE_FROM || inbox.isEmpty()
-                || (snapshotEvery > 0 && sinceSnapshot + next.size() >= snapshotEvery)) {
+                || snapshotDue(next.size())) {
             // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
             try {
                 commit(next);
@@ -210,7 +210,16 @@ final class Driver {
             inFlight = next;
             inFlightCommit = committer.start(() -> commit(next));
         }
-        if (inFlight == null && snapshotEvery > 0 && sinceSnapshot >= snapshotEvery) writeSnapshot();
+        if (inFlight == null && snapshotDue(0)) writeSnapshot();
+    }
+
+    /**
+     * True when a snapshot is due once {@code more} inputs are decided: the policy's interval
+     * for the signals the engine knows now (a count, cheap to read every batch).
+     */
+    private boolean snapshotDue(int more) {
+        if (!snapshotPolicy.isEnabled()) return false;
+        return sinceSnapshot + more >= snapshotPolicy.intervalFor(engine.health().signalCount());
     }
 
     /** Lets the engine decide {@code batch} after the batch in flight, if any; writes and performs nothing. */

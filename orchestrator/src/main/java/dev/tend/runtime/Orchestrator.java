@@ -27,8 +27,8 @@ import java.util.function.BooleanSupplier;
  * {@link #recover()} rebuilds the engine by replaying the journal.
  */
 public final class Orchestrator {
-    /** Inputs between two snapshots unless told otherwise (a snapshot writes the whole state; see DEVELOPERS.md). */
-    public static final int DEFAULT_SNAPSHOT_EVERY = 50_000;
+    /** When snapshots are written unless told otherwise: at an interval that grows with the state (see {@link SnapshotPolicy}). */
+    public static final SnapshotPolicy DEFAULT_SNAPSHOTS = SnapshotPolicy.scaled();
 
     private final Inbox inbox = new Inbox();
     private final EffectRunner effects;
@@ -44,18 +44,17 @@ public final class Orchestrator {
     /** As above, with a listener told about every committed batch on the driver thread. */
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
                         Notifier notifier, Clock clock, CommitListener listener) {
-        this(store, setup, executors, timers, notifier, clock, listener, DEFAULT_SNAPSHOT_EVERY);
+        this(store, setup, executors, timers, notifier, clock, listener, DEFAULT_SNAPSHOTS);
     }
 
     /**
-     * As above, writing a snapshot of the engine every {@code snapshotEvery} inputs and at a
-     * clean stop ({@code 0}: never).
+     * As above, writing a snapshot of the engine as {@code snapshots} says and at a clean stop
+     * (unless it says never).
      */
     public Orchestrator(Store store, EngineSetup setup, Map<String, Executor> executors, Timers timers,
-                        Notifier notifier, Clock clock, CommitListener listener, int snapshotEvery) {
-        if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
+                        Notifier notifier, Clock clock, CommitListener listener, SnapshotPolicy snapshots) {
         this.effects = new EffectRunner(executors, timers, notifier, inbox);
-        this.driver = new Driver(store, setup, clock, listener, snapshotEvery, inbox, effects, waiters);
+        this.driver = new Driver(store, setup, clock, listener, snapshots, inbox, effects, waiters);
     }
 
     /** The engine; read it only from the driver thread or after {@link #runUntil} returned. */

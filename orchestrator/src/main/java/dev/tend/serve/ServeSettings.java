@@ -25,13 +25,13 @@ import java.util.Objects;
  * @param allowHosts     names the server answers to besides loopback and the address listened on (default none)
  * @param wrongTokens    wrong tokens one address may send a minute before it is answered 429 (default 10)
  * @param tls            the certificate and key to listen with over HTTPS, or null for plain HTTP (default null)
- * @param snapshotEvery  inputs between two snapshots of the engine, 0 for none (default
- *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOT_EVERY})
+ * @param snapshots      when snapshots of the engine are written (default
+ *                       {@link dev.tend.runtime.Orchestrator#DEFAULT_SNAPSHOTS})
  * @param stream         the topic transitions are consumed from while this instance leads, or null for none (default null)
  */
 public record ServeSettings(EngineSetup setup, String host, int port, Tokens tokens, double speedup, long seed,
                             Duration tick, Duration commandTimeout, Path workDir, PrintWriter log, TimeScale timeScale,
-                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls, int snapshotEvery,
+                            java.util.List<String> allowHosts, int wrongTokens, TlsFiles tls, dev.tend.runtime.SnapshotPolicy snapshots,
                             dev.tend.stream.StreamSource stream) {
     public static final int DEFAULT_PORT = 7420;
 
@@ -48,7 +48,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         Objects.requireNonNull(timeScale, "timeScale");
         allowHosts = java.util.List.copyOf(allowHosts);
         if (wrongTokens < 1) throw new IllegalArgumentException("wrongTokens must be at least 1, got " + wrongTokens);
-        if (snapshotEvery < 0) throw new IllegalArgumentException("snapshotEvery must be 0 (never) or more, got " + snapshotEvery);
+        Objects.requireNonNull(snapshots, "snapshots");
     }
 
     private static void requirePositive(Duration d, String field) {
@@ -68,7 +68,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
         private Tokens tokens = Tokens.none();
         private double speedup = 1;
         private long seed = 1;
-        private int snapshotEvery = dev.tend.runtime.Orchestrator.DEFAULT_SNAPSHOT_EVERY;
+        private dev.tend.runtime.SnapshotPolicy snapshots = dev.tend.runtime.Orchestrator.DEFAULT_SNAPSHOTS;
         private Duration tick = Duration.ofSeconds(5);
         private Duration commandTimeout = Duration.ofSeconds(30);
         private Path workDir = Path.of("").toAbsolutePath();
@@ -129,8 +129,8 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
             return this;
         }
 
-        public Builder snapshotEvery(int value) {
-            this.snapshotEvery = value;
+        public Builder snapshots(dev.tend.runtime.SnapshotPolicy value) {
+            this.snapshots = value;
             return this;
         }
 
@@ -156,7 +156,7 @@ public record ServeSettings(EngineSetup setup, String host, int port, Tokens tok
 
         public ServeSettings build() {
             return new ServeSettings(setup, host, port, tokens, speedup, seed, tick, commandTimeout, workDir, log, timeScale,
-                    allowHosts, wrongTokens, tls, snapshotEvery, stream);
+                    allowHosts, wrongTokens, tls, snapshots, stream);
         }
     }
 }

@@ -104,7 +104,7 @@ public final class TendServer implements AutoCloseable {
             PageDelivery p = pagesRef[0];
             if (p != null) p.wake();
         };
-        orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners, s.snapshotEvery());
+        orchestrator = new Orchestrator(store, s.setup(), byKind, engineTimers, notifier, clock, listeners, s.snapshots());
         timers.fireInto(key -> orchestrator.submit(new Input.TimerFired(key)));
         if (warm != null) orchestrator.adopt(warm);
         recovery = orchestrator.recover();

@@ -26,8 +26,8 @@ import java.util.Map;
  * the rates, the ratio floor/tend and what tend decided (runs, verdicts, ledger entries).
  * Target: tend at least 0.5 x the floor.
  *
- * <p>Arguments: N (default 1,000,000), clusters (2,000), inputs between snapshots (default
- * {@link Orchestrator#DEFAULT_SNAPSHOT_EVERY}, as {@code tend ingest}; 0: none), and
+ * <p>Arguments: N (default 1,000,000), clusters (2,000), inputs between snapshots (default: none
+ * given, so tend's own default {@link Orchestrator#DEFAULT_SNAPSHOTS}, what users get; 0: none), and
  * optionally {@code --root DIR} (the repository: bin/tend, playbooks/library; default .),
  * {@code --variants yes} (also tend with the JVM's defaults instead of the launcher's
  * options, with each of the compiler and collector options alone, and with both but the
@@ -42,7 +42,10 @@ public final class IngestBenchmark {
         List<String> positional = positional(args);
         int n = positional.size() > 0 ? Integer.parseInt(positional.get(0)) : 1_000_000;
         int clusters = positional.size() > 1 ? Integer.parseInt(positional.get(1)) : 2000;
-        int snapshotEvery = positional.size() > 2 ? Integer.parseInt(positional.get(2)) : Orchestrator.DEFAULT_SNAPSHOT_EVERY;
+        // the snapshot interval only when given: otherwise tend's default, as users run it
+        Integer snapshotEvery = positional.size() > 2 ? Integer.valueOf(positional.get(2)) : null;
+        dev.tend.runtime.SnapshotPolicy snapshots = snapshotEvery == null ? Orchestrator.DEFAULT_SNAPSHOTS
+                : dev.tend.runtime.SnapshotPolicy.every(snapshotEvery);
         Path root = Path.of(LiveBenchmark.arg(args, "--root", ".")).toAbsolutePath().normalize();
         if (!Files.isDirectory(root.resolve("playbooks/library")) && Files.isDirectory(root.resolve("../playbooks/library"))) {
             root = root.getParent(); // run from the orchestrator module
@@ -52,11 +55,11 @@ public final class IngestBenchmark {
         Path events = dir.resolve("events.jsonl");
         IngestMix.writeFleet(fleetFile, clusters);
         IngestMix.writeEvents(events, n, clusters);
-        System.out.printf(Locale.ROOT, "ingest benchmark: %,d transitions over %,d clusters (%,d bytes), a snapshot every %,d inputs,"
-                + " in %s; %s%n", n, clusters, Files.size(events), snapshotEvery, dir, ChildProcess.load());
+        System.out.printf(Locale.ROOT, "ingest benchmark: %,d transitions over %,d clusters (%,d bytes), snapshots %s,"
+                + " in %s; %s%n", n, clusters, Files.size(events), snapshots, dir, ChildProcess.load());
         if ("yes".equals(LiveBenchmark.arg(args, "--in-process", "no"))) {
             System.setProperty("tend.library", root.resolve("playbooks/library").toString());
-            IngestInProcess.run(events, fleetFile, dir, n, snapshotEvery);
+            IngestInProcess.run(events, fleetFile, dir, n, snapshots);
             decided(dir.resolve("tend.db"), n);
             System.out.printf("after: %s%n", ChildProcess.load());
             return;
@@ -78,9 +81,10 @@ public final class IngestBenchmark {
         int i = 0;
         for (var v : variants.entrySet()) {
             Path db = dir.resolve("tend-" + i++ + ".db");
-            List<String> command = List.of(tendCommand, "ingest", events.toString(), "--db", db.toString(),
+            List<String> command = new ArrayList<>(List.of(tendCommand, "ingest", events.toString(), "--db", db.toString(),
                     "--playbooks", root.resolve("playbooks/library").toString(), "--fleet", fleetFile.toString(),
-                    "--speedup", "1000000", "--snapshot-every", Integer.toString(snapshotEvery));
+                    "--speedup", "1000000"));
+            if (snapshotEvery != null) command.addAll(List.of("--snapshot-every", snapshotEvery.toString()));
             timings.put(v.getKey(), ColdReplayBenchmark.run(dir, "tend-" + i, command, -1, v.getValue()));
             if (i == 1) decided(db, n);
         }

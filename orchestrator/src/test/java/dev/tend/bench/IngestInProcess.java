@@ -35,7 +35,7 @@ final class IngestInProcess {
     private IngestInProcess() {
     }
 
-    static void run(Path events, Path fleetFile, Path dir, int n, int snapshotEvery) throws Exception {
+    static void run(Path events, Path fleetFile, Path dir, int n, dev.tend.runtime.SnapshotPolicy snapshots) throws Exception {
         long c0 = ChildProcess.ownCpuNanos();
         long t0 = System.nanoTime();
         IngestFloor.run(events, dir.resolve("floor.db"));
@@ -44,7 +44,7 @@ final class IngestInProcess {
         System.out.printf("floor  (Jackson parse + batched SQLite insert): %,.0f events/s, %.2f s CPU%n", floor, (c1 - c0) / 1e9);
         long[] cpu = new long[1];
         Map<String, Long> threadsBefore = ThreadCpu.byName();
-        double tend = n / (tend(events, fleetFile, dir.resolve("tend.db"), snapshotEvery, cpu) / 1e9);
+        double tend = n / (tend(events, fleetFile, dir.resolve("tend.db"), snapshots, cpu) / 1e9);
         System.out.printf("         CPU by thread: %s%n", ThreadCpu.since(threadsBefore));
         System.out.printf("tend   (journal + engine + ledger, durable):   %,.0f events/s, %.2f s CPU%n", tend, cpu[0] / 1e9);
         System.out.printf("ratio  tend/floor = %.2f by wall clock (target >= 0.50), %.2f by CPU time%n", tend / floor,
@@ -52,7 +52,7 @@ final class IngestInProcess {
     }
 
     /** Returns the wall time until every event is committed; {@code cpu[0]}: this process's CPU time meanwhile. */
-    static long tend(Path events, Path fleetFile, Path db, int snapshotEvery, long[] cpu) throws Exception {
+    static long tend(Path events, Path fleetFile, Path db, dev.tend.runtime.SnapshotPolicy snapshots, long[] cpu) throws Exception {
         Path library = Path.of(System.getProperty("tend.library", "playbooks/library"));
         if (!Files.isDirectory(library)) library = Path.of("..").resolve(library);
         PlaybookSet set = PlaybookLoader.load(library);
@@ -65,7 +65,7 @@ final class IngestInProcess {
         try (Store store = Store.openSqlite(db); Executor sim = new SimulatedExecutor(1, 1_000_000)) {
             QuartzTimers timers = new QuartzTimers();
             Orchestrator orch = new Orchestrator(store, setup, Map.of("simulated", sim), timers, x -> { }, clock,
-                    dev.tend.runtime.CommitListener.NONE, snapshotEvery);
+                    dev.tend.runtime.CommitListener.NONE, snapshots);
             timers.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             AtomicBoolean eof = new AtomicBoolean();
             dev.tend.runtime.NumberedInputs inputs = new dev.tend.runtime.NumberedInputs();

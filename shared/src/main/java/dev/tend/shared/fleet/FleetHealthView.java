@@ -345,6 +345,11 @@ public final class FleetHealthView {
         return out;
     }
 
+    /** How many signals the view knows (each one an event reached, or a snapshot held): what a snapshot writes. */
+    public int signalCount() {
+        return signals.size();
+    }
+
     /** This view as plain values, for a snapshot; {@link #restore} reverses it. */
     public HealthMemo memo() {
         java.util.List<HealthMemo.Signal> out = memos.take(signals);
