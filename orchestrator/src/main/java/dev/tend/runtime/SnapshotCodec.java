@@ -39,27 +39,41 @@ import java.util.zip.GZIPOutputStream;
 /**
  * Writes an {@link EngineState} as a snapshot row and reads it back, with how far the
  * driver had read each input file ({@code sources}, see {@link SourceProgress}). The body is
- * gzip-compressed JSON: {@code {"format":1,"seq":N,"sources":{...},"state":{...}}}, the state's records as
+ * gzip-compressed JSON: {@code {"format":2,"seq":N,"sources":{...},"state":{...}}}, the state's records as
  * objects of their components, instants as RFC 3339 text with every digit of the fraction,
- * durations as ISO 8601, ids as strings.
+ * durations as ISO 8601, ids as strings; except the health view's signals, the bulk of it,
+ * each an array with its instants as numbers of seconds ({@link SignalMemoWriter}).
  *
- * <p>{@value #FORMAT} is this tend's format. A snapshot of a newer format is refused with
- * {@link SnapshotFormatException}: a newer tend may keep state this one does not know, and
- * starting from part of it would be wrong. When the layout changes, raise {@link #FORMAT}.
+ * <p>{@value #FORMAT} is this tend's format; it reads format 1 too (the signals as objects of
+ * their components with instants as text, as every other record). A snapshot of a newer format
+ * is refused with {@link SnapshotFormatException}: a newer tend may keep state this one does
+ * not know, and starting from part of it would be wrong. When the layout changes, raise
+ * {@link #FORMAT} and keep reading the formats before it.
  */
 public final class SnapshotCodec {
     /** The snapshot format this tend writes and reads. */
-    public static final int FORMAT = 1;
+    public static final int FORMAT = 2;
+    /**
+     * The version of what {@link #fingerprint} hashes, apart from {@link #FORMAT}: a snapshot of
+     * format 1 was taken under the same setup as one of format 2 and starts a store as well.
+     */
+    private static final int SETUP_PRINT = 1;
 
+    /** Writes and reads format 2. */
     private static final ObjectMapper JSON = mapper();
+    /** Reads format 1 (records as their components throughout), and gives {@link #json}'s text. */
+    private static final ObjectMapper RECORDS = recordMapper(textModule());
 
     private SnapshotCodec() {
     }
 
     private static ObjectMapper mapper() {
         ObjectMapper m = recordMapper(textModule());
-        // the health view's signals are most of a snapshot: written without reflection, as the record mapping would
-        m.registerModule(new SimpleModule("tend-signals").addSerializer(HealthMemo.Signal.class, new SignalMemoWriter()));
+        // the health view's signals are most of a snapshot: written and read without reflection, in a form of their own
+        m.registerModule(new SimpleModule("tend-signals").addSerializer(HealthMemo.Signal.class, new SignalMemoWriter())
+                .addDeserializer(HealthMemo.Signal.class, new SignalMemoReader()));
+        // a signal's instants are seconds with nine fraction digits: a double would round them
+        m.enable(DeserializationFeature.USE_BIG_DECIMAL_FOR_FLOATS);
         return m;
     }
 
@@ -153,10 +167,10 @@ public final class SnapshotCodec {
         }
     }
 
-    /** {@code state} as the JSON text a snapshot holds (uncompressed): equal states give equal text. */
+    /** {@code state} as the JSON text a format-1 snapshot holds (uncompressed): equal states give equal text. */
     static String json(EngineState state) {
         try {
-            return JSON.writeValueAsString(state);
+            return RECORDS.writeValueAsString(state);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
@@ -169,8 +183,9 @@ public final class SnapshotCodec {
                     + ", written by a newer tend; this tend reads format " + FORMAT + " and will not start from part of a "
                     + "state it does not understand: run the newer tend on this store");
         }
+        ObjectMapper reader = row.format() == 1 ? RECORDS : JSON;
         try (InputStream in = new GZIPInputStream(new ByteArrayInputStream(row.body()), 1 << 16)) {
-            JsonNode root = JSON.readTree(in);
+            JsonNode root = reader.readTree(in);
             int format = root.path("format").asInt(-1);
             if (format != row.format()) {
                 throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " says format " + format
@@ -178,7 +193,7 @@ public final class SnapshotCodec {
             }
             Map<String, Long> sources = new java.util.LinkedHashMap<>();
             root.path("sources").fields().forEachRemaining(e -> sources.put(e.getKey(), e.getValue().asLong()));
-            return new Decoded(JSON.treeToValue(root.get("state"), EngineState.class), sources);
+            return new Decoded(reader.treeToValue(root.get("state"), EngineState.class), sources);
         } catch (IOException e) {
             throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " cannot be read (" + e.getMessage()
                     + "); start from the journal instead by deleting the snapshots table's rows", e);
@@ -192,7 +207,7 @@ public final class SnapshotCodec {
      * build under this one.
      */
     public static String fingerprint(EngineSetup setup) {
-        StringBuilder sb = new StringBuilder("tend-setup/").append(FORMAT).append('\n');
+        StringBuilder sb = new StringBuilder("tend-setup/").append(SETUP_PRINT).append('\n');
         for (Playbook p : setup.playbooks().playbooks()) {
             sb.append(p.id()).append(' ').append(p.version()).append(' ').append(p.contentHash()).append('\n');
         }
@@ -200,8 +215,8 @@ public final class SnapshotCodec {
         sb.append("brake ").append(setup.brake()).append('\n');
         sb.append("event-time ").append(setup.eventTime()).append('\n');
         try {
-            sb.append("config ").append(JSON.writeValueAsString(setup.config())).append('\n');
-            sb.append("fleet ").append(JSON.writeValueAsString(setup.fleet().clusters()));
+            sb.append("config ").append(RECORDS.writeValueAsString(setup.config())).append('\n');
+            sb.append("fleet ").append(RECORDS.writeValueAsString(setup.fleet().clusters()));
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
