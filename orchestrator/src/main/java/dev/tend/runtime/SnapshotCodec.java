@@ -180,7 +180,7 @@ public final class SnapshotCodec {
     public static Decoded decode(SnapshotRow row) {
         if (row.format() > FORMAT) {
             throw new SnapshotFormatException("the snapshot at journal seq " + row.seq() + " is in format " + row.format()
-                    + ", written by a newer tend; this tend reads format " + FORMAT + " and will not start from part of a "
+                    + ", written by a newer tend; this tend reads formats up to " + FORMAT + " and will not start from part of a "
                     + "state it does not understand: run the newer tend on this store");
         }
         ObjectMapper reader = row.format() == 1 ? RECORDS : JSON;

@@ -83,10 +83,10 @@ class SnapshotStartTest {
     void aSnapshotOfANewerFormatIsRefusedClearly() throws Exception {
         String db = dir.resolve("tend.db").toString();
         assertThat(ingest(db).exit()).isZero();
-        execute(db, "UPDATE snapshots SET format = 2");
+        execute(db, "UPDATE snapshots SET format = 3");
         CliRun refused = ingest(db);
         assertThat(refused.exit()).isEqualTo(ExitCodes.USAGE);
-        assertThat(refused.err()).contains("is in format 2, written by a newer tend; this tend reads format 1");
+        assertThat(refused.err()).contains("is in format 3, written by a newer tend; this tend reads formats up to 2");
     }
 
     @Test

@@ -1,68 +1,65 @@
 package dev.tend.runtime;
 
+import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.module.SimpleModule;
-import dev.tend.engine.BrakeThresholds;
-import dev.tend.engine.Engine;
-import dev.tend.engine.EngineSetup;
-import dev.tend.engine.EventTimeMode;
-import dev.tend.playbooks.PlaybookSet;
-import dev.tend.playbooks.load.PlaybookLoader;
 import dev.tend.shared.Id;
 import dev.tend.shared.SignalKey;
 import dev.tend.shared.SignalState;
-import dev.tend.shared.fleet.Fleet;
-import dev.tend.shared.fleet.FleetFile;
 import dev.tend.shared.fleet.HealthMemo;
 import org.junit.jupiter.api.Test;
 
-import java.nio.file.Path;
 import java.time.Instant;
 import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-/** The hand-written signal writer gives the snapshot exactly the JSON the record mapping gave it. */
+/** Format 2's signals: written as compact arrays with instants as seconds, and read back exactly. */
 class SignalMemoWriterTest {
-    private static final Path LIBRARY = dev.tend.testing.RepositoryRoot.path().resolve("playbooks/library");
+    private final ObjectMapper format2 = SnapshotCodec.recordMapper(SnapshotCodec.textModule())
+            .registerModule(new SimpleModule("signals").addSerializer(HealthMemo.Signal.class, new SignalMemoWriter())
+                    .addDeserializer(HealthMemo.Signal.class, new SignalMemoReader()))
+            .enable(DeserializationFeature.USE_BIG_DECIMAL_FOR_FLOATS);
 
-    private final ObjectMapper byRecords = SnapshotCodec.recordMapper(SnapshotCodec.textModule());
-    private final ObjectMapper byWriter = SnapshotCodec.recordMapper(SnapshotCodec.textModule())
-            .registerModule(new SimpleModule("signals").addSerializer(HealthMemo.Signal.class, new SignalMemoWriter()));
+    private static final Instant T = Instant.parse("2027-03-14T02:17:00Z");
 
     @Test
-    void writesEverySignalShapeAsTheRecordMappingDoes() throws Exception {
-        Instant t = Instant.parse("2027-03-14T02:17:00Z");
-        List<HealthMemo.Signal> signals = List.of(
-                new HealthMemo.Signal(new SignalKey(Id.of("fares-3"), Id.of("n1"), Id.of("heartbeat")), SignalState.SILENT,
-                        t, t.plusMillis(500), List.of(t.minusSeconds(90), t.plusNanos(1_500), t.plusNanos(7))),
-                new HealthMemo.Signal(new SignalKey(Id.of("dispatch-1"), null, Id.of("replica-lag")), SignalState.CLEAR,
-                        t.minusSeconds(3600), t, List.of()),
-                new HealthMemo.Signal(new SignalKey(Id.of("dispatch-1"), Id.of("n2"), Id.of("cert-expiry")), SignalState.BREACH,
-                        t, null, List.of(t)));
-        for (HealthMemo.Signal s : signals) {
-            assertThat(byWriter.writeValueAsString(s)).isEqualTo(byRecords.writeValueAsString(s));
-        }
-        HealthMemo memo = new HealthMemo(signals, List.of(), List.of(), 2, 9);
-        assertThat(byWriter.writeValueAsString(memo)).isEqualTo(byRecords.writeValueAsString(memo));
+    void aSignalIsAnArrayWithItsInstantsAsSecondsToTheNanosecond() throws Exception {
+        HealthMemo.Signal s = new HealthMemo.Signal(new SignalKey(Id.of("fares-3"), Id.of("n1"), Id.of("heartbeat")),
+                SignalState.SILENT, T, T.plusMillis(500), List.of(T.minusSeconds(90), T.plusNanos(1_500), T.plusNanos(7)));
+        // 2027-03-14T02:17:00Z is 1,804,990,620 s after the epoch
+        assertThat(format2.writeValueAsString(s)).isEqualTo("[\"fares-3\",\"n1\",\"heartbeat\",\"SILENT\",1804990620,1804990620.5,"
+                + "[1804990530,1804990620.0000015,1804990620.000000007]]");
     }
 
     @Test
-    void aWholeEngineStateIsWrittenAsTheRecordMappingWritesIt() throws Exception {
-        PlaybookSet set = PlaybookLoader.load(LIBRARY);
-        Fleet fleet = FleetFile.load(LIBRARY.resolve("fleet.yaml"));
-        EngineSetup setup = new EngineSetup(set, set.config(), fleet, BrakeThresholds.from(set.config().brake()),
-                EventTimeMode.eventsOnly());
-        Engine engine = new Engine(setup);
-        RandomInputs inputs = new RandomInputs(7, fleet, 40, Instant.parse("2027-03-14T01:00:00Z"));
-        for (int i = 0; i < 400; i++) {
-            RandomInputs.Step step = inputs.next();
-            inputs.observe(RandomInputs.handle(engine, step));
+    void everySignalShapeReadsBackEqual() throws Exception {
+        List<HealthMemo.Signal> signals = List.of(
+                new HealthMemo.Signal(new SignalKey(Id.of("fares-3"), Id.of("n1"), Id.of("heartbeat")), SignalState.SILENT,
+                        T, T.plusMillis(500), List.of(T.minusSeconds(90), T.plusNanos(1_500), T.plusNanos(7), T.plusNanos(999_999_999))),
+                new HealthMemo.Signal(new SignalKey(Id.of("dispatch-1"), null, Id.of("replica-lag")), SignalState.CLEAR,
+                        T.minusSeconds(3600), T, List.of()),
+                new HealthMemo.Signal(new SignalKey(Id.of("dispatch-1"), Id.of("n2"), Id.of("cert-expiry")), SignalState.BREACH,
+                        T, null, List.of(T)),
+                // the epoch itself, and instants before it (written as text: a negative number's fraction would read the other way)
+                new HealthMemo.Signal(new SignalKey(Id.of("depot-2"), Id.of("n9"), Id.of("storage-full")), null,
+                        Instant.EPOCH, Instant.ofEpochSecond(-1, 250_000_000), List.of(Instant.parse("1969-07-20T20:17:40Z"))));
+        for (HealthMemo.Signal s : signals) {
+            String text = format2.writeValueAsString(s);
+            assertThat(format2.readValue(text, HealthMemo.Signal.class)).as(text).isEqualTo(s);
+            // read as the codec reads a snapshot: through a tree first
+            assertThat(format2.treeToValue(format2.readTree(text), HealthMemo.Signal.class)).as(text).isEqualTo(s);
         }
-        var state = engine.state();
-        assertThat(state.health().signals()).as("the sequence left signals in the view").hasSizeGreaterThan(20);
-        assertThat(state.health().signals()).as("some with recent changes")
-                .anySatisfy(s -> assertThat(s.changes()).isNotEmpty());
-        assertThat(SnapshotCodec.json(state)).isEqualTo(byRecords.writeValueAsString(state));
+        HealthMemo memo = new HealthMemo(signals, List.of(), List.of(), 2, 9);
+        String text = format2.writeValueAsString(memo);
+        assertThat(format2.treeToValue(format2.readTree(text), HealthMemo.class)).isEqualTo(memo);
+    }
+
+    @Test
+    void aSignalThatIsNotAnArrayIsRefusedWithWhatWasExpected() {
+        String formatOne = "{\"key\":{\"cluster\":\"fares-3\",\"node\":\"n1\",\"signal\":\"heartbeat\"},\"state\":\"SILENT\","
+                + "\"since\":\"2027-03-14T02:17:00Z\",\"lastAt\":null,\"changes\":[]}";
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> format2.readValue(formatOne, HealthMemo.Signal.class))
+                .hasMessageContaining("expected a signal (START_ARRAY), got START_OBJECT");
     }
 }

@@ -84,12 +84,18 @@ class SnapshotEquivalenceTest {
                 if (restored != null) {
                     assertThat(json(restored.state())).as("state after input %d, seed %d", i, seed).isEqualTo(json(full.state()));
                 }
-                SnapshotRow row = SnapshotCodec.encode(i, step.now(), fingerprint, full.state(), java.util.Map.of("ingest:" + seed, (long) i));
+                EngineState state = full.state();
+                java.util.Map<String, Long> sources = java.util.Map.of("ingest:" + seed, (long) i);
+                SnapshotRow row = SnapshotCodec.encode(i, step.now(), fingerprint, state, sources);
+                // the format tend wrote before (format 1) must still give the same state: the odd points restore from it
+                SnapshotRow older = FormatOneSnapshot.of(i, step.now(), fingerprint, state, sources);
                 SnapshotCodec.Decoded decoded = SnapshotCodec.decode(row);
+                SnapshotCodec.Decoded decodedOlder = SnapshotCodec.decode(older);
                 assertThat(decoded.sources()).containsEntry("ingest:" + seed, (long) i);
-                EngineState back = decoded.state();
-                assertThat(json(back)).as("the stored form gives back the state").isEqualTo(json(full.state()));
-                restored = Engine.restore(setup, back);
+                assertThat(decodedOlder.sources()).isEqualTo(decoded.sources());
+                assertThat(json(decoded.state())).as("the stored form gives back the state").isEqualTo(json(state));
+                assertThat(json(decodedOlder.state())).as("format 1 gives back the state").isEqualTo(json(state));
+                restored = Engine.restore(setup, (i / SNAPSHOT_EVERY) % 2 == 0 ? decoded.state() : decodedOlder.state());
             }
         }
         assertThat(full.inputsHandled()).isEqualTo(STEPS);
