@@ -23,7 +23,7 @@ public record SnapshotPolicy(int every, boolean followsState) {
     /** The shortest interval {@link #scaled()} picks. */
     public static final int FLOOR = 50_000;
     /** The longest interval {@link #scaled()} picks: the most inputs a start replays after a snapshot. */
-    public static final int CAP = 250_000;
+    public static final int CAP = 200_000;
 
     public SnapshotPolicy {
         if (every < 0) throw new IllegalArgumentException("snapshot every must be 0 (never) or more inputs, got " + every);

@@ -16,9 +16,10 @@ class SnapshotPolicyTest {
             "10000, 50000",
             "10001, 50005",      // five inputs a signal
             "20000, 100000",
-            "50000, 250000",
-            "56000, 250000",     // the ingest benchmark's 2,000 clusters: the cap
-            "700000, 250000",    // 25,000 clusters: the cap, what a start may have to replay
+            "40000, 200000",
+            "50000, 200000",
+            "56000, 200000",     // the ingest benchmark's 2,000 clusters: the cap
+            "700000, 200000",    // 25,000 clusters: the cap, what a start may have to replay
     })
     void theDefaultIntervalIsFiveInputsASignalWithinFloorAndCap(int signals, long interval) {
         assertThat(SnapshotPolicy.scaled().intervalFor(signals)).isEqualTo(interval);
