@@ -66,30 +66,71 @@ final class SignalMemoWriter extends JsonSerializer<HealthMemo.Signal> {
         g.writeNumber(text, 0, seconds(sec, nano, text));
     }
 
-    /** Writes {@code sec[.fraction]} into {@code out} (sec at least 0); returns its length. */
+    /**
+     * Writes {@code sec[.fraction]} into {@code out} (sec at least 0); returns its length. Two
+     * digits a division, in ints while the seconds fit one (until 2038): under C1, which
+     * {@code tend ingest} runs, each division is a division, and a snapshot writes 400,000 instants.
+     */
     static int seconds(long sec, int nano, char[] out) {
-        int n = 0;
-        if (sec == 0) {
-            out[n++] = '0';
+        int digits = 1;
+        while (digits < 19 && sec >= POW10[digits]) digits++;
+        if (sec <= Integer.MAX_VALUE) {
+            putInt((int) sec, out, 0, digits);
         } else {
-            int digits = 0;
-            for (long v = sec; v > 0; v /= 10) digits++;
+            long v = sec;
             for (int i = digits - 1; i >= 0; i--) {
-                out[n + i] = (char) ('0' + (int) (sec % 10));
-                sec /= 10;
+                long q = v / 10;
+                out[i] = (char) ('0' + (int) (v - q * 10));
+                v = q;
             }
-            n += digits;
         }
+        int n = digits;
         if (nano != 0) {
-            out[n++] = '.';
-            int end = n + 9;
-            for (int i = end - 1; i >= n; i--) {
-                out[i] = (char) ('0' + nano % 10);
-                nano /= 10;
+            int f, fd;
+            if (nano % 1_000_000 == 0) {
+                f = nano / 1_000_000;
+                fd = 3;
+            } else if (nano % 1_000 == 0) {
+                f = nano / 1_000;
+                fd = 6;
+            } else {
+                f = nano;
+                fd = 9;
             }
-            while (out[end - 1] == '0') end--;
-            n = end;
+            while (f % 10 == 0) {
+                f /= 10;
+                fd--;
+            }
+            out[n++] = '.';
+            putInt(f, out, n, n + fd); // the fraction's zeros in front included
+            n += fd;
         }
         return n;
+    }
+
+    /** Writes {@code v} into {@code out[start, end)}, right-aligned, zeros in front; two digits a division. */
+    private static void putInt(int v, char[] out, int start, int end) {
+        int i = end;
+        while (i - start >= 2) {
+            int q = v / 100;
+            int r = v - q * 100;
+            out[--i] = ONES[r];
+            out[--i] = TENS[r];
+            v = q;
+        }
+        if (i > start) out[--i] = (char) ('0' + v % 10);
+    }
+
+    private static final long[] POW10 = new long[19];
+    private static final char[] TENS = new char[100];
+    private static final char[] ONES = new char[100];
+
+    static {
+        POW10[0] = 1;
+        for (int i = 1; i < POW10.length; i++) POW10[i] = POW10[i - 1] * 10;
+        for (int i = 0; i < 100; i++) {
+            TENS[i] = (char) ('0' + i / 10);
+            ONES[i] = (char) ('0' + i % 10);
+        }
     }
 }
