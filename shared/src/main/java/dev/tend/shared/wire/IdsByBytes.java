@@ -12,7 +12,7 @@ import java.util.function.Predicate;
  * is first met (for the reader: a signal tend.yaml declares).
  *
  * <p>An open-addressing table (linear probing, at most half full). It keeps at most
- * {@value #MAX_SIZE} ids; past that an unknown id is not taken in ({@link #find} gives -1), so
+ * {@value #MAX_SIZE} ids (by default); past that an unknown id is not taken in ({@link #find} gives -1), so
  * that a stream of ever new ids cannot grow it without bound: the caller then reads the line
  * its general way. Not thread-safe: one reader, one thread.
  */
@@ -20,6 +20,7 @@ final class IdsByBytes {
     static final int MAX_SIZE = 1 << 18;
 
     private final Predicate<String> mark;
+    private final int maxSize;
     private byte[][] keys = new byte[1 << 10][];
     private int[] hashes = new int[1 << 10];
     private Id[] ids = new Id[1 << 10];
@@ -28,7 +29,13 @@ final class IdsByBytes {
 
     /** {@code mark}: tested once per distinct id, on its value. */
     IdsByBytes(Predicate<String> mark) {
+        this(mark, MAX_SIZE);
+    }
+
+    /** As {@link #IdsByBytes(Predicate)}, keeping at most {@code maxSize} ids. */
+    IdsByBytes(Predicate<String> mark, int maxSize) {
         this.mark = mark;
+        this.maxSize = maxSize;
     }
 
     /**
@@ -74,7 +81,7 @@ final class IdsByBytes {
     }
 
     private int add(int slot, int h, byte[] b, int from, int to) {
-        if (size == MAX_SIZE) return -1;
+        if (size == maxSize) return -1;
         String value = new String(b, from, to - from, StandardCharsets.ISO_8859_1);
         if (!Id.isValid(value)) return -1;
         byte[] key = Arrays.copyOfRange(b, from, to);
