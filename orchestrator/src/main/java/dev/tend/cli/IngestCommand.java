@@ -119,7 +119,7 @@ public final class IngestCommand implements Callable<Integer> {
                     summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
-                                Input next = inputs.of(e.event());
+                                Input next = inputs.of(e);
                                 refusals.submitted(next, e.line());
                                 orch.submitEvent(next);
                                 if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);

@@ -6,6 +6,7 @@ import dev.tend.shared.HealthTransition;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.fleet.SignalNumbering;
+import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.WireWriter;
 
 /**
@@ -24,9 +25,18 @@ public final class NumberedInputs {
 
     /** The input of {@code event}: a numbered transition with its wire line, or a topology change. */
     public Input of(WireEvent event) {
+        return of(event, null);
+    }
+
+    /** The input of the event {@code read}; its wire line is the one the reader had at hand, when it had one. */
+    public Input of(LineResult.Event read) {
+        return of(read.event(), read.wire());
+    }
+
+    private Input of(WireEvent event, String wire) {
         WireEvent e = events.of(event);
         if (e instanceof HealthTransition c) {
-            return new Input.Transition(c, WireWriter.line(c), numbering.of(c.cluster(), c.node(), c.signal()));
+            return new Input.Transition(c, wire != null ? wire : WireWriter.line(c), numbering.of(c.cluster(), c.node(), c.signal()));
         }
         return new Input.Topology((TopologyEvent) e);
     }

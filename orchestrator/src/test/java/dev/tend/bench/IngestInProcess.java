@@ -16,8 +16,7 @@ import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.WireReader;
 import dev.tend.store.Store;
 
-import java.io.BufferedReader;
-import java.nio.charset.StandardCharsets;
+import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Clock;
@@ -71,11 +70,11 @@ final class IngestInProcess {
             dev.tend.runtime.NumberedInputs inputs = new dev.tend.runtime.NumberedInputs();
             long[] readerCpu = new long[1];
             Thread reader = new Thread(() -> {
-                try (BufferedReader in = Files.newBufferedReader(events, StandardCharsets.UTF_8)) {
+                try (InputStream in = Files.newInputStream(events)) {
                     WireReader.of(events.toString()).readAll(in, r -> {
                         if (r instanceof LineResult.Event e) {
                             try {
-                                orch.submitEvent(inputs.of(e.event()));
+                                orch.submitEvent(inputs.of(e));
                             } catch (InterruptedException ie) {
                                 throw new IllegalStateException(ie);
                             }

@@ -18,10 +18,18 @@ public final class CanonicalEvents {
         ids.putIfAbsent(id.value(), id);
     }
 
-    /** {@code event} with each of its ids replaced by the canonical instance of its value. */
+    /**
+     * {@code event} with each of its ids replaced by the canonical instance of its value:
+     * {@code event} itself when its ids are those instances already (as a reader that looks ids
+     * up by their bytes hands them on).
+     */
     public WireEvent of(WireEvent event) {
         if (event instanceof HealthTransition t) {
-            return new HealthTransition(t.at(), id(t.cluster()), id(t.node()), id(t.signal()), t.state(), t.detail(), t.extra());
+            Id cluster = id(t.cluster());
+            Id node = id(t.node());
+            Id signal = id(t.signal());
+            if (cluster == t.cluster() && node == t.node() && signal == t.signal()) return t;
+            return new HealthTransition(t.at(), cluster, node, signal, t.state(), t.detail(), t.extra());
         }
         TopologyEvent o = (TopologyEvent) event;
         return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
@@ -29,7 +37,9 @@ public final class CanonicalEvents {
 
     private Id id(Id id) {
         if (id == null) return null;
-        Id known = ids.putIfAbsent(id.value(), id);
-        return known == null ? id : known;
+        Id known = ids.get(id.value());
+        if (known != null) return known;
+        ids.put(id.value(), id);
+        return id;
     }
 }

@@ -30,6 +30,10 @@ public record HealthTransition(Instant at, Id cluster, Id node, Id signal, Signa
         Objects.requireNonNull(state, "state");
         detail = detail == null ? Map.of() : JsonValues.freeze(detail);
         extra = extra == null ? Map.of() : JsonValues.freeze(extra);
+        if (!extra.isEmpty()) checkExtra(extra);
+    }
+
+    private static void checkExtra(Map<String, Object> extra) {
         for (String key : extra.keySet()) {
             if (WIRE_FIELDS.contains(key)) {
                 throw new IllegalArgumentException("extra must not hold '" + key + "': wire format v1 gives it a meaning");

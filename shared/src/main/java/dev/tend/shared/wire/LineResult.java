@@ -13,10 +13,35 @@ public sealed interface LineResult {
     /** The 1-based line number. */
     long line();
 
-    /** A health transition or a topology event. */
-    record Event(WireEvent event, long line) implements LineResult {
+    /**
+     * A health transition or a topology event.
+     *
+     * @param wire the event's line as {@link WireWriter#line(WireEvent)} writes it, when the
+     *             reader had it at hand (a line read by its fast path is its own wire line), else
+     *             null; derived from {@code event}, so it takes no part in equality
+     */
+    record Event(WireEvent event, long line, String wire) implements LineResult {
         public Event {
             Objects.requireNonNull(event, "event");
+        }
+
+        public Event(WireEvent event, long line) {
+            this(event, line, null);
+        }
+
+        /** The event's line as {@link WireWriter#line(WireEvent)} writes it: {@link #wire()}, or written now. */
+        public String wireLine() {
+            return wire != null ? wire : WireWriter.line(event);
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof Event e && line == e.line && event.equals(e.event);
+        }
+
+        @Override
+        public int hashCode() {
+            return 31 * event.hashCode() + Long.hashCode(line);
         }
     }
 

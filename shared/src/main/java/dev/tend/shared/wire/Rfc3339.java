@@ -136,7 +136,7 @@ public final class Rfc3339 {
         return end + 1;
     }
 
-    private static int lengthOfMonth(int year, int month) {
+    static int lengthOfMonth(int year, int month) {
         return switch (month) {
             case 2 -> (year % 4 == 0 && (year % 100 != 0 || year % 400 == 0)) ? 29 : 28;
             case 4, 6, 9, 11 -> 30;
@@ -145,7 +145,7 @@ public final class Rfc3339 {
     }
 
     /** Days since 1970-01-01 of a valid proleptic Gregorian date of years 0 to 9999, without allocating. */
-    private static long epochDay(int year, int month, int day) {
+    static long epochDay(int year, int month, int day) {
         // the classic days-from-civil computation: counting years from March puts the leap day last
         int y = month <= 2 ? year - 1 : year;
         int era = Math.floorDiv(y, 400);

@@ -31,6 +31,8 @@ final class Utf8Lines {
     private int end;
     private boolean eof;
     private byte[] line = new byte[256];
+    private int length;
+    private boolean ascii;
     private final CharsetDecoder decoder = StandardCharsets.UTF_8.newDecoder()
             .onMalformedInput(CodingErrorAction.REPORT).onUnmappableCharacter(CodingErrorAction.REPORT);
 
@@ -40,18 +42,26 @@ final class Utf8Lines {
 
     /** The next line, or null at the end of the stream. */
     Line next() throws IOException {
+        return advance() ? decode() : null;
+    }
+
+    /**
+     * Reads the next line's bytes ({@link #bytes()}, {@link #length()}), not yet decoded; false at
+     * the end of the stream. A reader that can take the line from its bytes saves the String.
+     */
+    boolean advance() throws IOException {
         int len = 0;
-        boolean ascii = true;
+        boolean plain = true;
         while (true) {
             if (pos == end) {
                 if (eof || !fill()) {
-                    if (len == 0) return null;
-                    return decode(len, ascii);
+                    if (len == 0) return false;
+                    return ended(len, plain);
                 }
             }
             int i = pos;
             while (i < end && buf[i] != '\n') {
-                if (buf[i] < 0) ascii = false;
+                if (buf[i] < 0) plain = false;
                 i++;
             }
             int n = i - pos;
@@ -60,10 +70,27 @@ final class Utf8Lines {
             len += n;
             if (i < end) {
                 pos = i + 1;
-                return decode(len, ascii);
+                return ended(len, plain);
             }
             pos = end;
         }
+    }
+
+    private boolean ended(int len, boolean plain) {
+        if (len > 0 && line[len - 1] == '\r') len--;
+        length = len;
+        ascii = plain;
+        return true;
+    }
+
+    /** The bytes of the line {@link #advance()} read, without its line break: {@code bytes()[0, length())}; valid until the next call. */
+    byte[] bytes() {
+        return line;
+    }
+
+    /** How many bytes the line {@link #advance()} read has. */
+    int length() {
+        return length;
     }
 
     private boolean fill() throws IOException {
@@ -77,8 +104,9 @@ final class Utf8Lines {
         return true;
     }
 
-    private Line decode(int len, boolean ascii) {
-        if (len > 0 && line[len - 1] == '\r') len--;
+    /** The text of the line {@link #advance()} read, or the column of its first byte that is not UTF-8. */
+    Line decode() {
+        int len = length;
         if (ascii) return new Line(new String(line, 0, len, StandardCharsets.ISO_8859_1), 0);
         ByteBuffer bytes = ByteBuffer.wrap(line, 0, len);
         try {

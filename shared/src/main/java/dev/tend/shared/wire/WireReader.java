@@ -89,22 +89,26 @@ public final class WireReader {
     private final Supplier<Instant> clock;
     private final Duration maxSkew;
     private final Set<String> signals;
+    /** Whether {@link #readAll(InputStream, Consumer)} tries {@link PlainLine} first (tests compare with and without). */
+    private final boolean plainFirst;
     private final AtomicLongArray refusals = new AtomicLongArray(TimeRefusal.values().length);
     private volatile long headerLine;
     private volatile long firstEventLine;
     private volatile RecordingHeader header;
 
-    private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals) {
+    private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals,
+                       boolean plainFirst) {
         this.source = Objects.requireNonNull(source, "source");
         this.bounded = bounded;
         this.clock = clock;
         this.maxSkew = maxSkew;
         this.signals = signals;
+        this.plainFirst = plainFirst;
     }
 
     /** A reader for one input; {@code source} (a file name, or "-" for standard input) names it in problems. */
     public static WireReader of(String source) {
-        return new WireReader(source, true, null, null, Set.of());
+        return new WireReader(source, true, null, null, Set.of(), true);
     }
 
     /**
@@ -112,7 +116,7 @@ public final class WireReader {
      * vocabulary, since refusing what was once accepted would lose it.
      */
     public static WireReader trusted(String source) {
-        return new WireReader(source, false, null, null, Set.of());
+        return new WireReader(source, false, null, null, Set.of(), true);
     }
 
     /**
@@ -125,7 +129,7 @@ public final class WireReader {
         if (newMaxSkew == null || newMaxSkew.isNegative()) {
             throw new IllegalArgumentException("maxSkew must be zero or longer, got " + newMaxSkew);
         }
-        return new WireReader(source, bounded, newClock, newMaxSkew, signals);
+        return new WireReader(source, bounded, newClock, newMaxSkew, signals, plainFirst);
     }
 
     /**
@@ -136,7 +140,12 @@ public final class WireReader {
     public WireReader withSignals(Collection<Id> declared) {
         Set<String> names = new TreeSet<>();
         for (Id id : declared) names.add(id.value());
-        return new WireReader(source, bounded, clock, maxSkew, Collections.unmodifiableSet(names));
+        return new WireReader(source, bounded, clock, maxSkew, Collections.unmodifiableSet(names), plainFirst);
+    }
+
+    /** A copy that reads every line the general way, never by {@link PlainLine}: the reference its tests compare with. */
+    WireReader withoutPlainLines() {
+        return new WireReader(source, bounded, clock, maxSkew, signals, false);
     }
 
     /** Lines refused for their time so far, by reason; every reason present (0 when none). */
@@ -197,9 +206,9 @@ public final class WireReader {
      */
     public ReadSummary readAll(Reader in, Consumer<LineResult> sink) {
         BufferedReader lines = in instanceof BufferedReader b ? b : new BufferedReader(in, 1 << 16);
-        return readAll(() -> {
+        return readAll(n -> {
             String text = lines.readLine();
-            return text == null ? null : new Utf8Lines.Line(text, 0);
+            return text == null ? null : parsed(new Utf8Lines.Line(text, 0), n);
         }, sink);
     }
 
@@ -207,32 +216,30 @@ public final class WireReader {
      * As {@link #readAll(Reader, Consumer)}, from bytes: each line is decoded as UTF-8 on its
      * own, and a line that is not valid UTF-8 is a bad line located at its first wrong byte,
      * while the lines after it are read as usual. Files and standard input are read this way,
-     * so that both behave the same.
+     * so that both behave the same. The usual transition line is read from its bytes
+     * ({@link PlainLine}), and its event comes with its wire line ({@link LineResult.Event#wire()}).
      */
     public ReadSummary readAll(InputStream in, Consumer<LineResult> sink) {
         Utf8Lines lines = new Utf8Lines(in);
-        return readAll(lines::next, sink);
+        PlainLine plain = plainFirst ? new PlainLine(signals) : null;
+        return readAll(n -> {
+            if (!lines.advance()) return null;
+            LineResult r = plain == null ? null : plain(plain.read(lines.bytes(), lines.length(), n));
+            return r != null ? r : parsed(lines.decode(), n);
+        }, sink);
     }
 
     private interface LineSource {
-        Utf8Lines.Line next() throws IOException;
+        /** The result of line {@code lineNumber}, or null at the end of the input. */
+        LineResult next(long lineNumber) throws IOException;
     }
 
     private ReadSummary readAll(LineSource lines, Consumer<LineResult> sink) {
         long n = 0, events = 0, headers = 0, blanks = 0, bad = 0, omitted = 0;
         List<Problem> problems = new ArrayList<>();
-        Utf8Lines.Line next;
-        while ((next = next(lines, n)) != null) {
+        LineResult r;
+        while ((r = next(lines, n)) != null) {
             n++;
-            LineResult r;
-            if (!next.isValid()) {
-                r = bad(n, next.badColumn(), "", "this line is not valid UTF-8 (the byte at column " + next.badColumn()
-                        + " cannot start or continue a character); the line is skipped");
-            } else {
-                String line = next.text();
-                if (n == 1 && !line.isEmpty() && line.charAt(0) == BYTE_ORDER_MARK) line = line.substring(1);
-                r = parseLine(line, n);
-            }
             if (r instanceof LineResult.Event) {
                 events++;
             } else if (r instanceof LineResult.Header) {
@@ -249,9 +256,38 @@ public final class WireReader {
         return new ReadSummary(n, events, headers, blanks, bad, problems, omitted);
     }
 
-    private Utf8Lines.Line next(LineSource lines, long done) {
+    /** The result of line {@code n} from its text, or the bad line its wrong encoding makes. */
+    private LineResult parsed(Utf8Lines.Line next, long n) {
+        if (!next.isValid()) {
+            return bad(n, next.badColumn(), "", "this line is not valid UTF-8 (the byte at column " + next.badColumn()
+                    + " cannot start or continue a character); the line is skipped");
+        }
+        String line = next.text();
+        if (n == 1 && !line.isEmpty() && line.charAt(0) == BYTE_ORDER_MARK) line = line.substring(1);
+        return parseLine(line, n);
+    }
+
+    /**
+     * {@code read}, a transition {@link PlainLine} read, when it passes the checks {@link #checked}
+     * makes of time (the signal it has checked itself); else null, and the line is read the general
+     * way, which words and counts the refusal.
+     */
+    private LineResult plain(LineResult.Event read) {
+        if (read == null) return null;
+        if (bounded) {
+            Instant at = read.event().at();
+            if (at.isBefore(EARLIEST) || !at.isBefore(BEYOND)) return null;
+            RecordingHeader h = header;
+            if (h != null && (h.from() != null && at.isBefore(h.from()) || h.until() != null && at.isAfter(h.until()))) return null;
+            if (clock != null && at.isAfter(clock.get().plus(maxSkew))) return null;
+        }
+        if (firstEventLine == 0) firstEventLine = read.line();
+        return read;
+    }
+
+    private LineResult next(LineSource lines, long done) {
         try {
-            return lines.next();
+            return lines.next(done + 1);
         } catch (IOException e) {
             throw new InvalidInputException(Problem.at(source, lineInt(done + 1), 0, "",
                     "cannot read past line " + done + ": " + e.getMessage()));

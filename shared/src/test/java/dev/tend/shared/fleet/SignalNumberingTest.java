@@ -39,6 +39,28 @@ class SignalNumberingTest {
     }
 
     @Test
+    void manyKeysAreNumberedOnceEachWhicheverInstancesTheirIdsAre() {
+        SignalNumbering n = new SignalNumbering();
+        List<SignalNumbering.Numbered> first = new ArrayList<>();
+        for (int c = 0; c < 3_000; c++) {
+            for (String node : new String[]{null, "n1", "n2"}) {
+                first.add(n.of(Id.of("fares-" + c), node == null ? null : Id.of(node), Id.of("heartbeat")));
+            }
+        }
+        assertThat(n.size()).isEqualTo(9_000);
+        int i = 0;
+        for (int c = 0; c < 3_000; c++) {
+            for (String node : new String[]{null, "n1", "n2"}) {
+                // new Id instances of equal values: the same numbered key, and a cluster-level key is not a node's
+                SignalNumbering.Numbered again = n.of(Id.of("fares-" + c), node == null ? null : Id.of(node), Id.of("heartbeat"));
+                assertThat(again).isSameAs(first.get(i));
+                assertThat(again.number()).isEqualTo(i++);
+            }
+        }
+        assertThat(n.size()).isEqualTo(9_000);
+    }
+
+    @Test
     void aViewHandedNumberedKeysAnswersAsOneHandedNone() {
         // two readers' numberings and unnumbered transitions, mixed: the view must find the same slot for equal keys
         FleetHealthView plain = new FleetHealthView(fleet());
