@@ -11,16 +11,19 @@ import java.io.IOException;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.ConcurrentLinkedQueue;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Semaphore;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.locks.ReentrantLock;
 
 /**
  * Delivers the page outbox at least once. Pages enter the outbox in the transaction that
@@ -55,6 +58,9 @@ public final class Courier implements AutoCloseable {
     private final Set<String> inFlight = ConcurrentHashMap.newKeySet();
     private final Semaphore wake = new Semaphore(0);
     private final AtomicInteger delivering = new AtomicInteger();
+    /** Attempts sent and not recorded yet (see {@link #recordAttempts}). */
+    private final ConcurrentLinkedQueue<Attempt> attempts = new ConcurrentLinkedQueue<>();
+    private final ReentrantLock recording = new ReentrantLock();
     private ExecutorService senderThreads;
     private Thread poller;
     private volatile boolean closed;
@@ -94,18 +100,14 @@ public final class Courier implements AutoCloseable {
                 wake.tryAcquire(250, TimeUnit.MILLISECONDS);
                 wake.drainPermits();
                 if (closed) return;
-                for (PageRow row : due()) {
-                    if (!inFlight.add(row.id())) continue;
-                    delivering.incrementAndGet();
-                    senderThreads.execute(() -> {
-                        try {
-                            deliver(row);
-                        } finally {
-                            inFlight.remove(row.id());
-                            delivering.decrementAndGet();
-                        }
-                    });
+                for (PageRow row : claimDue()) {
+                    try {
+                        senderThreads.execute(() -> deliverReleasing(row));
+                    } catch (java.util.concurrent.RejectedExecutionException closing) {
+                        release(row);
+                    }
                 }
+                recordAttempts(); // what a sender left while this thread held the lock
             } catch (InterruptedException e) {
                 return;
             } catch (RuntimeException e) {
@@ -121,29 +123,60 @@ public final class Courier implements AutoCloseable {
     /** Delivers every page due now on the calling thread, one at a time (for tend ingest and tests); returns how many were tried. */
     public int deliverDue() {
         int n = 0;
-        for (PageRow row : due()) {
-            if (!inFlight.add(row.id())) continue;
-            try {
-                deliver(row);
-                n++;
-            } finally {
-                inFlight.remove(row.id());
-            }
+        for (PageRow row : claimDue()) {
+            deliverReleasing(row);
+            n++;
         }
         return n;
+    }
+
+    /**
+     * The pages due and not in flight, now in flight. Under {@link #recording}, which also
+     * covers recording attempts and releasing their pages: a page read as due just before its
+     * attempt was recorded would otherwise be released after the read and sent again.
+     */
+    private List<PageRow> claimDue() {
+        recording.lock();
+        try {
+            List<PageRow> claimed = new ArrayList<>();
+            for (PageRow row : due()) {
+                if (!inFlight.add(row.id())) continue;
+                delivering.incrementAndGet();
+                claimed.add(row);
+            }
+            return claimed;
+        } finally {
+            recording.unlock();
+        }
+    }
+
+    /**
+     * Delivers {@code row} (in flight, counted in {@link #delivering}); whoever records its
+     * attempt releases it, and so does this when it fails before that.
+     */
+    private void deliverReleasing(PageRow row) {
+        boolean handedOver = false;
+        try {
+            Page page = page(row).withLink(senders.consoleUrl());
+            Answer answer = senders.sender(row.channel())
+                    .map(s -> send(s, page))
+                    .orElseGet(() -> Answer.refused("no channel named '" + row.channel() + "' is defined in tend.yaml"));
+            attempts.add(new Attempt(row, page, answer, clock.instant()));
+            handedOver = true;
+        } finally {
+            if (!handedOver) release(row);
+        }
+        recordAttempts();
+    }
+
+    private void release(PageRow row) {
+        inFlight.remove(row.id());
+        delivering.decrementAndGet();
     }
 
     /** True while a page is being sent. */
     public boolean isBusy() {
         return delivering.get() > 0;
-    }
-
-    private void deliver(PageRow row) {
-        Page page = page(row).withLink(senders.consoleUrl());
-        Answer answer = senders.sender(row.channel())
-                .map(s -> send(s, page))
-                .orElseGet(() -> Answer.refused("no channel named '" + row.channel() + "' is defined in tend.yaml"));
-        record(row, page, answer);
     }
 
     private static Answer send(PageSender s, Page page) {
@@ -154,8 +187,51 @@ public final class Courier implements AutoCloseable {
         }
     }
 
-    private void record(PageRow row, Page page, Answer answer) {
-        Instant now = clock.instant();
+    /**
+     * Writes every attempt waiting, in one transaction per round, and releases their pages:
+     * a sender thread that finds another one writing leaves its attempt to it (that thread
+     * looks again once it has written), so that pages sent together are recorded together
+     * (on a busy store, one transaction per page took the writer from the journal's commits
+     * once per page). Attempts a failed transaction did not record are released unrecorded:
+     * their pages are due again, and go out again with the same id, as after a crash.
+     */
+    private void recordAttempts() {
+        while (!attempts.isEmpty() && recording.tryLock()) {
+            List<Attempt> round = new ArrayList<>();
+            try {
+                for (Attempt a; (a = attempts.poll()) != null; ) round.add(a);
+                if (round.isEmpty()) continue;
+                List<Outcome> outcomes = new ArrayList<>(round.size());
+                for (Attempt a : round) outcomes.add(outcome(a));
+                store.useTransaction(tx -> {
+                    for (Outcome o : outcomes) {
+                        tx.updatePage(o.next());
+                        tx.appendLedger(o.at(), o.kind().wire(), o.kind().check(o.fields()));
+                    }
+                });
+                for (Outcome o : outcomes) listener.attempted(o.next().channel(), o.said());
+            } catch (RuntimeException e) {
+                // the store is busy or closing: these pages stay due and are sent again; the outbox is durable
+            } finally {
+                for (Attempt a : round) release(a.row());
+                recording.unlock();
+            }
+        }
+    }
+
+    /** A page sent and the receiver's answer, waiting to be recorded. */
+    private record Attempt(PageRow row, Page page, Answer answer, Instant at) {
+    }
+
+    /** What recording an attempt writes: the outbox row, the ledger entry, and the outcome told to the listener. */
+    private record Outcome(PageRow next, LedgerKind kind, Map<String, Object> fields, Instant at, String said) {
+    }
+
+    private Outcome outcome(Attempt a) {
+        PageRow row = a.row();
+        Page page = a.page();
+        Answer answer = a.answer();
+        Instant now = a.at();
         int attempt = row.attempts() + 1;
         Map<String, Object> f = new LinkedHashMap<>();
         f.put("id", row.id());
@@ -165,33 +241,16 @@ public final class Courier implements AutoCloseable {
         f.put("attempt", attempt);
         f.put("answer", answer.text());
         if (!answer.tries().isEmpty()) f.put("tries", answer.tries());
-        PageRow next;
-        LedgerKind kind;
-        String outcome;
         if (answer.outcome() == Answer.Outcome.ACCEPTED) {
-            next = row.ended(PageRow.DELIVERED, now, answer.text());
-            kind = LedgerKind.NOTIFICATION_DELIVERED;
-            outcome = "delivered";
-        } else {
-            Instant retryAt = now.plus(pause(attempt));
-            boolean giveUp = answer.outcome() == Answer.Outcome.REFUSED
-                    || retryAt.isAfter(row.createdAt().plus(senders.giveUpAfter(row.channel())));
-            kind = LedgerKind.NOTIFICATION_FAILED;
-            f.put("final", giveUp);
-            if (giveUp) {
-                next = row.ended(PageRow.FAILED, now, answer.text());
-                outcome = "failed";
-            } else {
-                next = row.retryAt(retryAt, answer.text());
-                f.put("retry_at", retryAt.toString());
-                outcome = "retry";
-            }
+            return new Outcome(row.ended(PageRow.DELIVERED, now, answer.text()), LedgerKind.NOTIFICATION_DELIVERED, f, now, "delivered");
         }
-        store.useTransaction(tx -> {
-            tx.updatePage(next);
-            tx.appendLedger(now, kind.wire(), kind.check(f));
-        });
-        listener.attempted(row.channel(), outcome);
+        Instant retryAt = now.plus(pause(attempt));
+        boolean giveUp = answer.outcome() == Answer.Outcome.REFUSED
+                || retryAt.isAfter(row.createdAt().plus(senders.giveUpAfter(row.channel())));
+        f.put("final", giveUp);
+        if (giveUp) return new Outcome(row.ended(PageRow.FAILED, now, answer.text()), LedgerKind.NOTIFICATION_FAILED, f, now, "failed");
+        f.put("retry_at", retryAt.toString());
+        return new Outcome(row.retryAt(retryAt, answer.text()), LedgerKind.NOTIFICATION_FAILED, f, now, "retry");
     }
 
     private Duration pause(int attempt) {
@@ -230,5 +289,6 @@ public final class Courier implements AutoCloseable {
                 Thread.currentThread().interrupt();
             }
         }
+        recordAttempts(); // an attempt a sender left to a thread that stopped before writing it
     }
 }

@@ -108,7 +108,7 @@ public final class Store implements AutoCloseable {
             long epoch = fence;
             HandleCallback<T, RuntimeException> body = handle -> {
                 if (epoch >= 0) LeaderLease.check(handle, location(), epoch);
-                JdbiTx tx = new JdbiTx(handle, location(), heads, statements);
+                JdbiTx tx = new JdbiTx(handle, location(), heads, statements, db.dialect() == Dialect.SQLITE);
                 try {
                     T r = work.apply(tx);
                     tx.flush();

@@ -146,7 +146,14 @@ public final class CanonicalJson {
     /** RFC 8785 section 3.2.2.2: the minimal escapes, everything else as is. */
     static void writeString(StringBuilder sb, String s) {
         sb.append('"');
-        for (int i = 0; i < s.length(); i++) {
+        int plain = plainPrefix(s);
+        if (plain == s.length()) {
+            // nothing to escape (nearly every key and value of a ledger entry): one copy instead of a call per char
+            sb.append(s).append('"');
+            return;
+        }
+        sb.append(s, 0, plain);
+        for (int i = plain; i < s.length(); i++) {
             char c = s.charAt(i);
             switch (c) {
                 case '"' -> sb.append("\\\"");
@@ -163,6 +170,16 @@ public final class CanonicalJson {
             }
         }
         sb.append('"');
+    }
+
+    /** How many chars of {@code s} from the start need no escape. */
+    private static int plainPrefix(String s) {
+        int n = s.length();
+        for (int i = 0; i < n; i++) {
+            char c = s.charAt(i);
+            if (c < 0x20 || c == '"' || c == '\\') return i;
+        }
+        return n;
     }
 
     /**

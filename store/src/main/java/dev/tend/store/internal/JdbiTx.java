@@ -26,8 +26,8 @@ import java.util.Objects;
  */
 public final class JdbiTx extends JdbiReader implements StoreTx {
     static final int BATCH = 2048;
-    private static final String INSERT_INPUT = "INSERT INTO input_journal (" + Rows.INPUT_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?)";
-    private static final String INSERT_LEDGER = "INSERT INTO ledger (" + Rows.LEDGER_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)";
+    private static final RowInserts<InputRow> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, JdbiTx::bindInput);
+    private static final RowInserts<LedgerEntry> LEDGER = new RowInserts<>("ledger", Rows.LEDGER_COLUMNS, 9, JdbiTx::bindLedger);
     private static final String UPDATE_HEAD = "UPDATE ledger_head SET seq = ?, hash = ? WHERE id = 1";
     private static final String ARM_TIMER = "INSERT INTO timers (" + Rows.TIMER_COLUMNS + ") VALUES (?, ?, ?) "
             + "ON CONFLICT (timer_key) DO UPDATE SET due_ns = excluded.due_ns, payload = excluded.payload";
@@ -35,15 +35,18 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
 
     private final HeadCache headCache;
     private final StatementCache statements;
+    /** Journal rows and ledger entries go as multi-row statements (SQLite; see {@link RowInserts}). */
+    private final boolean multiRow;
     private final List<InputRow> pendingInputs = new ArrayList<>();
     private final List<LedgerEntry> pendingLedger = new ArrayList<>();
     private Heads heads;
     private boolean ledgerHeadDirty;
 
-    public JdbiTx(Handle handle, String location, HeadCache headCache, StatementCache statements) {
+    public JdbiTx(Handle handle, String location, HeadCache headCache, StatementCache statements, boolean multiRow) {
         super(handle, location);
         this.headCache = headCache;
         this.statements = statements;
+        this.multiRow = multiRow;
     }
 
     /** The tails after this transaction's appends; null when it appended nothing. */
@@ -60,21 +63,9 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     /** Sends the batched appends and moves the ledger_head row. */
     public void flush() {
         if (!pendingInputs.isEmpty()) {
-            // the hot path of ingest: a plain JDBC batch on the transaction's connection, no per-argument mapping
+            // the hot path of ingest: plain JDBC on the transaction's connection, no per-argument mapping
             try {
-                java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), INSERT_INPUT);
-                for (InputRow r : pendingInputs) {
-                    ps.setLong(1, r.seq());
-                    ps.setString(2, r.kind());
-                    ps.setLong(3, Times.nanos(r.now(), "InputRow.now"));
-                    if (r.eventAt() == null) ps.setNull(4, java.sql.Types.BIGINT);
-                    else ps.setLong(4, Times.nanos(r.eventAt(), "InputRow.eventAt"));
-                    if (r.cluster() == null) ps.setNull(5, java.sql.Types.VARCHAR);
-                    else ps.setString(5, r.cluster());
-                    ps.setString(6, r.payload());
-                    ps.addBatch();
-                }
-                ps.executeBatch();
+                INPUTS.insert(statements, handle.getConnection(), pendingInputs, multiRow);
             } catch (java.sql.SQLException e) {
                 throw new org.jdbi.v3.core.ConnectionException(e);
             }
@@ -84,20 +75,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
             // plain JDBC on statements kept prepared: the ledger's share of every commit
             try {
                 if (!pendingLedger.isEmpty()) {
-                    java.sql.PreparedStatement ps = statements.prepare(handle.getConnection(), INSERT_LEDGER);
-                    for (LedgerEntry e : pendingLedger) {
-                        ps.setLong(1, e.seq());
-                        ps.setLong(2, Times.nanos(e.at(), "LedgerDraft.at"));
-                        ps.setString(3, e.kind());
-                        text(ps, 4, e.cluster());
-                        text(ps, 5, e.playbook());
-                        text(ps, 6, e.run());
-                        ps.setString(7, e.entry());
-                        ps.setString(8, e.prevHash());
-                        ps.setString(9, e.hash());
-                        ps.addBatch();
-                    }
-                    ps.executeBatch();
+                    LEDGER.insert(statements, handle.getConnection(), pendingLedger, multiRow);
                     pendingLedger.clear();
                 }
                 if (ledgerHeadDirty) {
@@ -111,6 +89,28 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
                 throw new org.jdbi.v3.core.ConnectionException(e);
             }
         }
+    }
+
+    private static void bindInput(java.sql.PreparedStatement ps, int first, InputRow r) throws java.sql.SQLException {
+        ps.setLong(first + 1, r.seq());
+        ps.setString(first + 2, r.kind());
+        ps.setLong(first + 3, Times.nanos(r.now(), "InputRow.now"));
+        if (r.eventAt() == null) ps.setNull(first + 4, java.sql.Types.BIGINT);
+        else ps.setLong(first + 4, Times.nanos(r.eventAt(), "InputRow.eventAt"));
+        text(ps, first + 5, r.cluster());
+        ps.setString(first + 6, r.payload());
+    }
+
+    private static void bindLedger(java.sql.PreparedStatement ps, int first, LedgerEntry e) throws java.sql.SQLException {
+        ps.setLong(first + 1, e.seq());
+        ps.setLong(first + 2, Times.nanos(e.at(), "LedgerDraft.at"));
+        ps.setString(first + 3, e.kind());
+        text(ps, first + 4, e.cluster());
+        text(ps, first + 5, e.playbook());
+        text(ps, first + 6, e.run());
+        ps.setString(first + 7, e.entry());
+        ps.setString(first + 8, e.prevHash());
+        ps.setString(first + 9, e.hash());
     }
 
     static void text(java.sql.PreparedStatement ps, int i, String value) throws java.sql.SQLException {
