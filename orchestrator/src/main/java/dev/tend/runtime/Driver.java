@@ -197,7 +197,7 @@ final class Driver {
             // the batch in flight failed and was redone input by input; next was decided on what never became durable
             retryOneByOne(next.inputs(), next.queued());
         } else if (next.size() < PIPELINE_FROM || inbox.isEmpty()
-                || snapshotDue(next.size())) {
+                || snapshotPolicy.isDue(sinceSnapshot + next.size(), engine.health().signalCount())) {
             // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
             try {
                 commit(next);
@@ -210,16 +210,8 @@ final class Driver {
             inFlight = next;
             inFlightCommit = committer.start(() -> commit(next));
         }
-        if (inFlight == null && snapshotDue(0)) writeSnapshot();
-    }
-
-    /**
-     * True when a snapshot is due once {@code more} inputs are decided: the policy's interval
-     * for the signals the engine knows now (a count, cheap to read every batch).
-     */
-    private boolean snapshotDue(int more) {
-        if (!snapshotPolicy.isEnabled()) return false;
-        return sinceSnapshot + more >= snapshotPolicy.intervalFor(engine.health().signalCount());
+        // the signal count is a field of the health view, cheap to read every batch
+        if (inFlight == null && snapshotPolicy.isDue(sinceSnapshot, engine.health().signalCount())) writeSnapshot();
     }
 
     /** Lets the engine decide {@code batch} after the batch in flight, if any; writes and performs nothing. */

@@ -55,6 +55,14 @@ public record SnapshotPolicy(int every, boolean followsState) {
         return Math.min(CAP, Math.max(FLOOR, (long) PER_SIGNAL * signals));
     }
 
+    /**
+     * True when a snapshot is due after {@code inputs} inputs since the last one, while the
+     * health view knows {@code signals} signals; never when snapshots are off.
+     */
+    public boolean isDue(long inputs, int signals) {
+        return isEnabled() && inputs >= intervalFor(signals);
+    }
+
     @Override
     public String toString() {
         return followsState ? "scaled (" + PER_SIGNAL + " inputs a signal, " + FLOOR + " to " + CAP + ")"

@@ -35,6 +35,18 @@ class SnapshotPolicyTest {
     }
 
     @Test
+    void aSnapshotIsDueOnceTheIntervalForTheSignalsKnownIsReached() {
+        // 56,000 signals: 280,000 inputs a signal would take, held at the cap of 200,000
+        assertThat(SnapshotPolicy.scaled().isDue(199_999, 56_000)).isFalse();
+        assertThat(SnapshotPolicy.scaled().isDue(200_000, 56_000)).isTrue();
+        // 2,000 signals: 10,000, raised to the floor of 50,000
+        assertThat(SnapshotPolicy.scaled().isDue(49_999, 2_000)).isFalse();
+        assertThat(SnapshotPolicy.scaled().isDue(50_000, 2_000)).isTrue();
+        assertThat(SnapshotPolicy.every(3).isDue(3, 56_000)).isTrue();
+        assertThat(SnapshotPolicy.every(0).isDue(Long.MAX_VALUE, 56_000)).as("never when off").isFalse();
+    }
+
+    @Test
     void zeroMeansNever() {
         assertThat(SnapshotPolicy.every(0).isEnabled()).isFalse();
         assertThat(SnapshotPolicy.every(0).toString()).isEqualTo("never");
