@@ -210,7 +210,6 @@ final class Driver {
             inFlight = next;
             inFlightCommit = committer.start(() -> commit(next));
         }
-        // the signal count is a field of the health view, cheap to read every batch
         if (inFlight == null && snapshotPolicy.isDue(sinceSnapshot, engine.health().signalCount())) writeSnapshot();
     }
 

@@ -83,7 +83,6 @@ public final class Database implements AutoCloseable {
         String url = "jdbc:sqlite:" + path;
         SQLiteConfig writerConfig = sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE);
         writerConfig.setWalAutocheckpoint(0); // the checkpointer's thread copies the log, not the committing one
-        writerConfig.setCacheSize(Integer.getInteger("tend.cache", -2000));
         SQLiteDataSource writerSource = new SQLiteDataSource(writerConfig);
         writerSource.setUrl(url);
         SQLiteDataSource checkpointSource = new SQLiteDataSource(sqliteConfig(SQLiteConfig.TransactionMode.DEFERRED));

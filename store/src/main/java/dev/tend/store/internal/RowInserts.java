@@ -43,11 +43,6 @@ final class RowInserts<T> {
         this.manyRows = head + String.join(", ", java.util.Collections.nCopies(ROWS_PER_STATEMENT, values));
     }
 
-    /** The single-row statement's SQL. */
-    String oneRowSql() {
-        return oneRow;
-    }
-
     /** Inserts {@code rows}, in their order, on {@code connection}; {@code multiRow} on SQLite. */
     void insert(StatementCache statements, Connection connection, List<T> rows, boolean multiRow) throws SQLException {
         int i = 0;
