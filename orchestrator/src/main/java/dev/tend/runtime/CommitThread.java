@@ -5,15 +5,19 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 
 /**
- * The thread that commits a decided batch while the driver decides the next one (see
- * {@link Orchestrator}): one commit at a time, in the order handed over. Its thread is a
+ * The thread that commits decided batches while the driver decides the next ones (see
+ * {@link CommitPipeline}): one commit at a time, in the order handed over. Its thread is a
  * daemon, started at the first commit and ended by {@link #close()}.
  */
 final class CommitThread implements AutoCloseable {
     private ExecutorService thread;
 
-    /** Runs {@code commit} on the committing thread; the future ends as it does (its failure as the cause). */
-    CompletableFuture<Void> start(Runnable commit) {
+    /**
+     * Runs {@code commit} on the committing thread once {@code after} (null: nothing) has
+     * completed; the future ends as the commit does (its failure as the cause), or, when
+     * {@code after} failed, with that failure and without running the commit.
+     */
+    CompletableFuture<Void> start(CompletableFuture<Void> after, Runnable commit) {
         if (thread == null) {
             thread = Executors.newSingleThreadExecutor(r -> {
                 Thread t = new Thread(r, "tend-commit");
@@ -21,7 +25,7 @@ final class CommitThread implements AutoCloseable {
                 return t;
             });
         }
-        return CompletableFuture.runAsync(commit, thread);
+        return after == null ? CompletableFuture.runAsync(commit, thread) : after.thenRunAsync(commit, thread);
     }
 
     /**

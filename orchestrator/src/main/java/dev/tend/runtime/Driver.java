@@ -14,15 +14,14 @@ import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.concurrent.CompletableFuture;
 import java.util.function.BooleanSupplier;
 
 /**
  * The {@link Orchestrator}'s driver loop: takes inputs in order, lets the engine decide a
  * batch, commits the journal rows, ledger entries and projections of the batch in one
  * transaction ({@link CommitWriter}), and only after that commit performs the batch's side
- * effects. Batches are decided on the driver thread while the batch before is committed on
- * the {@link CommitThread}; an input that cannot be decided or kept takes its batch apart.
+ * effects. Batches are decided on the driver thread while the batches before are committed
+ * on the {@link CommitPipeline}; an input that cannot be decided or kept takes its batch apart.
  */
 final class Driver {
     private static final int BATCH = 2000;
@@ -60,10 +59,8 @@ final class Driver {
     /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
     private volatile CheckpointWriter checkpoints;
     private final CommitWriter writer;
-    private final CommitThread committer = new CommitThread();
-    /** The batch being committed on {@link #committer} while the next one is decided; null when none. */
-    private DecidedBatch inFlight;
-    private CompletableFuture<Void> inFlightCommit;
+    /** The batches being committed while the next one is decided. */
+    private final CommitPipeline pipeline = new CommitPipeline();
 
     Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, SnapshotPolicy snapshotPolicy,
            Inbox inbox, EffectRunner effects, Waiters waiters) {
@@ -131,14 +128,14 @@ final class Driver {
         boolean failed = true;
         try {
             loop(done);
-            settle(List.of()); // stopped with a batch in flight: it is committed and acted on first
+            settle(0, List.of()); // stopped with batches in flight: they are committed and acted on first
             failed = false;
             // a clean stop: the next start loads this state and replays nothing
             if (snapshotPolicy.isEnabled() && sinceSnapshot > 0) writeSnapshot();
             snapshots.collect(true);
         } finally {
             abandonInFlight();
-            committer.close();
+            pipeline.close();
             CheckpointWriter w = checkpoints;
             if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
         }
@@ -147,7 +144,7 @@ final class Driver {
     /**
      * Writes the engine's state, with the progress of the inputs read from files, as the
      * snapshot after the newest journal row (everything decided is committed: the driver calls
-     * it between batches with no batch in flight).
+     * it between batches with none in flight).
      */
     private void writeSnapshot() {
         if (snapshots.write(engine, source, sourceDone, clock.instant())) sinceSnapshot = 0;
@@ -157,9 +154,10 @@ final class Driver {
      * Group commit that waits on work, not on timers: a batch is whatever waits when the
      * driver looks (up to {@link #BATCH}). An input arriving at an idle driver is decided and
      * committed at once, on the driver thread. When more is waiting, the batch is committed on
-     * the {@link CommitThread} while the driver decides the next one (on the engine's state
-     * after it); the driver then waits for that commit and only then performs its effects, so
-     * side effects follow their commit, in batch order, with one batch in flight at most.
+     * the {@link CommitPipeline} while the driver decides the next ones (on the engine's state
+     * after them); the driver waits for a commit and only then performs its batch's effects,
+     * so side effects follow their commit, in batch order, with {@link CommitPipeline#DEPTH}
+     * batches in flight at most.
      */
     private void loop(BooleanSupplier done) throws InterruptedException {
         while (!stopping) {
@@ -167,8 +165,8 @@ final class Driver {
             java.util.BitSet queued = new java.util.BitSet(BATCH);
             inbox.drainTo(batch, queued, BATCH);
             if (batch.isEmpty()) {
-                if (inFlight != null) {
-                    settle(List.of()); // nothing more to decide: act on the batch being committed
+                if (!pipeline.isEmpty()) {
+                    settle(0, List.of()); // nothing more to decide: act on the batches being committed
                     continue;
                 }
                 if (done.getAsBoolean() && inbox.isEmpty()) return;
@@ -193,12 +191,14 @@ final class Driver {
             takeApart(batch, queued);
             return;
         }
-        if (!settle(next.inputs())) {
-            // the batch in flight failed and was redone input by input; next was decided on what never became durable
+        // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
+        boolean now = next.size() < PIPELINE_FROM || inbox.isEmpty()
+                || snapshotPolicy.isDue(sinceSnapshot + pipeline.inputs() + next.size(), engine.health().signalCount());
+        // committed here, every batch before it must be; handed over, one must make room
+        if (!settle(now ? 0 : CommitPipeline.DEPTH - 1, next.inputs())) {
+            // a batch in flight failed and was redone input by input; next was decided on what never became durable
             retryOneByOne(next.inputs(), next.queued());
-        } else if (next.size() < PIPELINE_FROM || inbox.isEmpty()
-                || snapshotPolicy.isDue(sinceSnapshot + next.size(), engine.health().signalCount())) {
-            // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
+        } else if (now) {
             try {
                 commit(next);
             } catch (RuntimeException e) {
@@ -207,13 +207,12 @@ final class Driver {
             }
             finish(next);
         } else {
-            inFlight = next;
-            inFlightCommit = committer.start(() -> commit(next));
+            pipeline.start(next, this::commit);
         }
-        if (inFlight == null && snapshotPolicy.isDue(sinceSnapshot, engine.health().signalCount())) writeSnapshot();
+        if (pipeline.isEmpty() && snapshotPolicy.isDue(sinceSnapshot, engine.health().signalCount())) writeSnapshot();
     }
 
-    /** Lets the engine decide {@code batch} after the batch in flight, if any; writes and performs nothing. */
+    /** Lets the engine decide {@code batch} after the batches in flight, if any; writes and performs nothing. */
     private DecidedBatch decide(List<Input> batch, java.util.BitSet queued) {
         List<Effect> all = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
@@ -227,7 +226,7 @@ final class Driver {
             perInput.add(fx);
             if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) reportCleared(r, batch);
         }
-        long before = inFlight != null ? inFlight.sourceAfter() : sourceDone;
+        long before = pipeline.sourceAfter(sourceDone);
         long after = before + queued.cardinality();
         InputRow progress = source != null && after > before ? SourceProgress.row(source, after, times.get(times.size() - 1)) : null;
         return new DecidedBatch(batch, queued, progress, times, perInput, all, after, waiters.reached(batch));
@@ -256,46 +255,47 @@ final class Driver {
     }
 
     /**
-     * Waits for the batch in flight (if any) to be committed and acts on it; true when it was
-     * (or none was in flight). When its commit failed, it is redone input by input on an engine
-     * rebuilt from the journal, and false says that {@code decidedAfter}, decided on its
-     * state, must be redone too (see {@link #redo}).
+     * Waits for the oldest batches in flight to be committed, until {@code keep} remain, and
+     * acts on each; true when they were. When a commit failed, that batch and the ones after
+     * it (decided on its state, and not written) are redone input by input on an engine
+     * rebuilt from the journal, and false says that {@code decidedAfter} must be redone too.
      */
-    private boolean settle(List<Input> decidedAfter) {
-        DecidedBatch b = inFlight;
-        if (b == null) return true;
-        RuntimeException failed = awaitInFlight();
-        if (failed != null) {
-            redo(b, failed, decidedAfter);
-            return false;
+    private boolean settle(int keep, List<Input> decidedAfter) {
+        while (pipeline.size() > keep) {
+            CommitPipeline.Settled s = pipeline.takeOldest();
+            if (s.failure() != null) {
+                redoFrom(s, pipeline.takeAll(), decidedAfter);
+                return false;
+            }
+            finish(s.batch());
         }
-        finish(b);
         return true;
     }
 
-    /** Waits for the batch in flight to be committed and clears it; returns its commit's failure, or null. */
-    private RuntimeException awaitInFlight() {
-        CompletableFuture<Void> commit = inFlightCommit;
-        inFlight = null;
-        inFlightCommit = null;
-        return CommitThread.outcome(commit);
+    /** {@code failed}'s commit failed: it and {@code later} are redone (see {@link #redo}). */
+    private void redoFrom(CommitPipeline.Settled failed, List<CommitPipeline.Settled> later, List<Input> decidedAfter) {
+        List<Input> after = new ArrayList<>();
+        for (CommitPipeline.Settled s : later) after.addAll(s.batch().inputs());
+        after.addAll(decidedAfter);
+        redo(failed.batch(), failed.failure(), after);
+        for (CommitPipeline.Settled s : later) retryOneByOne(s.batch().inputs(), s.batch().queued());
     }
 
     /**
-     * After {@code batch} could not be decided, part-way: the batch in flight is settled on
-     * an engine rebuilt from the journal (its listener must not see the part-way state), then
+     * After {@code batch} could not be decided, part-way: the batches in flight are settled on
+     * an engine rebuilt from the journal (their listener must not see the part-way state), then
      * {@code batch} is taken apart.
      */
     private void takeApart(List<Input> batch, java.util.BitSet queued) {
-        DecidedBatch before = inFlight;
-        if (before != null) {
-            RuntimeException failed = awaitInFlight();
-            if (failed != null) {
-                redo(before, failed, batch);
-            } else {
-                rebuild();
-                finish(before);
+        List<CommitPipeline.Settled> before = pipeline.takeAll();
+        if (!before.isEmpty()) rebuild();
+        for (int i = 0; i < before.size(); i++) {
+            CommitPipeline.Settled s = before.get(i);
+            if (s.failure() != null) {
+                redoFrom(s, before.subList(i + 1, before.size()), batch);
+                break;
             }
+            finish(s.batch());
         }
         retryOneByOne(batch, queued);
     }
@@ -315,18 +315,18 @@ final class Driver {
     }
 
     /**
-     * The driver fails with a batch in flight (a listener or a checkpoint threw): its commit
-     * is waited for, so that nothing writes to the store once {@link #run} has returned.
-     * Its effects are not performed (the next start arms what it committed, as after a crash)
-     * and its callers are told so.
+     * The driver fails with batches in flight (a listener or a checkpoint threw): their commits
+     * are waited for, so that nothing writes to the store once {@link #run} has returned.
+     * Their effects are not performed (the next start arms what was committed, as after a
+     * crash) and their callers are told so.
      */
     private void abandonInFlight() {
-        DecidedBatch b = inFlight;
-        if (b == null) return;
-        RuntimeException failed = awaitInFlight();
-        TendException stopped = new TendException("tend stopped before acting on this input"
-                + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
-        for (Input in : b.inputs()) waiters.failed(in, stopped);
+        for (CommitPipeline.Settled s : pipeline.takeAll()) {
+            RuntimeException failed = s.failure();
+            TendException stopped = new TendException("tend stopped before acting on this input"
+                    + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
+            for (Input in : s.batch().inputs()) waiters.failed(in, stopped);
+        }
     }
 
     /**

@@ -32,25 +32,55 @@ import java.util.function.Consumer;
 import static org.assertj.core.api.Assertions.assertThat;
 
 /**
- * The driver commits a batch on a thread of its own while it decides the next one: every
- * side effect still follows its own commit, in the order of the inputs, and a commit that
- * fails with the next batch already decided has both redone input by input.
+ * The driver commits batches on a thread of its own while it decides the next ones (two in
+ * flight at most): every side effect still follows its own commit, in the order of the
+ * inputs, and a commit that fails with later batches already decided has them all redone
+ * input by input, while the batches committed before it keep their effects.
  */
 class PipelinedCommitTest {
-    /** More than two of the driver's batches (2,000 inputs each), all queued before it starts. */
-    private static final int INPUTS = 4500;
+    /** Four of the driver's batches (2,000 inputs each) and a smaller one, all queued before it starts. */
+    private static final int INPUTS = 8500;
     private static final Instant AT = Instant.parse("2027-03-14T02:00:00Z");
 
     @TempDir
     Path dir;
 
     @Test
-    void aCommitThatFailsWhileTheNextBatchIsDecidedHasBothRedoneOneByOneAndNoEffectPrecedesItsCommit() throws Exception {
+    void aCommitThatFailsWhileLaterBatchesAreDecidedHasThemAllRedoneOneByOneAndNoEffectPrecedesItsCommit() throws Exception {
         List<Input> inputs = transitions();
-        // past 2262-04-11, the last instant the store's nanosecond times can hold: the first batch's commit fails
+        Told told = failingAt(1000, inputs);
+        // the failed first batch, the one waiting behind it and the one decided meanwhile: one input at a time
+        assertThat(told.callSizeOf(inputs.get(0))).isEqualTo(1);
+        assertThat(told.callSizeOf(inputs.get(3999))).isEqualTo(1);
+        assertThat(told.callSizeOf(inputs.get(5900))).isEqualTo(1);
+        // then batches again
+        assertThat(told.callSizeOf(inputs.get(6100))).isGreaterThan(1);
+        assertThat(told.callSizeOf(inputs.get(8499))).isGreaterThan(1);
+    }
+
+    @Test
+    void aCommitThatFailsBehindACommittedBatchLeavesThatBatchCommittedAndRedoesTheRest() throws Exception {
+        List<Input> inputs = transitions();
+        Told told = failingAt(3000, inputs);
+        // the first batch was committed whole and acted on before the second failed
+        assertThat(told.callSizeOf(inputs.get(0))).isGreaterThan(1);
+        assertThat(told.callSizeOf(inputs.get(1900))).isGreaterThan(1);
+        // the failed second batch, the one behind it and the one decided meanwhile: one input at a time
+        assertThat(told.callSizeOf(inputs.get(2100))).isEqualTo(1);
+        assertThat(told.callSizeOf(inputs.get(5000))).isEqualTo(1);
+        assertThat(told.callSizeOf(inputs.get(7900))).isEqualTo(1);
+        assertThat(told.callSizeOf(inputs.get(8499))).isGreaterThan(1);
+    }
+
+    /**
+     * Runs {@code inputs} with the one at {@code badAt} replaced by a transition whose commit
+     * fails, checks what every case must hold, and returns what the listener was told.
+     */
+    private Told failingAt(int badAt, List<Input> inputs) throws Exception {
+        // past 2262-04-11, the last instant the store's nanosecond times can hold: its batch's commit fails
         Input bad = new Input.Transition(HealthTransition.of(Instant.parse("2263-01-01T00:00:00Z"), "fares-2", "n1",
                 "heartbeat", SignalState.SILENT));
-        inputs.set(1000, bad);
+        inputs.set(badAt, bad);
         Told told = new Told();
         try (Store store = Store.openSqlite(dir.resolve("tend.db")); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
              QuartzTimers quartz = new QuartzTimers()) {
@@ -76,10 +106,6 @@ class PipelinedCommitTest {
             List<Input> expected = new ArrayList<>(inputs);
             expected.remove(bad);
             assertThat(told.transitionsIn(Set.copyOf(expected))).as("told in the order queued").isEqualTo(expected);
-            // the first two batches (the failed one and the one decided on its state) were told one input at a time
-            assertThat(told.callSizeOf(inputs.get(0))).isEqualTo(1);
-            assertThat(told.callSizeOf(inputs.get(3999))).isEqualTo(1);
-            assertThat(told.callSizeOf(inputs.get(4499))).isGreaterThan(1);
             assertThat(answered).allSatisfy(f -> assertThat(f).isCompleted());
             assertThat(checked.calls).as("executor calls checked").isPositive();
             assertThat(checked.arms).as("timers armed checked").isPositive();
@@ -94,6 +120,7 @@ class PipelinedCommitTest {
             assertThat(kinds).containsOnlyOnce("input-refused").contains("run-started");
             assertThat(store.read(StoreReader::verifyLedger).ok()).isTrue();
         }
+        return told;
     }
 
     @Test
