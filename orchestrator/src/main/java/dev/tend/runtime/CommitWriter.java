@@ -27,18 +27,17 @@ final class CommitWriter {
         this.waiters = waiters;
     }
 
-    /** A whole batch: input {@code i} was decided at {@code times[i]} with {@code perInput[i]}. */
-    void batch(List<Input> batch, List<InputRow> rows, List<Instant> times, List<List<Effect>> perInput,
-               Map<StreamPosition, Long> reached) {
+    /** A whole batch, journaled as {@code rows}: input {@code i} was decided at {@code times[i]} with {@code perInput[i]}. */
+    void batch(DecidedBatch b, List<InputRow> rows) {
         List<LedgerDraft> ledger = new ArrayList<>();
         store.useTransaction(tx -> {
             tx.appendInputs(rows);
-            for (int i = 0; i < perInput.size(); i++) {
-                Projections.apply(tx, times.get(i), perInput.get(i), ledger);
-                if (waiters.hasReceipts()) waiters.receiptInto(batch.get(i), times.get(i), ledger);
+            for (int i = 0; i < b.size(); i++) {
+                Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger);
+                if (waiters.hasReceipts()) waiters.receiptInto(b.inputs().get(i), b.times().get(i), ledger);
             }
             tx.appendLedger(ledger);
-            reached.forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
+            b.reached().forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
         });
     }
 

@@ -217,6 +217,7 @@ final class Driver {
         List<Effect> all = new ArrayList<>();
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
+        List<Projections.Prepared> prepared = new ArrayList<>(batch.size());
         for (int i = 0; i < batch.size(); i++) {
             Input in = batch.get(i);
             Instant now = clock.instant();
@@ -224,12 +225,13 @@ final class Driver {
             all.addAll(fx);
             times.add(now);
             perInput.add(fx);
+            prepared.add(Projections.Prepared.of(now, fx));
             if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) reportCleared(r, batch);
         }
         long before = pipeline.sourceAfter(sourceDone);
         long after = before + queued.cardinality();
         InputRow progress = source != null && after > before ? SourceProgress.row(source, after, times.get(times.size() - 1)) : null;
-        return new DecidedBatch(batch, queued, progress, times, perInput, all, after, waiters.reached(batch));
+        return new DecidedBatch(batch, queued, progress, times, perInput, prepared, all, after, waiters.reached(batch));
     }
 
     /**
@@ -241,7 +243,7 @@ final class Driver {
         List<InputRow> rows = new ArrayList<>(b.size() + 1);
         for (int i = 0; i < b.size(); i++) rows.add(InputCodec.encode(b.inputs().get(i), b.times().get(i)));
         if (b.progress() != null) rows.add(b.progress());
-        writer.batch(b.inputs(), rows, b.times(), b.perInput(), b.reached());
+        writer.batch(b, rows);
     }
 
     /** Acts on a committed batch: its side effects, the listener, its waiting callers. */

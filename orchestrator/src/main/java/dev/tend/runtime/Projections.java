@@ -20,6 +20,7 @@ import dev.tend.store.StoreTx;
 import dev.tend.store.TimerRow;
 
 import java.time.Instant;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -36,26 +37,57 @@ final class Projections {
     private Projections() {
     }
 
+    /**
+     * What an input's effects write that needs no transaction, made ahead: their ledger
+     * drafts, rendered (notifications included), and the pages they put in the outbox, each
+     * in the order of the effects. The driver prepares a batch while the batch before is
+     * written, so that the committing thread, which every commit waits for, only writes.
+     */
+    record Prepared(List<LedgerDraft> ledger, List<PageRow> pages) {
+        static Prepared of(Instant at, List<Effect> effects) {
+            List<LedgerDraft> ledger = new ArrayList<>(2);
+            List<PageRow> pages = List.of();
+            for (Effect e : effects) {
+                if (e instanceof Effect.Ledger l) {
+                    ledger.add(new LedgerDraft(at, l.kind(), l.fields()).render());
+                } else if (e instanceof Effect.Notify n) {
+                    Map<String, Object> f = new LinkedHashMap<>(n.fields());
+                    f.put("id", n.id());
+                    f.put("page_kind", n.kind());
+                    f.put("channel", n.channel());
+                    f.put("message", n.message());
+                    ledger.add(new LedgerDraft(at, LedgerKind.NOTIFICATION.wire(), LedgerKind.NOTIFICATION.check(f)).render());
+                    Map<String, Object> payload = new LinkedHashMap<>();
+                    payload.put("id", n.id());
+                    payload.put("channel", n.channel());
+                    payload.put("at", dev.tend.engine.Effects.normalise(at));
+                    payload.put("kind", n.kind());
+                    payload.put("message", n.message());
+                    n.fields().forEach(payload::putIfAbsent);
+                    if (pages.isEmpty()) pages = new ArrayList<>(1);
+                    pages.add(PageRow.pending(n.id(), n.channel(), at, json(payload)));
+                }
+            }
+            return new Prepared(ledger, pages);
+        }
+    }
+
+    /** {@link #apply(StoreTx, Instant, List, Prepared, List)} with what it writes prepared here. */
     static void apply(StoreTx tx, Instant at, List<Effect> effects, List<LedgerDraft> ledger) {
+        apply(tx, at, effects, Prepared.of(at, effects), ledger);
+    }
+
+    /** Writes {@code effects} (prepared as {@code prepared}), adding their ledger drafts to {@code ledger}. */
+    static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger) {
+        int drafts = 0;
+        int pages = 0;
         for (Effect e : effects) {
-            if (e instanceof Effect.Ledger l) {
-                ledger.add(new LedgerDraft(at, l.kind(), l.fields()));
-            } else if (e instanceof Effect.Notify n) {
-                Map<String, Object> f = new LinkedHashMap<>(n.fields());
-                f.put("id", n.id());
-                f.put("page_kind", n.kind());
-                f.put("channel", n.channel());
-                f.put("message", n.message());
-                ledger.add(new LedgerDraft(at, LedgerKind.NOTIFICATION.wire(), LedgerKind.NOTIFICATION.check(f)));
+            if (e instanceof Effect.Ledger) {
+                ledger.add(prepared.ledger().get(drafts++));
+            } else if (e instanceof Effect.Notify) {
+                ledger.add(prepared.ledger().get(drafts++));
                 // the page enters the outbox with its ledger entry: delivered at least once, even after a crash
-                Map<String, Object> payload = new LinkedHashMap<>();
-                payload.put("id", n.id());
-                payload.put("channel", n.channel());
-                payload.put("at", dev.tend.engine.Effects.normalise(at));
-                payload.put("kind", n.kind());
-                payload.put("message", n.message());
-                n.fields().forEach(payload::putIfAbsent);
-                tx.enqueuePage(PageRow.pending(n.id(), n.channel(), at, json(payload)));
+                tx.enqueuePage(prepared.pages().get(pages++));
             } else if (e instanceof Effect.RunChanged r) {
                 run(tx, r.run());
             } else if (e instanceof Effect.ApprovalChanged a) {

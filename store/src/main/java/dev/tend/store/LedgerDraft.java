@@ -1,6 +1,7 @@
 package dev.tend.store;
 
 import dev.tend.shared.Id;
+import dev.tend.shared.json.CanonicalJson;
 import dev.tend.shared.time.InstantText;
 
 import java.time.Instant;
@@ -68,6 +69,32 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
         return new LedgerDraft(at, kind, fields);
     }
 
+    /**
+     * Renders this draft's entry text now, on the calling thread, all but its seq: the driver
+     * renders a batch's drafts while the batch before is written, so that the committing
+     * thread only puts each seq in and hashes ({@link #textAt}). Returns this draft.
+     */
+    public LedgerDraft render() {
+        ((Checked) fields).rendered = new Rendered(at, kind,
+                CanonicalJson.serializeObjectAround(fields, "seq", "seq", 0L, "at", InstantText.of(at), "kind", kind));
+        return this;
+    }
+
+    /**
+     * The entry's text at {@code seq} (DESIGN.md section 6): the RFC 8785 canonical JSON of
+     * the fields with {@code seq}, {@code at} (RFC 3339 UTC, fractional seconds only when not
+     * zero) and {@code kind}; from {@link #render()}'s rendering when it is this draft's.
+     */
+    public String textAt(long seq) {
+        Rendered r = ((Checked) fields).rendered;
+        if (r != null && r.at().equals(at) && r.kind().equals(kind)) return r.parts()[0] + CanonicalJson.number(seq) + r.parts()[1];
+        return CanonicalJson.serializeObject(fields, "seq", seq, "at", InstantText.of(at), "kind", kind);
+    }
+
+    /** A draft's text rendered for {@code at} and {@code kind}, split where its seq goes. */
+    private record Rendered(Instant at, String kind, String[] parts) {
+    }
+
     /** The text of an indexed field ({@code cluster}, {@code playbook}, {@code run}), or null. */
     public String indexed(String key) {
         return (String) fields.get(key);
@@ -79,6 +106,8 @@ public record LedgerDraft(Instant at, String kind, Map<String, Object> fields) {
      */
     private static final class Checked extends AbstractMap<String, Object> {
         private final Map<String, Object> fields;
+        /** The text {@link #render()} made; restamped drafts share it, and {@link #textAt} checks whose it is. */
+        private volatile Rendered rendered;
 
         private Checked(Map<String, Object> fields) {
             this.fields = fields;

@@ -88,4 +88,24 @@ class LedgerDraftTest {
         assertThatThrownBy(() -> restamped.fields().entrySet().iterator().next().setValue("x"))
                 .isInstanceOf(UnsupportedOperationException.class);
     }
+
+    @Test
+    void aDraftRenderedAheadGivesTheTextItGivesUnrenderedAtEverySeq() {
+        Map<String, Object> fields = new java.util.LinkedHashMap<>();
+        fields.put("cluster", "fares-3");
+        fields.put("reasons", List.of("unconfirmed", "rate-limit"));
+        fields.put("se", "\"seq\":0");
+        fields.put("t", Map.of("seq", 5));
+        LedgerDraft plain = LedgerDraft.of(T, "verdict", fields);
+        LedgerDraft rendered = LedgerDraft.of(T, "verdict", fields).render();
+        for (long seq : new long[]{1, 42, 1_000_000_007L, (1L << 53) - 1}) {
+            assertThat(rendered.textAt(seq)).isEqualTo(plain.textAt(seq));
+        }
+        assertThat(plain.textAt(7)).isEqualTo("{\"at\":\"2027-03-14T02:17:00Z\",\"cluster\":\"fares-3\",\"kind\":\"verdict\","
+                + "\"reasons\":[\"unconfirmed\",\"rate-limit\"],\"se\":\"\\\"seq\\\":0\",\"seq\":7,\"t\":{\"seq\":5}}");
+        // restamped after rendering: the rendering was for another time, so the text is made again
+        LedgerDraft later = rendered.stampedAt(T.plusSeconds(1));
+        assertThat(later.textAt(9)).isEqualTo(LedgerDraft.of(T.plusSeconds(1), "verdict", fields).textAt(9)).contains("02:17:01Z");
+        assertThat(rendered.textAt(9)).contains("02:17:00Z");
+    }
 }

@@ -37,6 +37,25 @@ public final class CanonicalJson {
      * entry is written so, with its seq, at and kind).
      */
     public static String serializeObject(Map<String, ?> fields, Object... extra) {
+        return object(fields, null, null, extra).toString();
+    }
+
+    /**
+     * {@link #serializeObject} with the value of the member {@code hole} (named in
+     * {@code extra}, its value there ignored) left out: the text before that value and the
+     * text after it. {@code parts[0] + number(v) + parts[1]} is what serializeObject gives
+     * with the number {@code v} for {@code hole}, so a caller can render an object ahead and
+     * put a number in when it is known (the ledger's seq, at its append).
+     */
+    public static String[] serializeObjectAround(Map<String, ?> fields, String hole, Object... extra) {
+        if (extraAt(extra, hole) < 0) throw new IllegalArgumentException("the hole '" + hole + "' must be named in extra");
+        int[] at = new int[1];
+        StringBuilder sb = object(fields, hole, at, extra);
+        return new String[]{sb.substring(0, at[0]), sb.substring(at[0])};
+    }
+
+    /** The object's text; the value of {@code hole} (when not null) is left out and {@code holeAt[0]} says where. */
+    private static StringBuilder object(Map<String, ?> fields, String hole, int[] holeAt, Object... extra) {
         if (extra.length % 2 != 0) throw new IllegalArgumentException("extra holds name, value pairs; got " + extra.length + " items");
         String[] keys = new String[fields.size() + extra.length / 2];
         int n = 0;
@@ -56,10 +75,11 @@ public final class CanonicalJson {
             writeString(sb, keys[i]);
             sb.append(':');
             int e = extraAt(extra, keys[i]);
-            write(sb, e >= 0 ? extra[e + 1] : fields.get(keys[i]));
+            if (hole != null && keys[i].equals(hole)) holeAt[0] = sb.length();
+            else write(sb, e >= 0 ? extra[e + 1] : fields.get(keys[i]));
         }
         sb.append('}');
-        return sb.toString();
+        return sb;
     }
 
     /** Where the member {@code key} is named in {@code extra}; -1 when it is not. */

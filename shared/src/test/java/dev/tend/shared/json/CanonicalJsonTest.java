@@ -134,6 +134,24 @@ class CanonicalJsonTest {
         }
     }
 
+    @Test
+    void anObjectRenderedAroundAHoleIsTheWholeObjectOnceTheNumberIsPutIn() {
+        java.util.Random random = new java.util.Random(180);
+        // keys that sort just before and after "seq", nested "seq" members and strings that hold the text "seq":0
+        List<String> names = List.of("se", "seq\u0000", "seqa", "sep", "s", "t", "a", "\u00e9", "\ud83d\ude00", "nested");
+        for (int round = 0; round < 2000; round++) {
+            Map<String, Object> fields = new LinkedHashMap<>();
+            for (String k : names) if (random.nextInt(2) == 0) fields.put(k, random.nextBoolean() ? value(random) : "\"seq\":0");
+            if (random.nextBoolean()) fields.put("nested", Map.of("seq", 0, "x", List.of(Map.of("seq", 1))));
+            long seq = random.nextInt(4) == 0 ? (1L << 53) - 1 : 1 + random.nextInt(Integer.MAX_VALUE);
+            String[] parts = CanonicalJson.serializeObjectAround(fields, "seq", "seq", 0L, "at", "2027-03-14T02:17:00Z", "kind", "verdict");
+            assertThat(parts[0] + CanonicalJson.number(seq) + parts[1])
+                    .isEqualTo(CanonicalJson.serializeObject(fields, "seq", seq, "at", "2027-03-14T02:17:00Z", "kind", "verdict"));
+        }
+        assertThatThrownBy(() -> CanonicalJson.serializeObjectAround(Map.of(), "seq", "at", "x"))
+                .isInstanceOf(IllegalArgumentException.class).hasMessageContaining("'seq' must be named in extra");
+    }
+
     private static Object value(java.util.Random random) {
         return switch (random.nextInt(6)) {
             case 0 -> random.nextLong();

@@ -1,18 +1,17 @@
 package dev.tend.store.internal;
 
-import dev.tend.shared.json.CanonicalJson;
 import dev.tend.shared.json.Sha256;
 import dev.tend.shared.time.InstantText;
 import dev.tend.store.LedgerDraft;
 import dev.tend.store.LedgerEntry;
 
 import java.time.Instant;
-import java.util.Map;
 
 /**
  * How a ledger entry is written (DESIGN.md section 6): its text is the RFC 8785 canonical
  * JSON of the draft's fields plus "seq", "at" (RFC 3339 UTC, fractional seconds only when
- * not zero) and "kind"; its hash is SHA-256 of the previous hash followed by that text.
+ * not zero) and "kind" ({@link LedgerDraft#textAt}); its hash is SHA-256 of the previous
+ * hash followed by that text.
  */
 public final class LedgerChain {
     private LedgerChain() {
@@ -20,13 +19,9 @@ public final class LedgerChain {
 
     /** The entry {@code draft} becomes at {@code seq}, after an entry whose hash is {@code prevHash}. */
     public static LedgerEntry link(long seq, String prevHash, LedgerDraft draft) {
-        String text = entryText(seq, draft.at(), draft.kind(), draft.fields());
+        String text = draft.textAt(seq);
         return new LedgerEntry(seq, draft.at(), draft.kind(), draft.indexed("cluster"), draft.indexed("playbook"),
                 draft.indexed("run"), text, prevHash, hash(prevHash, text));
-    }
-
-    public static String entryText(long seq, Instant at, String kind, Map<String, Object> fields) {
-        return CanonicalJson.serializeObject(fields, "seq", seq, "at", formatAt(at), "kind", kind);
     }
 
     public static String hash(String prevHash, String entryText) {
