@@ -118,7 +118,7 @@ public final class ApiServer implements AutoCloseable {
         Set<RouteRole> roles = ctx.routeRoles();
         if (roles.isEmpty()) return; // console files and /metrics
         Role needed = (Role) roles.iterator().next();
-        failed.check(ctx.ip());
+        if (failed.anyFailed()) failed.check(ctx.ip());
         Caller caller;
         String token = bearer(ctx, tokens);
         caller = tokens.holderOf(token).orElse(null);

@@ -33,6 +33,12 @@ public final class InProcessKafka {
     /** The broker, started on first use; it stops when the JVM exits. */
     public static synchronized InProcessKafka get() {
         if (instance != null) return instance;
+        // Kafka ends its process on a fault it deems fatal (Exit.exit, Exit.halt); in this JVM that
+        // would end the test run with a failing exit code after every test passed, so it is told instead
+        org.apache.kafka.common.utils.Exit.setExitProcedure((code, message) ->
+                System.err.println("the in-process Kafka broker asked to exit (" + code + "): " + message));
+        org.apache.kafka.common.utils.Exit.setHaltProcedure((code, message) ->
+                System.err.println("the in-process Kafka broker asked to halt (" + code + "): " + message));
         try {
             KafkaClusterTestKit kit = new KafkaClusterTestKit.Builder(new TestKitNodes.Builder()
                     .setCombined(true).setNumBrokerNodes(1).setNumControllerNodes(1).build())

@@ -53,6 +53,14 @@ public final class FailedTokens {
         }
     }
 
+    /**
+     * False while no address has failed: the server then need not work out a request's
+     * address before its token is checked.
+     */
+    public boolean anyFailed() {
+        return !failures.isEmpty();
+    }
+
     /** Counts a request from {@code address} whose token was missing or wrong. */
     public void failed(String address) {
         long now = nanos.getAsLong();

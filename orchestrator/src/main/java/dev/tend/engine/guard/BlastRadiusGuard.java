@@ -26,9 +26,9 @@ public final class BlastRadiusGuard implements Guard {
         int size = Impairment.clusterSize(c, ctx, impaired);
         double share = (double) impaired / size;
         if (share > l.impairedFraction() + 1e-9) {
-            return Optional.of(Objection.on(code(), Wake.CLUSTER, String.format(java.util.Locale.ROOT,
-                    "%d of %d nodes of %s would be impaired (%.0f%%), above impaired-fraction %.2f",
-                    impaired, size, c.target().cluster(), share * 100, l.impairedFraction())));
+            return Optional.of(Objection.on(code(), Wake.CLUSTER, impaired + " of " + size + " nodes of " + c.target().cluster()
+                    + " would be impaired (" + Fixed.of(share * 100, 0) + "%), above impaired-fraction "
+                    + Fixed.of(l.impairedFraction(), 2)));
         }
         int fleet = ctx.activeRunsInFleet();
         if (fleet >= l.fleet()) {

@@ -3,6 +3,7 @@ package dev.tend.engine.guard;
 import dev.tend.engine.Candidate;
 import dev.tend.shared.ReasonCode;
 import dev.tend.engine.BrakeState;
+import dev.tend.shared.time.InstantText;
 
 import java.util.Optional;
 
@@ -17,7 +18,8 @@ public final class FleetBrakeGuard implements Guard {
     public Optional<Objection> check(Candidate c, GuardContext ctx) {
         BrakeState b = ctx.brake();
         if (!b.engaged()) return Optional.empty();
-        return Optional.of(Objection.on(code(), Wake.FLEET, "the fleet brake is engaged since " + b.since()
+        return Optional.of(Objection.on(code(), Wake.FLEET, "the fleet brake is engaged since "
+                + (b.since() == null ? "null" : InstantText.of(b.since()))
                 + " by " + b.by() + ": " + b.reason()));
     }
 }

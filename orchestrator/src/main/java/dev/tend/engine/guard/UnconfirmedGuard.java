@@ -5,6 +5,7 @@ import dev.tend.shared.ReasonCode;
 import java.time.Duration;
 import java.time.Instant;
 import dev.tend.shared.time.Durations;
+import dev.tend.shared.time.InstantText;
 
 import java.util.Optional;
 
@@ -30,6 +31,6 @@ public final class UnconfirmedGuard implements Guard {
         String from = since.equals(c.problemSince()) ? "" : " since the last mask or exclusion lifted";
         return Optional.of(Objection.untilEventTime(code(), confirmedAt, c.trigger().signal() + " has lasted "
                 + Durations.format(lasted.isNegative() ? Duration.ZERO : lasted) + from + " of the "
-                + Durations.format(need) + " it must last; confirmed at " + confirmedAt + " if it holds"));
+                + Durations.format(need) + " it must last; confirmed at " + InstantText.of(confirmedAt) + " if it holds"));
     }
 }

@@ -375,6 +375,6 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     @Override
     public void updatePage(PageRow p) {
         requireOpen();
-        PageWrites.update(handle, p);
+        PageWrites.update(handle, statements, p);
     }
 }

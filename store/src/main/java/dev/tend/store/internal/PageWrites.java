@@ -7,15 +7,16 @@ import org.jdbi.v3.core.Handle;
 import java.sql.PreparedStatement;
 import java.sql.SQLException;
 import java.sql.Types;
-import java.util.HashMap;
-import java.util.Map;
 import java.util.Objects;
 
 /**
- * The page outbox's writes inside a {@link JdbiTx}: a new page on a statement kept prepared
- * (one per page sent, on the driver), a page's later state through Jdbi (once per attempt).
+ * The page outbox's writes inside a {@link JdbiTx}, on statements kept prepared: a new page
+ * (one per page sent, in the driver's commit) and a page's later state (once per attempt, in
+ * the courier's transactions, which take the writer from the driver's commits meanwhile).
  */
 final class PageWrites {
+    private static final String UPDATE_PAGE = "UPDATE page_outbox SET channel = ?, created_ns = ?, payload = ?, state = ?,"
+            + " attempts = ?, next_ns = ?, last_answer = ?, ended_ns = ? WHERE id = ?";
     private static final String ENQUEUE_PAGE = "INSERT INTO page_outbox (" + Rows.PAGE_COLUMNS + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)"
             + " ON CONFLICT (id) DO NOTHING";
 
@@ -45,26 +46,26 @@ final class PageWrites {
         }
     }
 
-    static void update(Handle handle, PageRow p) {
+    static void update(Handle handle, StatementCache statements, PageRow p) {
         Objects.requireNonNull(p, "page");
-        handle.createUpdate("UPDATE page_outbox SET channel = :channel, created_ns = :created_ns, payload = :payload,"
-                        + " state = :state, attempts = :attempts, next_ns = :next_ns, last_answer = :last_answer,"
-                        + " ended_ns = :ended_ns WHERE id = :id")
-                .bindMap(columns(p))
-                .execute();
-    }
-
-    private static Map<String, Object> columns(PageRow p) {
-        Map<String, Object> m = new HashMap<>();
-        m.put("id", p.id());
-        m.put("channel", p.channel());
-        m.put("created_ns", Times.toNanos(p.createdAt(), "PageRow.createdAt"));
-        m.put("payload", p.payload());
-        m.put("state", p.state());
-        m.put("attempts", p.attempts());
-        m.put("next_ns", Times.toNanos(p.nextAt(), "PageRow.nextAt"));
-        m.put("last_answer", p.lastAnswer());
-        m.put("ended_ns", p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt"));
-        return m;
+        long created = Times.nanos(p.createdAt(), "PageRow.createdAt");
+        long next = Times.nanos(p.nextAt(), "PageRow.nextAt");
+        Long ended = p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt");
+        try {
+            PreparedStatement ps = statements.prepare(handle.getConnection(), UPDATE_PAGE);
+            ps.setString(1, p.channel());
+            ps.setLong(2, created);
+            JdbiTx.text(ps, 3, p.payload());
+            JdbiTx.text(ps, 4, p.state());
+            ps.setInt(5, p.attempts());
+            ps.setLong(6, next);
+            JdbiTx.text(ps, 7, p.lastAnswer());
+            if (ended == null) ps.setNull(8, Types.BIGINT);
+            else ps.setLong(8, ended);
+            ps.setString(9, p.id());
+            ps.executeUpdate();
+        } catch (SQLException e) {
+            throw new ConnectionException(e);
+        }
     }
 }
