@@ -24,7 +24,14 @@ import java.util.function.BooleanSupplier;
  * on the {@link CommitPipeline}; an input that cannot be decided or kept takes its batch apart.
  */
 final class Driver {
-    private static final int BATCH = 2000;
+    /**
+     * The most inputs a batch holds. Every commit rewrites the index pages its rows touch, and
+     * the ledger's index by cluster takes its entries at as many places as there are clusters:
+     * with 10,000 inputs a batch instead of 2,000 a page takes several entries per commit, and a
+     * file's ingest used a tenth less of the committing thread (DEVELOPERS.md, "Ingest"). A live
+     * server's batches are what waits, far fewer.
+     */
+    static final int BATCH = 10_000;
     /**
      * The smallest batch committed on the {@link CommitThread}: a smaller one (the live path's
      * few requests at a time) is committed on the driver thread, where handing it over and
@@ -61,6 +68,8 @@ final class Driver {
     private final CommitWriter writer;
     /** The batches being committed while the next one is decided. */
     private final CommitPipeline pipeline = new CommitPipeline();
+    /** {@link #BATCH}, or fewer for a test that needs several batches of a few inputs. */
+    private int batchLimit = BATCH;
 
     Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, SnapshotPolicy snapshotPolicy,
            Inbox inbox, EffectRunner effects, Waiters waiters) {
@@ -118,6 +127,12 @@ final class Driver {
         this.checkpoints = w;
     }
 
+    /** Batches of at most {@code limit} inputs from now on (tests). */
+    void limitBatches(int limit) {
+        if (limit < 1 || limit > BATCH) throw new IllegalArgumentException("a batch holds 1 to " + BATCH + " inputs, not " + limit);
+        batchLimit = limit;
+    }
+
     void stop() {
         stopping = true;
         inbox.wake();
@@ -161,9 +176,9 @@ final class Driver {
      */
     private void loop(BooleanSupplier done) throws InterruptedException {
         while (!stopping) {
-            List<Input> batch = new ArrayList<>(BATCH);
-            java.util.BitSet queued = new java.util.BitSet(BATCH);
-            inbox.drainTo(batch, queued, BATCH);
+            List<Input> batch = new ArrayList<>(Math.min(batchLimit, 2048));
+            java.util.BitSet queued = new java.util.BitSet();
+            inbox.drainTo(batch, queued, batchLimit);
             if (batch.isEmpty()) {
                 if (!pipeline.isEmpty()) {
                     settle(0, List.of()); // nothing more to decide: act on the batches being committed

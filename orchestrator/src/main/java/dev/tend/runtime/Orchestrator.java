@@ -57,6 +57,11 @@ public final class Orchestrator {
         this.driver = new Driver(store, setup, clock, listener, snapshots, inbox, effects, waiters);
     }
 
+    /** Batches of at most {@code limit} inputs, before {@link #runUntil} (tests that need several batches). */
+    void limitBatches(int limit) {
+        driver.limitBatches(limit);
+    }
+
     /** The engine; read it only from the driver thread or after {@link #runUntil} returned. */
     public Engine engine() {
         return driver.engine();
