@@ -1,6 +1,7 @@
 package dev.tend.runtime;
 
 import dev.tend.engine.Input;
+import dev.tend.shared.TendException;
 
 import java.util.ArrayDeque;
 import java.util.ArrayList;
@@ -81,6 +82,21 @@ final class CommitPipeline implements AutoCloseable {
         List<Settled> all = new ArrayList<>(queue.size());
         for (Settled s; (s = takeOldest()) != null; ) all.add(s);
         return all;
+    }
+
+    /**
+     * The driver fails with batches in flight (a listener or a checkpoint threw): their commits
+     * are waited for, so that nothing writes to the store once the driver has stopped. Their
+     * effects are not performed (the next start arms what was committed, as after a crash) and
+     * their callers are told so.
+     */
+    void abandon(Waiters waiters) {
+        for (Settled s : takeAll()) {
+            RuntimeException failed = s.failure();
+            TendException stopped = new TendException("tend stopped before acting on this input"
+                    + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
+            for (Input in : s.batch().inputs()) waiters.failed(in, stopped);
+        }
     }
 
     @Override

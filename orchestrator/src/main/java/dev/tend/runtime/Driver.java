@@ -5,7 +5,6 @@ import dev.tend.engine.Effect;
 import dev.tend.engine.Engine;
 import dev.tend.engine.EngineSetup;
 import dev.tend.engine.Input;
-import dev.tend.shared.Id;
 import dev.tend.shared.TendException;
 import dev.tend.store.InputRow;
 import dev.tend.store.Store;
@@ -149,7 +148,7 @@ final class Driver {
             if (snapshotPolicy.isEnabled() && sinceSnapshot > 0) writeSnapshot();
             snapshots.collect(true);
         } finally {
-            abandonInFlight();
+            pipeline.abandon(waiters); // the driver failed with batches in flight: their callers are told
             pipeline.close();
             CheckpointWriter w = checkpoints;
             if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
@@ -241,7 +240,7 @@ final class Driver {
             times.add(now);
             perInput.add(fx);
             prepared.add(Projections.Prepared.of(now, fx));
-            if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) reportCleared(r, batch);
+            if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) SimulatedClears.queueBehind(engine, r, batch);
         }
         long before = pipeline.sourceAfter(sourceDone);
         long after = before + queued.cardinality();
@@ -332,21 +331,6 @@ final class Driver {
     }
 
     /**
-     * The driver fails with batches in flight (a listener or a checkpoint threw): their commits
-     * are waited for, so that nothing writes to the store once {@link #run} has returned.
-     * Their effects are not performed (the next start arms what was committed, as after a
-     * crash) and their callers are told so.
-     */
-    private void abandonInFlight() {
-        for (CommitPipeline.Settled s : pipeline.takeAll()) {
-            RuntimeException failed = s.failure();
-            TendException stopped = new TendException("tend stopped before acting on this input"
-                    + (failed == null ? " (it is journaled; the next start resumes from it)" : ": " + failed.getMessage()), failed);
-            for (Input in : s.batch().inputs()) waiters.failed(in, stopped);
-        }
-    }
-
-    /**
      * Takes a batch apart after an input in it could not be decided or committed: the engine
      * is rebuilt from the journal (which holds exactly what was committed, so the rebuilt
      * engine is the one before the batch, and no effect of the batch has been performed),
@@ -402,18 +386,5 @@ final class Driver {
         for (Input in : batch) waiters.failed(in, e);
         throw new TendException("could not commit " + batch.size() + " input(s) to " + store.location()
                 + "; tend stops here and resumes from the journal when started again: " + e.getMessage(), e);
-    }
-
-    /**
-     * The simulated fleet reports the signals an action cleared, as a health pipeline would:
-     * one clear transition per signal at the engine's event time, queued right behind the
-     * result in the same batch. On the driver thread, the only one that reads the engine.
-     */
-    private void reportCleared(Input.ExecutorResult r, List<Input> batch) {
-        engine.run(r.runId()).ifPresent(run -> {
-            for (Id s : r.clears()) {
-                batch.add(Input.Transition.simulatedClear(engine.eventTime(), run.target(), s));
-            }
-        });
     }
 }
