@@ -24,45 +24,32 @@ final class PageWrites {
     }
 
     static void enqueue(Handle handle, StatementCache statements, PageRow p) {
-        Objects.requireNonNull(p, "page");
-        long created = Times.nanos(p.createdAt(), "PageRow.createdAt");
-        long next = Times.nanos(p.nextAt(), "PageRow.nextAt");
-        Long ended = p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt");
-        try {
-            PreparedStatement ps = statements.prepare(handle.getConnection(), ENQUEUE_PAGE);
-            ps.setString(1, p.id());
-            ps.setString(2, p.channel());
-            ps.setLong(3, created);
-            JdbiTx.text(ps, 4, p.payload());
-            JdbiTx.text(ps, 5, p.state());
-            ps.setInt(6, p.attempts());
-            ps.setLong(7, next);
-            JdbiTx.text(ps, 8, p.lastAnswer());
-            if (ended == null) ps.setNull(9, Types.BIGINT);
-            else ps.setLong(9, ended);
-            ps.executeUpdate();
-        } catch (SQLException e) {
-            throw new ConnectionException(e);
-        }
+        write(handle, statements, ENQUEUE_PAGE, p, 1, 2);
     }
 
     static void update(Handle handle, StatementCache statements, PageRow p) {
+        write(handle, statements, UPDATE_PAGE, p, 9, 1);
+    }
+
+    /** Runs {@code sql} with the page's id at parameter {@code idAt} and its other columns, in order, from {@code restFrom}. */
+    private static void write(Handle handle, StatementCache statements, String sql, PageRow p, int idAt, int restFrom) {
         Objects.requireNonNull(p, "page");
         long created = Times.nanos(p.createdAt(), "PageRow.createdAt");
         long next = Times.nanos(p.nextAt(), "PageRow.nextAt");
         Long ended = p.endedAt() == null ? null : Times.toNanos(p.endedAt(), "PageRow.endedAt");
         try {
-            PreparedStatement ps = statements.prepare(handle.getConnection(), UPDATE_PAGE);
-            ps.setString(1, p.channel());
-            ps.setLong(2, created);
-            JdbiTx.text(ps, 3, p.payload());
-            JdbiTx.text(ps, 4, p.state());
-            ps.setInt(5, p.attempts());
-            ps.setLong(6, next);
-            JdbiTx.text(ps, 7, p.lastAnswer());
-            if (ended == null) ps.setNull(8, Types.BIGINT);
-            else ps.setLong(8, ended);
-            ps.setString(9, p.id());
+            PreparedStatement ps = statements.prepare(handle.getConnection(), sql);
+            ps.setString(idAt, p.id());
+            int i = restFrom;
+            ps.setString(i++, p.channel());
+            ps.setLong(i++, created);
+            JdbiTx.text(ps, i++, p.payload());
+            JdbiTx.text(ps, i++, p.state());
+            ps.setInt(i++, p.attempts());
+            ps.setLong(i++, next);
+            JdbiTx.text(ps, i++, p.lastAnswer());
+            if (ended == null) ps.setNull(i, Types.BIGINT);
+            else ps.setLong(i, ended);
             ps.executeUpdate();
         } catch (SQLException e) {
             throw new ConnectionException(e);
