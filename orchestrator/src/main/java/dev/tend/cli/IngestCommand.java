@@ -79,12 +79,21 @@ public final class IngestCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         InputStream source = open();
         LedgerKey ledger = ledgerKey.load();
-        EngineSetup setup = policy.setup(EventTimeMode.eventsOnly());
+        OpeningStore opening = OpeningStore.start(db::open); // beside reading the playbooks and the fleet
+        EngineSetup setup;
+        OutgoingHttp outgoing;
+        Senders senders;
+        try {
+            setup = policy.setup(EventTimeMode.eventsOnly());
+            outgoing = new OutgoingHttp();
+            senders = Senders.from(setup.config().paging(), outgoing, err);
+        } catch (RuntimeException | Error e) {
+            opening.discard();
+            throw e;
+        }
         Clock clock = Clock.systemUTC();
-        OutgoingHttp outgoing = new OutgoingHttp();
-        Senders senders = Senders.from(setup.config().paging(), outgoing, err);
         if (senders.logOnly()) err.println("tend: warning: no channels are defined in tend.yaml, so pages are written to this log only");
-        try (Store store = db.open();
+        try (Store store = opening.get();
              ExecutorRegistry.Built executors = ExecutorRegistry.open(
                      new ExecutorRegistry.Settings(Path.of("").toAbsolutePath(), simulation.seed, simulation.speedup, outgoing));
              Courier courier = new Courier(store, senders, clock, Duration.ofSeconds(5), Courier.Listener.NONE)) {
