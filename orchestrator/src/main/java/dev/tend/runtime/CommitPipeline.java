@@ -52,6 +52,12 @@ final class CommitPipeline implements AutoCloseable {
         return n;
     }
 
+    /** Whether a batch in flight carries the state of the next snapshot ({@link DecidedBatch#stateAfter}). */
+    boolean carriesSnapshot() {
+        for (InFlight f : queue) if (f.batch().stateAfter() != null) return true;
+        return false;
+    }
+
     /** The events of the source journaled once every batch in flight is: {@code settled} when none is. */
     long sourceAfter(long settled) {
         return queue.isEmpty() ? settled : queue.peekLast().batch().sourceAfter();

@@ -27,17 +27,21 @@ final class CommitWriter {
         this.waiters = waiters;
     }
 
-    /** A whole batch, journaled as {@code rows}: input {@code i} was decided at {@code times[i]} with {@code perInput[i]}. */
-    void batch(DecidedBatch b, List<InputRow> rows) {
+    /**
+     * A whole batch, journaled as {@code rows}: input {@code i} was decided at {@code times[i]}
+     * with {@code perInput[i]}. Returns the seq of the journal's last row after it.
+     */
+    long batch(DecidedBatch b, List<InputRow> rows) {
         List<LedgerDraft> ledger = new ArrayList<>();
-        store.useTransaction(tx -> {
-            tx.appendInputs(rows);
+        return store.inTransaction(tx -> {
+            long last = tx.appendInputs(rows);
             for (int i = 0; i < b.size(); i++) {
                 Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger);
                 if (waiters.hasReceipts()) waiters.receiptInto(b.inputs().get(i), b.times().get(i), ledger);
             }
             tx.appendLedger(ledger);
             b.reached().forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
+            return last;
         });
     }
 

@@ -205,9 +205,13 @@ final class Driver {
             takeApart(batch, queued);
             return;
         }
-        // a small batch, nothing else waits (an idle driver commits at once), or a snapshot of this state is due
-        boolean now = next.size() < PIPELINE_FROM || inbox.isEmpty()
-                || snapshotPolicy.isDue(sinceSnapshot + pipeline.inputs() + next.size(), engine.health().signalCount());
+        // a small batch, or nothing else waits: an idle driver commits at once
+        boolean now = next.size() < PIPELINE_FROM || inbox.isEmpty();
+        if (!now && !pipeline.carriesSnapshot()
+                && snapshotPolicy.isDue(sinceSnapshot + pipeline.inputs() + next.size(), engine.health().signalCount())) {
+            // the state after it is the next snapshot, written once it is committed (finish): nothing waits for that
+            next = next.withStateAfter(engine.state());
+        }
         // committed here, every batch before it must be; handed over, one must make room
         if (!settle(now ? 0 : CommitPipeline.DEPTH - 1, next.inputs())) {
             // a batch in flight failed and was redone input by input; next was decided on what never became durable
@@ -257,7 +261,7 @@ final class Driver {
         List<InputRow> rows = new ArrayList<>(b.size() + 1);
         for (int i = 0; i < b.size(); i++) rows.add(InputCodec.encode(b.inputs().get(i), b.times().get(i)));
         if (b.progress() != null) rows.add(b.progress());
-        writer.batch(b, rows);
+        b.journaledThrough().set(writer.batch(b, rows));
     }
 
     /** Acts on a committed batch: its side effects, the listener, its waiting callers. */
@@ -265,6 +269,9 @@ final class Driver {
         sourceDone = b.sourceAfter();
         sinceSnapshot += b.size();
         for (Effect e : b.all()) effects.perform(e);
+        if (b.stateAfter() != null && snapshots.write(b.stateAfter(), b.journaledThrough().get(), source, sourceDone, clock.instant())) {
+            sinceSnapshot = 0;
+        }
         snapshots.collect(false);
         listener.committed(engine, java.util.Collections.unmodifiableList(b.inputs()), java.util.Collections.unmodifiableList(b.all()));
         waiters.committed(b.inputs(), b.perInput());

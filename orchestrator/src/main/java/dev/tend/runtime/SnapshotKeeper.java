@@ -79,11 +79,20 @@ final class SnapshotKeeper {
      */
     boolean write(Engine engine, String source, long sourceDone, Instant at) {
         collect(true);
-        Map<String, Long> sources = new TreeMap<>(progressFound);
-        if (source != null) sources.put(source, sourceDone);
         long seq = store.read(StoreReader::lastInputSeq);
         if (seq == 0) return false;
-        EngineState state = engine.state(); // plain values, nothing shared with the engine
+        return write(engine.state(), seq, source, sourceDone, at); // plain values, nothing shared with the engine
+    }
+
+    /**
+     * As {@link #write(Engine, String, long, Instant)}, with the state taken earlier: the
+     * engine's {@code state} after the journal's rows up to {@code seq} (committed).
+     */
+    boolean write(EngineState state, long seq, String source, long sourceDone, Instant at) {
+        collect(true);
+        if (seq == 0) return false;
+        Map<String, Long> sources = new TreeMap<>(progressFound);
+        if (source != null) sources.put(source, sourceDone);
         String setupPrint = fingerprint();
         encoding = CompletableFuture.supplyAsync(() -> SnapshotCodec.encode(seq, at, setupPrint, state, sources), ENCODER);
         return true;

@@ -10,6 +10,7 @@ import dev.tend.shared.HealthTransition;
 import dev.tend.shared.SignalState;
 import dev.tend.shared.time.Timers;
 import dev.tend.store.LedgerFilter;
+import dev.tend.store.SnapshotRow;
 import dev.tend.store.StepRow;
 import dev.tend.store.Store;
 import dev.tend.store.StoreReader;
@@ -146,6 +147,51 @@ class PipelinedCommitTest {
         }
     }
 
+    @Test
+    void aSnapshotDueWhileBatchesAreInFlightIsTheStateAfterItsOwnBatchAndCutsNoBatchShort() throws Exception {
+        List<Input> inputs = transitions();
+        Told told = new Told();
+        Path db = dir.resolve("tend.db");
+        List<SnapshotRow> kept = new ArrayList<>();
+        try (Store store = Store.openSqlite(db); SimulatedExecutor sim = new SimulatedExecutor(1, 100);
+             QuartzTimers quartz = new QuartzTimers()) {
+            Checked checked = new Checked(store);
+            Orchestrator orch = recovered(store, checked, sim, quartz, told, SnapshotPolicy.every(3000));
+            for (Input in : inputs) orch.submitEvent(in);
+            orch.runUntil(orch::isIdle);
+
+            // the batches were handed on while the ones before them were written, a snapshot due or not
+            for (int first = 0; first + BATCH <= INPUTS; first += BATCH) assertThat(told.callSizeOf(inputs.get(first))).isEqualTo(BATCH);
+            assertThat(told.violations).isEmpty();
+            assertThat(checked.violations).isEmpty();
+            try (java.sql.Connection c = java.sql.DriverManager.getConnection("jdbc:sqlite:" + db);
+                 java.sql.ResultSet rs = c.createStatement().executeQuery("SELECT seq, taken_ns, format, setup, body FROM snapshots ORDER BY seq")) {
+                while (rs.next()) {
+                    kept.add(new SnapshotRow(rs.getLong(1), Instant.EPOCH.plusNanos(rs.getLong(2)), rs.getInt(3), rs.getString(4),
+                            rs.getBytes(5)));
+                }
+            }
+            // the one taken with batches in flight, after the second batch (4,000 inputs past 3,000), and the one
+            // after the whole journal (the transitions, and the executors' results and timers' firings among them)
+            assertThat(kept).extracting(SnapshotRow::seq).containsExactly(2L * BATCH, store.read(StoreReader::lastInputSeq));
+            // each is the state of an engine that read the journal up to its seq, and no further
+            Engine replayed = new Engine(setup());
+            List<dev.tend.store.InputRow> journal = new ArrayList<>();
+            store.read(r -> {
+                r.forEachInput(0, journal::add);
+                return null;
+            });
+            int next = 0;
+            for (SnapshotRow snapshot : kept) {
+                for (; next < journal.size() && journal.get(next).seq() <= snapshot.seq(); next++) {
+                    replayed.handle(InputCodec.decode(journal.get(next)), journal.get(next).now());
+                }
+                assertThat(SnapshotCodec.json(SnapshotCodec.decode(snapshot).state())).as("the snapshot at %d", snapshot.seq())
+                        .isEqualTo(SnapshotCodec.json(replayed.state()));
+            }
+        }
+    }
+
     /** Silences and recoveries of heartbeats over 4 clusters of 3 nodes, a second apart. */
     private static List<Input> transitions() {
         List<Input> out = new ArrayList<>(INPUTS);
@@ -263,8 +309,13 @@ class PipelinedCommitTest {
 
     /** An orchestrator on {@code store} whose executor calls, timers and listener are checked against it, recovered and ready. */
     private Orchestrator recovered(Store store, Checked checked, SimulatedExecutor sim, QuartzTimers quartz, Told told) throws Exception {
+        return recovered(store, checked, sim, quartz, told, Orchestrator.DEFAULT_SNAPSHOTS);
+    }
+
+    private Orchestrator recovered(Store store, Checked checked, SimulatedExecutor sim, QuartzTimers quartz, Told told,
+                                   SnapshotPolicy snapshots) throws Exception {
         Orchestrator orch = new Orchestrator(store, setup(), Map.of("simulated", checked.executor(sim)), checked.timers(quartz),
-                n -> { }, Clock.systemUTC(), told.checkingAgainst(store));
+                n -> { }, Clock.systemUTC(), told.checkingAgainst(store), snapshots);
         orch.limitBatches(BATCH);
         quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
         orch.recover();

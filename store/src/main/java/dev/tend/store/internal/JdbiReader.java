@@ -340,14 +340,27 @@ public class JdbiReader implements StoreReader {
             throw new IllegalArgumentException("forEachTransitionInput: until must not be before from " + from + ", got " + until);
         }
         beforeRead();
+        long fromNanos = Times.toNanos(from, "from");
+        long untilNanos = Times.toNanos(until, "until");
+        // the seq range of the period's hours of event time (EventHours), then the rows in it
+        List<Long> range = handle.createQuery("SELECT MIN(first_seq), MAX(last_seq) FROM journal_event_hours"
+                        + " WHERE hour >= :first AND hour <= :last")
+                .bind("first", EventHours.of(fromNanos))
+                .bind("last", EventHours.of(untilNanos))
+                .map((rs, ctx) -> rs.getObject(1) == null ? null : List.of(rs.getLong(1), rs.getLong(2)))
+                .one();
+        if (range == null) return;
         List<String> names = new ArrayList<>(clusters);
         StringBuilder sql = new StringBuilder("SELECT " + Rows.INPUT_COLUMNS + " FROM input_journal"
-                + " WHERE kind IN ('transition', 'topology') AND event_at_ns >= :from AND event_at_ns < :until");
+                + " WHERE seq >= :low AND seq <= :high"
+                + " AND kind IN ('transition', 'topology') AND event_at_ns >= :from AND event_at_ns < :until");
         if (!names.isEmpty()) sql.append(" AND cluster IN (<clusters>)");
         sql.append(" ORDER BY seq");
         Query q = handle.createQuery(sql.toString())
-                .bind("from", Times.toNanos(from, "from"))
-                .bind("until", Times.toNanos(until, "until"))
+                .bind("low", range.get(0))
+                .bind("high", range.get(1))
+                .bind("from", fromNanos)
+                .bind("until", untilNanos)
                 .setFetchSize(FETCH_SIZE);
         if (!names.isEmpty()) q.bindList("clusters", names);
         q.map((rs, ctx) -> Rows.input(rs)).forEach(consumer);

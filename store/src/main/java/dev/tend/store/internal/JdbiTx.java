@@ -65,6 +65,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         if (!pendingInputs.isEmpty()) {
             // the hot path of ingest: plain JDBC on the transaction's connection, no per-argument mapping
             try {
+                EventHours.record(statements, handle.getConnection(), pendingInputs);
                 INPUTS.insert(statements, handle.getConnection(), pendingInputs, multiRow);
             } catch (java.sql.SQLException e) {
                 throw new org.jdbi.v3.core.ConnectionException(e);
