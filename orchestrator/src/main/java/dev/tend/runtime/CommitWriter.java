@@ -33,10 +33,11 @@ final class CommitWriter {
      */
     long batch(DecidedBatch b, List<InputRow> rows) {
         List<LedgerDraft> ledger = new ArrayList<>();
+        java.util.Set<dev.tend.engine.Effect> replaced = TimerOps.superseded(b.all());
         return store.inTransaction(tx -> {
             long last = tx.appendInputs(rows);
             for (int i = 0; i < b.size(); i++) {
-                Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger);
+                Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger, replaced);
                 if (waiters.hasReceipts()) waiters.receiptInto(b.inputs().get(i), b.times().get(i), ledger);
             }
             tx.appendLedger(ledger);

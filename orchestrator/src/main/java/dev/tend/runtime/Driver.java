@@ -268,7 +268,7 @@ final class Driver {
     private void finish(DecidedBatch b) {
         sourceDone = b.sourceAfter();
         sinceSnapshot += b.size();
-        for (Effect e : b.all()) effects.perform(e);
+        effects.performAll(b.all());
         if (b.stateAfter() != null && snapshots.write(b.stateAfter(), b.journaledThrough().get(), source, sourceDone, clock.instant())) {
             sinceSnapshot = 0;
         }

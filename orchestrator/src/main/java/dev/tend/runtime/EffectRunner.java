@@ -5,7 +5,10 @@ import dev.tend.executor.Executor;
 import dev.tend.shared.TendException;
 import dev.tend.shared.time.Timers;
 
+import java.util.List;
 import java.util.Map;
+import java.util.Set;
+import java.util.Set;
 import java.util.concurrent.atomic.AtomicInteger;
 
 /**
@@ -32,6 +35,16 @@ final class EffectRunner {
         else if (e instanceof Effect.ArmTimer t) timers.arm(t.key(), t.due());
         else if (e instanceof Effect.CancelTimer t) timers.cancel(t.key());
         else if (e instanceof Effect.Notify n) notifier.send(n);
+    }
+
+    /**
+     * Performs the effects of a committed batch, in order, except the timer operations a later
+     * one of the batch replaces ({@link TimerOps}): the timers end as performing each would
+     * leave them, and one armed already due and cancelled later in the batch no longer fires.
+     */
+    void performAll(List<Effect> effects) {
+        Set<Effect> replaced = TimerOps.superseded(effects);
+        for (Effect e : effects) if (!replaced.contains(e)) perform(e);
     }
 
     /** Arms a timer again after a restart. */

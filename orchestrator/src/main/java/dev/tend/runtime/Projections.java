@@ -24,6 +24,7 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 
 /**
  * Writes the durable part of an input's effects inside the transaction that journals the
@@ -79,6 +80,11 @@ final class Projections {
 
     /** Writes {@code effects} (prepared as {@code prepared}), adding their ledger drafts to {@code ledger}. */
     static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger) {
+        apply(tx, at, effects, prepared, ledger, Set.of());
+    }
+
+    /** As {@link #apply(StoreTx, Instant, List, Prepared, List)}, writing none of the timer operations in {@code replaced}. */
+    static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger, Set<Effect> replaced) {
         int drafts = 0;
         int pages = 0;
         for (Effect e : effects) {
@@ -104,9 +110,9 @@ final class Projections {
             } else if (e instanceof Effect.BrakeChanged b) {
                 tx.putState("brake", json(brake(b.brake())));
             } else if (e instanceof Effect.ArmTimer t) {
-                tx.armTimer(new TimerRow(t.key(), t.due(), "{}"));
+                if (!replaced.contains(e)) tx.armTimer(new TimerRow(t.key(), t.due(), "{}"));
             } else if (e instanceof Effect.CancelTimer t) {
-                tx.cancelTimer(t.key());
+                if (!replaced.contains(e)) tx.cancelTimer(t.key());
             }
         }
     }
