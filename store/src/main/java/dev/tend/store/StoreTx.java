@@ -31,6 +31,17 @@ public interface StoreTx extends StoreReader {
     /** Appends ledger entries in list order. */
     List<LedgerEntry> appendLedger(List<LedgerDraft> drafts);
 
+    /**
+     * Appends ledger entries in list order, as {@link #appendLedger(List)}, their chain hashed
+     * on {@code aside} while this thread runs {@code meanwhile} (the transaction's other writes,
+     * which must append nothing to the ledger) and sends what it wrote to the database: a
+     * batch of thousands of entries is hashed beside the writing of its journal rows.
+     */
+    default List<LedgerEntry> appendLedgerLinkedAside(List<LedgerDraft> drafts, java.util.concurrent.Executor aside, Runnable meanwhile) {
+        meanwhile.run();
+        return appendLedger(drafts);
+    }
+
     /** Inserts the run, or replaces every column of the run with the same id. */
     void upsertRun(RunRow run);
 

@@ -177,6 +177,24 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     }
 
     @Override
+    public List<LedgerEntry> appendLedgerLinkedAside(List<LedgerDraft> drafts, java.util.concurrent.Executor aside, Runnable meanwhile) {
+        requireOpen();
+        for (LedgerDraft d : drafts) Times.nanos(Objects.requireNonNull(d, "draft").at(), "LedgerDraft.at");
+        Heads h = claim();
+        var linking = java.util.concurrent.CompletableFuture.supplyAsync(() -> LedgerChain.linkAll(h.ledgerSeq(), h.ledgerHash(), drafts), aside);
+        meanwhile.run();
+        flush(); // what meanwhile wrote goes to the database while the chain is hashed
+        if (heads.ledgerSeq() != h.ledgerSeq()) throw new IllegalStateException("the ledger was appended to while a chain was linked aside");
+        List<LedgerEntry> linked = Failures.joined(linking);
+        if (linked.isEmpty()) return List.of();
+        LedgerEntry last = linked.get(linked.size() - 1);
+        pendingLedger.addAll(linked);
+        heads = heads.withLedger(last.seq(), last.hash());
+        ledgerHeadDirty = true;
+        return java.util.Collections.unmodifiableList(linked);
+    }
+
+    @Override
     public void upsertRun(RunRow r) {
         requireOpen();
         Objects.requireNonNull(r, "run");

@@ -6,6 +6,8 @@ import dev.tend.store.LedgerDraft;
 import dev.tend.store.LedgerEntry;
 
 import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
 
 /**
  * How a ledger entry is written (DESIGN.md section 6): its text is the RFC 8785 canonical
@@ -22,6 +24,18 @@ public final class LedgerChain {
         String text = draft.textAt(seq);
         return new LedgerEntry(seq, draft.at(), draft.kind(), draft.indexed("cluster"), draft.indexed("playbook"),
                 draft.indexed("run"), text, prevHash, hash(prevHash, text));
+    }
+
+    /** The entries {@code drafts} become, in order, after the entry {@code seq} whose hash is {@code prevHash}. */
+    static List<LedgerEntry> linkAll(long seq, String prevHash, List<LedgerDraft> drafts) {
+        List<LedgerEntry> out = new ArrayList<>(drafts.size());
+        String prev = prevHash;
+        for (LedgerDraft d : drafts) {
+            LedgerEntry e = link(++seq, prev, d);
+            out.add(e);
+            prev = e.hash();
+        }
+        return out;
     }
 
     public static String hash(String prevHash, String entryText) {
