@@ -55,8 +55,8 @@ public final class IngestBenchmark {
         Path events = dir.resolve("events.jsonl");
         IngestMix.writeFleet(fleetFile, clusters);
         IngestMix.writeEvents(events, n, clusters);
-        // on disk before anything is timed: the operating system would otherwise write the new 100 MB out while
-        // one of the timed processes runs (in tend's, which came second, it took about 1.7 s more system time)
+        // on disk before anything is timed: neither timed process shares the machine with the operating system
+        // writing the new 100 MB out
         for (Path f : List.of(fleetFile, events)) {
             try (java.nio.channels.FileChannel c = java.nio.channels.FileChannel.open(f, java.nio.file.StandardOpenOption.WRITE)) {
                 c.force(true);
