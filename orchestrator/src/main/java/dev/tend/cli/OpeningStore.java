@@ -1,9 +1,9 @@
 package dev.tend.cli;
 
+import dev.tend.shared.Futures;
 import dev.tend.store.Store;
 
 import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.CompletionException;
 import java.util.function.Supplier;
 
 /**
@@ -36,14 +36,7 @@ final class OpeningStore {
 
     /** The opened store; what the opening threw, unwrapped, when it failed. */
     Store get() {
-        try {
-            return opening.join();
-        } catch (CompletionException e) {
-            Throwable cause = e.getCause();
-            if (cause instanceof RuntimeException r) throw r;
-            if (cause instanceof Error err) throw err;
-            throw e;
-        }
+        return Futures.joined(opening);
     }
 
     /** The command ends without the store: waits for the opening and closes the store if it opened. */

@@ -106,13 +106,7 @@ final class SnapshotKeeper {
         CompletableFuture<SnapshotRow> e = encoding;
         if (e == null || (!wait && !e.isDone())) return;
         encoding = null;
-        SnapshotRow row;
-        try {
-            row = e.join();
-        } catch (java.util.concurrent.CompletionException failed) {
-            if (failed.getCause() instanceof RuntimeException r) throw r;
-            throw failed;
-        }
+        SnapshotRow row = dev.tend.shared.Futures.joined(e);
         store.useTransaction(tx -> tx.putSnapshot(row, KEPT));
     }
 

@@ -66,17 +66,6 @@ public final class Failures {
         return String.valueOf(cause.getMessage());
     }
 
-    /** The value of {@code f} once computed; what computing it threw, rethrown as it was. */
-    static <T> T joined(java.util.concurrent.CompletableFuture<T> f) {
-        try {
-            return f.join();
-        } catch (java.util.concurrent.CompletionException e) {
-            if (e.getCause() instanceof RuntimeException r) throw r;
-            if (e.getCause() instanceof Error err) throw err;
-            throw e;
-        }
-    }
-
     static SQLException sqlCause(Throwable e) {
         for (Throwable t = e; t != null; t = t.getCause()) {
             if (t instanceof SQLException s) return s;

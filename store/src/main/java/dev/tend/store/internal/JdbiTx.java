@@ -185,7 +185,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         meanwhile.run();
         flush(); // what meanwhile wrote goes to the database while the chain is hashed
         if (heads.ledgerSeq() != h.ledgerSeq()) throw new IllegalStateException("the ledger was appended to while a chain was linked aside");
-        List<LedgerEntry> linked = Failures.joined(linking);
+        List<LedgerEntry> linked = dev.tend.shared.Futures.joined(linking);
         if (linked.isEmpty()) return List.of();
         LedgerEntry last = linked.get(linked.size() - 1);
         pendingLedger.addAll(linked);

@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.ObjectReader;
+import dev.tend.shared.Futures;
 import dev.tend.shared.json.CanonicalJson;
 import dev.tend.shared.json.CanonicalReader;
 import dev.tend.store.LedgerEntry;
@@ -22,7 +23,6 @@ import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.concurrent.CompletableFuture;
-import java.util.concurrent.CompletionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Semaphore;
@@ -144,7 +144,7 @@ final class LedgerVerifier {
                     chunk = new ArrayList<>(CHUNK);
                 }
             }
-            if (!join(walked)) return broken;
+            if (!Futures.joined(walked)) return broken;
         } finally {
             walker.shutdown();
         }
@@ -157,17 +157,6 @@ final class LedgerVerifier {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             throw new IllegalStateException("interrupted while verifying the ledger", e);
-        }
-    }
-
-    /** What a chunk's checks or its walk gave; what failed in them is thrown as it was. */
-    private static <T> T join(CompletableFuture<T> checking) {
-        try {
-            return checking.join();
-        } catch (CompletionException e) {
-            if (e.getCause() instanceof RuntimeException r) throw r;
-            if (e.getCause() instanceof Error err) throw err;
-            throw e;
         }
     }
 
