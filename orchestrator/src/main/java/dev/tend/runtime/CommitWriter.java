@@ -46,7 +46,7 @@ final class CommitWriter {
      */
     long batch(DecidedBatch b, List<InputRow> rows) {
         List<LedgerDraft> ledger = new ArrayList<>();
-        java.util.Set<dev.tend.engine.Effect> replaced = TimerOps.superseded(b.all());
+        java.util.Set<dev.tend.engine.Effect> replaced = b.replacedTimers();
         if (!waiters.hasReceipts()) {
             // the drafts the projections add, in their order: the chain is hashed aside while the rows are written
             for (Projections.Prepared p : b.prepared()) ledger.addAll(p.ledger());

@@ -268,7 +268,7 @@ final class Driver {
     private void finish(DecidedBatch b) {
         sourceDone = b.sourceAfter();
         sinceSnapshot += b.size();
-        effects.performAll(b.all());
+        effects.performAll(b.all(), b.replacedTimers());
         if (b.stateAfter() != null && snapshots.write(b.stateAfter(), b.journaledThrough().get(), source, sourceDone, clock.instant())) {
             sinceSnapshot = 0;
         }

@@ -39,11 +39,11 @@ final class EffectRunner {
 
     /**
      * Performs the effects of a committed batch, in order, except the timer operations a later
-     * one of the batch replaces ({@link TimerOps}): the timers end as performing each would
-     * leave them, and one armed already due and cancelled later in the batch no longer fires.
+     * one of the batch replaces ({@code replaced}, see {@link TimerOps}): the timers end as
+     * performing each would leave them, and one armed already due and cancelled later in the
+     * batch no longer fires.
      */
-    void performAll(List<Effect> effects) {
-        Set<Effect> replaced = TimerOps.superseded(effects);
+    void performAll(List<Effect> effects, Set<Effect> replaced) {
         for (Effect e : effects) if (!replaced.contains(e)) perform(e);
     }
 
