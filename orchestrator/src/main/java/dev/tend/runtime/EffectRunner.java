@@ -8,7 +8,6 @@ import dev.tend.shared.time.Timers;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.Set;
 import java.util.concurrent.atomic.AtomicInteger;
 
 /**
