@@ -45,14 +45,11 @@ final class CommitWriter {
      * with {@code perInput[i]}. Returns the seq of the journal's last row after it.
      */
     long batch(DecidedBatch b, List<InputRow> rows) {
-        List<LedgerDraft> ledger = new ArrayList<>();
         java.util.Set<dev.tend.engine.Effect> replaced = b.replacedTimers();
-        if (!waiters.hasReceipts()) {
-            // the drafts the projections add, in their order: the chain is hashed aside while the rows are written
-            for (Projections.Prepared p : b.prepared()) ledger.addAll(p.ledger());
-            if (ledger.size() >= LINK_ASIDE_FROM) return batchLinkedAside(b, rows, ledger, replaced);
-            ledger.clear();
-        }
+        int drafts = 0;
+        for (Projections.Prepared p : b.prepared()) drafts += p.ledger().size();
+        if (drafts >= LINK_ASIDE_FROM && !waiters.hasReceipts()) return batchLinkedAside(b, rows, drafts, replaced);
+        List<LedgerDraft> ledger = new ArrayList<>();
         return store.inTransaction(tx -> {
             long last = tx.appendInputs(rows);
             for (int i = 0; i < b.size(); i++) {
@@ -65,8 +62,10 @@ final class CommitWriter {
         });
     }
 
-    private long batchLinkedAside(DecidedBatch b, List<InputRow> rows, List<LedgerDraft> ledger,
-                                  java.util.Set<dev.tend.engine.Effect> replaced) {
+    private long batchLinkedAside(DecidedBatch b, List<InputRow> rows, int drafts, java.util.Set<dev.tend.engine.Effect> replaced) {
+        // the drafts the projections add, in their order (no receipts): the chain is hashed aside while the rows are written
+        List<LedgerDraft> ledger = new ArrayList<>(drafts);
+        for (Projections.Prepared p : b.prepared()) ledger.addAll(p.ledger());
         return store.inTransaction(tx -> {
             long[] last = {0};
             List<LedgerDraft> added = new ArrayList<>(ledger.size());

@@ -73,17 +73,15 @@ final class Projections {
         }
     }
 
-    /** {@link #apply(StoreTx, Instant, List, Prepared, List)} with what it writes prepared here. */
+    /** {@link #apply(StoreTx, Instant, List, Prepared, List, Set)} with what it writes prepared here, every timer operation written. */
     static void apply(StoreTx tx, Instant at, List<Effect> effects, List<LedgerDraft> ledger) {
-        apply(tx, at, effects, Prepared.of(at, effects), ledger);
+        apply(tx, at, effects, Prepared.of(at, effects), ledger, Set.of());
     }
 
-    /** Writes {@code effects} (prepared as {@code prepared}), adding their ledger drafts to {@code ledger}. */
-    static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger) {
-        apply(tx, at, effects, prepared, ledger, Set.of());
-    }
-
-    /** As {@link #apply(StoreTx, Instant, List, Prepared, List)}, writing none of the timer operations in {@code replaced}. */
+    /**
+     * Writes {@code effects} (prepared as {@code prepared}), adding their ledger drafts to
+     * {@code ledger}; of the timer operations, none in {@code replaced} (see {@link TimerOps}).
+     */
     static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger, Set<Effect> replaced) {
         int drafts = 0;
         int pages = 0;
