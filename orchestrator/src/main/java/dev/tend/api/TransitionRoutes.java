@@ -81,13 +81,14 @@ final class TransitionRoutes {
             }
         });
         if (!events.isEmpty() || summary.bad() > 0) {
-            // who fed the engine, from where: one entry per request, not per line
+            // who fed the engine, from where: one entry per request, not per line (and per commit for a caller's requests)
             Caller caller = Requests.caller(ctx);
             Map<String, Object> fields = new LinkedHashMap<>();
             fields.put("by", caller.name());
             fields.put("from", Requests.from(ctx));
             fields.put("accepted", events.size());
             fields.put("rejected", summary.bad());
+            fields.put("requests", 1); // requests of one caller committed together are one entry (ReceiptTally)
             LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
                     LedgerKind.TRANSITIONS_RECEIVED.check(fields));
             // committed with the events it names (no commit of its own), or alone when every line was refused

@@ -25,7 +25,7 @@ public enum LedgerKind {
     POLICY_LOADED("policy-loaded", "playbooks", "actions", "clusters"),
     TRANSITION("transition", "cluster", "node", "signal", "state", "at_event", "unknown_target"),
     TOPOLOGY("topology", "cluster", "node", "change", "at_event"),
-    TRANSITIONS_RECEIVED("transitions-received", "by", "from", "accepted", "rejected"),
+    TRANSITIONS_RECEIVED("transitions-received", "by", "from", "accepted", "rejected", "requests"),
     INPUT_REFUSED("input-refused", "input", "cluster", "node", "signal", "event_at", "by", "from", "reason"),
     VERDICT("verdict", "playbook", "cluster", "node", "verdict", "reasons", "messages", "hold_until",
             "hold_until_event_time", "signal", "problem_since", "run"),

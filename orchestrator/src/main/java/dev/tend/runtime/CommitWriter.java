@@ -15,7 +15,7 @@ import java.util.Map;
 /**
  * What one commit of the driver writes, in one transaction: the journal rows of its inputs,
  * the projections and ledger entries of their effects, the receipts of inputs that carry one
- * and the stream positions reached. The driver decides; this writes, so that a batch, an
+ * (folded by caller, {@link ReceiptTally}) and the stream positions reached. The driver decides; this writes, so that a batch, an
  * input retried on its own and a refused input are written the same way.
  */
 final class CommitWriter {
@@ -52,10 +52,13 @@ final class CommitWriter {
         List<LedgerDraft> ledger = new ArrayList<>();
         return store.inTransaction(tx -> {
             long last = tx.appendInputs(rows);
+            ReceiptTally receipts = waiters.hasReceipts() ? new ReceiptTally() : null;
             for (int i = 0; i < b.size(); i++) {
                 Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger, replaced);
-                if (waiters.hasReceipts()) waiters.receiptInto(b.inputs().get(i), b.times().get(i), ledger);
+                if (receipts != null) receipts.add(waiters.receiptOf(b.inputs().get(i)), b.times().get(i));
             }
+            // after the batch's own entries: the requests of one caller in it are one receipt
+            if (receipts != null) receipts.into(ledger);
             tx.appendLedger(ledger);
             b.reached().forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
             return last;

@@ -126,6 +126,13 @@ final class Waiters {
         if (r != null) ledger.add(r.stampedAt(at));
     }
 
+    /** The receipt queued with {@code in}; null when there is none. It stays queued until the commit holds. */
+    LedgerDraft receiptOf(Input in) {
+        if (receipts.get() == 0) return null;
+        Pending p = pending.get(new Key(in));
+        return p == null ? null : p.receipt;
+    }
+
     /** {@code in} was committed with effects {@code fx}. */
     void committed(Input in, List<Effect> fx) {
         Pending p = remove(in);

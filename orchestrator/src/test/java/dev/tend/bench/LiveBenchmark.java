@@ -61,8 +61,14 @@ public final class LiveBenchmark {
         int connections = Integer.parseInt(arg(args, "--connections", "16"));
         int idleRequests = Integer.parseInt(arg(args, "--idle-requests", "400"));
         int clusters = Integer.parseInt(arg(args, "--clusters", "300"));
-        // a server runs for days: its figures are those after the JIT compiled the request path
-        int warmup = Integer.parseInt(arg(args, "--warmup", "15"));
+        // a server runs for days: its figures are those after the JIT compiled the request path,
+        // and after what this mix sets off once: tend's fleet brake engages within 2 s (most
+        // clusters soon carry a breached signal) and its page goes out brake-gather (30 s) later,
+        // loading classes that throw away the driver's compiled code (-XX:+PrintCompilation:
+        // Driver::process, Projections::apply and a dozen more made not entrant at once). With
+        // 15 s that fell in the measured window: 0.84 to 0.91 s of C2 time in it against 0.07 s
+        // with 40 s (one run each, 2026-12-04)
+        int warmup = Integer.parseInt(arg(args, "--warmup", "40"));
         // and with the idle path too (see warm)
         boolean warmIdle = !arg(args, "--warm-idle", "yes").equals("no");
         Path dir = Files.createTempDirectory("tend-live-bench");

@@ -8,6 +8,7 @@ import org.junit.jupiter.api.io.TempDir;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.time.Instant;
+import java.util.List;
 
 import static dev.tend.serve.ServeFixture.OLGA;
 import static dev.tend.serve.ServeFixture.VERA;
@@ -58,6 +59,47 @@ class ServeApiTest {
         JsonNode health = serve.get("/api/v1/health", VERA).json();
         assertThat(health.at("/unhealthy_clusters/0/signals/0/node").asText()).isEqualTo("n9");
         assertThat(health.at("/unhealthy_clusters/0/signals/0/unknown_target").asBoolean()).isTrue();
+    }
+
+    @Test
+    void concurrentOneLineRequestsAreAllCountedInTheReceiptsOfTheirCallers() throws Exception {
+        serve.start(dir);
+        int threads = 8, each = 25;
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(threads);
+        try {
+            List<java.util.concurrent.Future<Integer>> answers = new java.util.ArrayList<>();
+            for (int t = 0; t < threads; t++) {
+                String token = t % 2 == 0 ? OLGA : ServeFixture.OTTO;
+                int me = t;
+                answers.add(pool.submit(() -> {
+                    int ok = 0;
+                    for (int i = 0; i < each; i++) {
+                        String node = "n" + (1 + (me + i) % 3);
+                        if (serve.post("/api/v1/transitions", token, transition("tickets-12", node, "disk-latency", "clear")).status() == 200) ok++;
+                    }
+                    return ok;
+                }));
+            }
+            for (java.util.concurrent.Future<Integer> a : answers) assertThat(a.get()).isEqualTo(each);
+        } finally {
+            pool.shutdownNow();
+        }
+
+        JsonNode received = serve.get("/api/v1/ledger?kind=transitions-received&limit=1000", VERA).json().get("entries");
+        java.util.Map<String, long[]> by = new java.util.TreeMap<>();
+        for (JsonNode e : received) {
+            long[] sums = by.computeIfAbsent(e.get("by").asText(), k -> new long[3]);
+            sums[0] += e.get("accepted").asLong();
+            sums[1] += e.get("requests").asLong();
+            sums[2]++;
+        }
+        long perCaller = (long) threads / 2 * each;
+        assertThat(by.keySet()).containsExactly("olga", "otto");
+        for (long[] sums : by.values()) {
+            assertThat(sums[0]).as("transitions accepted").isEqualTo(perCaller);
+            assertThat(sums[1]).as("requests").isEqualTo(perCaller);
+            assertThat(sums[2]).as("entries: at most one per request").isBetween(1L, perCaller);
+        }
     }
 
     @Test
