@@ -51,10 +51,6 @@ final class ReceiptTally {
         for (Object o : byCaller.values()) ledger.add(o instanceof Sum s ? s.draft() : (LedgerDraft) o);
     }
 
-    boolean isEmpty() {
-        return byCaller.isEmpty();
-    }
-
     private static final List<String> COUNTS = List.of("accepted", "rejected", "requests");
 
     /** The receipts of one caller so far. */

@@ -120,9 +120,7 @@ final class Waiters {
 
     /** Adds the receipt queued with {@code in}, if any, stamped {@code at}; it stays queued until the commit holds. */
     void receiptInto(Input in, Instant at, List<LedgerDraft> ledger) {
-        if (receipts.get() == 0) return;
-        Pending p = pending.get(new Key(in));
-        LedgerDraft r = p == null ? null : p.receipt;
+        LedgerDraft r = receiptOf(in);
         if (r != null) ledger.add(r.stampedAt(at));
     }
 

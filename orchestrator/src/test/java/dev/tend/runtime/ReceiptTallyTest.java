@@ -60,6 +60,6 @@ class ReceiptTallyTest {
                 org.assertj.core.groups.Tuple.tuple("input-refused", T.plusMillis(1)),
                 org.assertj.core.groups.Tuple.tuple("transitions-received", T.plusMillis(2)),
                 org.assertj.core.groups.Tuple.tuple("transitions-received", T.plusMillis(3)));
-        assertThat(new ReceiptTally().isEmpty()).isTrue();
+        assertThat(folded(new ReceiptTally())).isEmpty();
     }
 }
