@@ -146,6 +146,14 @@ final class Waiters {
         }
     }
 
+    /**
+     * Nothing waiting now will be committed (the driver stopped): every caller gets
+     * {@code cause}. A caller may then stop waiting at once instead of finding out by polling.
+     */
+    void failAll(Throwable cause) {
+        for (Key k : List.copyOf(pending.keySet())) failed(k.in, cause);
+    }
+
     /** {@code in} will not be committed: its caller gets {@code cause}. */
     void failed(Input in, Throwable cause) {
         Pending p = remove(in);

@@ -56,6 +56,20 @@ class WaitersTest {
     }
 
     @Test
+    void aStoppedDriverTellsEveryCallerStillWaitingAndKeepsNothing() {
+        Waiters w = new Waiters();
+        Input first = clear(), second = clear();
+        w.withReceipt(first, receipt("feed-a"));
+        CompletableFuture<List<Effect>> a = w.await(first);
+        CompletableFuture<List<Effect>> b = w.await(second);
+        w.failAll(new IllegalStateException("tend stopped"));
+        assertThat(a).isCompletedExceptionally();
+        assertThat(b).isCompletedExceptionally();
+        assertThat(w.hasReceipts()).isFalse();
+        assertThat(w.receiptOf(first)).as("a failed caller's receipt is not appended later").isNull();
+    }
+
+    @Test
     void aBatchReachesTheOffsetAfterTheLastEventOfEachPartition() {
         Waiters w = new Waiters();
         Input one = clear(), two = clear(), three = clear(), unread = clear();
