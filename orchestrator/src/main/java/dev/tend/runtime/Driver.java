@@ -149,10 +149,8 @@ final class Driver {
             snapshots.collect(true);
         } finally {
             pipeline.abandon(waiters); // the driver failed with batches in flight: their callers are told
-            if (stopping || failed) {
-                // what is still queued will not be taken by this driver: its callers stop waiting now
-                waiters.failAll(new TendException("tend stopped before journaling this input; it was not applied"));
-            }
+            // what is still queued will not be taken by this driver: its callers stop waiting now
+            if (stopping || failed) waiters.failAll(new TendException("tend stopped before journaling this input; it was not applied"));
             pipeline.close();
             CheckpointWriter w = checkpoints;
             if (w != null && !failed) w.write(clock.instant()); // at every stop that leaves the store whole
