@@ -6,6 +6,7 @@ import org.junit.jupiter.api.io.TempDir;
 import java.nio.file.Path;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 class WriterSettingsTest {
     @TempDir
@@ -30,7 +31,7 @@ class WriterSettingsTest {
                 h.begin();
                 h.execute("INSERT INTO t (k, v) VALUES (1, 'kept')");
                 // the third row breaks NOT NULL: the statement's first two rows are undone from the in-memory journal
-                assertEquals(true, failed(() -> h.execute("INSERT INTO t (k, v) VALUES (2, 'a'), (3, 'b'), (4, NULL)")));
+                assertTrue(failed(() -> h.execute("INSERT INTO t (k, v) VALUES (2, 'a'), (3, 'b'), (4, NULL)")));
                 h.commit();
                 assertEquals(1, h.createQuery("SELECT COUNT(*) FROM t").mapTo(Integer.class).one());
             });
