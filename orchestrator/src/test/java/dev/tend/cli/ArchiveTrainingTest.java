@@ -1,8 +1,15 @@
 package dev.tend.cli;
 
+import dev.tend.store.RunFilter;
+import dev.tend.store.RunRow;
+import dev.tend.store.Store;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 
+import java.io.PrintWriter;
+import java.io.Writer;
 import java.nio.file.Path;
+import java.util.List;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
@@ -10,10 +17,10 @@ class ArchiveTrainingTest {
     private static final Path ROOT = CliRun.root();
 
     @Test
-    void replaysTheRecordingAndReportsAHandoverOfTheStoreItMakes() throws Exception {
+    void replaysTheRecordingReportsAHandoverAndIngestsOverTheFleet() throws Exception {
         int code = ArchiveTraining.train(new String[]{"replay", ROOT.resolve("simulator/recordings/zone-outage.jsonl").toString(),
                 "--playbooks", ROOT.resolve("playbooks/library").toString()});
-        assertThat(code).as("the first exit code of the replay and the handover that is not 0").isZero();
+        assertThat(code).as("the first exit code of the replay, the handover and the ingest that is not 0").isZero();
     }
 
     @Test
@@ -21,5 +28,19 @@ class ArchiveTrainingTest {
         int code = ArchiveTraining.train(new String[]{"replay", ROOT.resolve("simulator/recordings/no-such-recording.jsonl").toString(),
                 "--playbooks", ROOT.resolve("playbooks/library").toString()});
         assertThat(code).isNotZero();
+    }
+
+    @Test
+    void theIngestPartTakesEveryLineAndStartsRunsOnTheBundledFleet(@TempDir Path dir) throws Exception {
+        int code = ArchiveTraining.ingest(new String[]{"replay", "unused.jsonl", "--playbooks", ROOT.resolve("playbooks/library").toString()},
+                dir, new PrintWriter(Writer.nullWriter()));
+        assertThat(code).isZero();
+        try (Store store = Store.openSqlite(dir.resolve("ingest.db"))) {
+            // every line taken (none refused for its time or its names), so the archive holds the path of taken events
+            long inputs = store.read(r -> r.lastInputSeq());
+            assertThat(inputs).isGreaterThanOrEqualTo(3_000L);
+            List<RunRow> runs = store.read(r -> r.runs(RunFilter.all()));
+            assertThat(runs).as("stopped processes confirmed and restarted: the run path is in the archive too").isNotEmpty();
+        }
     }
 }
