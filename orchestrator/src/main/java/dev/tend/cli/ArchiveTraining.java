@@ -25,7 +25,9 @@ import java.util.stream.Stream;
  * replay"): the commands users run cold, in one process, so that the archive holds the classes
  * of each. First the given tend command (a replay of a bundled recording), then a handover of
  * a small store made for it in a temporary folder (an hour of invented Larkspur entries: runs,
- * executor calls, verdicts, transitions, a loop stop, the brake), then the folder is deleted.
+ * executor calls, verdicts, transitions, a loop stop, the brake), then an ingest of invented
+ * transitions over the fleet into another store there ({@link #ingest}), then the folder is
+ * deleted.
  * Prints nothing; exits with the first exit code that is not 0. Not a command of tend.
  *
  * <p>Arguments: the tend command line of the first part.
