@@ -72,9 +72,9 @@ public final class ArchiveTraining {
      * folder) into a fresh store, the hour before now (ingest refuses events ahead of the clock):
      * stopped processes that confirm and start runs, and reports that all is well.
      * Without it a fresh ingest loaded about 600 classes from the jar (the snapshot codec's,
-     * the courier's, the scheduler's), about a tenth of a second of its start.
+     * the courier's, the scheduler's): 20 to 30 ms of its start (DEVELOPERS.md, "Cold replay").
      */
-    static int ingest(String[] firstPart, Path dir, PrintWriter none) throws IOException {
+    static int ingest(String[] firstPart, Path dir, PrintWriter out) throws IOException {
         String playbooks = option(firstPart, "--playbooks");
         if (playbooks == null) return 0;
         String fleetOption = option(firstPart, "--fleet");
@@ -100,7 +100,7 @@ public final class ArchiveTraining {
             }
         }
         return TendMain.run(new String[]{"ingest", events.toString(), "--db", dir.resolve("ingest.db").toString(), "--playbooks", playbooks,
-                "--fleet", fleetFile.toString(), "--speedup", "1000000"}, none, none);
+                "--fleet", fleetFile.toString(), "--speedup", "1000000"}, out, out);
     }
 
     private static String option(String[] args, String name) {
