@@ -36,6 +36,9 @@ import java.util.Map;
  * JVM, with the CPU of each of tend's threads, see {@link IngestInProcess}).
  */
 public final class IngestBenchmark {
+    /** The launcher with its own options: the row the ratio is taken from, in every round. */
+    private static final String AS_USERS_RUN_IT = "bin/tend ingest";
+
     private IngestBenchmark() {
     }
 
@@ -77,7 +80,7 @@ public final class IngestBenchmark {
         List<String> floorCommand = List.of(ChildProcess.java(), "-cp", BenchClasspath.ofThisProcess(), IngestFloor.class.getName(),
                 events.toString(), dir.resolve("floor.db").toString());
         Map<String, Map<String, String>> variants = new LinkedHashMap<>();
-        variants.put("bin/tend ingest", Map.of());
+        variants.put(AS_USERS_RUN_IT, Map.of());
         if ("yes".equals(LiveBenchmark.arg(args, "--variants", "no"))) {
             variants.put("  JVM defaults (C2, G1)", Map.of("TEND_INGEST_OPTS", ""));
             variants.put("  C1 only", Map.of("TEND_INGEST_OPTS", "-XX:TieredStopAtLevel=1"));
@@ -94,7 +97,7 @@ public final class IngestBenchmark {
             for (String end : List.of("", "-wal", "-shm", "-journal")) Files.deleteIfExists(Path.of(dir.resolve("floor.db") + end));
             ColdReplayBenchmark.Timing floor = ColdReplayBenchmark.run(dir, "floor", floorCommand, 0);
             row("floor (java, Jackson + SQLite batches)" + (rounds > 1 ? ", round " + round : ""), floor, floor, n);
-            for (var v : (round == 1 ? variants : Map.of("bin/tend ingest", Map.<String, String>of())).entrySet()) {
+            for (var v : (round == 1 ? variants : Map.of(AS_USERS_RUN_IT, Map.<String, String>of())).entrySet()) {
                 Path store = dir.resolve("tend-" + db++ + ".db");
                 List<String> command = new ArrayList<>(List.of(tendCommand, "ingest", events.toString(), "--db", store.toString(),
                         "--playbooks", root.resolve("playbooks/library").toString(), "--fleet", fleetFile.toString(),
@@ -102,7 +105,7 @@ public final class IngestBenchmark {
                 if (snapshotEvery != null) command.addAll(List.of("--snapshot-every", snapshotEvery.toString()));
                 ColdReplayBenchmark.Timing t = ColdReplayBenchmark.run(dir, "tend-" + db, command, -1, v.getValue());
                 row(v.getKey(), t, floor, n);
-                if (v.getKey().equals("bin/tend ingest")) ratios.add(floor.wall() / t.wall());
+                if (v.getKey().equals(AS_USERS_RUN_IT)) ratios.add(floor.wall() / t.wall());
                 if (db == 1) decided(store, n);
                 for (String end : List.of("", "-wal", "-shm")) Files.deleteIfExists(Path.of(store + end)); // 236 MB a round
             }
