@@ -187,9 +187,15 @@ final class ReadAhead {
             }
         }
 
+        /** The recording is read with the canonical ids ({@link #ids}): its events need no {@link CanonicalEvents#of}. */
+        @Override
+        public java.util.function.Function<String, Id> ids() {
+            return events::canonical;
+        }
+
         @Override
         public void event(WireEvent event, long line) {
-            WireEvent e = events.of(event);
+            WireEvent e = event;
             batch.events[batch.size] = e;
             batch.lines[batch.size] = line;
             batch.keys[batch.size] = e instanceof HealthTransition t ? numbering.of(t.cluster(), t.node(), t.signal()) : null;

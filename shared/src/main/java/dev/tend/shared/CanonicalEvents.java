@@ -35,6 +35,21 @@ public final class CanonicalEvents {
         return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
     }
 
+    /**
+     * The canonical instance of the id {@code value}, made the canonical one when new: what a
+     * reader given it ({@link dev.tend.shared.wire.WireReader#withIds}) hands on, so that its
+     * events need no {@link #of}.
+     *
+     * @throws IllegalArgumentException when {@code value} is not a valid id
+     */
+    public Id canonical(String value) {
+        Id known = ids.get(value);
+        if (known != null) return known;
+        Id id = Id.of(value);
+        ids.put(value, id);
+        return id;
+    }
+
     private Id id(Id id) {
         if (id == null) return null;
         Id known = ids.get(id.value());

@@ -26,6 +26,7 @@ import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
+import java.util.function.Function;
 
 /**
  * A recording on disk (DESIGN.md section 3): an optional header line, then health
@@ -71,6 +72,14 @@ public final class Recording {
 
         /** How many bytes of the file have been read so far; called now and then, for progress. */
         default void progress(long bytesRead) {
+        }
+
+        /**
+         * The instance to hand on for an id's value ({@link WireReader#withIds}), or null (the
+         * default) for the reader's own instances.
+         */
+        default Function<String, Id> ids() {
+            return null;
         }
     }
 
@@ -165,7 +174,10 @@ public final class Recording {
         Objects.requireNonNull(sink, "sink");
         try (CountingInput counted = new CountingInput(Files.newInputStream(file))) {
             long[] lastReported = {0};
-            return WireReader.of(file.toString()).withSignals(signals).readAll(counted, r -> {
+            WireReader reader = WireReader.of(file.toString()).withSignals(signals);
+            Function<String, Id> ids = sink.ids();
+            if (ids != null) reader = reader.withIds(ids);
+            return reader.readAll(counted, r -> {
                 if (r instanceof LineResult.Event e) sink.event(e.event(), e.line());
                 else if (r instanceof LineResult.Bad b) sink.problem(b.problem());
                 if (counted.count() - lastReported[0] >= 1 << 20) {

@@ -4,6 +4,7 @@ import dev.tend.shared.Id;
 
 import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
+import java.util.function.Function;
 import java.util.function.Predicate;
 
 /**
@@ -21,6 +22,7 @@ final class IdsByBytes {
 
     private final Predicate<String> mark;
     private final int maxSize;
+    private final Function<String, Id> canonical;
     private byte[][] keys = new byte[1 << 10][];
     private int[] hashes = new int[1 << 10];
     private Id[] ids = new Id[1 << 10];
@@ -34,8 +36,14 @@ final class IdsByBytes {
 
     /** As {@link #IdsByBytes(Predicate)}, keeping at most {@code maxSize} ids. */
     IdsByBytes(Predicate<String> mark, int maxSize) {
+        this(mark, maxSize, null);
+    }
+
+    /** As {@link #IdsByBytes(Predicate, int)}, each id the instance {@code canonical} gives for its value (null: a new one). */
+    IdsByBytes(Predicate<String> mark, int maxSize, Function<String, Id> canonical) {
         this.mark = mark;
         this.maxSize = maxSize;
+        this.canonical = canonical;
     }
 
     /**
@@ -87,7 +95,7 @@ final class IdsByBytes {
         byte[] key = Arrays.copyOfRange(b, from, to);
         keys[slot] = key;
         hashes[slot] = h;
-        ids[slot] = new Id(value);
+        ids[slot] = canonical == null ? new Id(value) : canonical.apply(value);
         marks[slot] = mark.test(value);
         size++;
         if (size * 2 > keys.length) return grow(key);

@@ -44,7 +44,12 @@ final class PlainLine {
 
     /** {@code signals}: those tend.yaml declares; empty accepts every signal. */
     PlainLine(Set<String> signals) {
-        this.ids = new IdsByBytes(v -> signals.isEmpty() || signals.contains(v));
+        this(signals, null);
+    }
+
+    /** As {@link #PlainLine(Set)}, each id the instance {@code canonical} gives for its value (null: a new one). */
+    PlainLine(Set<String> signals, java.util.function.Function<String, Id> canonical) {
+        this.ids = new IdsByBytes(v -> signals.isEmpty() || signals.contains(v), IdsByBytes.MAX_SIZE, canonical);
     }
 
     /** The transition on {@code b[0, len)} with its wire line, or null to leave the line to the general way. */

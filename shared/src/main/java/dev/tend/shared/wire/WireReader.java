@@ -5,6 +5,7 @@ import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.NearestName;
 import dev.tend.shared.Problem;
+import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.time.Durations;
 
@@ -25,6 +26,7 @@ import java.util.Set;
 import java.util.TreeSet;
 import java.util.concurrent.atomic.AtomicLongArray;
 import java.util.function.Consumer;
+import java.util.function.Function;
 import java.util.function.Supplier;
 
 /**
@@ -91,24 +93,27 @@ public final class WireReader {
     private final Set<String> signals;
     /** Whether {@link #readAll(InputStream, Consumer)} tries {@link PlainLine} first (tests compare with and without). */
     private final boolean plainFirst;
+    /** The instance handed on for an id's value ({@link #withIds}); null: a new {@link Id} each time. */
+    private final Function<String, Id> ids;
     private final AtomicLongArray refusals = new AtomicLongArray(TimeRefusal.values().length);
     private volatile long headerLine;
     private volatile long firstEventLine;
     private volatile RecordingHeader header;
 
     private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals,
-                       boolean plainFirst) {
+                       boolean plainFirst, Function<String, Id> ids) {
         this.source = Objects.requireNonNull(source, "source");
         this.bounded = bounded;
         this.clock = clock;
         this.maxSkew = maxSkew;
         this.signals = signals;
         this.plainFirst = plainFirst;
+        this.ids = ids;
     }
 
     /** A reader for one input; {@code source} (a file name, or "-" for standard input) names it in problems. */
     public static WireReader of(String source) {
-        return new WireReader(source, true, null, null, Set.of(), true);
+        return new WireReader(source, true, null, null, Set.of(), true, null);
     }
 
     /**
@@ -116,7 +121,7 @@ public final class WireReader {
      * vocabulary, since refusing what was once accepted would lose it.
      */
     public static WireReader trusted(String source) {
-        return new WireReader(source, false, null, null, Set.of(), true);
+        return new WireReader(source, false, null, null, Set.of(), true, null);
     }
 
     /**
@@ -129,7 +134,7 @@ public final class WireReader {
         if (newMaxSkew == null || newMaxSkew.isNegative()) {
             throw new IllegalArgumentException("maxSkew must be zero or longer, got " + newMaxSkew);
         }
-        return new WireReader(source, bounded, newClock, newMaxSkew, signals, plainFirst);
+        return new WireReader(source, bounded, newClock, newMaxSkew, signals, plainFirst, ids);
     }
 
     /**
@@ -140,12 +145,37 @@ public final class WireReader {
     public WireReader withSignals(Collection<Id> declared) {
         Set<String> names = new TreeSet<>();
         for (Id id : declared) names.add(id.value());
-        return new WireReader(source, bounded, clock, maxSkew, Collections.unmodifiableSet(names), plainFirst);
+        return new WireReader(source, bounded, clock, maxSkew, Collections.unmodifiableSet(names), plainFirst, ids);
     }
 
     /** A copy that reads every line the general way, never by {@link PlainLine}: the reference its tests compare with. */
     WireReader withoutPlainLines() {
-        return new WireReader(source, bounded, clock, maxSkew, signals, false);
+        return new WireReader(source, bounded, clock, maxSkew, signals, false, ids);
+    }
+
+    /**
+     * A copy whose events carry, for each id, the instance {@code canonical} gives for its
+     * value: a reader that hands the engine the instances its maps hold (the fleet's, one per
+     * distinct id) spares the engine a lookup of each id of each event. The fast path asks
+     * once per distinct id, the general way once per id of the line. Call before reading the
+     * first line.
+     */
+    public WireReader withIds(Function<String, Id> canonical) {
+        return new WireReader(source, bounded, clock, maxSkew, signals, plainFirst, Objects.requireNonNull(canonical, "canonical"));
+    }
+
+    /** {@code e} with the ids {@link #withIds} gives; {@code e} itself without. */
+    private WireEvent canonical(WireEvent e) {
+        if (ids == null) return e;
+        if (e instanceof HealthTransition t) {
+            return new HealthTransition(t.at(), id(t.cluster()), id(t.node()), id(t.signal()), t.state(), t.detail(), t.extra());
+        }
+        TopologyEvent o = (TopologyEvent) e;
+        return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
+    }
+
+    private Id id(Id id) {
+        return id == null ? null : ids.apply(id.value());
     }
 
     /** Lines refused for their time so far, by reason; every reason present (0 when none). */
@@ -179,9 +209,9 @@ public final class WireReader {
             }
             LineResult result;
             if (topology >= 0) {
-                result = new LineResult.Event(checked(fields, LineDecoder.topology(fields)), lineNumber);
+                result = new LineResult.Event(canonical(checked(fields, LineDecoder.topology(fields))), lineNumber);
             } else if (transition || fields.has("state")) {
-                result = new LineResult.Event(checked(fields, LineDecoder.transition(fields)), lineNumber);
+                result = new LineResult.Event(canonical(checked(fields, LineDecoder.transition(fields))), lineNumber);
             } else {
                 throw new LineRejected(0, "", "this line is neither a health transition (it needs 'signal' and 'state')"
                         + " nor a topology event (it needs 'topology') nor a recording header (it needs 'recording')");
@@ -221,7 +251,7 @@ public final class WireReader {
      */
     public ReadSummary readAll(InputStream in, Consumer<LineResult> sink) {
         Utf8Lines lines = new Utf8Lines(in);
-        PlainLine plain = plainFirst ? new PlainLine(signals) : null;
+        PlainLine plain = plainFirst ? new PlainLine(signals, ids) : null;
         return readAll(n -> {
             if (!lines.advance()) return null;
             LineResult r = plain == null ? null : plain(plain.read(lines.bytes(), lines.length(), n));
