@@ -44,6 +44,22 @@ class FleetHealthPublisherTest {
 
     @Test
     void keptByClusterTheHealthPictureEqualsOneRebuiltWholeAfterEveryBatch() {
+        rounds(40, false);
+    }
+
+    @Test
+    void withManyTopologyEventsTheCountsPerZoneStayThoseOfAWholeCount() {
+        rounds(4, false);
+    }
+
+    @Test
+    void aListenerOneBatchBehindTheEngineEndsWithTheWholePicture() {
+        // the driver decides the next batch before the one before is committed and listened to
+        rounds(4, true);
+    }
+
+    /** Rounds of batches with a topology event one time in {@code topologyOneIn}; listened to at once, or one batch late. */
+    private static void rounds(int topologyOneIn, boolean oneBehind) {
         Actions actions = PlaybookLoader.parseActions("actions.yaml", "actions: {}\n");
         TendConfig config = TendConfig.builtIn();
         Engine engine = new Engine(new EngineSetup(PlaybookSet.of(List.of(), actions, config), config,
@@ -56,6 +72,8 @@ class FleetHealthPublisherTest {
         SplittableRandom random = new SplittableRandom(5);
         Instant now = T0;
         int unhealthySeen = 0;
+        List<Input> behind = null;
+        int topologyEvents = 0;
         for (int round = 0; round < 400; round++) {
             List<Input> batch = new ArrayList<>();
             List<Effect> effects = new ArrayList<>();
@@ -65,10 +83,11 @@ class FleetHealthPublisherTest {
                 String cluster = clusters[random.nextInt(clusters.length)];
                 String node = random.nextInt(6) == 0 ? null : "n" + (1 + random.nextInt(4)); // n4 is not in the topology
                 Input in;
-                if (random.nextInt(40) == 0 && node != null) {
+                if (random.nextInt(topologyOneIn) == 0 && node != null) {
                     in = new Input.Topology(new TopologyEvent(now, dev.tend.shared.Id.of(cluster), dev.tend.shared.Id.of(node),
                             random.nextBoolean() ? TopologyChange.JOINED : TopologyChange.LEFT,
                             java.util.Map.of("zone", "z-" + (char) ('a' + random.nextInt(3))), java.util.Map.of()));
+                    topologyEvents++;
                 } else {
                     SignalState state = SignalState.values()[random.nextInt(3)];
                     // now and then late, or at the instant of the one before: a cluster such a transition
@@ -79,12 +98,25 @@ class FleetHealthPublisherTest {
                 batch.add(in);
                 effects.addAll(engine.handle(in, now));
             }
+            if (oneBehind) {
+                if (behind != null) kept.committed(engine, behind, List.of());
+                behind = batch;
+                continue;
+            }
             kept.committed(engine, batch, effects);
             FleetHealthPublisher whole = new FleetHealthPublisher(clock);
             whole.publish(engine);
             assertThat(kept.get()).as("after round " + round).isEqualTo(whole.get());
             unhealthySeen = Math.max(unhealthySeen, kept.get().unhealthy());
         }
-        assertThat(unhealthySeen).as("the rounds made clusters unhealthy").isGreaterThanOrEqualTo(3);
+        if (oneBehind) {
+            kept.committed(engine, behind, List.of());
+            FleetHealthPublisher whole = new FleetHealthPublisher(clock);
+            whole.publish(engine);
+            assertThat(kept.get()).isEqualTo(whole.get());
+        } else {
+            assertThat(unhealthySeen).as("the rounds made clusters unhealthy").isGreaterThanOrEqualTo(3);
+        }
+        assertThat(topologyEvents).as("topology events among the inputs").isGreaterThanOrEqualTo(400 * 2 / topologyOneIn / 2);
     }
 }
