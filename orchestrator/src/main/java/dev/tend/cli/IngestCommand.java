@@ -120,15 +120,15 @@ public final class IngestCommand implements Callable<Integer> {
             ReadSummary[] summary = new ReadSummary[1];
             Progress progress = Progress.onStderr("ingesting " + input, input.equals("-") ? -1 : Files.size(Path.of(input)), err);
             CountingInput counted = new CountingInput(source);
-            WireReader wire = WireReader.of(input).withLiveClock(clock::instant, setup.config().maxSkew())
-                    .withSignals(setup.config().signals());
             NumberedInputs inputs = new NumberedInputs();
+            WireReader wire = inputs.canonicalIds(WireReader.of(input).withLiveClock(clock::instant, setup.config().maxSkew())
+                    .withSignals(setup.config().signals()));
             Thread reader = new Thread(() -> {
                 try (InputStream in = counted) {
                     summary[0] = wire.readAll(in, r -> {
                         try {
                             if (r instanceof LineResult.Event e && ++seen[0] > skip) {
-                                Input next = inputs.of(e);
+                                Input next = inputs.ofCanonical(e);
                                 refusals.submitted(next, e.line());
                                 orch.submitEvent(next);
                                 if (seen[0] % PROGRESS_EVERY == 0) progress.update(counted.count(), seen[0]);

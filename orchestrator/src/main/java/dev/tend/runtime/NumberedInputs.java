@@ -7,6 +7,7 @@ import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.fleet.SignalNumbering;
 import dev.tend.shared.wire.LineResult;
+import dev.tend.shared.wire.WireReader;
 import dev.tend.shared.wire.WireWriter;
 
 /**
@@ -33,8 +34,25 @@ public final class NumberedInputs {
         return of(read.event(), read.wire());
     }
 
+    /**
+     * {@code wire} handing on this instance's canonical ids ({@link WireReader#withIds}): the
+     * events it reads are taken by {@link #ofCanonical}, with no lookup of their ids.
+     */
+    public WireReader canonicalIds(WireReader wire) {
+        return wire.withIds(events::canonical);
+    }
+
+    /** The input of the event {@code read} by a reader from {@link #canonicalIds}: its ids are the canonical instances already. */
+    public Input ofCanonical(LineResult.Event read) {
+        return of(read.event(), read.wire(), false);
+    }
+
     private Input of(WireEvent event, String wire) {
-        WireEvent e = events.of(event);
+        return of(event, wire, true);
+    }
+
+    private Input of(WireEvent event, String wire, boolean lookUpIds) {
+        WireEvent e = lookUpIds ? events.of(event) : event;
         if (e instanceof HealthTransition c) {
             return new Input.Transition(c, wire != null ? wire : WireWriter.line(c), numbering.of(c.cluster(), c.node(), c.signal()));
         }

@@ -48,6 +48,37 @@ class NumberedInputsTest {
     }
 
     @Test
+    void linesReadWithItsCanonicalIdsGiveTheInputsOfLinesReadWithout() {
+        String lines = String.join("\n",
+                "{\"at\":\"2027-03-14T02:17:00Z\",\"cluster\":\"fares-3\",\"node\":\"n2\",\"signal\":\"heartbeat\",\"state\":\"silent\"}",
+                "{\"state\":\"clear\",\"signal\":\"heartbeat\",\"node\":\"n2\",\"cluster\":\"fares-3\",\"at\":\"2027-03-14T02:18:00Z\"}",
+                "{\"at\":\"2027-03-14T02:18:01Z\",\"cluster\":\"fares-3\",\"node\":\"n2\",\"topology\":\"left\"}", "");
+        NumberedInputs canonical = new NumberedInputs();
+        NumberedInputs looked = new NumberedInputs();
+        List<Input> a = new java.util.ArrayList<>();
+        List<Input> b = new java.util.ArrayList<>();
+        canonical.canonicalIds(dev.tend.shared.wire.WireReader.of("e.jsonl")).readAll(new java.io.ByteArrayInputStream(lines.getBytes(java.nio.charset.StandardCharsets.UTF_8)),
+                r -> { if (r instanceof dev.tend.shared.wire.LineResult.Event e) a.add(canonical.ofCanonical(e)); });
+        dev.tend.shared.wire.WireReader.of("e.jsonl").readAll(new java.io.ByteArrayInputStream(lines.getBytes(java.nio.charset.StandardCharsets.UTF_8)),
+                r -> { if (r instanceof dev.tend.shared.wire.LineResult.Event e) b.add(looked.of(e)); });
+        assertThat(a).hasSize(3);
+        for (int i = 0; i < 2; i++) {
+            Input.Transition x = (Input.Transition) a.get(i);
+            Input.Transition y = (Input.Transition) b.get(i);
+            assertThat(x.transition()).isEqualTo(y.transition());
+            assertThat(x.wire()).isEqualTo(y.wire());
+            assertThat(x.numbered().key()).isEqualTo(y.numbered().key());
+        }
+        assertThat(((Input.Topology) a.get(2)).event()).isEqualTo(((Input.Topology) b.get(2)).event());
+        // the fast path's line and the general way's share the instances
+        Input.Transition first = (Input.Transition) a.get(0);
+        Input.Transition second = (Input.Transition) a.get(1);
+        assertThat(second.transition().cluster()).isSameAs(first.transition().cluster());
+        assertThat(second.numbered()).isSameAs(first.numbered());
+        assertThat(((Input.Topology) a.get(2)).event().node()).isSameAs(first.transition().node());
+    }
+
+    @Test
     void anEngineFedNumberedInputsDecidesAsOneFedThemUnnumbered() {
         PlaybookSet set = PlaybookLoader.load(LIBRARY);
         Fleet fleet = FleetFile.load(LIBRARY.resolve("fleet.yaml"));
