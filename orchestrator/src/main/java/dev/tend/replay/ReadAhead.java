@@ -189,16 +189,15 @@ final class ReadAhead {
 
         /** The recording is read with the canonical ids ({@link #ids}): its events need no {@link CanonicalEvents#of}. */
         @Override
-        public java.util.function.Function<String, Id> ids() {
-            return events::canonical;
+        public CanonicalEvents ids() {
+            return events;
         }
 
         @Override
         public void event(WireEvent event, long line) {
-            WireEvent e = event;
-            batch.events[batch.size] = e;
+            batch.events[batch.size] = event;
             batch.lines[batch.size] = line;
-            batch.keys[batch.size] = e instanceof HealthTransition t ? numbering.of(t.cluster(), t.node(), t.signal()) : null;
+            batch.keys[batch.size] = event instanceof HealthTransition t ? numbering.of(t.cluster(), t.node(), t.signal()) : null;
             batch.size++;
             if (batch.isFull()) hand();
         }

@@ -39,7 +39,7 @@ public final class NumberedInputs {
      * events it reads are taken by {@link #ofCanonical}, with no lookup of their ids.
      */
     public WireReader canonicalIds(WireReader wire) {
-        return wire.withIds(events::canonical);
+        return wire.withIds(events);
     }
 
     /** The input of the event {@code read} by a reader from {@link #canonicalIds}: its ids are the canonical instances already. */

@@ -31,8 +31,8 @@ import java.util.function.Supplier;
 /**
  * Publishes the engine's fleet health as an immutable {@link FleetHealth} for HTTP threads,
  * which never touch the engine. After each committed batch the driver thread looks again only
- * at the clusters the batch's transitions name (a topology event: at every cluster) and keeps
- * what it found per cluster; the picture is assembled from those entries when it is next
+ * at the clusters the batch's transitions and topology events name, and keeps what it found
+ * per cluster; the picture is assembled from those entries when it is next
  * asked for, once per change. A topology event changes the counts per zone by what its
  * cluster counted before and counts now. So a commit costs what it touched, not the fleet's
  * size (a fleet of 25,000 clusters took milliseconds for each topology event when every

@@ -43,11 +43,7 @@ public final class CanonicalEvents {
      * @throws IllegalArgumentException when {@code value} is not a valid id
      */
     public Id canonical(String value) {
-        Id known = ids.get(value);
-        if (known != null) return known;
-        Id id = Id.of(value);
-        ids.put(value, id);
-        return id;
+        return ids.computeIfAbsent(value, Id::of);
     }
 
     private Id id(Id id) {

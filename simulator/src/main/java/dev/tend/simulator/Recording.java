@@ -3,6 +3,7 @@ package dev.tend.simulator;
 import dev.tend.shared.wire.CountingInput;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.tend.shared.CanonicalEvents;
 import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.Problem;
@@ -26,7 +27,6 @@ import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
-import java.util.function.Function;
 
 /**
  * A recording on disk (DESIGN.md section 3): an optional header line, then health
@@ -75,10 +75,10 @@ public final class Recording {
         }
 
         /**
-         * The instance to hand on for an id's value ({@link WireReader#withIds}), or null (the
-         * default) for the reader's own instances.
+         * The canonical ids to hand on ({@link WireReader#withIds}), or null (the default) for
+         * the reader's own instances.
          */
-        default Function<String, Id> ids() {
+        default CanonicalEvents ids() {
             return null;
         }
     }
@@ -175,7 +175,7 @@ public final class Recording {
         try (CountingInput counted = new CountingInput(Files.newInputStream(file))) {
             long[] lastReported = {0};
             WireReader reader = WireReader.of(file.toString()).withSignals(signals);
-            Function<String, Id> ids = sink.ids();
+            CanonicalEvents ids = sink.ids();
             if (ids != null) reader = reader.withIds(ids);
             return reader.readAll(counted, r -> {
                 if (r instanceof LineResult.Event e) sink.event(e.event(), e.line());

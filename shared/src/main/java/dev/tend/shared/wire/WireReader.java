@@ -1,11 +1,11 @@
 package dev.tend.shared.wire;
 
+import dev.tend.shared.CanonicalEvents;
 import dev.tend.shared.HealthTransition;
 import dev.tend.shared.Id;
 import dev.tend.shared.InvalidInputException;
 import dev.tend.shared.NearestName;
 import dev.tend.shared.Problem;
-import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.WireEvent;
 import dev.tend.shared.time.Durations;
 
@@ -26,7 +26,6 @@ import java.util.Set;
 import java.util.TreeSet;
 import java.util.concurrent.atomic.AtomicLongArray;
 import java.util.function.Consumer;
-import java.util.function.Function;
 import java.util.function.Supplier;
 
 /**
@@ -93,15 +92,15 @@ public final class WireReader {
     private final Set<String> signals;
     /** Whether {@link #readAll(InputStream, Consumer)} tries {@link PlainLine} first (tests compare with and without). */
     private final boolean plainFirst;
-    /** The instance handed on for an id's value ({@link #withIds}); null: a new {@link Id} each time. */
-    private final Function<String, Id> ids;
+    /** The canonical ids handed on ({@link #withIds}); null: a new {@link Id} each time. */
+    private final CanonicalEvents ids;
     private final AtomicLongArray refusals = new AtomicLongArray(TimeRefusal.values().length);
     private volatile long headerLine;
     private volatile long firstEventLine;
     private volatile RecordingHeader header;
 
     private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals,
-                       boolean plainFirst, Function<String, Id> ids) {
+                       boolean plainFirst, CanonicalEvents ids) {
         this.source = Objects.requireNonNull(source, "source");
         this.bounded = bounded;
         this.clock = clock;
@@ -154,28 +153,18 @@ public final class WireReader {
     }
 
     /**
-     * A copy whose events carry, for each id, the instance {@code canonical} gives for its
-     * value: a reader that hands the engine the instances its maps hold (the fleet's, one per
-     * distinct id) spares the engine a lookup of each id of each event. The fast path asks
-     * once per distinct id, the general way once per id of the line. Call before reading the
-     * first line.
+     * A copy whose events carry the instances of {@code canonical} for their ids: a reader
+     * that hands the engine the instances its maps hold (the fleet's, one per distinct id)
+     * spares the engine a lookup of each id of each event. The fast path asks once per
+     * distinct id, the general way once per id of the line. Call before reading the first line.
      */
-    public WireReader withIds(Function<String, Id> canonical) {
+    public WireReader withIds(CanonicalEvents canonical) {
         return new WireReader(source, bounded, clock, maxSkew, signals, plainFirst, Objects.requireNonNull(canonical, "canonical"));
     }
 
     /** {@code e} with the ids {@link #withIds} gives; {@code e} itself without. */
     private WireEvent canonical(WireEvent e) {
-        if (ids == null) return e;
-        if (e instanceof HealthTransition t) {
-            return new HealthTransition(t.at(), id(t.cluster()), id(t.node()), id(t.signal()), t.state(), t.detail(), t.extra());
-        }
-        TopologyEvent o = (TopologyEvent) e;
-        return new TopologyEvent(o.at(), id(o.cluster()), id(o.node()), o.change(), o.attrs(), o.extra());
-    }
-
-    private Id id(Id id) {
-        return id == null ? null : ids.apply(id.value());
+        return ids == null ? e : ids.of(e);
     }
 
     /** Lines refused for their time so far, by reason; every reason present (0 when none). */
@@ -251,7 +240,7 @@ public final class WireReader {
      */
     public ReadSummary readAll(InputStream in, Consumer<LineResult> sink) {
         Utf8Lines lines = new Utf8Lines(in);
-        PlainLine plain = plainFirst ? new PlainLine(signals, ids) : null;
+        PlainLine plain = plainFirst ? new PlainLine(signals, ids == null ? null : ids::canonical) : null;
         return readAll(n -> {
             if (!lines.advance()) return null;
             LineResult r = plain == null ? null : plain(plain.read(lines.bytes(), lines.length(), n));

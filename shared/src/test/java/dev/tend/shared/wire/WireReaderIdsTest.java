@@ -39,7 +39,7 @@ class WireReaderIdsTest {
         canonical.know(fares3);
         canonical.know(n1);
 
-        List<WireEvent> events = read(WireReader.of("e.jsonl").withIds(canonical::canonical));
+        List<WireEvent> events = read(WireReader.of("e.jsonl").withIds(canonical));
 
         assertThat(events).hasSize(4);
         for (int i = 0; i < 3; i++) {
@@ -56,6 +56,6 @@ class WireReaderIdsTest {
     @Test
     void theEventsAreEqualToThoseOfAReaderWithItsOwnIds() {
         CanonicalEvents canonical = new CanonicalEvents();
-        assertThat(read(WireReader.of("e.jsonl").withIds(canonical::canonical))).isEqualTo(read(WireReader.of("e.jsonl")));
+        assertThat(read(WireReader.of("e.jsonl").withIds(canonical))).isEqualTo(read(WireReader.of("e.jsonl")));
     }
 }
