@@ -14,6 +14,7 @@ import dev.tend.shared.HealthTransition;
 import dev.tend.shared.TopologyEvent;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.ReadSummary;
+import dev.tend.shared.wire.TimeRefusal;
 import dev.tend.shared.wire.WireReader;
 import dev.tend.store.LedgerDraft;
 import dev.tend.store.Store;
@@ -32,6 +33,7 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.CompletableFuture;
 
 /**
  * {@code POST /api/v1/transitions}: wire format v1, one JSON object (compact or pretty) or JSON
@@ -80,35 +82,50 @@ final class TransitionRoutes {
                 problems.add(new LineProblem(b.problem().line(), b.problem().column(), b.problem().field(), b.problem().message()));
             }
         });
-        if (!events.isEmpty() || summary.bad() > 0) {
-            // who fed the engine, from where: one entry per request, not per line (and per commit for a caller's requests)
-            Caller caller = Requests.caller(ctx);
-            Map<String, Object> fields = new LinkedHashMap<>();
-            fields.put("by", caller.name());
-            fields.put("from", Requests.from(ctx));
-            fields.put("accepted", events.size());
-            fields.put("rejected", summary.bad());
-            fields.put("requests", 1); // requests of one caller committed together are one entry (ReceiptTally)
-            LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
-                    LedgerKind.TRANSITIONS_RECEIVED.check(fields));
-            // committed with the events it names (no commit of its own), or alone when every line was refused
-            if (!events.isEmpty()) gateway.events(events, receipt);
-            else store.useTransaction(tx -> tx.appendLedger(List.of(receipt)));
+        if (events.isEmpty() && summary.bad() == 0) {
+            answer(ctx, 0, 0, problems, Map.of());
+            return;
         }
-        metrics.transitionsReceived(events.size());
-        if (summary.bad() > 0) {
-            metrics.linesRejected(summary.bad());
-            metrics.timeRefused(wire.timeRefusals()); // a line refused for its time is a bad line
+        // who fed the engine, from where: one entry per request, not per line (and per commit for a caller's requests)
+        Caller caller = Requests.caller(ctx);
+        Map<String, Object> fields = new LinkedHashMap<>();
+        fields.put("by", caller.name());
+        fields.put("from", Requests.from(ctx));
+        fields.put("accepted", events.size());
+        fields.put("rejected", summary.bad());
+        fields.put("requests", 1); // requests of one caller committed together are one entry (ReceiptTally)
+        LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
+                LedgerKind.TRANSITIONS_RECEIVED.check(fields));
+        Map<TimeRefusal, Long> timeRefused = summary.bad() > 0 ? wire.timeRefusals() : Map.of();
+        if (events.isEmpty()) {
+            // every line was refused: the receipt alone, in a commit of its own
+            store.useTransaction(tx -> tx.appendLedger(List.of(receipt)));
+            answer(ctx, 0, summary.bad(), problems, timeRefused);
+            return;
         }
-        int status = events.isEmpty() ? 400 : summary.bad() > 0 ? 207 : 200;
-        if (events.isEmpty() && problems.isEmpty()) {
+        // committed with the events it names (no commit of its own); the answer is written once
+        // they are, on the thread that learns it, while this one goes back to serving others
+        CompletableFuture<Void> committed = gateway.eventsLater(events, receipt);
+        int accepted = events.size();
+        ctx.future(() -> committed.thenRun(() -> answer(ctx, accepted, summary.bad(), problems, timeRefused)));
+    }
+
+    /** Counts the request and writes its answer: {@code accepted} events are committed, {@code rejected} lines refused. */
+    private void answer(Context ctx, int accepted, long rejected, List<LineProblem> problems, Map<TimeRefusal, Long> timeRefused) {
+        metrics.transitionsReceived(accepted);
+        if (rejected > 0) {
+            metrics.linesRejected(rejected);
+            metrics.timeRefused(timeRefused); // a line refused for its time is a bad line
+        }
+        int status = accepted == 0 ? 400 : rejected > 0 ? 207 : 200;
+        if (accepted == 0 && problems.isEmpty()) {
             problems.add(new LineProblem(0, 0, "", "the body holds no transition or topology event"));
         }
         if (problems.isEmpty()) {
             // the common answer, written without a serializer (the same text: TransitionsAnswerTest)
             // straight to the response: a result set on the context is copied through a new
             // 8 KB buffer and a compressing stream (it is never compressed: far under the threshold)
-            byte[] answer = answerWithoutProblems(events.size(), summary.bad()).getBytes(StandardCharsets.US_ASCII);
+            byte[] answer = answerWithoutProblems(accepted, rejected).getBytes(StandardCharsets.US_ASCII);
             HttpServletResponse res = ctx.res();
             res.setStatus(status);
             res.setContentType(ContentType.JSON);
@@ -119,7 +136,7 @@ final class TransitionRoutes {
                 throw new UncheckedIOException("the answer could not be written; the events are committed", e);
             }
         } else {
-            ctx.status(status).json(new TransitionsOutcome(events.size(), summary.bad(), problems));
+            ctx.status(status).json(new TransitionsOutcome(accepted, rejected, problems));
         }
     }
 

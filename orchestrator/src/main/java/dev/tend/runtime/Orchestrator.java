@@ -179,6 +179,15 @@ public final class Orchestrator {
         return f;
     }
 
+    /**
+     * Tells waiting callers on {@code executor} (a committed batch's in one task) instead of on
+     * the driver thread: for callers that do more on completion than wake up, such as an HTTP
+     * route writing its answer. The executor must not run tasks on the calling thread.
+     */
+    public void answerOn(java.util.concurrent.Executor executor) {
+        waiters.answerOn(executor);
+    }
+
     public void stop() {
         driver.stop();
     }

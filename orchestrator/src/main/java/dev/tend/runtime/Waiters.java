@@ -5,12 +5,15 @@ import dev.tend.engine.Input;
 import dev.tend.store.LedgerDraft;
 
 import java.time.Instant;
+import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.Executor;
+import java.util.concurrent.RejectedExecutionException;
 import java.util.concurrent.atomic.AtomicInteger;
 
 /**
@@ -25,6 +28,11 @@ import java.util.concurrent.atomic.AtomicInteger;
  */
 final class Waiters {
     private final Map<Key, Pending> pending = new ConcurrentHashMap<>();
+    /**
+     * Where callers are told (see {@link #answerOn}); at first the thread that commits, whose
+     * completing a future wakes the caller sleeping on it.
+     */
+    private volatile Executor answers = Runnable::run;
     /** Entries holding a receipt, and a stream position: when none does, a batch skips the look-ups. */
     private final AtomicInteger receipts = new AtomicInteger();
     private final AtomicInteger positions = new AtomicInteger();
@@ -62,6 +70,26 @@ final class Waiters {
 
     private Pending of(Input in) {
         return pending.computeIfAbsent(new Key(in), k -> new Pending());
+    }
+
+    /**
+     * Completes the futures of callers on {@code executor} from now on, a committed batch's in
+     * one task: what a caller does on completion (an HTTP route writes its answer) then runs
+     * there, never on the driver, where a client slow to read its answer would hold every
+     * commit back. When {@code executor} refuses a task (it was shut down), the committing
+     * thread completes them itself.
+     */
+    void answerOn(Executor executor) {
+        this.answers = Objects.requireNonNull(executor, "executor");
+    }
+
+    /** Runs {@code tell} on the answering executor (or here, when it refuses it). */
+    private void tell(Runnable tell) {
+        try {
+            answers.execute(tell);
+        } catch (RejectedExecutionException shutDown) {
+            tell.run();
+        }
     }
 
     /** A future completed with {@code in}'s effects once committed. */
@@ -134,16 +162,33 @@ final class Waiters {
     /** {@code in} was committed with effects {@code fx}. */
     void committed(Input in, List<Effect> fx) {
         Pending p = remove(in);
-        if (p != null && p.future != null) p.future.complete(fx);
+        if (p != null && p.future != null) {
+            CompletableFuture<List<Effect>> f = p.future;
+            tell(() -> f.complete(fx));
+        }
     }
 
     /** {@code in} was committed, in a batch: completes the waiting callers of all its inputs. */
     void committed(List<Input> batch, List<List<Effect>> perInput) {
         if (pending.isEmpty()) return;
+        List<CompletableFuture<List<Effect>>> futures = null;
+        List<List<Effect>> effects = null;
         for (int i = 0; i < batch.size(); i++) {
             Pending p = remove(batch.get(i));
-            if (p != null && p.future != null) p.future.complete(perInput.get(i));
+            if (p == null || p.future == null) continue;
+            if (futures == null) {
+                futures = new ArrayList<>();
+                effects = new ArrayList<>();
+            }
+            futures.add(p.future);
+            effects.add(perInput.get(i));
         }
+        if (futures == null) return;
+        List<CompletableFuture<List<Effect>>> fs = futures;
+        List<List<Effect>> fx = effects;
+        tell(() -> {
+            for (int i = 0; i < fs.size(); i++) fs.get(i).complete(fx.get(i));
+        });
     }
 
     /**
@@ -151,13 +196,21 @@ final class Waiters {
      * {@code cause}. A caller may then stop waiting at once instead of finding out by polling.
      */
     void failAll(Throwable cause) {
-        for (Key k : List.copyOf(pending.keySet())) failed(k.in, cause);
+        List<CompletableFuture<List<Effect>>> fs = new ArrayList<>();
+        for (Key k : List.copyOf(pending.keySet())) {
+            Pending p = remove(k.in);
+            if (p != null && p.future != null) fs.add(p.future);
+        }
+        if (!fs.isEmpty()) tell(() -> fs.forEach(f -> f.completeExceptionally(cause)));
     }
 
     /** {@code in} will not be committed: its caller gets {@code cause}. */
     void failed(Input in, Throwable cause) {
         Pending p = remove(in);
-        if (p != null && p.future != null) p.future.completeExceptionally(cause);
+        if (p != null && p.future != null) {
+            CompletableFuture<List<Effect>> f = p.future;
+            tell(() -> f.completeExceptionally(cause));
+        }
     }
 
     private Pending remove(Input in) {

@@ -16,18 +16,25 @@ import java.util.concurrent.TimeUnit;
 import java.util.concurrent.TimeoutException;
 import java.util.function.BooleanSupplier;
 
-/** The API's {@link Gateway} onto a running {@link Orchestrator}: submit, then wait for the commit. */
+/**
+ * The API's {@link Gateway} onto a running {@link Orchestrator}: submit, then wait for the
+ * commit, on the calling thread or (events from HTTP) through {@link PendingAnswers}.
+ */
 final class OrchestratorGateway implements Gateway {
-    private static final long SLICE_MS = 200;
+    private static final long SLICE_MS = PendingAnswers.SWEEP_MS;
 
     private final Orchestrator orchestrator;
     private final BooleanSupplier driverRunning;
     private final Duration timeout;
+    private final PendingAnswers answers;
 
-    OrchestratorGateway(Orchestrator orchestrator, BooleanSupplier driverRunning, Duration timeout) {
+    /** Sweeps the answers of {@link #eventsLater} on {@code sweeper} (see {@link PendingAnswers}). */
+    OrchestratorGateway(Orchestrator orchestrator, BooleanSupplier driverRunning, Duration timeout,
+                        java.util.concurrent.ScheduledExecutorService sweeper) {
         this.orchestrator = orchestrator;
         this.driverRunning = driverRunning;
         this.timeout = timeout;
+        this.answers = new PendingAnswers(driverRunning, timeout, System::nanoTime).sweepOn(sweeper);
     }
 
     @Override
@@ -49,6 +56,27 @@ final class OrchestratorGateway implements Gateway {
         }
     }
 
+    @Override
+    public CompletableFuture<Void> eventsLater(List<Input> events, LedgerDraft receipt) {
+        if (events.isEmpty()) return CompletableFuture.completedFuture(null);
+        requireRunning();
+        try {
+            for (int i = 0; i < events.size() - 1; i++) orchestrator.submitEvent(events.get(i));
+            return answers.track(orchestrator.submitEventAndWait(events.get(events.size() - 1), receipt), events.size());
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new DriverUnavailableException("interrupted while queueing events; some may have been applied", e);
+        }
+    }
+
+    /** What a caller is told when the commit of {@code what} failed with {@code failure}. */
+    static RuntimeException asAnswer(Throwable failure, String what) {
+        Throwable cause = failure instanceof java.util.concurrent.CompletionException && failure.getCause() != null
+                ? failure.getCause() : failure;
+        if (cause instanceof InvalidInputException refused) return refused;
+        return new DriverUnavailableException("the orchestrator could not commit " + what + ": " + cause.getMessage(), cause);
+    }
+
     private List<Effect> await(CompletableFuture<List<Effect>> f, String what) {
         long deadline = System.nanoTime() + timeout.toNanos();
         try {
@@ -67,8 +95,7 @@ final class OrchestratorGateway implements Gateway {
                 }
             }
         } catch (ExecutionException e) {
-            if (e.getCause() instanceof InvalidInputException refused) throw refused;
-            throw new DriverUnavailableException("the orchestrator could not commit " + what + ": " + e.getCause().getMessage(), e);
+            throw asAnswer(e.getCause(), what);
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             throw new DriverUnavailableException("interrupted while waiting for " + what + " to be committed", e);

@@ -48,6 +48,8 @@ public final class TendServer implements AutoCloseable {
     private final Thread driver;
     private final CountDownLatch driverDone = new CountDownLatch(1);
     private final ScheduledExecutorService ticker;
+    /** Where the driver's waiting callers are told, a committed batch's in one task (see {@link Orchestrator#answerOn}). */
+    private final java.util.concurrent.ExecutorService answering;
     private final ApiServer api;
     private final PageDelivery pages;
     private final ServerTls tls;
@@ -124,7 +126,14 @@ public final class TendServer implements AutoCloseable {
                 orchestrator.submit(new Input.Tick());
             }
         }, tickMs, tickMs, TimeUnit.MILLISECONDS);
-        OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout());
+        // the HTTP answers of committed events are written on these threads, not the driver's (DEVELOPERS.md, "Live")
+        answering = Executors.newCachedThreadPool(r -> {
+            Thread t = new Thread(r, "tend-answer");
+            t.setDaemon(true);
+            return t;
+        });
+        orchestrator.answerOn(answering);
+        OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout(), ticker);
         try {
             tls = s.tls() == null ? null : ServerTls.watch(s.tls().cert(), s.tls().key(), s.tls().checkEvery(), log);
         } catch (RuntimeException e) {
@@ -253,6 +262,7 @@ public final class TendServer implements AutoCloseable {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         } finally {
+            answering.shutdown(); // after the driver told its last callers (or it tells them itself from now on)
             timers.close();
             for (Executor e : executors) e.close();
         }

@@ -86,4 +86,40 @@ class WaitersTest {
         assertThat(w.reached(List.of(one, two, three))).isEmpty();
         assertThat(w.position(one)).isNull();
     }
+
+    @Test
+    void onAnAnsweringExecutorACommittedBatchsCallersAreToldInOneTaskAndNeverOnTheCommittingThread() {
+        Waiters w = new Waiters();
+        List<Runnable> tasks = new ArrayList<>();
+        w.answerOn(tasks::add);
+        Input one = clear(), two = clear(), three = clear(), alone = clear();
+        CompletableFuture<List<Effect>> a = w.await(one);
+        CompletableFuture<List<Effect>> b = w.await(two);
+        CompletableFuture<List<Effect>> c = w.await(alone);
+        List<Effect> none = List.of();
+        w.committed(List.of(one, three, two), List.of(none, none, none));
+        assertThat(tasks).as("one task for the batch (three has no caller)").hasSize(1);
+        assertThat(a).as("not told on the committing thread").isNotDone();
+        assertThat(b).isNotDone();
+        tasks.get(0).run();
+        assertThat(a).isCompletedWithValue(none);
+        assertThat(b).isCompletedWithValue(none);
+        w.failAll(new IllegalStateException("tend stopped"));
+        assertThat(c).isNotDone();
+        assertThat(tasks).hasSize(2);
+        tasks.get(1).run();
+        assertThat(c).isCompletedExceptionally();
+    }
+
+    @Test
+    void anAnsweringExecutorThatWasShutDownLeavesTheCommittingThreadToTellTheCallers() {
+        Waiters w = new Waiters();
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newSingleThreadExecutor();
+        pool.shutdown();
+        w.answerOn(pool);
+        Input one = clear();
+        CompletableFuture<List<Effect>> a = w.await(one);
+        w.failed(one, new IllegalStateException("refused"));
+        assertThat(a).isCompletedExceptionally();
+    }
 }

@@ -22,10 +22,11 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 /**
  * A client that posts transitions and never reads its answers must not hold up anyone else's
- * answer. Each request is answered by its own request thread today; answering on a shared
- * thread once the commit is done (tried: DEVELOPERS.md, "Live path") would let such a client
- * hold that thread in a blocking write, and everyone's answers with it. This checks the
- * behaviour, whatever the design: the client's answers fill its socket, then another client posts.
+ * answer. Answers are written once their commit is done, on the answering threads
+ * ({@code tend-answer}, a pool that takes a new thread when all are busy): such a client holds
+ * the thread blocked writing to it, and the next commit's answers go out on another. This
+ * checks the behaviour, whatever the design: the client's answers fill its socket, then another
+ * client posts.
  */
 class ServeSlowReaderTest {
     private static final Pattern RECEIVED = Pattern.compile("(?m)^tend_transitions_received_total(?:\\{[^}]*})? ([0-9.eE+]+)$");

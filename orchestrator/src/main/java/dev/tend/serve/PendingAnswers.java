@@ -1,0 +1,85 @@
+package dev.tend.serve;
+
+import dev.tend.api.DriverUnavailableException;
+
+import java.time.Duration;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.ConcurrentLinkedQueue;
+import java.util.concurrent.ScheduledExecutorService;
+import java.util.concurrent.TimeUnit;
+import java.util.function.BooleanSupplier;
+import java.util.function.LongSupplier;
+
+/**
+ * The answers of {@link OrchestratorGateway#eventsLater} that wait for their commit, with the
+ * rules a waiting request thread used to apply itself: an answer whose commit did not come
+ * within the timeout fails ("it may still apply it"), and every answer fails as soon as the
+ * driver is found stopped. One sweep every {@link #SWEEP_MS} looks at them; answers are kept
+ * in the order taken, which is the order of their deadlines, so a sweep stops at the first
+ * one still in time. Thread-safe.
+ */
+final class PendingAnswers {
+    /** How often the sweep runs: how late a timed-out answer may be, at most. */
+    static final long SWEEP_MS = 200;
+
+    private record Waiting(long deadlineNanos, CompletableFuture<Void> answer, int events) {
+    }
+
+    private final ConcurrentLinkedQueue<Waiting> waiting = new ConcurrentLinkedQueue<>();
+    private final BooleanSupplier driverRunning;
+    private final Duration timeout;
+    private final LongSupplier nanos;
+
+    PendingAnswers(BooleanSupplier driverRunning, Duration timeout, LongSupplier nanos) {
+        this.driverRunning = driverRunning;
+        this.timeout = timeout;
+        this.nanos = nanos;
+    }
+
+    /** Sweeps on {@code on} every {@link #SWEEP_MS} until it is shut down. */
+    PendingAnswers sweepOn(ScheduledExecutorService on) {
+        on.scheduleWithFixedDelay(this::sweep, SWEEP_MS, SWEEP_MS, TimeUnit.MILLISECONDS);
+        return this;
+    }
+
+    /**
+     * The answer to {@code events} events whose commit {@code committed} says: it completes
+     * when they are committed, or fails as {@link OrchestratorGateway#events} would have thrown.
+     */
+    CompletableFuture<Void> track(CompletableFuture<?> committed, int events) {
+        CompletableFuture<Void> answer = new CompletableFuture<>();
+        committed.whenComplete((fx, failure) -> {
+            if (failure == null) answer.complete(null);
+            else answer.completeExceptionally(OrchestratorGateway.asAnswer(failure, events + " event(s)"));
+        });
+        if (!answer.isDone()) waiting.add(new Waiting(nanos.getAsLong() + timeout.toNanos(), answer, events));
+        return answer;
+    }
+
+    /** Answers still waiting (tests). */
+    int size() {
+        waiting.removeIf(w -> w.answer().isDone());
+        return waiting.size();
+    }
+
+    /** Drops the answers given, fails those past their deadline, or all of them when the driver stopped. */
+    void sweep() {
+        boolean stopped = !driverRunning.getAsBoolean();
+        long now = nanos.getAsLong();
+        for (Waiting w = waiting.peek(); w != null; w = waiting.peek()) {
+            if (!w.answer().isDone()) {
+                if (stopped) {
+                    w.answer().completeExceptionally(new DriverUnavailableException("the orchestrator stopped before committing "
+                            + w.events() + " event(s); see the server's log"));
+                } else if (now - w.deadlineNanos() > 0) {
+                    w.answer().completeExceptionally(new DriverUnavailableException("the orchestrator did not commit "
+                            + w.events() + " event(s) within " + timeout.toSeconds()
+                            + "s; it may still apply it: look in the ledger before trying again"));
+                } else {
+                    return; // the ones after it were taken later: their deadlines are later too
+                }
+            }
+            waiting.poll();
+        }
+    }
+}
