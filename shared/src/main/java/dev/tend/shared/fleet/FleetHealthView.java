@@ -132,8 +132,8 @@ public final class FleetHealthView {
         slot.since = at;
         slot.lastAt(at);
         slot.changed(at);
-        if (t.state().isProblem() && !wasProblem) count(key, +1);
-        if (!t.state().isProblem() && wasProblem) count(key, -1);
+        if (t.state().isProblem() && !wasProblem) count(key, slot, +1);
+        if (!t.state().isProblem() && wasProblem) count(key, slot, -1);
         return t.state().isProblem() ? ApplyOutcome.OPENED : ApplyOutcome.CLEARED;
     }
 
@@ -173,19 +173,19 @@ public final class FleetHealthView {
         int total;
         int clusterLevel;
         final Map<Id, Integer> perNode = new HashMap<>(4);
-        /** The active signals themselves, so that a cluster's are listed without looking at every signal of the fleet. */
-        final Set<SignalKey> active = new java.util.HashSet<>(4);
+        /** The active signals with their slots: a cluster's are listed without the fleet's map. */
+        final Map<SignalKey, SignalSlot> active = new HashMap<>(4);
     }
 
     // one lookup per change instead of seven: every state change of every signal comes here
-    private void count(SignalKey key, int delta) {
+    private void count(SignalKey key, SignalSlot slot, int delta) {
         Problems p = problems.get(key.cluster());
         if (p == null) {
             p = spare.isEmpty() ? new Problems() : spare.pop();
             problems.put(key.cluster(), p);
         }
         p.total += delta;
-        if (delta > 0) p.active.add(key);
+        if (delta > 0) p.active.put(key, slot);
         else p.active.remove(key);
         if (key.node() == null) {
             p.clusterLevel += delta;
@@ -248,7 +248,7 @@ public final class FleetHealthView {
     public boolean isActive(Id cluster, Id node, Id signal) {
         // the active signals of unhealthy clusters, a few hundred small sets, rather than the map of every signal
         Problems p = problems.get(cluster);
-        return p != null && p.active.contains(new SignalKey(cluster, node, signal));
+        return p != null && p.active.containsKey(new SignalKey(cluster, node, signal));
     }
 
     /**
@@ -271,9 +271,9 @@ public final class FleetHealthView {
         Map<Id, SignalStatus> out = new TreeMap<>();
         Problems p = problems.get(cluster);
         if (p == null) return out;
-        for (SignalKey k : p.active) {
-            if (java.util.Objects.equals(k.node(), node)) out.put(k.signal(), signals.get(k).status());
-        }
+        p.active.forEach((k, slot) -> {
+            if (java.util.Objects.equals(k.node(), node)) out.put(k.signal(), slot.status());
+        });
         return out;
     }
 
@@ -381,7 +381,7 @@ public final class FleetHealthView {
             for (Instant c : s.changes()) slot.changed(c);
             v.signals.put(s.key(), slot);
             v.memos.added(s.key(), slot);
-            if (s.state().isProblem()) v.count(s.key(), +1);
+            if (s.state().isProblem()) v.count(s.key(), slot, +1);
         }
         for (HealthMemo.TopologyMark m : memo.topologyApplied()) v.topologyAppliedAt.put(m.node(), m.at());
         v.lateEvents = memo.lateEvents();
