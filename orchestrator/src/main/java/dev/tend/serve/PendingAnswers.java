@@ -3,6 +3,7 @@ package dev.tend.serve;
 import dev.tend.api.DriverUnavailableException;
 
 import java.time.Duration;
+import java.util.Objects;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.ConcurrentLinkedQueue;
 import java.util.concurrent.ScheduledExecutorService;
@@ -31,9 +32,10 @@ final class PendingAnswers {
     private final LongSupplier nanos;
 
     PendingAnswers(BooleanSupplier driverRunning, Duration timeout, LongSupplier nanos) {
-        this.driverRunning = driverRunning;
+        this.driverRunning = Objects.requireNonNull(driverRunning, "driverRunning");
+        if (timeout.isNegative() || timeout.isZero()) throw new IllegalArgumentException("timeout must be positive, got " + timeout);
         this.timeout = timeout;
-        this.nanos = nanos;
+        this.nanos = Objects.requireNonNull(nanos, "nanos");
     }
 
     /** Sweeps on {@code on} every {@link #SWEEP_MS} until it is shut down. */
