@@ -28,13 +28,16 @@ final class OrchestratorGateway implements Gateway {
     private final Duration timeout;
     private final PendingAnswers answers;
 
-    /** Sweeps the answers of {@link #eventsLater} on {@code sweeper} (see {@link PendingAnswers}). */
+    /**
+     * Sweeps the answers of {@link #eventsLater} on {@code sweeper} and tells those it fails on
+     * {@code answering} (see {@link PendingAnswers}).
+     */
     OrchestratorGateway(Orchestrator orchestrator, BooleanSupplier driverRunning, Duration timeout,
-                        java.util.concurrent.ScheduledExecutorService sweeper) {
+                        java.util.concurrent.ScheduledExecutorService sweeper, java.util.concurrent.Executor answering) {
         this.orchestrator = orchestrator;
         this.driverRunning = driverRunning;
         this.timeout = timeout;
-        this.answers = new PendingAnswers(driverRunning, timeout, System::nanoTime).sweepOn(sweeper);
+        this.answers = new PendingAnswers(driverRunning, timeout, System::nanoTime, answering).sweepOn(sweeper);
     }
 
     @Override

@@ -3,9 +3,13 @@ package dev.tend.serve;
 import dev.tend.api.DriverUnavailableException;
 
 import java.time.Duration;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Objects;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.ConcurrentLinkedQueue;
+import java.util.concurrent.Executor;
+import java.util.concurrent.RejectedExecutionException;
 import java.util.concurrent.ScheduledExecutorService;
 import java.util.concurrent.TimeUnit;
 import java.util.function.BooleanSupplier;
@@ -30,12 +34,15 @@ final class PendingAnswers {
     private final BooleanSupplier driverRunning;
     private final Duration timeout;
     private final LongSupplier nanos;
+    /** Where the answers failed by a sweep are told: what a caller does then (writing a 503) never holds the sweep. */
+    private final Executor tellOn;
 
-    PendingAnswers(BooleanSupplier driverRunning, Duration timeout, LongSupplier nanos) {
+    PendingAnswers(BooleanSupplier driverRunning, Duration timeout, LongSupplier nanos, Executor tellOn) {
         this.driverRunning = Objects.requireNonNull(driverRunning, "driverRunning");
         if (timeout.isNegative() || timeout.isZero()) throw new IllegalArgumentException("timeout must be positive, got " + timeout);
         this.timeout = timeout;
         this.nanos = Objects.requireNonNull(nanos, "nanos");
+        this.tellOn = Objects.requireNonNull(tellOn, "tellOn");
     }
 
     /** Sweeps on {@code on} every {@link #SWEEP_MS} until it is shut down. */
@@ -68,20 +75,25 @@ final class PendingAnswers {
     void sweep() {
         boolean stopped = !driverRunning.getAsBoolean();
         long now = nanos.getAsLong();
+        List<Runnable> failing = new ArrayList<>();
         for (Waiting w = waiting.peek(); w != null; w = waiting.peek()) {
             if (!w.answer().isDone()) {
-                if (stopped) {
-                    w.answer().completeExceptionally(new DriverUnavailableException("the orchestrator stopped before committing "
-                            + w.events() + " event(s); see the server's log"));
-                } else if (now - w.deadlineNanos() > 0) {
-                    w.answer().completeExceptionally(new DriverUnavailableException("the orchestrator did not commit "
-                            + w.events() + " event(s) within " + timeout.toSeconds()
-                            + "s; it may still apply it: look in the ledger before trying again"));
-                } else {
-                    return; // the ones after it were taken later: their deadlines are later too
-                }
+                if (!stopped && now - w.deadlineNanos() <= 0) break; // the ones after it were taken later: later deadlines
+                String why = stopped
+                        ? "the orchestrator stopped before committing " + w.events() + " event(s); see the server's log"
+                        : "the orchestrator did not commit " + w.events() + " event(s) within " + timeout.toSeconds()
+                        + "s; it may still apply it: look in the ledger before trying again";
+                CompletableFuture<Void> answer = w.answer();
+                failing.add(() -> answer.completeExceptionally(new DriverUnavailableException(why)));
             }
             waiting.poll();
+        }
+        if (failing.isEmpty()) return;
+        Runnable tell = () -> failing.forEach(Runnable::run);
+        try {
+            tellOn.execute(tell);
+        } catch (RejectedExecutionException shutDown) {
+            tell.run();
         }
     }
 }

@@ -133,7 +133,7 @@ public final class TendServer implements AutoCloseable {
             return t;
         });
         orchestrator.answerOn(answering);
-        OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout(), ticker);
+        OrchestratorGateway gateway = new OrchestratorGateway(orchestrator, () -> driverDone.getCount() > 0, s.commandTimeout(), ticker, answering);
         try {
             tls = s.tls() == null ? null : ServerTls.watch(s.tls().cert(), s.tls().key(), s.tls().checkEvery(), log);
         } catch (RuntimeException e) {

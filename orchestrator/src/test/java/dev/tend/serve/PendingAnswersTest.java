@@ -24,7 +24,16 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 class PendingAnswersTest {
     private final AtomicLong nanos = new AtomicLong(1_000);
     private final AtomicBoolean running = new AtomicBoolean(true);
-    private final PendingAnswers answers = new PendingAnswers(running::get, Duration.ofSeconds(30), nanos::get);
+    /** What the sweep hands over to tell the callers; run by the test when it says so. */
+    private final List<Runnable> told = new java.util.ArrayList<>();
+    private final PendingAnswers answers = new PendingAnswers(running::get, Duration.ofSeconds(30), nanos::get, told::add);
+
+    /** A sweep, and what it handed over run. */
+    private void sweep() {
+        answers.sweep();
+        told.forEach(Runnable::run);
+        told.clear();
+    }
 
     @Test
     void anAnswerCompletesWhenItsEventsAreCommittedAndIsThenForgotten() {
@@ -33,7 +42,7 @@ class PendingAnswersTest {
         assertThat(answer).isNotDone();
         commit.complete(List.of());
         assertThat(answer).isCompleted();
-        answers.sweep();
+        sweep();
         assertThat(answers.size()).isZero();
     }
 
@@ -43,7 +52,7 @@ class PendingAnswersTest {
         nanos.addAndGet(Duration.ofSeconds(10).toNanos());
         CompletableFuture<Void> second = answers.track(new CompletableFuture<>(), 2);
         nanos.addAndGet(Duration.ofSeconds(20).toNanos() + 1); // 30 s and 1 ns after the first, 20 s after the second
-        answers.sweep();
+        sweep();
         assertThatThrownBy(first::join).isInstanceOf(CompletionException.class)
                 .cause().isInstanceOf(DriverUnavailableException.class)
                 .hasMessageContaining("did not commit 1 event(s) within 30s")
@@ -58,6 +67,8 @@ class PendingAnswersTest {
         CompletableFuture<Void> b = answers.track(new CompletableFuture<>(), 4);
         running.set(false);
         answers.sweep();
+        assertThat(a).as("told on the answering executor, not by the sweep itself").isNotDone();
+        told.forEach(Runnable::run);
         for (CompletableFuture<Void> f : List.of(a, b)) {
             assertThatThrownBy(f::join).cause().isInstanceOf(DriverUnavailableException.class)
                     .hasMessageContaining("stopped before committing");
