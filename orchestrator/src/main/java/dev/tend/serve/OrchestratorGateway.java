@@ -46,16 +46,13 @@ final class OrchestratorGateway implements Gateway {
         return await(orchestrator.submitAndWait(command), "the " + command.kind() + " command");
     }
 
+    /** {@link #eventsLater}, waited for: its answer already fails after the timeout or when the driver stops. */
     @Override
     public void events(List<Input> events, LedgerDraft receipt) {
-        if (events.isEmpty()) return;
-        requireRunning();
         try {
-            for (int i = 0; i < events.size() - 1; i++) orchestrator.submitEvent(events.get(i));
-            await(orchestrator.submitEventAndWait(events.get(events.size() - 1), receipt), events.size() + " event(s)");
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new DriverUnavailableException("interrupted while queueing events; some may have been applied", e);
+            eventsLater(events, receipt).join();
+        } catch (java.util.concurrent.CompletionException e) {
+            throw e.getCause() instanceof RuntimeException r ? r : e;
         }
     }
 
