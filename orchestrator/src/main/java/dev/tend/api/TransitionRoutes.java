@@ -40,8 +40,9 @@ import java.util.concurrent.CompletableFuture;
  * Lines. Good lines are applied in order and committed before the answer; bad lines are
  * answered with their line numbers and messages. The status says which happened:
  * 200 every line applied, 207 some applied and some refused, 400 none applied
- * (every line refused, or no event in the body). Each request that carried a line leaves one
- * {@code transitions-received} ledger entry: the token's name, the client address and the counts.
+ * (every line refused, or no event in the body). Each request that carried a line is counted in
+ * a {@code transitions-received} ledger entry: the token's name, the client address and the
+ * counts, one entry for a caller's requests within about a second.
  */
 final class TransitionRoutes {
     /** Problems listed in one answer; the count of rejected lines is always complete. */
@@ -93,7 +94,7 @@ final class TransitionRoutes {
         fields.put("from", Requests.from(ctx));
         fields.put("accepted", events.size());
         fields.put("rejected", summary.bad());
-        fields.put("requests", 1); // requests of one caller committed together are one entry (ReceiptTally)
+        fields.put("requests", 1); // a caller's requests within about a second are one entry (ReceiptCloser)
         LedgerDraft receipt = new LedgerDraft(clock.instant(), LedgerKind.TRANSITIONS_RECEIVED.wire(),
                 LedgerKind.TRANSITIONS_RECEIVED.check(fields));
         Map<TimeRefusal, Long> timeRefused = summary.bad() > 0 ? wire.timeRefusals() : Map.of();

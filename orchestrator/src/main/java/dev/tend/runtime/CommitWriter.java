@@ -5,6 +5,7 @@ import dev.tend.engine.Input;
 import dev.tend.engine.LedgerKind;
 import dev.tend.store.InputRow;
 import dev.tend.store.LedgerDraft;
+import dev.tend.store.OpenReceipt;
 import dev.tend.store.Store;
 
 import java.time.Instant;
@@ -15,12 +16,15 @@ import java.util.Map;
 /**
  * What one commit of the driver writes, in one transaction: the journal rows of its inputs,
  * the projections and ledger entries of their effects, the receipts of inputs that carry one
- * (folded by caller, {@link ReceiptTally}) and the stream positions reached. The driver decides; this writes, so that a batch, an
+ * (folded by caller, {@link ReceiptTally}, into the open receipts, which it closes when they
+ * are due, {@link ReceiptCloser}) and the stream positions reached. The driver decides; this writes, so that a batch, an
  * input retried on its own and a refused input are written the same way.
  */
 final class CommitWriter {
     private final Store store;
     private final Waiters waiters;
+    /** When the open receipts of live requests become ledger entries. */
+    private final ReceiptCloser receipts = new ReceiptCloser();
 
     CommitWriter(Store store, Waiters waiters) {
         this.store = store;
@@ -48,21 +52,32 @@ final class CommitWriter {
         java.util.Set<dev.tend.engine.Effect> replaced = b.replacedTimers();
         int drafts = 0;
         for (Projections.Prepared p : b.prepared()) drafts += p.ledger().size();
-        if (drafts >= LINK_ASIDE_FROM && !waiters.hasReceipts()) return batchLinkedAside(b, rows, drafts, replaced);
+        boolean close = !b.times().isEmpty() && receipts.isDue(b.times().get(b.times().size() - 1));
+        if (drafts >= LINK_ASIDE_FROM && !waiters.hasReceipts() && !close) return batchLinkedAside(b, rows, drafts, replaced);
         List<LedgerDraft> ledger = new ArrayList<>();
-        return store.inTransaction(tx -> {
-            long last = tx.appendInputs(rows);
-            ReceiptTally receipts = waiters.hasReceipts() ? new ReceiptTally() : null;
+        List<OpenReceipt> open = new ArrayList<>();
+        long last = store.inTransaction(tx -> {
+            long l = tx.appendInputs(rows);
+            ReceiptTally tally = waiters.hasReceipts() ? new ReceiptTally() : null;
             for (int i = 0; i < b.size(); i++) {
                 Projections.apply(tx, b.times().get(i), b.perInput().get(i), b.prepared().get(i), ledger, replaced);
-                if (receipts != null) receipts.add(waiters.receiptOf(b.inputs().get(i)), b.times().get(i));
+                if (tally != null) tally.add(waiters.receiptOf(b.inputs().get(i)), b.times().get(i));
             }
-            // after the batch's own entries: the requests of one caller in it are one receipt
-            if (receipts != null) receipts.into(ledger);
+            // the requests of one caller in it are counted in its open receipt; due ones close after the batch's own entries
+            if (tally != null) tally.into(ledger, open);
+            tx.addToOpenReceipts(open);
+            if (close) ReceiptCloser.takeInto(tx, ledger);
             tx.appendLedger(ledger);
             b.reached().forEach((p, next) -> tx.putStreamOffset(p.topic(), p.partition(), next));
-            return last;
+            return l;
         });
+        receipts.committed(open, close);
+        return last;
+    }
+
+    /** Closes the open receipts in a commit of their own when they are due ({@code now} null: at once); see {@link ReceiptCloser}. */
+    void closeReceiptsIfDue(Instant now) {
+        receipts.closeIfDue(store, now);
     }
 
     private long batchLinkedAside(DecidedBatch b, List<InputRow> rows, int drafts, java.util.Set<dev.tend.engine.Effect> replaced) {

@@ -65,10 +65,8 @@ final class Driver {
     /** Keyed checkpoints of the ledger (DESIGN.md section 6); null without a ledger key. */
     private volatile CheckpointWriter checkpoints;
     private final CommitWriter writer;
-    /** The batches being committed while the next one is decided. */
-    private final CommitPipeline pipeline = new CommitPipeline();
-    /** {@link #BATCH}, or fewer for a test that needs several batches of a few inputs. */
-    private int batchLimit = BATCH;
+    private final CommitPipeline pipeline = new CommitPipeline(); // the batches committed while the next is decided
+    private int batchLimit = BATCH; // or fewer for a test that needs several batches of a few inputs
 
     Driver(Store store, EngineSetup setup, Clock clock, CommitListener listener, SnapshotPolicy snapshotPolicy,
            Inbox inbox, EffectRunner effects, Waiters waiters) {
@@ -143,6 +141,7 @@ final class Driver {
         try {
             loop(done);
             settle(0, List.of()); // stopped with batches in flight: they are committed and acted on first
+            writer.closeReceiptsIfDue(null); // and the receipts still open are appended to the ledger
             failed = false;
             // a clean stop: the next start loads this state and replays nothing
             if (snapshotPolicy.isEnabled() && sinceSnapshot > 0) writeSnapshot();
@@ -188,6 +187,7 @@ final class Driver {
                 if (done.getAsBoolean() && inbox.isEmpty()) return;
                 CheckpointWriter w = checkpoints;
                 if (w != null) w.maybeWrite(clock.instant());
+                writer.closeReceiptsIfDue(clock.instant()); // a second after the last request, its receipt is in the ledger
                 inbox.awaitInput(IDLE_NANOS);
                 if (Thread.interrupted()) throw new InterruptedException("the driver was interrupted");
                 continue;

@@ -143,9 +143,12 @@ public final class Orchestrator {
     }
 
     /**
-     * As {@link #submitEventAndWait(Input)}, and appends {@code receipt} to the ledger right
-     * after the input's own entries, in the transaction that commits it (stamped with the
-     * input's processing time): a record of who sent it that costs no commit of its own.
+     * As {@link #submitEventAndWait(Input)}, with a record of who sent it that costs no commit of
+     * its own: a {@code transitions-received} receipt is added to its caller's open receipt in
+     * the transaction that commits the input, and reaches the ledger about a second later with
+     * the caller's other requests of that second ({@link ReceiptCloser}); any other receipt is
+     * appended to the ledger right after the input's own entries (stamped with the input's
+     * processing time).
      */
     public CompletableFuture<List<Effect>> submitEventAndWait(Input in, LedgerDraft receipt) throws InterruptedException {
         waiters.withReceipt(in, receipt);

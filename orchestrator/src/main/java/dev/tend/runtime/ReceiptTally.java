@@ -1,7 +1,9 @@
 package dev.tend.runtime;
 
 import dev.tend.engine.LedgerKind;
+import dev.tend.shared.json.CanonicalJson;
 import dev.tend.store.LedgerDraft;
+import dev.tend.store.OpenReceipt;
 
 import java.time.Instant;
 import java.util.ArrayList;
@@ -11,9 +13,11 @@ import java.util.Map;
 
 /**
  * The receipts of one commit, folded by caller: the {@code transitions-received} receipts of
- * requests committed together that name the same caller and address become one entry, with
- * their {@code accepted}, {@code rejected} and {@code requests} summed and stamped at the
- * last of them. Any other receipt is kept as it is, in its order.
+ * requests committed together that name the same caller and address become one
+ * {@link OpenReceipt}, with their {@code accepted}, {@code rejected} and {@code requests}
+ * summed, which the commit adds to the open receipts of that caller ({@link ReceiptCloser}
+ * appends them to the ledger about once a second). Any other receipt is kept as it is, in
+ * its order, for the ledger.
  *
  * <p>Why: a health pipeline that posts one transition per request put one ledger entry per
  * transition beside it, a row, its three index entries, a canonical rendering and a SHA-256
@@ -46,9 +50,12 @@ final class ReceiptTally {
         else byCaller.put(caller, new Sum(receipt, at));
     }
 
-    /** What {@link #add} took, folded; appended to {@code ledger}. */
-    void into(List<LedgerDraft> ledger) {
-        for (Object o : byCaller.values()) ledger.add(o instanceof Sum s ? s.draft() : (LedgerDraft) o);
+    /** What {@link #add} took: the folded receipts appended to {@code open}, the others to {@code ledger}. */
+    void into(List<LedgerDraft> ledger, List<OpenReceipt> open) {
+        for (Object o : byCaller.values()) {
+            if (o instanceof Sum s) open.add(s.open());
+            else ledger.add((LedgerDraft) o);
+        }
     }
 
     private static final List<String> COUNTS = List.of("accepted", "rejected", "requests");
@@ -56,6 +63,7 @@ final class ReceiptTally {
     /** The receipts of one caller so far. */
     private static final class Sum {
         private final LedgerDraft first;
+        private Instant firstAt;
         private long accepted;
         private long rejected;
         private long requests;
@@ -63,6 +71,8 @@ final class ReceiptTally {
 
         Sum(LedgerDraft first, Instant at) {
             this.first = first;
+            this.firstAt = at;
+            this.at = at;
             add(first.fields(), at);
         }
 
@@ -70,16 +80,15 @@ final class ReceiptTally {
             accepted += ((Number) f.get("accepted")).longValue();
             rejected += ((Number) f.get("rejected")).longValue();
             requests += f.get("requests") instanceof Number n ? n.longValue() : 1;
-            this.at = at;
+            // the earliest and the latest, should the clock step back within a commit
+            if (at.isBefore(firstAt)) firstAt = at;
+            if (at.isAfter(this.at)) this.at = at;
         }
 
-        LedgerDraft draft() {
-            if (requests == 1) return first.stampedAt(at);
-            Map<String, Object> fields = new LinkedHashMap<>(first.fields());
-            fields.put("accepted", accepted);
-            fields.put("rejected", rejected);
-            fields.put("requests", requests);
-            return new LedgerDraft(at, first.kind(), LedgerKind.TRANSITIONS_RECEIVED.check(fields));
+        OpenReceipt open() {
+            Map<String, Object> caller = new LinkedHashMap<>(first.fields());
+            caller.keySet().removeAll(COUNTS);
+            return new OpenReceipt(first.kind(), CanonicalJson.serialize(caller), accepted, rejected, requests, firstAt, at);
         }
     }
 }

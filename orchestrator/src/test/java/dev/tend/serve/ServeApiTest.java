@@ -61,6 +61,10 @@ class ServeApiTest {
         assertThat(health.at("/unhealthy_clusters/0/signals/0/unknown_target").asBoolean()).isTrue();
     }
 
+    private JsonNode receipts() {
+        return serve.get("/api/v1/ledger?kind=transitions-received&limit=1000", VERA).json().get("entries");
+    }
+
     @Test
     void concurrentOneLineRequestsAreAllCountedInTheReceiptsOfTheirCallers() throws Exception {
         serve.start(dir);
@@ -85,7 +89,14 @@ class ServeApiTest {
             pool.shutdownNow();
         }
 
-        JsonNode received = serve.get("/api/v1/ledger?kind=transitions-received&limit=1000", VERA).json().get("entries");
+        // the receipts stay open for a second (ReceiptCloser), then every request is in the ledger
+        long requests = (long) threads * each;
+        awaitTrue("every request is in a transitions-received entry", Duration.ofSeconds(30), () -> {
+            long counted = 0;
+            for (JsonNode e : receipts()) counted += e.get("requests").asLong();
+            return counted == requests;
+        });
+        JsonNode received = receipts();
         java.util.Map<String, long[]> by = new java.util.TreeMap<>();
         for (JsonNode e : received) {
             long[] sums = by.computeIfAbsent(e.get("by").asText(), k -> new long[3]);
@@ -123,7 +134,8 @@ class ServeApiTest {
         assertThat(health.get("unhealthy").asInt()).isEqualTo(1);
         assertThat(health.at("/unhealthy_clusters/0/cluster").asText()).isEqualTo("tickets-12");
         assertThat(health.at("/unhealthy_clusters/0/signals")).hasSize(2);
-        JsonNode received = serve.get("/api/v1/ledger?kind=transitions-received", VERA).json().get("entries");
+        awaitTrue("the request's receipt is in the ledger", Duration.ofSeconds(30), () -> !receipts().isEmpty());
+        JsonNode received = receipts();
         assertThat(received).hasSize(1);
         assertThat(received.get(0).get("by").asText()).isEqualTo("olga");
         assertThat(received.get(0).get("from").asText()).isEqualTo("127.0.0.1");

@@ -92,6 +92,18 @@ public interface StoreTx extends StoreReader {
      */
     void putStreamOffset(String topic, int partition, long nextOffset);
 
+    /**
+     * Adds each receipt's counts to the open receipt of its kind and caller, or opens one: the
+     * counts are summed, {@code first} is the earliest and {@code last} the latest of the two.
+     */
+    void addToOpenReceipts(List<OpenReceipt> receipts);
+
+    /**
+     * Every open receipt, the oldest {@code first} first, removed from the store: the caller
+     * appends them to the ledger in this transaction, so that none is lost or written twice.
+     */
+    List<OpenReceipt> takeOpenReceipts();
+
     /** Puts a page in the outbox, unless a page with its id is there already (then nothing changes). */
     void enqueuePage(PageRow page);
 

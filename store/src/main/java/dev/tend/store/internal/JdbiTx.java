@@ -346,17 +346,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         Objects.requireNonNull(snap, "snapshot");
         if (keep < 1) throw new IllegalArgumentException("keep must be at least 1, got " + keep);
         flush();
-        handle.createUpdate("DELETE FROM snapshots WHERE seq = :seq").bind("seq", snap.seq()).execute();
-        handle.createUpdate("INSERT INTO snapshots (seq, taken_ns, format, setup, body) VALUES (:seq, :taken, :format, :setup, :body)")
-                .bind("seq", snap.seq())
-                .bind("taken", Times.toNanos(snap.takenAt(), "SnapshotRow.takenAt"))
-                .bind("format", snap.format())
-                .bind("setup", snap.setup())
-                .bind("body", snap.body())
-                .execute();
-        handle.createUpdate("DELETE FROM snapshots WHERE seq NOT IN (SELECT seq FROM snapshots ORDER BY seq DESC LIMIT :keep)")
-                .bind("keep", keep)
-                .execute();
+        SnapshotWrites.put(handle, snap, keep);
     }
 
     @Override
@@ -367,10 +357,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         if (nextOffset < 0) throw new IllegalArgumentException("nextOffset must be 0 or more, got " + nextOffset);
         handle.createUpdate("INSERT INTO stream_offsets (topic, part, next_offset) VALUES (:topic, :part, :next) "
                         + "ON CONFLICT (topic, part) DO UPDATE SET next_offset = excluded.next_offset")
-                .bind("topic", topic)
-                .bind("part", partition)
-                .bind("next", nextOffset)
-                .execute();
+                .bind("topic", topic).bind("part", partition).bind("next", nextOffset).execute();
     }
 
     @Override
@@ -389,6 +376,18 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
                 .bind("through", throughSeq)
                 .bind("before", Times.toNanos(before, "before"))
                 .execute();
+    }
+
+    @Override
+    public void addToOpenReceipts(List<dev.tend.store.OpenReceipt> receipts) {
+        requireOpen();
+        OpenReceipts.add(statements, handle.getConnection(), List.copyOf(receipts));
+    }
+
+    @Override
+    public List<dev.tend.store.OpenReceipt> takeOpenReceipts() {
+        requireOpen();
+        return OpenReceipts.take(statements, handle.getConnection());
     }
 
     @Override
