@@ -173,6 +173,8 @@ public final class Database implements AutoCloseable {
         config.setSynchronous(SQLiteConfig.SynchronousMode.NORMAL);
         config.setBusyTimeout((int) SQLITE_BUSY_TIMEOUT.toMillis());
         config.setTransactionMode(mode);
+        // no "SELECT last_insert_rowid()" prepared and run after every INSERT: the store numbers its rows itself
+        config.setGetGeneratedKeys(false);
         return config;
     }
 
