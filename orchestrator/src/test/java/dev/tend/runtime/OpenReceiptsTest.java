@@ -79,16 +79,17 @@ class OpenReceiptsTest {
         }
     }
 
-    @Test
-    void receiptsStayOpenUntilASecondHasPassedThenBecomeOneEntryPerCaller() throws Exception {
-        VirtualClock clock = VirtualClock.at(T);
-        try (Store store = Store.openSqlite(dir.resolve("tend.db")); QuartzTimers quartz = new QuartzTimers();
-             dev.tend.executor.SimulatedExecutor sim = new dev.tend.executor.SimulatedExecutor(1, 100)) {
-            Orchestrator orch = new Orchestrator(store, FixHeartbeatFixture.setup(dir), Map.of("simulated", sim), quartz, n -> { }, clock);
+    /** An orchestrator on {@code store}, recovered, whose driver runs on a thread of its own until {@link #stop}. */
+    private final class Running {
+        final Orchestrator orch;
+        private final Thread driver;
+        private final java.util.concurrent.atomic.AtomicReference<RuntimeException> failure = new java.util.concurrent.atomic.AtomicReference<>();
+
+        Running(Store store, VirtualClock clock, QuartzTimers quartz, dev.tend.executor.SimulatedExecutor sim) throws Exception {
+            orch = new Orchestrator(store, FixHeartbeatFixture.setup(dir), Map.of("simulated", sim), quartz, n -> { }, clock);
             quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
             orch.recover();
-            java.util.concurrent.atomic.AtomicReference<RuntimeException> failure = new java.util.concurrent.atomic.AtomicReference<>();
-            Thread driver = new Thread(() -> {
+            driver = new Thread(() -> {
                 try {
                     orch.runUntil(() -> false);
                 } catch (InterruptedException e) {
@@ -98,6 +99,23 @@ class OpenReceiptsTest {
                 }
             }, "test-driver");
             driver.start();
+        }
+
+        /** Stops the driver (a clean stop) and checks that it did not fail. */
+        void stop() throws InterruptedException {
+            orch.stop();
+            driver.join();
+            assertThat(failure.get()).as("the driver's failure").isNull();
+        }
+    }
+
+    @Test
+    void receiptsStayOpenUntilASecondHasPassedThenBecomeOneEntryPerCaller() throws Exception {
+        VirtualClock clock = VirtualClock.at(T);
+        try (Store store = Store.openSqlite(dir.resolve("tend.db")); QuartzTimers quartz = new QuartzTimers();
+             dev.tend.executor.SimulatedExecutor sim = new dev.tend.executor.SimulatedExecutor(1, 100)) {
+            Running running = new Running(store, clock, quartz, sim);
+            Orchestrator orch = running.orch;
             // a starting driver closes whatever a crash may have left open, at once: nothing here
             orch.submitEventAndWait(transition(0, SignalState.SILENT)).get();
 
@@ -123,9 +141,7 @@ class OpenReceiptsTest {
             assertThat(openRows()).isZero();
 
             orch.submitEventAndWait(transition(5, SignalState.CLEAR), receipt("otto")).get();
-            orch.stop();
-            driver.join();
-            assertThat(failure.get()).as("the driver's failure").isNull();
+            running.stop();
             assertThat(receipts(store)).as("a clean stop closes what is open").hasSize(3);
             assertThat(store.read(r -> r.verifyLedger()).ok()).isTrue();
         }
@@ -142,24 +158,9 @@ class OpenReceiptsTest {
         VirtualClock clock = VirtualClock.at(T);
         try (Store store = Store.openSqlite(dir.resolve("tend.db")); QuartzTimers quartz = new QuartzTimers();
              dev.tend.executor.SimulatedExecutor sim = new dev.tend.executor.SimulatedExecutor(1, 100)) {
-            Orchestrator orch = new Orchestrator(store, FixHeartbeatFixture.setup(dir), Map.of("simulated", sim), quartz, n -> { }, clock);
-            quartz.fireInto(k -> orch.submit(new Input.TimerFired(k)));
-            orch.recover();
-            java.util.concurrent.atomic.AtomicReference<RuntimeException> failure = new java.util.concurrent.atomic.AtomicReference<>();
-            Thread driver = new Thread(() -> {
-                try {
-                    orch.runUntil(() -> false);
-                } catch (InterruptedException e) {
-                    Thread.currentThread().interrupt();
-                } catch (RuntimeException e) {
-                    failure.set(e);
-                }
-            }, "test-driver");
-            driver.start();
+            Running running = new Running(store, clock, quartz, sim);
             await("the started driver closed them", () -> receipts(store).size() == 1);
-            orch.stop();
-            driver.join();
-            assertThat(failure.get()).as("the driver's failure").isNull();
+            running.stop();
 
             JsonNode e = receipts(store).get(0);
             assertThat(e.get("by").asText()).isEqualTo("olga");
