@@ -49,10 +49,9 @@ final class OpenReceipts {
             ps.setLong(5, r.requests());
             ps.setLong(6, Times.nanos(r.first(), "OpenReceipt.first"));
             ps.setLong(7, Times.nanos(r.last(), "OpenReceipt.last"));
-            if (receipts.size() == 1) ps.executeUpdate();
-            else ps.addBatch();
+            ps.addBatch();
         }
-        if (receipts.size() > 1) ps.executeBatch();
+        ps.executeBatch();
     }
 
     /** Every open receipt, the oldest first, deleted from the table. */
