@@ -26,7 +26,7 @@ final class SnapshotKeeper {
 
     private final Store store;
     private final EngineSetup setup;
-    private String fingerprint;
+    private volatile String fingerprint;
     /** Runs each encoding on a daemon thread of its own (one every few thousand inputs at most). */
     private static final Executor ENCODER = task -> {
         Thread t = new Thread(task, "tend-snapshot");
@@ -53,7 +53,7 @@ final class SnapshotKeeper {
 
     /** The tail to build the engine from: the warm one adopted, else one opened on the store's newest snapshot. */
     JournalTail tail() {
-        JournalTail tail = warm != null ? warm : JournalTail.open(store, setup, fingerprint());
+        JournalTail tail = warm != null ? warm : JournalTail.open(store, setup, this::fingerprint);
         warm = null;
         return tail;
     }
@@ -93,8 +93,8 @@ final class SnapshotKeeper {
         if (seq == 0) return false;
         Map<String, Long> sources = new TreeMap<>(progressFound);
         if (source != null) sources.put(source, sourceDone);
-        String setupPrint = fingerprint();
-        encoding = CompletableFuture.supplyAsync(() -> SnapshotCodec.encode(seq, at, setupPrint, state, sources), ENCODER);
+        // the setup's fingerprint too is made on the encoder's thread, the first time
+        encoding = CompletableFuture.supplyAsync(() -> SnapshotCodec.encode(seq, at, fingerprint(), state, sources), ENCODER);
         return true;
     }
 
@@ -110,8 +110,10 @@ final class SnapshotKeeper {
         store.useTransaction(tx -> tx.putSnapshot(row, KEPT));
     }
 
+    /** The setup's fingerprint, made when first needed (on the driver's or the encoder's thread; made twice at worst, alike). */
     private String fingerprint() {
-        if (fingerprint == null) fingerprint = SnapshotCodec.fingerprint(setup);
-        return fingerprint;
+        String f = fingerprint;
+        if (f == null) fingerprint = f = SnapshotCodec.fingerprint(setup);
+        return f;
     }
 }

@@ -81,6 +81,7 @@ public final class Database implements AutoCloseable {
                     + e + "); check the path and its permissions", e);
         }
         String url = "jdbc:sqlite:" + path;
+        SqliteNativeLibrary.prepare();
         SQLiteConfig writerConfig = sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE);
         writerConfig.setWalAutocheckpoint(0); // the checkpointer's thread copies the log, not the committing one
         SQLiteDataSource writerSource = new SQLiteDataSource(writerConfig);
