@@ -32,7 +32,7 @@ final class CommitWriter {
     }
 
     /** Batches of at least this many ledger entries have their chain hashed aside (a thread handover each). */
-    private static final int LINK_ASIDE_FROM = 256;
+    static final int LINK_ASIDE_FROM = 256;
     /**
      * Hashes the ledger chain of big batches beside the commit's other writes: SHA-256 of each
      * entry was a tenth of the committing thread's time in a 1,000,000-line ingest (DEVELOPERS.md, "Ingest").

@@ -37,18 +37,14 @@ final class Driver {
      * waking the driver again would cost more than deciding the next batch meanwhile saves.
      */
     private static final int PIPELINE_FROM = 64;
-    /**
-     * How long the idle driver sleeps before it looks at {@code done} and the checkpoints
-     * again; any input wakes it at once (see {@link Inbox}).
-     */
+    /** A batch reads the clock every this many inputs, which share the instant (DEVELOPERS.md, "Ingest"). */
+    static final int CLOCK_EVERY = 64;
+    /** How long the idle driver sleeps before it looks at {@code done} and the checkpoints again; any input wakes it ({@link Inbox}). */
     private static final long IDLE_NANOS = 20_000_000;
 
     private final Store store;
     private final SnapshotPolicy snapshotPolicy;
-    /**
-     * Replaced at {@link #loadState} and by a rebuilt one when a batch must be taken apart (see
-     * {@link #retryOneByOne}); read by other threads only through {@link #engine()}.
-     */
+    /** Replaced at {@link #loadState} and when a batch is taken apart ({@link #retryOneByOne}); read via {@link #engine()}. */
     private volatile Engine engine;
     private final SnapshotKeeper snapshots;
     private long sinceSnapshot;
@@ -238,9 +234,10 @@ final class Driver {
         List<Instant> times = new ArrayList<>(batch.size());
         List<List<Effect>> perInput = new ArrayList<>(batch.size());
         List<Projections.Prepared> prepared = new ArrayList<>(batch.size());
+        Instant now = null;
         for (int i = 0; i < batch.size(); i++) {
             Input in = batch.get(i);
-            Instant now = clock.instant();
+            if (i % CLOCK_EVERY == 0) now = clock.instant();
             List<Effect> fx = engine.handle(in, now);
             all.addAll(fx);
             times.add(now);
@@ -248,6 +245,7 @@ final class Driver {
             prepared.add(Projections.Prepared.of(now, fx));
             if (in instanceof Input.ExecutorResult r && !r.clears().isEmpty()) SimulatedClears.queueBehind(engine, r, batch);
         }
+        Projections.Prepared.renderFor(prepared, waiters.hasReceipts());
         long before = pipeline.sourceAfter(sourceDone);
         long after = before + queued.cardinality();
         InputRow progress = source != null && after > before ? SourceProgress.row(source, after, times.get(times.size() - 1)) : null;

@@ -40,24 +40,40 @@ final class Projections {
 
     /**
      * What an input's effects write that needs no transaction, made ahead: their ledger
-     * drafts, rendered (notifications included), and the pages they put in the outbox, each
-     * in the order of the effects. The driver prepares a batch while the batch before is
-     * written, so that the committing thread, which every commit waits for, only writes.
+     * drafts (notifications included) and the pages they put in the outbox, each in the order
+     * of the effects. The driver prepares a batch while the batch before is written, so that
+     * the committing thread, which every commit waits for, only writes; see {@link #renderFor}
+     * for where the drafts' texts are rendered.
      */
     record Prepared(List<LedgerDraft> ledger, List<PageRow> pages) {
+        /**
+         * Renders the drafts of a decided batch on the calling thread (the driver's) when its
+         * commit will hash their chain itself: a batch of fewer than {@link CommitWriter#LINK_ASIDE_FROM}
+         * drafts, or one that answers callers (its receipts join the chain). A bigger batch's
+         * chain is hashed on a thread beside its commit, which renders each text as it hashes
+         * it: rendering them on the driver was about a tenth of its time in a 1,000,000-line
+         * ingest, while that thread waited for work (DEVELOPERS.md, "Ingest").
+         */
+        static void renderFor(List<Prepared> batch, boolean answersCallers) {
+            int drafts = 0;
+            for (Prepared p : batch) drafts += p.ledger().size();
+            if (drafts >= CommitWriter.LINK_ASIDE_FROM && !answersCallers) return;
+            for (Prepared p : batch) for (LedgerDraft d : p.ledger()) d.render();
+        }
+
         static Prepared of(Instant at, List<Effect> effects) {
             List<LedgerDraft> ledger = new ArrayList<>(2);
             List<PageRow> pages = List.of();
             for (Effect e : effects) {
                 if (e instanceof Effect.Ledger l) {
-                    ledger.add(new LedgerDraft(at, l.kind(), l.fields()).render());
+                    ledger.add(new LedgerDraft(at, l.kind(), l.fields()));
                 } else if (e instanceof Effect.Notify n) {
                     Map<String, Object> f = new LinkedHashMap<>(n.fields());
                     f.put("id", n.id());
                     f.put("page_kind", n.kind());
                     f.put("channel", n.channel());
                     f.put("message", n.message());
-                    ledger.add(new LedgerDraft(at, LedgerKind.NOTIFICATION.wire(), LedgerKind.NOTIFICATION.check(f)).render());
+                    ledger.add(new LedgerDraft(at, LedgerKind.NOTIFICATION.wire(), LedgerKind.NOTIFICATION.check(f)));
                     Map<String, Object> payload = new LinkedHashMap<>();
                     payload.put("id", n.id());
                     payload.put("channel", n.channel());
