@@ -24,6 +24,17 @@ class WriterSettingsTest {
     }
 
     @Test
+    void everyConnectionCutsTheLogBackTo64MegabytesWhenItStartsOver() {
+        try (Database db = Database.sqlite(dir.resolve("limit.db"))) {
+            // PRAGMA journal_size_limit: the bytes a log file is truncated to after it is reset (SQLite's documentation of the pragma)
+            long writer = db.writeJdbi().withHandle(h -> h.createQuery("PRAGMA journal_size_limit").mapTo(Long.class).one());
+            long reader = db.readJdbi().withHandle(h -> h.createQuery("PRAGMA journal_size_limit").mapTo(Long.class).one());
+            assertEquals(64L << 20, writer);
+            assertEquals(64L << 20, reader, "the last connection to close is often a reader's");
+        }
+    }
+
+    @Test
     void aMultiRowInsertThatFailsPartWayStillUndoesItsEarlierRows() {
         try (Database db = Database.sqlite(dir.resolve("undo.db"))) {
             db.writeJdbi().useHandle(h -> {
