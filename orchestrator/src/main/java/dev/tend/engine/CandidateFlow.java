@@ -55,7 +55,7 @@ final class CandidateFlow {
 
     /** Looks at the candidates named (as {@link Candidate.Key#toString()}) again before the input is done. */
     void queue(Collection<String> names) {
-        work.addAll(names);
+        if (!names.isEmpty()) work.addAll(names);
     }
 
     /** True when no candidate waits to be looked at: the state between inputs. */
@@ -69,6 +69,7 @@ final class CandidateFlow {
      * evaluations may queue more, until none is left.
      */
     void drain(Effects fx) {
+        if (work.isEmpty()) return; // the state between most inputs: no list made for nothing
         int guard = 0;
         List<Candidates.Entry> batch = new ArrayList<>();
         while (!work.isEmpty()) {

@@ -167,6 +167,8 @@ final class Candidates {
     }
 
     private static List<String> due(TreeMap<Instant, Set<String>> agenda, Instant t) {
+        // asked at every event: most of the time nothing is due, and no list is made for that
+        if (agenda.isEmpty() || agenda.firstKey().isAfter(t)) return List.of();
         List<String> out = new ArrayList<>();
         while (!agenda.isEmpty() && !agenda.firstKey().isAfter(t)) out.addAll(agenda.pollFirstEntry().getValue());
         return out;

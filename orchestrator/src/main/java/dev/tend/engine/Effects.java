@@ -12,7 +12,8 @@ import java.util.Set;
 
 /** Collects the effects of handling one input, in order. Not thread-safe; one per input. */
 public final class Effects {
-    private final List<Effect> out = new ArrayList<>();
+    /** Made at the first effect: most inputs of a file have none, and under C1 an empty list is still an allocation. */
+    private List<Effect> out = List.of();
     private final Instant now;
     private final Set<LedgerKind> kept;
 
@@ -31,7 +32,12 @@ public final class Effects {
     }
 
     public void add(Effect e) {
-        out.add(e);
+        writable().add(e);
+    }
+
+    private List<Effect> writable() {
+        if (!(out instanceof ArrayList)) out = new ArrayList<>(4);
+        return out;
     }
 
     /** True when these effects carry ledger entries of {@code kind}: a caller may skip making an entry's values otherwise. */
@@ -42,7 +48,7 @@ public final class Effects {
     /** A ledger entry; {@code kv} alternates keys and values; null values are left out. */
     public void ledger(LedgerKind kind, Object... kv) {
         if (kept != null && !kept.contains(kind)) return;
-        out.add(new Effect.Ledger(kind, fields(kv)));
+        writable().add(new Effect.Ledger(kind, fields(kv)));
     }
 
     /**
@@ -99,11 +105,11 @@ public final class Effects {
     }
 
     public void arm(TimerKey key, Instant due) {
-        out.add(new Effect.ArmTimer(key.wire(), due));
+        writable().add(new Effect.ArmTimer(key.wire(), due));
     }
 
     public void cancel(TimerKey key) {
-        out.add(new Effect.CancelTimer(key.wire()));
+        writable().add(new Effect.CancelTimer(key.wire()));
     }
 
     public List<Effect> list() {

@@ -61,7 +61,12 @@ final class Projections {
             for (Prepared p : batch) for (LedgerDraft d : p.ledger()) d.render();
         }
 
+        /** What an input without effects writes: nothing (most transitions of a file decide nothing). */
+        private static final Prepared NOTHING = new Prepared(List.of(), List.of());
+
         static Prepared of(Instant at, List<Effect> effects) {
+            // under C1, which ingest runs with, every list and iterator made here is allocated: none for no effects
+            if (effects.isEmpty()) return NOTHING;
             List<LedgerDraft> ledger = new ArrayList<>(2);
             List<PageRow> pages = List.of();
             for (Effect e : effects) {
@@ -99,6 +104,7 @@ final class Projections {
      * {@code ledger}; of the timer operations, none in {@code replaced} (see {@link TimerOps}).
      */
     static void apply(StoreTx tx, Instant at, List<Effect> effects, Prepared prepared, List<LedgerDraft> ledger, Set<Effect> replaced) {
+        if (effects.isEmpty()) return;
         int drafts = 0;
         int pages = 0;
         for (Effect e : effects) {

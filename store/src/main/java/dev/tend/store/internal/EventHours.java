@@ -5,9 +5,7 @@ import dev.tend.store.InputRow;
 import java.sql.Connection;
 import java.sql.PreparedStatement;
 import java.sql.SQLException;
-import java.util.LinkedHashMap;
-import java.util.List;
-import java.util.Map;
+import java.util.Arrays;
 
 /**
  * The hours of event time of the journal (table {@code journal_event_hours}, V2_23): for each
@@ -49,21 +47,39 @@ final class EventHours {
     }
 
     /** Widens the hours of {@code rows} (numbered, about to be inserted) to take them in. */
-    static void record(StatementCache statements, Connection connection, List<InputRow> rows) throws SQLException {
-        Map<Long, long[]> hours = new LinkedHashMap<>(); // a batch spans an hour or two of event time
-        for (InputRow r : rows) {
-            if (!counts(r)) continue;
-            long[] range = hours.computeIfAbsent(of(Times.nanos(r.eventAt(), "InputRow.eventAt")),
-                    h -> new long[]{Long.MAX_VALUE, Long.MIN_VALUE});
-            range[0] = Math.min(range[0], r.seq());
-            range[1] = Math.max(range[1], r.seq());
+    static void record(StatementCache statements, Connection connection, PendingInputs rows) throws SQLException {
+        // a batch spans an hour or two of event time: a short list, searched from its end, in primitives
+        long[] hours = new long[4];
+        long[] firstSeqs = new long[4];
+        long[] lastSeqs = new long[4];
+        int n = 0;
+        for (int i = 0, size = rows.size(); i < size; i++) {
+            if (!counts(rows.row(i))) continue;
+            long hour = of(rows.eventAtNanos(i));
+            long seq = rows.seq(i);
+            int h = n - 1;
+            while (h >= 0 && hours[h] != hour) h--;
+            if (h < 0) {
+                if (n == hours.length) {
+                    hours = Arrays.copyOf(hours, n * 2);
+                    firstSeqs = Arrays.copyOf(firstSeqs, n * 2);
+                    lastSeqs = Arrays.copyOf(lastSeqs, n * 2);
+                }
+                h = n++;
+                hours[h] = hour;
+                firstSeqs[h] = seq;
+                lastSeqs[h] = seq;
+            } else {
+                firstSeqs[h] = Math.min(firstSeqs[h], seq);
+                lastSeqs[h] = Math.max(lastSeqs[h], seq);
+            }
         }
-        if (hours.isEmpty()) return;
+        if (n == 0) return;
         PreparedStatement ps = statements.prepare(connection, UPSERT);
-        for (Map.Entry<Long, long[]> h : hours.entrySet()) {
-            ps.setLong(1, h.getKey());
-            ps.setLong(2, h.getValue()[0]);
-            ps.setLong(3, Math.floorDiv(h.getValue()[1] + LAST_SEQ_STEP - 1, LAST_SEQ_STEP) * LAST_SEQ_STEP);
+        for (int h = 0; h < n; h++) {
+            ps.setLong(1, hours[h]);
+            ps.setLong(2, firstSeqs[h]);
+            ps.setLong(3, Math.floorDiv(lastSeqs[h] + LAST_SEQ_STEP - 1, LAST_SEQ_STEP) * LAST_SEQ_STEP);
             ps.addBatch();
         }
         ps.executeBatch();

@@ -26,8 +26,9 @@ import java.util.Objects;
  */
 public final class JdbiTx extends JdbiReader implements StoreTx {
     static final int BATCH = 2048;
-    private static final RowInserts<InputRow> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, JdbiTx::bindInput);
-    private static final RowInserts<LedgerEntry> LEDGER = new RowInserts<>("ledger", Rows.LEDGER_COLUMNS, 9, JdbiTx::bindLedger);
+    private static final RowInserts<PendingInputs> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, JdbiTx::bindInput);
+    private static final RowInserts<List<LedgerEntry>> LEDGER = new RowInserts<>("ledger", Rows.LEDGER_COLUMNS, 9,
+            (ps, first, entries, i) -> bindLedger(ps, first, entries.get(i)));
     private static final String UPDATE_HEAD = "UPDATE ledger_head SET seq = ?, hash = ? WHERE id = 1";
     private static final String ARM_TIMER = "INSERT INTO timers (" + Rows.TIMER_COLUMNS + ") VALUES (?, ?, ?) "
             + "ON CONFLICT (timer_key) DO UPDATE SET due_ns = excluded.due_ns, payload = excluded.payload";
@@ -37,7 +38,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     private final StatementCache statements;
     /** Journal rows and ledger entries go as multi-row statements (SQLite; see {@link RowInserts}). */
     private final boolean multiRow;
-    private final List<InputRow> pendingInputs = new ArrayList<>();
+    private final PendingInputs pendingInputs = new PendingInputs();
     private final List<LedgerEntry> pendingLedger = new ArrayList<>();
     private Heads heads;
     private boolean ledgerHeadDirty;
@@ -66,7 +67,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
             // the hot path of ingest: plain JDBC on the transaction's connection, no per-argument mapping
             try {
                 EventHours.record(statements, handle.getConnection(), pendingInputs);
-                INPUTS.insert(statements, handle.getConnection(), pendingInputs, multiRow);
+                INPUTS.insert(statements, handle.getConnection(), pendingInputs, pendingInputs.size(), multiRow);
             } catch (java.sql.SQLException e) {
                 throw new org.jdbi.v3.core.ConnectionException(e);
             }
@@ -76,7 +77,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
             // plain JDBC on statements kept prepared: the ledger's share of every commit
             try {
                 if (!pendingLedger.isEmpty()) {
-                    LEDGER.insert(statements, handle.getConnection(), pendingLedger, multiRow);
+                    LEDGER.insert(statements, handle.getConnection(), pendingLedger, pendingLedger.size(), multiRow);
                     pendingLedger.clear();
                 }
                 if (ledgerHeadDirty) {
@@ -92,12 +93,13 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         }
     }
 
-    private static void bindInput(java.sql.PreparedStatement ps, int first, InputRow r) throws java.sql.SQLException {
-        ps.setLong(first + 1, r.seq());
+    private static void bindInput(java.sql.PreparedStatement ps, int first, PendingInputs rows, int i) throws java.sql.SQLException {
+        InputRow r = rows.row(i);
+        ps.setLong(first + 1, rows.seq(i));
         ps.setString(first + 2, r.kind());
-        ps.setLong(first + 3, Times.nanos(r.now(), "InputRow.now"));
+        ps.setLong(first + 3, rows.nowNanos(i));
         if (r.eventAt() == null) ps.setNull(first + 4, java.sql.Types.BIGINT);
-        else ps.setLong(first + 4, Times.nanos(r.eventAt(), "InputRow.eventAt"));
+        else ps.setLong(first + 4, rows.eventAtNanos(i));
         text(ps, first + 5, r.cluster());
         ps.setString(first + 6, r.payload());
     }
@@ -127,16 +129,8 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     @Override
     public long appendInput(InputRow row) {
         requireOpen();
-        Objects.requireNonNull(row, "row");
-        if (row.seq() != 0) {
-            throw new IllegalArgumentException("appendInput takes rows with seq 0 (the store numbers them), got seq " + row.seq());
-        }
-        Times.nanos(row.now(), "InputRow.now");
-        if (row.eventAt() != null) Times.nanos(row.eventAt(), "InputRow.eventAt");
-        long seq = claim().inputSeq() + 1;
-        pendingInputs.add(row.withSeq(seq));
+        long seq = append(row, claim().inputSeq() + 1);
         heads = heads.withInputSeq(seq);
-        if (pendingInputs.size() >= BATCH) flush();
         return seq;
     }
 
@@ -144,9 +138,22 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
     public long appendInputs(List<InputRow> rows) {
         requireOpen();
         Objects.requireNonNull(rows, "rows");
-        long last = rows.isEmpty() ? lastInputSeq() : 0;
-        for (InputRow row : rows) last = appendInput(row);
-        return last;
+        if (rows.isEmpty()) return lastInputSeq();
+        long seq = claim().inputSeq();
+        for (int i = 0, n = rows.size(); i < n; i++) seq = append(rows.get(i), seq + 1); // the heads move once, below
+        heads = heads.withInputSeq(seq);
+        return seq;
+    }
+
+    /** Adds {@code row} (seq 0, the store numbers it) to the rows to send as {@code seq}. */
+    private long append(InputRow row, long seq) {
+        Objects.requireNonNull(row, "row");
+        if (row.seq() != 0) {
+            throw new IllegalArgumentException("appendInput takes rows with seq 0 (the store numbers them), got seq " + row.seq());
+        }
+        pendingInputs.add(row, seq);
+        if (pendingInputs.size() >= BATCH) flush();
+        return seq;
     }
 
     @Override

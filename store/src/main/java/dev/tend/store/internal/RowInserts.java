@@ -16,16 +16,16 @@ import java.util.List;
  *
  * <p>Immutable and thread-safe; the statements come from the transaction's {@link StatementCache}.
  *
- * @param <T> the row type
+ * @param <T> what holds the rows, each bound by its index
  */
 final class RowInserts<T> {
     /** Rows per multi-row statement: 20 x 9 parameters stays far below SQLite's limit of 32,766. */
     static final int ROWS_PER_STATEMENT = 20;
 
-    /** Binds one row's values to the parameters {@code first + 1} to {@code first + columns}. */
+    /** Binds the values of row {@code index} of {@code rows} to the parameters {@code first + 1} to {@code first + columns}. */
     @FunctionalInterface
     interface Binder<T> {
-        void bind(PreparedStatement ps, int first, T row) throws SQLException;
+        void bind(PreparedStatement ps, int first, T rows, int index) throws SQLException;
     }
 
     private final int columns;
@@ -43,14 +43,13 @@ final class RowInserts<T> {
         this.manyRows = head + String.join(", ", java.util.Collections.nCopies(ROWS_PER_STATEMENT, values));
     }
 
-    /** Inserts {@code rows}, in their order, on {@code connection}; {@code multiRow} on SQLite. */
-    void insert(StatementCache statements, Connection connection, List<T> rows, boolean multiRow) throws SQLException {
+    /** Inserts the {@code n} rows of {@code rows}, in their order, on {@code connection}; {@code multiRow} on SQLite. */
+    void insert(StatementCache statements, Connection connection, T rows, int n, boolean multiRow) throws SQLException {
         int i = 0;
-        int n = rows.size();
         if (multiRow && n >= ROWS_PER_STATEMENT) {
             PreparedStatement many = statements.prepare(connection, manyRows);
             for (; i + ROWS_PER_STATEMENT <= n; i += ROWS_PER_STATEMENT) {
-                for (int r = 0; r < ROWS_PER_STATEMENT; r++) binder.bind(many, r * columns, rows.get(i + r));
+                for (int r = 0; r < ROWS_PER_STATEMENT; r++) binder.bind(many, r * columns, rows, i + r);
                 many.addBatch();
             }
             many.executeBatch();
@@ -58,7 +57,7 @@ final class RowInserts<T> {
         if (i == n) return;
         PreparedStatement one = statements.prepare(connection, oneRow);
         for (; i < n; i++) {
-            binder.bind(one, 0, rows.get(i));
+            binder.bind(one, 0, rows, i);
             one.addBatch();
         }
         one.executeBatch();
