@@ -52,9 +52,8 @@ public final class FleetHealthView {
      */
     private SignalNumbering numbering;
     private SignalSlot[] numbered = new SignalSlot[0];
-    /** The last answer of {@link #clusterSpec} and for which id (the instance); forgotten when the topology changes. */
-    private Id lastClusterId;
-    private ClusterSpec lastCluster;
+    /** {@link #clusterSpec}'s answers by id instance (a reader's ids are canonical), at most 65,536; forgotten when the topology changes. */
+    private final Map<Id, Optional<ClusterSpec>> specs = new java.util.IdentityHashMap<>();
     private final Map<dev.tend.shared.Target, Instant> topologyAppliedAt = new HashMap<>();
     /** Clusters with at least one active problem signal (node or cluster level), with their counts. */
     private final Map<Id, Problems> problems = new HashMap<>();
@@ -78,11 +77,12 @@ public final class FleetHealthView {
      * times or more) until the topology changes.
      */
     public ClusterSpec clusterSpec(Id id) {
-        if (id == lastClusterId) return lastCluster;
-        ClusterSpec spec = topology.cluster(id).orElse(null);
-        lastClusterId = id;
-        lastCluster = spec;
-        return spec;
+        Optional<ClusterSpec> spec = specs.get(id); // the fleet's map compared each reader's id with its own, text by text
+        if (spec == null) {
+            if (specs.size() >= 1 << 16) specs.clear(); // ids that are not canonical: each instance would stay
+            specs.put(id, spec = topology.cluster(id));
+        }
+        return spec.orElse(null);
     }
 
     /** Applies a transition and says what it did. */
@@ -159,8 +159,7 @@ public final class FleetHealthView {
             cluster = cluster.withNode(node);
         }
         topology = topology.withCluster(cluster);
-        lastClusterId = null;
-        lastCluster = null;
+        specs.clear();
         // an answer of isInTopology depends only on whether the cluster and the node are there
         if (clusterBefore != topology.contains(e.cluster(), null) || nodeBefore != topology.contains(e.cluster(), e.node())) {
             topologyVersion++;
