@@ -26,7 +26,7 @@ import java.util.Objects;
  */
 public final class JdbiTx extends JdbiReader implements StoreTx {
     static final int BATCH = 2048;
-    private static final RowInserts<PendingInputs> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, JdbiTx::bindInput);
+    private static final RowInserts<PendingInputs> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, PendingInputs::bind);
     private static final RowInserts<List<LedgerEntry>> LEDGER = new RowInserts<>("ledger", Rows.LEDGER_COLUMNS, 9,
             (ps, first, entries, i) -> bindLedger(ps, first, entries.get(i)));
     private static final String UPDATE_HEAD = "UPDATE ledger_head SET seq = ?, hash = ? WHERE id = 1";
@@ -93,17 +93,6 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
         }
     }
 
-    private static void bindInput(java.sql.PreparedStatement ps, int first, PendingInputs rows, int i) throws java.sql.SQLException {
-        InputRow r = rows.row(i);
-        ps.setLong(first + 1, rows.seq(i));
-        ps.setString(first + 2, r.kind());
-        ps.setLong(first + 3, rows.nowNanos(i));
-        if (r.eventAt() == null) ps.setNull(first + 4, java.sql.Types.BIGINT);
-        else ps.setLong(first + 4, rows.eventAtNanos(i));
-        text(ps, first + 5, r.cluster());
-        ps.setString(first + 6, r.payload());
-    }
-
     private static void bindLedger(java.sql.PreparedStatement ps, int first, LedgerEntry e) throws java.sql.SQLException {
         ps.setLong(first + 1, e.seq());
         ps.setLong(first + 2, Times.nanos(e.at(), "LedgerDraft.at"));
@@ -147,10 +136,6 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
 
     /** Adds {@code row} (seq 0, the store numbers it) to the rows to send as {@code seq}. */
     private long append(InputRow row, long seq) {
-        Objects.requireNonNull(row, "row");
-        if (row.seq() != 0) {
-            throw new IllegalArgumentException("appendInput takes rows with seq 0 (the store numbers them), got seq " + row.seq());
-        }
         pendingInputs.add(row, seq);
         if (pendingInputs.size() >= BATCH) flush();
         return seq;

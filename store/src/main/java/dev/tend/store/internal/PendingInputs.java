@@ -23,6 +23,10 @@ final class PendingInputs {
 
     /** Adds {@code row} (seq 0) as {@code seq}, which follows the last one added since {@link #clear}. */
     void add(InputRow row, long seq) {
+        java.util.Objects.requireNonNull(row, "row");
+        if (row.seq() != 0) {
+            throw new IllegalArgumentException("appendInput takes rows with seq 0 (the store numbers them), got seq " + row.seq());
+        }
         int i = rows.size();
         if (i == 0) firstSeq = seq;
         else if (seq != firstSeq + i) throw new IllegalStateException("journal row " + seq + " does not follow " + (firstSeq + i - 1));
@@ -62,5 +66,17 @@ final class PendingInputs {
 
     void clear() {
         rows.clear();
+    }
+
+    /** Binds row {@code i} of {@code rows} to the journal's columns from parameter {@code first + 1} ({@link RowInserts.Binder}). */
+    static void bind(java.sql.PreparedStatement ps, int first, PendingInputs rows, int i) throws java.sql.SQLException {
+        InputRow r = rows.row(i);
+        ps.setLong(first + 1, rows.seq(i));
+        ps.setString(first + 2, r.kind());
+        ps.setLong(first + 3, rows.nowNanos(i));
+        if (r.eventAt() == null) ps.setNull(first + 4, java.sql.Types.BIGINT);
+        else ps.setLong(first + 4, rows.eventAtNanos(i));
+        JdbiTx.text(ps, first + 5, r.cluster());
+        ps.setString(first + 6, r.payload());
     }
 }
