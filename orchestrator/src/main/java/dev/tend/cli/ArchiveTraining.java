@@ -28,7 +28,9 @@ import java.util.stream.Stream;
  * executor calls, verdicts, transitions, a loop stop, the brake), then an ingest of invented
  * transitions over the fleet into another store there ({@link #ingest}), then the folder is
  * deleted.
- * Prints nothing; exits with the first exit code that is not 0. Not a command of tend.
+ * Before them it makes this jar's empty store, which new stores are copied from
+ * ({@link Store#makeTemplate}). Prints nothing; exits with the first exit code that is not 0.
+ * Not a command of tend.
  *
  * <p>Arguments: the tend command line of the first part.
  */
@@ -46,6 +48,11 @@ public final class ArchiveTraining {
 
     /** Runs the three parts; returns the first exit code that is not 0, else 0. */
     static int train(String[] args) throws IOException {
+        try {
+            Store.makeTemplate(); // first: its migrations' classes go into the archive too, for stores made without one
+        } catch (IOException | RuntimeException e) {
+            // the folder cannot be written: new stores are made by the migrations, as without a template
+        }
         PrintWriter none = new PrintWriter(Writer.nullWriter());
         int first = TendMain.run(args, none, none);
         Path dir = Files.createTempDirectory("tend-archive-training");

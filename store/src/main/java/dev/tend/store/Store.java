@@ -54,6 +54,15 @@ public final class Store implements AutoCloseable {
      * by another connection is waited for up to 10 seconds (busy_timeout). One process may
      * write a given file at a time; the file must be on a local disk.
      */
+    /**
+     * Makes this jar's empty SQLite store, which new stores are then copied from instead of
+     * being migrated, in the folder the launchers name (system property {@code tend.native.dir});
+     * nothing without it. For the launchers' training run (DEVELOPERS.md, "The store").
+     */
+    public static void makeTemplate() throws java.io.IOException {
+        Database.makeTemplate();
+    }
+
     public static Store openSqlite(Path file) {
         Objects.requireNonNull(file, "file");
         return new Store(Database.sqlite(file));

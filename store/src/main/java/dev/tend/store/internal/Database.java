@@ -84,6 +84,8 @@ public final class Database implements AutoCloseable {
         }
         String url = "jdbc:sqlite:" + path;
         SqliteNativeLibrary.prepare();
+        String kept = System.getProperty(SqliteNativeLibrary.DIR_PROPERTY);
+        if (kept != null && !kept.isBlank()) StoreTemplate.copyInto(Path.of(kept), path); // a new store: this jar's empty one
         SQLiteConfig writerConfig = sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE);
         writerConfig.setWalAutocheckpoint(0); // the checkpointer's thread copies the log, not the committing one
         SQLiteDataSource writerSource = new SQLiteDataSource(writerConfig);
@@ -113,6 +115,16 @@ public final class Database implements AutoCloseable {
             throw e;
         }
         return new Database(Dialect.SQLITE, location, writers, readers, new ReentrantLock(), new WalCheckpointer(checkpointSource, path));
+    }
+
+    /**
+     * Makes this jar's empty SQLite store ({@link StoreTemplate}) in the folder the launchers
+     * name in {@value SqliteNativeLibrary#DIR_PROPERTY}, unless it is there; nothing without the
+     * property. The launchers' training run calls it.
+     */
+    public static void makeTemplate() throws IOException {
+        String kept = System.getProperty(SqliteNativeLibrary.DIR_PROPERTY);
+        if (kept != null && !kept.isBlank()) StoreTemplate.make(Path.of(kept));
     }
 
     /**

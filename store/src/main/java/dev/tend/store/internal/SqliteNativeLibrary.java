@@ -64,7 +64,7 @@ public final class SqliteNativeLibrary {
      */
     public static Path keptIn(Path dir) throws IOException {
         String name = LibraryLoaderUtil.getNativeLibName();
-        Path folder = dir.resolve(keyOf(jarOf()));
+        Path folder = folderIn(dir);
         Path target = folder.resolve(name);
         Path record = folder.resolve(name + ".crc32");
         if (Files.isRegularFile(target) && Files.isRegularFile(record) && Files.readString(record).equals(recordOf(Files.readAllBytes(target)))) {
@@ -81,6 +81,11 @@ public final class SqliteNativeLibrary {
         placeWhole(record, recordOf(bytes).getBytes(StandardCharsets.US_ASCII));
         removeOthers(dir, folder);
         return target;
+    }
+
+    /** The folder under {@code dir} for what is kept for this jar and platform (the library, {@link StoreTemplate}'s empty store). */
+    static Path folderIn(Path dir) throws IOException {
+        return dir.resolve(keyOf(jarOf()));
     }
 
     /** The file sqlite-jdbc's classes are loaded from (tend's jar, or sqlite-jdbc's own). */
