@@ -15,18 +15,10 @@ import java.util.function.Supplier;
  * that no connection or file handle outlives the command.
  */
 final class OpeningStore {
-    private final CompletableFuture<Store> opening = new CompletableFuture<>();
+    private final CompletableFuture<Store> opening;
 
     private OpeningStore(Supplier<Store> open) {
-        Thread t = new Thread(() -> {
-            try {
-                opening.complete(open.get());
-            } catch (Throwable e) {
-                opening.completeExceptionally(e);
-            }
-        }, "tend-store-open");
-        t.setDaemon(true);
-        t.start();
+        opening = Futures.onThread("tend-store-open", open);
     }
 
     /** Starts opening the store {@code open} gives. */

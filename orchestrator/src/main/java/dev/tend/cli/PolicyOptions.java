@@ -28,16 +28,7 @@ final class PolicyOptions extends PolicySource {
         // The fleet file is read on a thread of its own while the playbooks are read here: on a fleet of
         // 2,000 clusters it took 0.2 s of a start and the playbooks 0.1 s (DEVELOPERS.md, "Ingest").
         // A fault in the playbooks is still the one reported when both are at fault.
-        CompletableFuture<Fleet> reading = new CompletableFuture<>();
-        Thread reader = new Thread(() -> {
-            try {
-                reading.complete(FleetFile.load(fleet));
-            } catch (Throwable e) {
-                reading.completeExceptionally(e);
-            }
-        }, "tend-fleet-read");
-        reader.setDaemon(true);
-        reader.start();
+        CompletableFuture<Fleet> reading = Futures.onThread("tend-fleet-read", () -> FleetFile.load(fleet));
         PlaybookSet set = load();
         Fleet f = Futures.joined(reading);
         return new EngineSetup(set, set.config(), f, BrakeThresholds.from(set.config().brake()), mode);

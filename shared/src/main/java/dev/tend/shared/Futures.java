@@ -9,6 +9,24 @@ public final class Futures {
     }
 
     /**
+     * {@code work} computed on a daemon thread of its own named {@code name}, while the caller
+     * goes on: the future completes with its value, or with what it threw (an {@link Error} too).
+     */
+    public static <T> CompletableFuture<T> onThread(String name, java.util.function.Supplier<T> work) {
+        CompletableFuture<T> f = new CompletableFuture<>();
+        Thread t = new Thread(() -> {
+            try {
+                f.complete(work.get());
+            } catch (Throwable e) {
+                f.completeExceptionally(e);
+            }
+        }, name);
+        t.setDaemon(true);
+        t.start();
+        return f;
+    }
+
+    /**
      * The value of {@code f} once computed; a {@link RuntimeException} or {@link Error} that
      * computing it threw is rethrown itself, not wrapped in a {@link CompletionException}.
      */

@@ -84,8 +84,8 @@ public final class Database implements AutoCloseable {
         }
         String url = "jdbc:sqlite:" + path;
         SqliteNativeLibrary.prepare();
-        String kept = System.getProperty(SqliteNativeLibrary.DIR_PROPERTY);
-        if (kept != null && !kept.isBlank()) StoreTemplate.copyInto(Path.of(kept), path); // a new store: this jar's empty one
+        Path kept = SqliteNativeLibrary.keptDir();
+        if (kept != null) StoreTemplate.copyInto(kept, path); // a new store: this jar's empty one
         SQLiteConfig writerConfig = sqliteConfig(SQLiteConfig.TransactionMode.IMMEDIATE);
         writerConfig.setWalAutocheckpoint(0); // the checkpointer's thread copies the log, not the committing one
         SQLiteDataSource writerSource = new SQLiteDataSource(writerConfig);
@@ -123,8 +123,8 @@ public final class Database implements AutoCloseable {
      * property. The launchers' training run calls it.
      */
     public static void makeTemplate() throws IOException {
-        String kept = System.getProperty(SqliteNativeLibrary.DIR_PROPERTY);
-        if (kept != null && !kept.isBlank()) StoreTemplate.make(Path.of(kept));
+        Path kept = SqliteNativeLibrary.keptDir();
+        if (kept != null) StoreTemplate.make(kept);
     }
 
     /**

@@ -33,16 +33,22 @@ public final class SqliteNativeLibrary {
     private SqliteNativeLibrary() {
     }
 
+    /** The folder the launchers name in {@value #DIR_PROPERTY}; null without it. */
+    static Path keptDir() {
+        String dir = System.getProperty(DIR_PROPERTY);
+        return dir == null || dir.isBlank() ? null : Path.of(dir);
+    }
+
     /** Points sqlite-jdbc at the kept library, unpacking it first when needed; once per process, before the first connection. */
     static void prepare() {
         if (prepared) return;
         synchronized (SqliteNativeLibrary.class) {
             if (prepared) return;
             prepared = true;
-            String dir = System.getProperty(DIR_PROPERTY);
-            if (dir == null || dir.isBlank() || System.getProperty(LIB_PATH) != null) return;
+            Path dir = keptDir();
+            if (dir == null || System.getProperty(LIB_PATH) != null) return;
             try {
-                Path lib = keptIn(Path.of(dir));
+                Path lib = keptIn(dir);
                 if (lib == null) return;
                 System.setProperty(LIB_PATH, lib.getParent().toString());
                 System.setProperty(LIB_NAME, lib.getFileName().toString());
