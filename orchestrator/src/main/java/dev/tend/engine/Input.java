@@ -28,7 +28,8 @@ public sealed interface Input {
     }
 
     /**
-     * A health transition. {@code wire} is its wire format v1 line when the reader already
+     * A health transition. {@code wire} is its wire format v1 line, or that line's compact form
+     * as the journal keeps it ({@link dev.tend.shared.wire.CompactLine}), when the reader already
      * has it (so the journal need not write it again on the engine's thread), else null.
      * {@code numbered} is its signal's key numbered by the reader ({@link SignalNumbering}), so
      * that the engine's health view finds the signal without a map lookup, else null.

@@ -7,6 +7,7 @@ import dev.tend.engine.Input;
 import dev.tend.shared.Id;
 import dev.tend.shared.Target;
 import dev.tend.shared.TendException;
+import dev.tend.shared.wire.CompactLine;
 import dev.tend.shared.wire.LineResult;
 import dev.tend.shared.wire.Rfc3339;
 import dev.tend.shared.wire.WireReader;
@@ -34,10 +35,11 @@ public final class InputCodec {
         Id cluster = in.cluster();
         String c = cluster == null ? null : cluster.value();
         if (in instanceof Input.Transition t) {
-            return InputRow.of(in.kind(), now, t.transition().at(), c, t.wire() != null ? t.wire() : WireWriter.line(t.transition()));
+            return InputRow.of(in.kind(), now, t.transition().at(), c,
+                    CompactLine.of(t.wire() != null ? t.wire() : WireWriter.line(t.transition())));
         }
         if (in instanceof Input.Topology t) {
-            return InputRow.of(in.kind(), now, t.event().at(), c, WireWriter.line(t.event()));
+            return InputRow.of(in.kind(), now, t.event().at(), c, CompactLine.of(WireWriter.line(t.event())));
         }
         Map<String, Object> m = new LinkedHashMap<>();
         if (in instanceof Input.TimerFired t) m.put("key", t.key());

@@ -16,7 +16,10 @@ import java.util.Objects;
  *                none
  * @param cluster the cluster the input is about; null when it is about none (or many)
  * @param payload the input itself as JSON text; the store keeps it byte for byte and does
- *                not parse it
+ *                not parse it. A transition's or topology event's wire line may be given in its
+ *                {@link dev.tend.shared.wire.CompactLine} form (without the {@code at} and
+ *                {@code cluster} that {@code eventAt} and {@code cluster} hold): it is kept so,
+ *                and read back whole
  */
 public record InputRow(long seq, String kind, Instant now, Instant eventAt, String cluster, String payload) {
     /** Kind of a health transition input. */

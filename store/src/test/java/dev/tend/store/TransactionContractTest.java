@@ -99,6 +99,27 @@ abstract class TransactionContractTest extends StoreTestBase {
     }
 
     @Test
+    void aCompactWireLineIsKeptCompactAndReadBackWholeAndAnyOtherPayloadAsItWasGiven() {
+        String line = "{\"at\":\"2027-03-14T02:17:00.25Z\",\"cluster\":\"fares-3\",\"node\":\"n2\",\"signal\":\"heartbeat\",\"state\":\"silent\"}";
+        String topology = "{\"at\":\"2027-03-14T02:18:00Z\",\"cluster\":\"dispatch-1\",\"node\":\"n4\",\"topology\":\"left\"}";
+        Instant at = Instant.parse("2027-03-14T02:17:00.25Z");
+        List<InputRow> rows = List.of(
+                InputRow.of(InputRow.TRANSITION, T0, at, "fares-3", dev.tend.shared.wire.CompactLine.of(line)),
+                InputRow.of(InputRow.TOPOLOGY, T0, Instant.parse("2027-03-14T02:18:00Z"), "dispatch-1",
+                        dev.tend.shared.wire.CompactLine.of(topology)),
+                InputRow.of(InputRow.TRANSITION, T0, at, "fares-3", line), // a row of a store written before compact lines
+                InputRow.of("timer", T0, null, null, "{\"key\":\"recheck:p/fares-3/n2\"}"));
+        assertThat(rows.get(0).payload()).startsWith(",").hasSizeLessThan(line.length() - 40);
+        store.useTransaction(tx -> tx.appendInputs(rows));
+        List<String> payloads = new ArrayList<>();
+        store.read(r -> {
+            r.forEachInput(0, row -> payloads.add(row.payload()));
+            return null;
+        });
+        assertThat(payloads).containsExactly(line, topology, line, "{\"key\":\"recheck:p/fares-3/n2\"}");
+    }
+
+    @Test
     void largeTransactionsAreSentInSeveralBatchesAndStayInOrder() {
         int n = 5_000;
         List<InputRow> rows = new ArrayList<>();

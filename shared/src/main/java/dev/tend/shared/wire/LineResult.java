@@ -16,9 +16,10 @@ public sealed interface LineResult {
     /**
      * A health transition or a topology event.
      *
-     * @param wire the event's line as {@link WireWriter#line(WireEvent)} writes it, when the
-     *             reader had it at hand (a line read by its fast path is its own wire line), else
-     *             null; derived from {@code event}, so it takes no part in equality
+     * @param wire the event's line as {@link WireWriter#line(WireEvent)} writes it, or that
+     *             line's {@link CompactLine} (as the journal keeps it), when the reader had it at
+     *             hand (a line read by its fast path gives its compact line), else null; derived
+     *             from {@code event}, so it takes no part in equality
      */
     record Event(WireEvent event, long line, String wire) implements LineResult {
         public Event {
@@ -29,9 +30,9 @@ public sealed interface LineResult {
             this(event, line, null);
         }
 
-        /** The event's line as {@link WireWriter#line(WireEvent)} writes it: {@link #wire()}, or written now. */
+        /** The event's line as {@link WireWriter#line(WireEvent)} writes it: {@link #wire()} made whole, or written now. */
         public String wireLine() {
-            return wire != null ? wire : WireWriter.line(event);
+            return wire != null ? CompactLine.whole(wire, event.at(), event.cluster().value()) : WireWriter.line(event);
         }
 
         @Override

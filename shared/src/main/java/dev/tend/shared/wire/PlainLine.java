@@ -17,8 +17,9 @@ import java.util.Set;
  * (these fields in this order, {@code node} optional, no whitespace, no escape, ASCII only, the time
  * in UTC with an upper-case {@code T} and {@code Z}, 0 to 9 fraction digits, a second of 00 to 59).
  * Ids are looked up by their bytes ({@link IdsByBytes}); the time is read from the bytes; the line
- * the journal keeps is the line itself, with the fraction's trailing zeros dropped as
- * {@link Rfc3339#format} drops them.
+ * the journal keeps is the line's {@link CompactLine}: the line itself from the comma after the
+ * cluster (its time, whose fraction's trailing zeros {@link Rfc3339#format} would drop, is written
+ * again from the event's instant when the whole line is asked for).
  *
  * <p>Any other line, and a transition whose signal tend.yaml does not declare, makes it return
  * null; the line then goes the general way ({@link JsonLine}, {@link LineDecoder}), which alone
@@ -38,7 +39,6 @@ final class PlainLine {
     private static final int[] POW10 = {1, 10, 100, 1_000, 10_000, 100_000, 1_000_000, 10_000_000, 100_000_000};
 
     private final IdsByBytes ids;
-    private byte[] scratch = new byte[256];
     /** The line's position while it is read. */
     private int p;
 
@@ -74,19 +74,14 @@ final class PlainLine {
         }
         int q = t + 19;
         int nano = 0;
-        int kept = q; // where the written time's text ends before its Z: trailing zeros of the fraction are dropped
         if (b[q] == '.') {
             int start = ++q;
-            while (q < len && b[q] >= '0' && b[q] <= '9') {
-                if (b[q] != '0') kept = q + 1;
-                q++;
-            }
+            while (q < len && b[q] >= '0' && b[q] <= '9') q++;
             int n = q - start;
             if (n == 0 || n > 9) return null;
             nano = digits(b, start, n) * POW10[9 - n];
         }
         if (q >= len || b[q] != 'Z') return null;
-        int zone = q;
         p = q + 1;
         Instant at = Instant.ofEpochSecond(Rfc3339.epochDay(year, month, day) * 86_400L + hour * 3_600L + minute * 60L + second,
                 nano);
@@ -94,6 +89,7 @@ final class PlainLine {
         p += CLUSTER.length;
         Id cluster = id(b, len);
         if (cluster == null) return null;
+        int compact = p + 1; // the comma after the cluster's closing quote
         Id node = null;
         if (follows(b, len, p, NODE)) {
             p += NODE.length;
@@ -118,18 +114,8 @@ final class PlainLine {
             return null;
         }
         HealthTransition transition = new HealthTransition(at, cluster, node, signal, state, Map.of(), Map.of());
-        return new LineResult.Event(transition, lineNumber, wire(b, len, kept, zone));
-    }
-
-    /** The line as {@link WireWriter#line} writes its transition: itself, but for the fraction's trailing zeros. */
-    private String wire(byte[] b, int len, int kept, int zone) {
-        if (kept == zone) return new String(b, 0, len, StandardCharsets.ISO_8859_1);
-        int tail = len - zone;
-        int n = kept + tail;
-        if (scratch.length < n) scratch = new byte[Math.max(n, scratch.length * 2)];
-        System.arraycopy(b, 0, scratch, 0, kept);
-        System.arraycopy(b, zone, scratch, kept, tail);
-        return new String(scratch, 0, n, StandardCharsets.ISO_8859_1);
+        // the compact line: what follows the cluster is written as WireWriter#line writes it
+        return new LineResult.Event(transition, lineNumber, new String(b, compact, len - compact, StandardCharsets.ISO_8859_1));
     }
 
     /** The id from {@code p} to its closing quote, {@code p} then at that quote; null when there is none. */

@@ -1,5 +1,7 @@
 package dev.tend.store.internal;
 
+import dev.tend.shared.wire.CompactLine;
+
 import dev.tend.shared.ApprovalState;
 import dev.tend.shared.RunState;
 import dev.tend.shared.StepState;
@@ -34,8 +36,10 @@ public final class Rows {
     }
 
     public static InputRow input(ResultSet rs) throws SQLException {
-        return new InputRow(rs.getLong(1), rs.getString(2), Times.fromNanos(rs.getLong(3)), instant(rs, 4),
-                rs.getString(5), rs.getString(6));
+        Instant eventAt = instant(rs, 4);
+        String cluster = rs.getString(5);
+        return new InputRow(rs.getLong(1), rs.getString(2), Times.fromNanos(rs.getLong(3)), eventAt, cluster,
+                CompactLine.whole(rs.getString(6), eventAt, cluster));
     }
 
     public static RunRow run(ResultSet rs) throws SQLException {
