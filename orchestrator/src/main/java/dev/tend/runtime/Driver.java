@@ -139,7 +139,8 @@ final class Driver {
             settle(0, List.of()); // stopped with batches in flight: they are committed and acted on first
             writer.closeReceiptsIfDue(null); // and the receipts still open are appended to the ledger
             failed = false;
-            // a clean stop: the next start loads this state and replays nothing
+            // a clean stop: the next start loads this state and replays nothing; the store's log is copied meanwhile
+            store.copyLogSoon();
             if (snapshotPolicy.isEnabled() && sinceSnapshot > 0) writeSnapshot();
             snapshots.collect(true);
         } finally {

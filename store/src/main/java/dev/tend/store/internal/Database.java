@@ -254,6 +254,11 @@ public final class Database implements AutoCloseable {
         if (checkpointer != null) checkpointer.committed();
     }
 
+    /** On SQLite, copy the write-ahead log now rather than within {@link WalCheckpointer#INTERVAL_MILLIS}. */
+    public void copyLogSoon() {
+        if (checkpointer != null) checkpointer.now();
+    }
+
     @Override
     public void close() {
         if (checkpointer != null) checkpointer.close();

@@ -30,14 +30,22 @@ final class WalCheckpointer implements AutoCloseable {
 
     private final SQLiteDataSource source;
     private final Path wal;
+    private final long intervalMillis;
     private final Object lock = new Object();
     private final Thread thread;
     // guarded by lock
     private boolean pending;
+    private boolean soon;
     private boolean closed;
 
     WalCheckpointer(SQLiteDataSource source, Path database) {
+        this(source, database, INTERVAL_MILLIS);
+    }
+
+    /** As above, at most one checkpoint per {@code intervalMillis} unless asked {@link #now()} (for tests). */
+    WalCheckpointer(SQLiteDataSource source, Path database, long intervalMillis) {
         this.source = source;
+        this.intervalMillis = intervalMillis;
         this.wal = database.resolveSibling(database.getFileName() + "-wal");
         this.thread = new Thread(this::run, "tend-wal-checkpoint");
         thread.setDaemon(true);
@@ -61,7 +69,12 @@ final class WalCheckpointer implements AutoCloseable {
                 if (c == null || c.isClosed()) c = source.getConnection();
                 checkpoint(c);
                 synchronized (lock) {
-                    if (!closed) lock.wait(INTERVAL_MILLIS); // woken early only by close
+                    // woken early only by close and now()
+                    long end = System.nanoTime() + intervalMillis * 1_000_000L;
+                    for (long left = intervalMillis; !closed && !soon && left > 0; left = (end - System.nanoTime()) / 1_000_000L) {
+                        lock.wait(left);
+                    }
+                    soon = false;
                 }
             }
         } catch (InterruptedException e) {
@@ -94,6 +107,15 @@ final class WalCheckpointer implements AutoCloseable {
                 s.execute("PRAGMA busy_timeout = " + RESTART_WAIT_MILLIS);
                 s.execute("PRAGMA wal_checkpoint(RESTART)");
             }
+        }
+    }
+
+    /** Checkpoint at once, not after the interval: the log has grown and a stop is near. */
+    void now() {
+        synchronized (lock) {
+            pending = true;
+            soon = true;
+            lock.notifyAll();
         }
     }
 

@@ -35,6 +35,42 @@ class WalCheckpointerTest {
         }
     }
 
+    @Test
+    void askedToCopyNowItDoesNotWaitForTheIntervalAfterItsLastCheckpoint() throws Exception {
+        Path file = dir.resolve("soon.db");
+        String url = "jdbc:sqlite:" + file;
+        try (Connection writer = DriverManager.getConnection(url); Statement w = writer.createStatement()) {
+            w.execute("PRAGMA journal_mode = WAL");
+            w.execute("PRAGMA wal_autocheckpoint = 0");
+            w.execute("CREATE TABLE ledger_head (id INTEGER PRIMARY KEY, seq INTEGER)");
+            w.execute("INSERT INTO ledger_head VALUES (1, 1)");
+            org.sqlite.SQLiteDataSource source = new org.sqlite.SQLiteDataSource();
+            source.setUrl(url);
+            // an interval of an hour: only now() can bring the second checkpoint within this test
+            try (WalCheckpointer checkpointer = new WalCheckpointer(source, file, 3_600_000L)) {
+                checkpointer.committed(); // the first commit is copied at once
+                awaitHeadSeqInTheFileAlone(file, 1);
+                w.execute("UPDATE ledger_head SET seq = 2 WHERE id = 1");
+                checkpointer.committed();
+                Thread.sleep(300);
+                assertEquals(1, headSeqInTheFileAlone(file), "within the hour after a checkpoint, the next waits");
+                checkpointer.now();
+                awaitHeadSeqInTheFileAlone(file, 2);
+            }
+        }
+    }
+
+    /** Waits up to 30 s (a bound on a wait, not a timing figure) for the database file alone to show {@code seq}. */
+    private void awaitHeadSeqInTheFileAlone(Path file, long seq) throws Exception {
+        long deadline = System.nanoTime() + 30_000_000_000L;
+        long now;
+        do {
+            Thread.sleep(20);
+            now = headSeqInTheFileAlone(file);
+        } while (now != seq && System.nanoTime() < deadline);
+        assertEquals(seq, now, "copied from the log into the database file");
+    }
+
     private long headSeqInTheFileAlone(Path file) throws Exception {
         Path copy = dir.resolve("copy-" + System.nanoTime() + ".db");
         java.nio.file.Files.copy(file, copy);
