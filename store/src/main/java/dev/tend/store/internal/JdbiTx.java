@@ -26,7 +26,6 @@ import java.util.Objects;
  */
 public final class JdbiTx extends JdbiReader implements StoreTx {
     static final int BATCH = 2048;
-    private static final RowInserts<PendingInputs> INPUTS = new RowInserts<>("input_journal", Rows.INPUT_COLUMNS, 6, PendingInputs::bind);
     private static final RowInserts<List<LedgerEntry>> LEDGER = new RowInserts<>("ledger", Rows.LEDGER_COLUMNS, 9,
             (ps, first, entries, i) -> bindLedger(ps, first, entries.get(i)));
     private static final String UPDATE_HEAD = "UPDATE ledger_head SET seq = ?, hash = ? WHERE id = 1";
@@ -67,7 +66,7 @@ public final class JdbiTx extends JdbiReader implements StoreTx {
             // the hot path of ingest: plain JDBC on the transaction's connection, no per-argument mapping
             try {
                 EventHours.record(statements, handle.getConnection(), pendingInputs);
-                INPUTS.insert(statements, handle.getConnection(), pendingInputs, pendingInputs.size(), multiRow);
+                pendingInputs.insert(statements, handle.getConnection(), multiRow);
             } catch (java.sql.SQLException e) {
                 throw new org.jdbi.v3.core.ConnectionException(e);
             }

@@ -35,9 +35,17 @@ final class RowInserts<T> {
 
     /** Inserts into {@code table}'s {@code columnList} ({@code columns} of them, comma-separated). */
     RowInserts(String table, String columnList, int columns, Binder<T> binder) {
-        this.columns = columns;
+        this(table, columnList, "(" + "?, ".repeat(columns - 1) + "?)", columns, binder);
+    }
+
+    /**
+     * Inserts into {@code table}'s {@code columnList} the rows {@code values} writes (a
+     * parenthesised list of the columns' values, which may hold constants), with
+     * {@code parameters} parameters a row.
+     */
+    RowInserts(String table, String columnList, String values, int parameters, Binder<T> binder) {
+        this.columns = parameters;
         this.binder = binder;
-        String values = "(" + "?, ".repeat(columns - 1) + "?)";
         String head = "INSERT INTO " + table + " (" + columnList + ") VALUES ";
         this.oneRow = head + values;
         this.manyRows = head + String.join(", ", java.util.Collections.nCopies(ROWS_PER_STATEMENT, values));
@@ -45,8 +53,13 @@ final class RowInserts<T> {
 
     /** Inserts the {@code n} rows of {@code rows}, in their order, on {@code connection}; {@code multiRow} on SQLite. */
     void insert(StatementCache statements, Connection connection, T rows, int n, boolean multiRow) throws SQLException {
-        int i = 0;
-        if (multiRow && n >= ROWS_PER_STATEMENT) {
+        insert(statements, connection, rows, 0, n, multiRow);
+    }
+
+    /** Inserts rows {@code from} (inclusive) to {@code n} (exclusive) of {@code rows}, in their order. */
+    void insert(StatementCache statements, Connection connection, T rows, int from, int n, boolean multiRow) throws SQLException {
+        int i = from;
+        if (multiRow && n - i >= ROWS_PER_STATEMENT) {
             PreparedStatement many = statements.prepare(connection, manyRows);
             for (; i + ROWS_PER_STATEMENT <= n; i += ROWS_PER_STATEMENT) {
                 for (int r = 0; r < ROWS_PER_STATEMENT; r++) binder.bind(many, r * columns, rows, i + r);
