@@ -98,6 +98,8 @@ public final class WireReader {
     private volatile long headerLine;
     private volatile long firstEventLine;
     private volatile RecordingHeader header;
+    /** The live clock's limit on event times; null without a live clock. */
+    private final AheadLimit ahead;
 
     private WireReader(String source, boolean bounded, Supplier<Instant> clock, Duration maxSkew, Set<String> signals,
                        boolean plainFirst, CanonicalEvents ids) {
@@ -108,6 +110,7 @@ public final class WireReader {
         this.signals = signals;
         this.plainFirst = plainFirst;
         this.ids = ids;
+        this.ahead = clock == null ? null : new AheadLimit(clock, maxSkew);
     }
 
     /** A reader for one input; {@code source} (a file name, or "-" for standard input) names it in problems. */
@@ -298,7 +301,7 @@ public final class WireReader {
             if (at.isBefore(EARLIEST) || !at.isBefore(BEYOND)) return null;
             RecordingHeader h = header;
             if (h != null && (h.from() != null && at.isBefore(h.from()) || h.until() != null && at.isAfter(h.until()))) return null;
-            if (clock != null && at.isAfter(clock.get().plus(maxSkew))) return null;
+            if (ahead != null && !ahead.allows(at)) return null;
         }
         if (firstEventLine == 0) firstEventLine = read.line();
         return read;
@@ -349,14 +352,12 @@ public final class WireReader {
                     + (h.from() == null ? "open" : Rfc3339.format(h.from())) + " to "
                     + (h.until() == null ? "open" : Rfc3339.format(h.until())) + ", line " + headerLine + ")");
         }
-        if (clock != null) {
-            Instant now = clock.get();
-            if (at.isAfter(now.plus(maxSkew))) {
-                throw refuse(fields, "at", TimeRefusal.AHEAD_OF_CLOCK, Rfc3339.format(at) + " is "
-                        + Durations.format(Duration.between(now, at).withNanos(0)) + " ahead of this clock ("
-                        + Rfc3339.format(now.with(java.time.temporal.ChronoField.NANO_OF_SECOND, 0)) + "); a live input refuses times more than "
-                        + Durations.format(maxSkew) + " ahead (tend.yaml max-skew): is the year or the source's clock wrong?");
-            }
+        if (ahead != null && !ahead.allows(at)) {
+            Instant now = ahead.lastReading();
+            throw refuse(fields, "at", TimeRefusal.AHEAD_OF_CLOCK, Rfc3339.format(at) + " is "
+                    + Durations.format(Duration.between(now, at).withNanos(0)) + " ahead of this clock ("
+                    + Rfc3339.format(now.with(java.time.temporal.ChronoField.NANO_OF_SECOND, 0)) + "); a live input refuses times more than "
+                    + Durations.format(maxSkew) + " ahead (tend.yaml max-skew): is the year or the source's clock wrong?");
         }
         return e;
     }

@@ -81,6 +81,21 @@ class WireTimeBoundsTest {
     }
 
     @Test
+    void aLiveInputJudgesATimeBeyondItsLastReadingOfTheClockByTheClockNowAndReadsItOnlyNowAndThen() {
+        java.util.concurrent.atomic.AtomicInteger reads = new java.util.concurrent.atomic.AtomicInteger();
+        // a clock that moves a minute on at every reading
+        WireReader reader = WireReader.of("-").withLiveClock(() -> WALL.plusSeconds(60L * reads.getAndIncrement()), Duration.ofMinutes(5));
+        List<String> lines = new java.util.ArrayList<>();
+        for (int i = 0; i < 1000; i++) lines.add(line("2026-12-02T12:00:00Z"));
+        lines.add(line("2026-12-02T13:05:30Z")); // beyond 13:05, the first reading's limit: read again, the limit is later
+        List<LineResult> r = new ArrayList<>();
+        reader.readAll(new java.io.ByteArrayInputStream(String.join("\n", lines).getBytes(java.nio.charset.StandardCharsets.UTF_8)), r::add);
+        assertThat(r).hasSize(1001).allMatch(x -> x instanceof LineResult.Event);
+        assertThat(reads.get()).as("read every 64 lines and for the last one").isBetween(2, 1000 / 64 + 2);
+        assertThat(reader.timeRefusals().get(TimeRefusal.AHEAD_OF_CLOCK)).isZero();
+    }
+
+    @Test
     void aRecordingWithAHeaderRefusesLinesOutsideItsPeriodWhateverTheWallClock() {
         WireReader reader = WireReader.of("night.jsonl");
         List<LineResult> r = read(reader,
