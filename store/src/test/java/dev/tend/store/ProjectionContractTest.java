@@ -279,10 +279,11 @@ abstract class ProjectionContractTest extends StoreTestBase {
         // version 1 (journal, projections, ledger), 2.16 (the page outbox), 2.17 (snapshots), 2.18 (the leader
         // lease), 2.19 (stream offsets), 2.20 (the ledger's query indexes), 2.21 (the ledger's kind and time
         // index), 2.22 (the ledger's cluster, run and playbook indexes without the entries naming none), 2.23
-        // (the journal's hours of event time instead of its event-time index) and 2.24 (the open receipts), each applied once
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("10");
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", "1",
-                "2.16", "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", "2.23", "2.24")).isEqualTo("10");
+        // (the journal's hours of event time instead of its event-time index), 2.24 (the open receipts) and 2.25 (the
+        // journal's compact lines), each applied once
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE success = ?", true)).isEqualTo("11");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", "1",
+                "2.16", "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", "2.23", "2.24", "2.25")).isEqualTo("11");
         assertThat(lastInputSeq()).isEqualTo(1);
         LedgerEntry second = store.inTransaction(tx -> tx.appendLedger(T0, "verdict", Map.of()));
         assertThat(second.seq()).isEqualTo(2);

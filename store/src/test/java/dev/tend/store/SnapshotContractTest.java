@@ -52,12 +52,12 @@ abstract class SnapshotContractTest extends StoreTestBase {
         db.execute("DROP TABLE journal_event_hours");
         db.execute("DROP TABLE open_receipts");
         db.execute("CREATE INDEX input_journal_recording ON input_journal (event_at_ns) WHERE kind IN ('transition', 'topology')");
-        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?)", "2.17", "2.18", "2.19",
-                "2.20", "2.21", "2.22", "2.23", "2.24")).isEqualTo(8);
+        assertThat(db.execute("DELETE FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?, ?)", "2.17", "2.18", "2.19",
+                "2.20", "2.21", "2.22", "2.23", "2.24", "2.25")).isEqualTo(9);
         assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version = ?", "2.16")).isEqualTo("1");
         store = db.open();
-        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?) AND success = ?",
-                "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", "2.23", "2.24", true)).isEqualTo("8");
+        assertThat(db.queryText("SELECT COUNT(*) FROM flyway_schema_history WHERE version IN (?, ?, ?, ?, ?, ?, ?, ?, ?) AND success = ?",
+                "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", "2.23", "2.24", "2.25", true)).isEqualTo("9");
         store.useTransaction(tx -> tx.putSnapshot(snapshot(7), 1));
         assertThat(store.read(StoreReader::latestSnapshot)).map(SnapshotRow::seq).contains(7L);
     }

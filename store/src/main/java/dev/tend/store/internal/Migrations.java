@@ -46,7 +46,7 @@ public final class Migrations {
      * ({@code V2_16__...} is {@code 2.16}); {@code MigrationsTest} checks them against the scripts.
      */
     static final Set<String> BUNDLED = Set.of("1", "2.16", "2.17", "2.18", "2.19", "2.20", "2.21", "2.22", "2.23",
-            "2.24");
+            "2.24", "2.25");
 
     /**
      * Migrates, and returns how many scripts were applied. A store whose history holds exactly

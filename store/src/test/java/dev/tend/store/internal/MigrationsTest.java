@@ -53,7 +53,7 @@ class MigrationsTest {
     void aFailedOrUnknownScriptInTheHistoryLeavesTheStoreToFlyway() throws Exception {
         try (Database db = Database.sqlite(dir.resolve("failed.db"))) {
             // success is 0 for a script Flyway could not finish (its history table's column)
-            execute("failed.db", "UPDATE " + Migrations.HISTORY_TABLE + " SET success = 0 WHERE version = '2.24'");
+            execute("failed.db", "UPDATE " + Migrations.HISTORY_TABLE + " SET success = 0 WHERE version = '2.25'");
             assertFalse(Migrations.isCurrent(source("failed.db")));
         }
         try (Database db = Database.sqlite(dir.resolve("newer.db"))) {
@@ -62,7 +62,7 @@ class MigrationsTest {
             assertFalse(Migrations.isCurrent(source("newer.db")), "a version this tend does not know is Flyway's to refuse");
         }
         try (Database db = Database.sqlite(dir.resolve("older.db"))) {
-            execute("older.db", "DELETE FROM " + Migrations.HISTORY_TABLE + " WHERE version = '2.24'");
+            execute("older.db", "DELETE FROM " + Migrations.HISTORY_TABLE + " WHERE version = '2.25'");
             assertFalse(Migrations.isCurrent(source("older.db")), "a store missing a script is brought forward by Flyway");
         }
     }
