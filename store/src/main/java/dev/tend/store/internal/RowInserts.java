@@ -22,13 +22,14 @@ final class RowInserts<T> {
     /** Rows per multi-row statement: 20 x 9 parameters stays far below SQLite's limit of 32,766. */
     static final int ROWS_PER_STATEMENT = 20;
 
-    /** Binds the values of row {@code index} of {@code rows} to the parameters {@code first + 1} to {@code first + columns}. */
+    /** Binds the values of row {@code index} of {@code rows} to the parameters {@code first + 1} on (as many as a row has). */
     @FunctionalInterface
     interface Binder<T> {
         void bind(PreparedStatement ps, int first, T rows, int index) throws SQLException;
     }
 
-    private final int columns;
+    /** Parameters a row binds. */
+    private final int parameters;
     private final String oneRow;
     private final String manyRows;
     private final Binder<T> binder;
@@ -44,7 +45,7 @@ final class RowInserts<T> {
      * {@code parameters} parameters a row.
      */
     RowInserts(String table, String columnList, String values, int parameters, Binder<T> binder) {
-        this.columns = parameters;
+        this.parameters = parameters;
         this.binder = binder;
         String head = "INSERT INTO " + table + " (" + columnList + ") VALUES ";
         this.oneRow = head + values;
@@ -62,7 +63,7 @@ final class RowInserts<T> {
         if (multiRow && n - i >= ROWS_PER_STATEMENT) {
             PreparedStatement many = statements.prepare(connection, manyRows);
             for (; i + ROWS_PER_STATEMENT <= n; i += ROWS_PER_STATEMENT) {
-                for (int r = 0; r < ROWS_PER_STATEMENT; r++) binder.bind(many, r * columns, rows, i + r);
+                for (int r = 0; r < ROWS_PER_STATEMENT; r++) binder.bind(many, r * parameters, rows, i + r);
                 many.addBatch();
             }
             many.executeBatch();
