@@ -212,8 +212,9 @@ public final class Courier implements AutoCloseable {
      * looks again once it has written), so that pages sent together are recorded together
      * (on a busy store, one transaction per page took the writer from the journal's commits
      * once per page; with the sends of a claim recorded by whoever writes first, the 2,309
-     * pages of a 1,000,000-line ingest took 300 to 400 transactions, DEVELOPERS.md, "Ingest"). Attempts a failed transaction did not record are released unrecorded:
-     * their pages are due again, and go out again with the same id, as after a crash.
+     * pages of a 1,000,000-line ingest took 300 to 400 transactions, DEVELOPERS.md, "Ingest").
+     * Attempts a failed transaction did not record are released unrecorded: their pages are
+     * due again, and go out again with the same id, as after a crash.
      */
     private void recordAttempts() {
         while (!attempts.isEmpty() && recording.tryLock()) {
